@@ -1,0 +1,64 @@
+// Package correlate holds the published two-phase flow, boiling,
+// condensation and flooding correlations that the circulation estimator
+// evaluates cell by cell.
+//
+// Every function takes plain float64 SI inputs and a [Props] value with the
+// saturated phase properties, so the package does not depend on any property
+// source. Functions never panic. For physical inputs they return finite
+// numbers; inputs outside the physical range (negative densities,
+// diameters, NaN) give 0 rather than NaN or Inf, so callers validate their
+// inputs first ([Props.Validate]) and must not read a 0 as a verdict.
+// Quality below 0 is treated as saturated liquid and above 1 as saturated
+// vapour.
+//
+// Methods and their references:
+//
+// Single-phase Darcy friction factor:
+//   - [Churchill] (default): S.W. Churchill, "Friction-factor equation spans
+//     all fluid-flow regimes", Chem. Eng. 84(24) (1977) 91–92.
+//   - [Colebrook]: C.F. Colebrook, J. Inst. Civil Eng. 11 (1939) 133–156;
+//     laminar 64/Re below Re = 2300.
+//   - [BlasiusLaminar]: 0.184 Re^−0.2 turbulent, 64/Re below Re = 2000, the
+//     pair used with the Lockhart–Martinelli method.
+//
+// Void fraction ([VoidMethod]):
+//   - homogeneous (no slip).
+//   - Zivi: S.M. Zivi, J. Heat Transfer 86 (1964) 247–252.
+//   - Chisholm slip: D. Chisholm, Int. J. Heat Mass Transfer 16 (1973) 347–358.
+//   - Rouhani–Axelsson drift flux (default): S.Z. Rouhani, E. Axelsson,
+//     Int. J. Heat Mass Transfer 13 (1970) 383–393, in the Zuber–Findlay form
+//     (N. Zuber, J.A. Findlay, J. Heat Transfer 87 (1965) 453–468); its
+//     horizontal variant C0 = 1 + 0.12(1−x) after D. Steiner, VDI Heat Atlas
+//     (1993).
+//
+// Two-phase frictional pressure gradient ([FrictionMethod]):
+//   - Müller-Steinhagen & Heck (default): H. Müller-Steinhagen, K. Heck,
+//     Chem. Eng. Process. 20 (1986) 297–308.
+//   - Friedel: L. Friedel, European Two-Phase Flow Group Meeting, Ispra
+//     (1979), paper E2; Froude exponent 0.0454 as printed by P.B. Whalley,
+//     Boiling, Condensation and Gas-Liquid Flow (1987).
+//   - Lockhart–Martinelli in Chisholm's form: R.W. Lockhart, R.C. Martinelli,
+//     Chem. Eng. Prog. 45 (1949) 39–48; D. Chisholm, Int. J. Heat Mass
+//     Transfer 10 (1967) 1767–1778.
+//   - Homogeneous with the mixture viscosity of W.H. McAdams et al., Trans.
+//     ASME 64 (1942) 193–200; A. Cicchitti et al., Energia Nucleare 7 (1960)
+//     407–425; or A.E. Dukler et al., AIChE J. 10 (1964) 38–43.
+//
+// Boiling and condensation:
+//   - [CHFPool]: pool-boiling critical heat flux, N. Zuber, AECU-4439 (1958)
+//     with K = π/24, or J.H. Lienhard, V.K. Dhir, NASA CR-2270 (1973) with
+//     K = 0.149 (default, [LienhardDhir]).
+//   - [Cooper]: nucleate pool boiling, M.G. Cooper, IChemE Symp. Ser. 86
+//     (1984) 785–793.
+//   - [Shah1979]: film condensation in tubes, M.M. Shah, Int. J. Heat Mass
+//     Transfer 22 (1979) 547–556.
+//
+// Counter-current flooding:
+//   - [WallisFraction]: G.B. Wallis, One-Dimensional Two-Phase Flow,
+//     McGraw-Hill (1969).
+//   - [KutateladzeFraction]: large-diameter Kutateladze-number form; its
+//     constant [KutateladzeCK] is from memory.
+//   - [FaghriQmax]: closed two-phase thermosiphon flooding limit, A. Faghri,
+//     M.M. Chen, M. Morgan, J. Heat Transfer 111 (1989) 611–618; written from
+//     memory, not checked against the paper.
+package correlate
