@@ -1,0 +1,364 @@
+package lang
+
+import (
+	"io"
+	"unicode"
+	"unicode/utf8"
+
+	"github.com/alecthomas/participle/v2/lexer"
+)
+
+// Token types. Lexing never fails: a character that starts no token becomes
+// a Bad token that the parser reports.
+const (
+	TokEOF     = lexer.EOF
+	TokIdent   = lexer.TokenType(-2 - iota)
+	TokNumber  // 12, -0.5, 1e-3 (sign included when it is a sign)
+	TokUnit    // the unit word after a number or ")"
+	TokString  // "..." with its quotes
+	TokPunct   // { } ( ) , ; = + - * / ^
+	TokNewline // end of line
+	TokBad     // anything else
+	TokSpace   // blanks between tokens (elided; marks where a token ends)
+	TokComment // '#' to the end of the line (elided)
+)
+
+var symbols = map[string]lexer.TokenType{
+	"EOF": TokEOF, "Ident": TokIdent, "Number": TokNumber, "Unit": TokUnit,
+	"String": TokString, "Punct": TokPunct, "Newline": TokNewline, "Bad": TokBad,
+	"Space": TokSpace, "Comment": TokComment,
+}
+
+// Comment is a '#' comment; its text includes the '#'.
+type Comment struct {
+	Span Span
+	Text string
+}
+
+// lexDef is the participle lexer definition for .loop text.
+type lexDef struct{}
+
+func (lexDef) Symbols() map[string]lexer.TokenType { return symbols }
+
+func (lexDef) Lex(filename string, r io.Reader) (lexer.Lexer, error) {
+	b, err := io.ReadAll(r)
+	if err != nil {
+		return nil, err
+	}
+	toks, _ := scan(b)
+	return &sliceLexer{toks: toks}, nil
+}
+
+type sliceLexer struct {
+	toks []lexer.Token
+	i    int
+}
+
+func (l *sliceLexer) Next() (lexer.Token, error) {
+	if l.i >= len(l.toks) {
+		if len(l.toks) > 0 {
+			return l.toks[len(l.toks)-1], nil
+		}
+		return lexer.EOFToken(lexer.Position{}), nil
+	}
+	t := l.toks[l.i]
+	l.i++
+	return t, nil
+}
+
+// scan splits src into tokens (always ending with EOF) and comments.
+// Positions carry byte offsets; Line and Column are filled for participle's
+// messages only, every caller converts offsets through a Mapper.
+func scan(src []byte) ([]lexer.Token, []Comment) {
+	s := scanner{src: src, str: string(src), line: 1, lineStart: 0}
+	// A rough guess keeps reallocation rare: one token per five bytes.
+	s.toks = make([]lexer.Token, 0, len(src)/5+4)
+	s.run()
+	return s.toks, s.comments
+}
+
+type scanner struct {
+	src       []byte
+	str       string // src as a string, so token values share one allocation
+	pos       int
+	line      int
+	lineStart int
+	toks      []lexer.Token
+	comments  []Comment
+}
+
+func (s *scanner) position(off int) lexer.Position {
+	return lexer.Position{Offset: off, Line: s.line, Column: off - s.lineStart + 1}
+}
+
+func (s *scanner) emit(tt lexer.TokenType, start int) {
+	s.toks = append(s.toks, lexer.Token{Type: tt, Value: s.str[start:s.pos], Pos: s.position(start)})
+}
+
+// prevEndsValue reports whether the previous token ends an operand, which
+// decides whether a following '-' is binary.
+func (s *scanner) prevEndsValue() bool {
+	i := len(s.toks) - 1
+	for i >= 0 && (s.toks[i].Type == TokSpace || s.toks[i].Type == TokComment) {
+		i--
+	}
+	if i < 0 {
+		return false
+	}
+	t := s.toks[i]
+	switch t.Type {
+	case TokIdent, TokNumber, TokUnit, TokString:
+		return true
+	case TokPunct:
+		return t.Value == ")"
+	}
+	return false
+}
+
+func (s *scanner) run() {
+	src := s.src
+	for s.pos < len(src) {
+		c := src[s.pos]
+		start := s.pos
+		switch {
+		case c == ' ' || c == '\t' || c == '\r' || c == '\f' || c == '\v':
+			for s.pos < len(src) && (src[s.pos] == ' ' || src[s.pos] == '\t' || src[s.pos] == '\r' || src[s.pos] == '\f' || src[s.pos] == '\v') {
+				s.pos++
+			}
+			s.emit(TokSpace, start)
+		case c == '\n':
+			s.pos++
+			s.emit(TokNewline, start)
+			s.line++
+			s.lineStart = s.pos
+		case c == '#':
+			for s.pos < len(src) && src[s.pos] != '\n' {
+				s.pos++
+			}
+			s.comments = append(s.comments, Comment{Span: Span{start, s.pos}, Text: s.str[start:s.pos]})
+			s.emit(TokComment, start)
+		case c == '"':
+			s.scanString()
+		case isDigit(c) || (c == '.' && s.pos+1 < len(src) && isDigit(src[s.pos+1])):
+			s.scanNumber(start)
+		case (c == '-' || c == '+') && s.signStartsNumber():
+			s.pos++
+			s.scanNumber(start)
+		case isIdentStart(c):
+			s.scanIdent()
+		case c >= 0x80:
+			r, n := utf8.DecodeRune(src[s.pos:])
+			if unicode.IsLetter(r) {
+				s.scanIdent()
+				break
+			}
+			s.pos += n
+			s.emit(TokBad, start)
+		default:
+			if isPunct(c) {
+				s.pos++
+				s.emit(TokPunct, start)
+				if c == ')' {
+					s.maybeUnit()
+				}
+				break
+			}
+			s.pos++
+			s.emit(TokBad, start)
+		}
+	}
+	s.toks = append(s.toks, lexer.EOFToken(s.position(s.pos)))
+}
+
+// signStartsNumber decides whether the '-' or '+' at s.pos is a number's
+// sign: a digit follows, and either no operand precedes it or a space
+// precedes it and no space follows (as in "heat plate -2 kW").
+func (s *scanner) signStartsNumber() bool {
+	p := s.pos + 1
+	if p >= len(s.src) {
+		return false
+	}
+	if !isDigit(s.src[p]) && !(s.src[p] == '.' && p+1 < len(s.src) && isDigit(s.src[p+1])) {
+		return false
+	}
+	if !s.prevEndsValue() {
+		return true
+	}
+	if s.pos > 0 && (s.src[s.pos-1] == ' ' || s.src[s.pos-1] == '\t') {
+		// "a -2": the previous token ended before a space.
+		return true
+	}
+	return false
+}
+
+func (s *scanner) scanNumber(start int) {
+	src := s.src
+	for s.pos < len(src) && isDigit(src[s.pos]) {
+		s.pos++
+	}
+	if s.pos < len(src) && src[s.pos] == '.' {
+		s.pos++
+		for s.pos < len(src) && isDigit(src[s.pos]) {
+			s.pos++
+		}
+	}
+	// Exponent: only when digits follow, so "2 e" or "3em" stay separate.
+	if s.pos < len(src) && (src[s.pos] == 'e' || src[s.pos] == 'E') {
+		p := s.pos + 1
+		if p < len(src) && (src[p] == '+' || src[p] == '-') {
+			p++
+		}
+		if p < len(src) && isDigit(src[p]) {
+			for p < len(src) && isDigit(src[p]) {
+				p++
+			}
+			s.pos = p
+		}
+	}
+	s.emit(TokNumber, start)
+	s.maybeUnit()
+}
+
+// maybeUnit reads the unit word that may follow a number or a closing
+// parenthesis on the same line: optional blanks, then a character that can
+// start a unit, then everything up to a blank outside parentheses or a
+// delimiter.
+func (s *scanner) maybeUnit() {
+	src := s.src
+	p := s.pos
+	for p < len(src) && (src[p] == ' ' || src[p] == '\t') {
+		p++
+	}
+	if p >= len(src) || !s.unitStart(p) {
+		return
+	}
+	// Keywords that follow a quantity or vector are not units.
+	if w := wordAt(src, p); w == "from" || w == "to" || w == "at" || w == "nominal" {
+		return
+	}
+	start := p
+	depth := 0
+	for p < len(src) {
+		c := src[p]
+		if c == '\n' || c == '#' || c == ',' || c == ';' || c == '{' || c == '}' || c == '=' || c == '"' {
+			break
+		}
+		if c == ' ' || c == '\t' || c == '\r' {
+			if depth == 0 {
+				break
+			}
+			p++
+			continue
+		}
+		if c == '(' {
+			depth++
+		} else if c == ')' {
+			if depth == 0 {
+				break
+			}
+			depth--
+		}
+		if c >= 0x80 {
+			_, n := utf8.DecodeRune(src[p:])
+			p += n
+			continue
+		}
+		p++
+	}
+	// Unbalanced: stop at the last balanced point by trimming trailing blanks.
+	for p > start && (src[p-1] == ' ' || src[p-1] == '\t') {
+		p--
+	}
+	if p == start {
+		return
+	}
+	s.pos = p
+	s.emit(TokUnit, start)
+}
+
+func wordAt(src []byte, p int) string {
+	q := p
+	for q < len(src) && (isIdentStart(src[q]) || isDigit(src[q])) {
+		q++
+	}
+	if q < len(src) && (src[q] == '(' || src[q] == '/' || src[q] == '*' || src[q] == '^') {
+		return ""
+	}
+	return string(src[p:q])
+}
+
+func (s *scanner) unitStart(p int) bool {
+	c := s.src[p]
+	if isIdentStart(c) || c == '%' {
+		return true
+	}
+	if c >= 0x80 {
+		r, _ := utf8.DecodeRune(s.src[p:])
+		switch r {
+		case '°', 'µ', 'μ', '℃', '℉', 'Å', 'Ω':
+			return true
+		}
+		return unicode.IsLetter(r)
+	}
+	return false
+}
+
+func (s *scanner) scanIdent() {
+	src := s.src
+	start := s.pos
+	for s.pos < len(src) {
+		c := src[s.pos]
+		if isIdentStart(c) || isDigit(c) {
+			s.pos++
+			continue
+		}
+		if c >= 0x80 {
+			r, n := utf8.DecodeRune(src[s.pos:])
+			if unicode.IsLetter(r) || unicode.IsDigit(r) {
+				s.pos += n
+				continue
+			}
+		}
+		break
+	}
+	// Stereo-isomer suffix written without a space: R1234ze(E), R1233zd(Z).
+	if s.pos+2 < len(src) && src[s.pos] == '(' && src[s.pos+2] == ')' &&
+		src[s.pos+1] >= 'A' && src[s.pos+1] <= 'Z' {
+		s.pos += 3
+	}
+	s.emit(TokIdent, start)
+}
+
+func (s *scanner) scanString() {
+	src := s.src
+	start := s.pos
+	s.pos++
+	for s.pos < len(src) {
+		c := src[s.pos]
+		if c == '\\' && s.pos+1 < len(src) && src[s.pos+1] != '\n' {
+			s.pos += 2
+			continue
+		}
+		if c == '"' {
+			s.pos++
+			s.emit(TokString, start)
+			return
+		}
+		if c == '\n' {
+			break
+		}
+		s.pos++
+	}
+	// Unterminated: a Bad token up to the end of the line, reported by the parser.
+	s.emit(TokBad, start)
+}
+
+func isDigit(c byte) bool      { return c >= '0' && c <= '9' }
+func isIdentStart(c byte) bool { return c == '_' || (c|0x20 >= 'a' && c|0x20 <= 'z') }
+func isPunct(c byte) bool {
+	switch c {
+	case '{', '}', '(', ')', ',', ';', '=', '+', '-', '*', '/', '^':
+		return true
+	}
+	return false
+}

@@ -1,0 +1,272 @@
+package lang
+
+import (
+	"errors"
+	"fmt"
+	"strings"
+
+	"github.com/alecthomas/participle/v2"
+	"github.com/alecthomas/participle/v2/lexer"
+)
+
+var stmtParser = participle.MustBuild[Stmt](
+	participle.Lexer(lexDef{}),
+	participle.Elide("Space", "Comment"),
+	participle.UseLookahead(2),
+)
+
+// Parse parses one .loop text. It never fails: syntax errors are collected
+// in File.Errors (at most one per line) and every statement that parsed is
+// kept, so a half-typed line leaves the rest of the file usable.
+func Parse(path string, src []byte) *File {
+	f := &File{Path: path, Src: src, Mapper: NewMapper(src)}
+	toks, comments := scan(src)
+	f.Comments = comments
+	p := &parser{f: f, toks: toks}
+	p.run()
+	return f
+}
+
+type parser struct {
+	f    *File
+	toks []lexer.Token
+	lex  *lexer.PeekingLexer
+	// open blocks, innermost last
+	stack []*Stmt
+	// line of the last error, to keep one error per line
+	errLine int
+}
+
+func (p *parser) errorf(span Span, format string, args ...any) {
+	line := p.f.Mapper.OffsetLine(span.Start)
+	if len(p.f.Errors) > 0 && p.errLine == line {
+		return
+	}
+	p.errLine = line
+	p.f.Errors = append(p.f.Errors, Diagnostic{
+		Rule: "syntax", Severity: Error,
+		Loc:    Location{File: p.f.Path, Span: span},
+		Format: format, Args: args,
+	})
+}
+
+func (p *parser) add(s *Stmt) {
+	if n := len(p.stack); n > 0 {
+		b := p.stack[n-1].Block
+		b.Stmts = append(b.Stmts, s)
+		return
+	}
+	p.f.Stmts = append(p.f.Stmts, s)
+}
+
+func tokSpan(t *lexer.Token) Span { return Span{t.Pos.Offset, t.Pos.Offset + len(t.Value)} }
+
+func isPunctTok(t *lexer.Token, v string) bool { return t.Type == TokPunct && t.Value == v }
+
+func (p *parser) run() {
+	lex, err := lexer.Upgrade(&sliceLexer{toks: p.toks}, TokSpace, TokComment)
+	if err != nil {
+		p.errorf(Span{}, "cannot read the text: %v", err)
+		return
+	}
+	p.lex = lex
+	for {
+		t := lex.Peek()
+		switch {
+		case t.EOF():
+			p.closeAll(tokSpan(t))
+			return
+		case t.Type == TokNewline || isPunctTok(t, ";"):
+			lex.Next()
+		case isPunctTok(t, "}"):
+			sp := tokSpan(t)
+			lex.Next()
+			p.close(sp)
+		default:
+			p.statement()
+		}
+	}
+}
+
+// close ends the innermost block at the '}' at span sp.
+func (p *parser) close(sp Span) {
+	n := len(p.stack)
+	if n == 0 {
+		p.errorf(sp, "unmatched '}': no block is open here")
+		return
+	}
+	p.stack[n-1].Block.Close = sp.Start
+	p.stack = p.stack[:n-1]
+}
+
+func (p *parser) closeAll(eof Span) {
+	for i := len(p.stack) - 1; i >= 0; i-- {
+		s := p.stack[i]
+		p.errLine = -1
+		p.errorf(Span{s.Block.Open, s.Block.Open + 1}, "block of %q opened here is never closed: add '}'", s.Keyword())
+	}
+	p.stack = nil
+}
+
+// statement parses one statement and what ends it.
+func (p *parser) statement() {
+	lex := p.lex
+	cp := lex.MakeCheckpoint()
+	first := *lex.Peek()
+	stmt, err := parseStmt(lex)
+	if err == nil {
+		p.add(stmt)
+		p.terminator(stmt)
+		return
+	}
+	// Recover: report, keep what can be kept, skip to the end of the line,
+	// opening a block if the bad line opens one so later lines nest right.
+	lex.LoadCheckpoint(cp)
+	bad := &Stmt{Pos: first.Pos, Bad: true}
+	if first.Type == TokIdent {
+		bad.Word = &Ident{Pos: first.Pos, EndPos: lexer.Position{Offset: first.Pos.Offset + len(first.Value)}, Name: first.Value}
+	}
+	p.reportParseError(err, first)
+	end := first.Pos.Offset + len(first.Value)
+	for {
+		t := lex.Peek()
+		if t.EOF() || t.Type == TokNewline || isPunctTok(t, "}") {
+			break
+		}
+		lex.Next()
+		end = t.Pos.Offset + len(t.Value)
+		if isPunctTok(t, "{") {
+			bad.EndPos = lexer.Position{Offset: t.Pos.Offset}
+			bad.Block = &Block{Open: t.Pos.Offset, Close: -1}
+			p.add(bad)
+			p.stack = append(p.stack, bad)
+			return
+		}
+	}
+	bad.EndPos = lexer.Position{Offset: end}
+	p.add(bad)
+}
+
+// terminator handles what follows a parsed statement: '{', '}', ';', a
+// newline or the end.
+func (p *parser) terminator(s *Stmt) {
+	lex := p.lex
+	t := lex.Peek()
+	switch {
+	case t.EOF() || t.Type == TokNewline || isPunctTok(t, ";") || isPunctTok(t, "}"):
+		return
+	case isPunctTok(t, "{"):
+		lex.Next()
+		s.Block = &Block{Open: t.Pos.Offset, Close: -1}
+		nt := lex.Peek()
+		s.Block.OneLine = !(nt.Type == TokNewline || nt.EOF())
+		p.stack = append(p.stack, s)
+		return
+	}
+	p.errorf(tokSpan(t), "%s", unexpected(t, "at the end of the statement"))
+	for {
+		t := lex.Peek()
+		if t.EOF() || t.Type == TokNewline || isPunctTok(t, "}") || isPunctTok(t, ";") {
+			return
+		}
+		lex.Next()
+		if isPunctTok(t, "{") {
+			s.Block = &Block{Open: t.Pos.Offset, Close: -1}
+			p.stack = append(p.stack, s)
+			return
+		}
+	}
+}
+
+// parseStmt runs the participle grammar for one statement, turning any
+// panic inside the parser into an error.
+func parseStmt(lex *lexer.PeekingLexer) (s *Stmt, err error) {
+	defer func() {
+		if r := recover(); r != nil {
+			s, err = nil, fmt.Errorf("cannot parse this statement (%v)", r)
+		}
+	}()
+	return stmtParser.ParseFromLexer(lex, participle.AllowTrailing(true))
+}
+
+func (p *parser) reportParseError(err error, first lexer.Token) {
+	var perr participle.Error
+	if errors.As(err, &perr) {
+		off := perr.Position().Offset
+		t := p.tokenAt(off)
+		msg := perr.Message()
+		if t != nil {
+			msg = unexpected(t, "")
+			if strings.Contains(perr.Message(), "expected") {
+				if i := strings.Index(perr.Message(), "(expected"); i >= 0 {
+					msg += " " + friendlyExpected(perr.Message()[i:])
+				}
+			}
+			p.errorf(tokSpan(t), "%s", msg)
+			return
+		}
+		p.errorf(Span{off, off}, "%s", msg)
+		return
+	}
+	p.errorf(tokSpan(&first), "%s", err.Error())
+}
+
+func (p *parser) tokenAt(off int) *lexer.Token {
+	// Binary search over token offsets.
+	lo, hi := 0, len(p.toks)
+	for lo < hi {
+		m := (lo + hi) / 2
+		if p.toks[m].Pos.Offset < off {
+			lo = m + 1
+		} else {
+			hi = m
+		}
+	}
+	for lo < len(p.toks) && (p.toks[lo].Type == TokSpace || p.toks[lo].Type == TokComment) {
+		lo++
+	}
+	if lo < len(p.toks) {
+		return &p.toks[lo]
+	}
+	return nil
+}
+
+func friendlyExpected(s string) string {
+	s = strings.TrimPrefix(s, "(")
+	s = strings.TrimSuffix(s, ")")
+	s = strings.ReplaceAll(s, "<ident>", "a name")
+	s = strings.ReplaceAll(s, "<number>", "a number")
+	s = strings.ReplaceAll(s, "<string>", "a string")
+	s = strings.ReplaceAll(s, "Atom", "a value")
+	s = strings.ReplaceAll(s, "Expr", "a value")
+	s = strings.ReplaceAll(s, "Factor", "a value")
+	s = strings.ReplaceAll(s, "Term", "a value")
+	return "(" + s + ")"
+}
+
+func unexpected(t *lexer.Token, where string) string {
+	var what string
+	switch t.Type {
+	case lexer.EOF:
+		what = "end of file"
+	case TokNewline:
+		what = "end of line"
+	case TokBad:
+		if strings.HasPrefix(t.Value, `"`) {
+			return "string is not closed: add '\"' before the end of the line"
+		}
+		what = fmt.Sprintf("character %q", t.Value)
+	case TokUnit:
+		what = fmt.Sprintf("unit %q", t.Value)
+	case TokNumber:
+		what = fmt.Sprintf("number %s", t.Value)
+	case TokString:
+		what = fmt.Sprintf("string %s", t.Value)
+	default:
+		what = fmt.Sprintf("%q", t.Value)
+	}
+	if where != "" {
+		return "unexpected " + what + " " + where
+	}
+	return "unexpected " + what
+}
