@@ -43,9 +43,9 @@ func (s *Stmt) Keyword() string {
 
 // Block is a brace-delimited list of statements.
 type Block struct {
-	Open   int // offset of '{'
-	Close  int // offset of '}', or -1 when the block was never closed
-	Stmts  []*Stmt
+	Open    int // offset of '{'
+	Close   int // offset of '}', or -1 when the block was never closed
+	Stmts   []*Stmt
 	OneLine bool // written on the line of its head
 }
 
