@@ -1,0 +1,175 @@
+package fluid
+
+import (
+	"errors"
+	"math"
+	"os"
+	"strings"
+	"testing"
+)
+
+const demoCSV = "../../testdata/fluids/demo-coolant.csv"
+
+// TestDemoCoolant reads the sample table, whose values are IAPWS water
+// rounded to five figures at 10 K steps, and checks its interpolation between
+// rows against the IAPWS equations: within 0.1 % in every field (rounding
+// plus interpolation error of monotone cubics on 10 K rows; common practice
+// for tabulated properties).
+func TestDemoCoolant(t *testing.T) {
+	f, err := LoadCSV(demoCSV)
+	if err != nil {
+		t.Fatal(err)
+	}
+	in := f.Info()
+	if in.Name != "demo coolant" || in.Safety != "A1" || in.MolarMass != 0.018015 ||
+		in.Tc != 647.096 || in.Pc != 22.064e6 || in.RhoC != 322 {
+		t.Errorf("Info() = %+v", in)
+	}
+	if math.Abs(in.Tmin-283.15) > 1e-9 || math.Abs(in.Tmax-473.15) > 1e-9 {
+		t.Errorf("range %g to %g K, want 283.15 to 473.15 K", in.Tmin, in.Tmax)
+	}
+	for T := in.Tmin + 0.37; T < in.Tmax; T += 1.3 {
+		got, err := f.AtT(T)
+		if err != nil {
+			t.Fatal(err)
+		}
+		want, _ := water{}.Direct(T) // IAPWS IF97, R12-08, R15-11, R1-76(2014)
+		for _, c := range []struct {
+			name      string
+			got, want float64
+		}{
+			{"p", got.P, want.P}, {"rho_l", got.RhoL, want.RhoL}, {"rho_v", got.RhoV, want.RhoV},
+			{"h_lv", got.Hlv, want.Hlv}, {"cp_l", got.CpL, want.CpL}, {"cp_v", got.CpV, want.CpV},
+			{"mu_l", got.MuL, want.MuL}, {"mu_v", got.MuV, want.MuV}, {"k_l", got.KL, want.KL},
+			{"k_v", got.KV, want.KV}, {"sigma", got.Sigma, want.Sigma},
+		} {
+			if math.Abs(c.got-c.want) > 1e-3*c.want {
+				t.Errorf("%s(%.2f K) = %.6g, IAPWS %.6g", c.name, T, c.got, c.want)
+			}
+		}
+		// h_l is not in the table: the integral of cp_l from 10 °C.
+		w0, _ := water{}.Direct(in.Tmin)
+		if d := got.HL - (want.HL - w0.HL); math.Abs(d) > 1e-3*want.Hlv {
+			t.Errorf("h_l(%.2f K) off by %.4g J/kg from IAPWS", T, d)
+		}
+		back, err := f.AtP(got.P)
+		if err != nil || math.Abs(back.T-T) > 1e-9*T || back.P != got.P {
+			t.Errorf("AtP(AtT(%g).P) = %v, %v", T, back.T, err)
+		}
+	}
+	// A row is reproduced exactly: 100 °C, 101.42 kPa, 958.354 kg/m³ (the file's row).
+	s, err := f.AtT(373.15)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if math.Abs(s.P-101420) > 1e-6 || math.Abs(s.RhoL-958.354) > 1e-9 || math.Abs(s.MuV-12.232e-6) > 1e-15 {
+		t.Errorf("AtT(373.15) = %+v, want the 100 °C row", s)
+	}
+	for _, T := range []float64{in.Tmin - 1e-6, in.Tmax + 1e-6, math.NaN(), math.Inf(1)} {
+		var re *RangeError
+		if _, err := f.AtT(T); !errors.As(err, &re) {
+			t.Errorf("AtT(%g) error = %v, want *RangeError (no extrapolation)", T, err)
+		}
+	}
+	for _, p := range []float64{1228.1, 1554.8e3, math.NaN(), 0} {
+		var re *RangeError
+		if _, err := f.AtP(p); !errors.As(err, &re) {
+			t.Errorf("AtP(%g) error = %v, want *RangeError (no extrapolation)", p, err)
+		}
+	}
+}
+
+// csvHead is a valid header and rows for the rejection cases to spoil.
+const csvHead = "T (K), p (kPa), rho_l (kg/m3), rho_v (kg/m3), h_lv (kJ/kg), cp_l (kJ/(kg K)), mu_l (mPa s), mu_v (uPa s), k_l (W/(m K)), sigma (mN/m)\n"
+
+func csvRows(rows ...string) string { return csvHead + strings.Join(rows, "\n") + "\n" }
+
+const (
+	row1 = "300, 3.5, 996, 0.026, 2437, 4.18, 0.85, 9.9, 0.61, 71.7"
+	row2 = "310, 6.2, 993, 0.044, 2414, 4.18, 0.69, 10.2, 0.62, 70.0"
+	row3 = "320, 10.5, 989, 0.072, 2390, 4.18, 0.58, 10.5, 0.64, 68.5"
+	row4 = "330, 17.2, 985, 0.11, 2366, 4.18, 0.49, 10.9, 0.65, 66.8"
+)
+
+func TestFromCSVMinimal(t *testing.T) {
+	f, err := FromCSV(strings.NewReader(csvRows(row1, row2, row3, row4)), "mini")
+	if err != nil {
+		t.Fatal(err)
+	}
+	s, err := f.AtT(315)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s.CpV != 0 || s.KV != 0 || !(s.P > 6200 && s.P < 10500) || s.Hlv <= 0 {
+		t.Errorf("AtT(315) = %+v", s)
+	}
+	if f.Info().Name != "mini" {
+		t.Errorf("name %q", f.Info().Name)
+	}
+}
+
+func TestFromCSVRejects(t *testing.T) {
+	for _, c := range []struct{ name, text, want string }{
+		{"not a number", csvRows(row1, row2, "320, 10.5, 989, 1.2x, 2390, 4.18, 0.58, 10.5, 0.64, 68.5", row4),
+			`line 4, column 4 (rho_v): not a number "1.2x"`},
+		{"missing column", strings.Replace(csvRows(row1, row2, row3, row4), ", sigma (mN/m)", "", 1),
+			"line 1: missing column sigma"},
+		{"duplicate column", strings.Replace(csvRows(row1, row2, row3, row4), "sigma (mN/m)", "rho_g (kg/m3)", 1),
+			"line 1, column 10 (rho_g): duplicate column: rho_v is also column 4"},
+		{"unknown column", strings.Replace(csvRows(row1, row2, row3, row4), "sigma (mN/m)", "zeta (mN/m)", 1),
+			`line 1, column 10 (zeta): unknown column "zeta"`},
+		{"wrong dimension", strings.Replace(csvRows(row1, row2, row3, row4), "p (kPa)", "p (kJ/kg)", 1),
+			`line 1, column 2 (p): unit "kJ/kg" is not a pressure, as p needs`},
+		{"no unit", strings.Replace(csvRows(row1, row2, row3, row4), "T (K)", "T", 1),
+			`line 1, column 1 (T): no unit`},
+		{"bad unit", strings.Replace(csvRows(row1, row2, row3, row4), "T (K)", "T (kelvinz)", 1),
+			`line 1, column 1 (T): unit "kelvinz"`},
+		{"temperature not increasing", csvRows(row1, row3, row2, row4),
+			"line 4, column 1 (T): temperatures must increase down the table (previous row, line 3, has 320 K, this one 310 K)"},
+		{"pressure not increasing", csvRows(row1, row2, "320, 6.0, 989, 0.072, 2390, 4.18, 0.58, 10.5, 0.64, 68.5", row4),
+			"line 4, column 2 (p): pressure must increase with temperature (previous row, line 3, has 6200 Pa, this one 6000 Pa)"},
+		{"too few rows", csvRows(row1, row2, row3), "3 data rows; at least 4 are needed"},
+		{"non-positive", csvRows(row1, row2, "320, 10.5, 989, 0.072, 2390, 4.18, 0.58, 10.5, 0.64, 0", row4),
+			"line 4, column 10 (sigma): sigma must be positive, got 0"},
+		{"negative kelvin", csvRows("-5, 3.5, 996, 0.026, 2437, 4.18, 0.85, 9.9, 0.61, 71.7", row2, row3, row4),
+			"line 2, column 1 (T): temperature -5 is not above absolute zero"},
+		{"field count", csvRows(row1, row2, row3+", 7", row4), "line 4: 11 fields, but the header names 10 columns"},
+		{"NaN value", csvRows(row1, row2, strings.Replace(row3, "989", "NaN", 1), row4),
+			`line 4, column 3 (rho_l): not a number "NaN"`},
+		{"no header", "# only a comment\n", "no header row"},
+		{"bad critical", "# critical: 400 K\n" + csvRows(row1, row2, row3, row4),
+			"line 1: critical: want a temperature and a pressure"},
+		{"critical below table", "# critical: 320 K, 3 MPa\n" + csvRows(row1, row2, row3, row4),
+			"line 6: temperature 330 K is not below the critical temperature 320 K"},
+		{"bad molar mass", "# molar_mass: 18 kJ\n" + csvRows(row1, row2, row3, row4),
+			`line 1: molar_mass: unit "kJ" is not`},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			f, err := FromCSV(strings.NewReader(c.text), "bad")
+			var te *TableError
+			if !errors.As(err, &te) {
+				t.Fatalf("FromCSV = %v, %v; want *TableError", f, err)
+			}
+			if !strings.Contains(err.Error(), c.want) {
+				t.Errorf("error %q\nwant it to contain %q", err, c.want)
+			}
+		})
+	}
+}
+
+func TestLoadCSVErrorNamesFile(t *testing.T) {
+	if _, err := LoadCSV("no/such/file.csv"); err == nil {
+		t.Error("LoadCSV of a missing file: no error")
+	}
+	dir := t.TempDir()
+	path := dir + "/bad.csv"
+	if err := writeFile(path, csvRows(row1, row2, "320, x, 989, 0.072, 2390, 4.18, 0.58, 10.5, 0.64, 68.5", row4)); err != nil {
+		t.Fatal(err)
+	}
+	_, err := LoadCSV(path)
+	if err == nil || !strings.HasPrefix(err.Error(), path+": line 4, column 2 (p)") {
+		t.Errorf("error %v, want it to start with the path and location", err)
+	}
+}
+
+func writeFile(path, text string) error { return os.WriteFile(path, []byte(text), 0o644) }
