@@ -1,0 +1,292 @@
+package units
+
+import (
+	"math"
+	"slices"
+	"strconv"
+	"strings"
+)
+
+// Format renders an SI value in unit u with five significant digits and
+// no trailing zeros: Format(0.012, MustParse("mm")) == "12 mm".
+func Format(si float64, u Unit) string {
+	num := formatNumber(u.FromSI(si))
+	if u.Text == "" {
+		return num
+	}
+	return num + " " + u.Text
+}
+
+func formatNumber(v float64) string {
+	switch {
+	case math.IsNaN(v):
+		return "NaN"
+	case math.IsInf(v, 1):
+		return "+Inf"
+	case math.IsInf(v, -1):
+		return "-Inf"
+	case v == 0:
+		return "0"
+	}
+	const sig = 5
+	a := math.Abs(v)
+	if a >= 1e-3 && a < 1e7 {
+		mag := int(math.Floor(math.Log10(a))) + 1 // digits before the point
+		dec := sig - mag
+		if dec < 0 {
+			dec = 0
+		}
+		s := strconv.FormatFloat(v, 'f', dec, 64)
+		if strings.Contains(s, ".") {
+			s = strings.TrimRight(s, "0")
+			s = strings.TrimSuffix(s, ".")
+		}
+		if s == "-0" {
+			s = "0"
+		}
+		return s
+	}
+	s := strconv.FormatFloat(v, 'e', sig-1, 64)
+	mant, exp, _ := strings.Cut(s, "e")
+	if strings.Contains(mant, ".") {
+		mant = strings.TrimRight(mant, "0")
+		mant = strings.TrimSuffix(mant, ".")
+	}
+	exp = strings.TrimPrefix(exp, "+")
+	neg := strings.HasPrefix(exp, "-")
+	exp = strings.TrimLeft(strings.TrimPrefix(exp, "-"), "0")
+	if neg {
+		exp = "-" + exp
+	}
+	return mant + "e" + exp
+}
+
+// commonTexts lists, per dimension, the units engineers commonly write,
+// SI first.
+var commonTexts = map[Dim][]string{
+	Dimensionless:           {"", "%", "ppm"},
+	Length:                  {"m", "mm", "cm", "km", "um", "in", "ft", "mil"},
+	Area:                    {"m2", "mm2", "cm2", "in2", "ft2"},
+	Volume:                  {"m3", "L", "mL", "cm3", "in3", "ft3"},
+	Mass:                    {"kg", "g", "mg", "lb", "oz"},
+	Time:                    {"s", "ms", "min", "h"},
+	Temperature:             {"K", "degC", "degF", "degR", "delta_degC", "delta_degF"},
+	Pressure:                {"Pa", "kPa", "bar", "MPa", "mbar", "hPa", "psi", "atm", "bar(g)", "kPa(g)", "psig", "bar(a)", "psia"},
+	Power:                   {"W", "kW", "MW", "mW", "Btu/h"},
+	Energy:                  {"J", "kJ", "MJ", "Wh", "kWh", "Btu"},
+	MassFlow:                {"kg/s", "g/s", "kg/h", "lb/h", "lb/s"},
+	SpecificEnergy:          {"J/kg", "kJ/kg", "Btu/lb"},
+	Conductance:             {"W/K", "kW/K", "Btu/(h*degF)"},
+	HeatTransferCoefficient: {"W/(m2*K)", "kW/(m2*K)", "Btu/(h*ft2*degF)"},
+	HeatFlux:                {"W/m2", "kW/m2", "W/cm2", "Btu/(h*ft2)"},
+	Angle:                   {"rad", "deg", "mrad"},
+	Acceleration:            {"m/s2", "gn", "ft/s2"},
+	Velocity:                {"m/s", "mm/s", "km/h", "ft/s", "ft/min"},
+	Density:                 {"kg/m3", "g/cm3", "kg/L", "lb/ft3"},
+	Viscosity:               {"Pa*s", "mPa*s", "cP", "P", "uPa*s"},
+	ThermalConductivity:     {"W/(m*K)", "Btu/(h*ft*degF)"},
+	SurfaceTension:          {"N/m", "mN/m"},
+	SpecificHeat:            {"J/(kg*K)", "kJ/(kg*K)", "Btu/(lb*degF)"},
+	Force:                   {"N", "kN", "lbf"},
+	Frequency:               {"Hz", "1/s", "kHz", "1/min"},
+	VolumeFlow:              {"m3/s", "L/s", "L/min", "m3/h", "ft3/min"},
+	ThermalResistance:       {"K/W", "degF*h/Btu"},
+}
+
+var commonUnits = func() map[Dim][]Unit {
+	m := map[Dim][]Unit{}
+	for d, ts := range commonTexts {
+		for _, t := range ts {
+			u := MustParse(t)
+			if u.Dim != d {
+				panic("units: common unit " + t + " has the wrong dimension")
+			}
+			m[d] = append(m[d], u)
+		}
+	}
+	return m
+}()
+
+// Common returns the units commonly used for a dimension, SI first, for
+// hover text and completion. A dimension without a list gets its coherent
+// SI unit alone.
+func Common(d Dim) []Unit {
+	if us, ok := commonUnits[d]; ok {
+		return slices.Clone(us)
+	}
+	u, err := Parse(d.ascii())
+	if err != nil || u.Dim != d {
+		return nil
+	}
+	return []Unit{u}
+}
+
+var known = func() []string {
+	var out []string
+	seen := map[string]bool{}
+	add := func(s string) {
+		if !seen[s] {
+			seen[s] = true
+			out = append(out, s)
+		}
+	}
+	for _, a := range atomList {
+		add(a.canon)
+		for _, al := range a.aliases {
+			add(al)
+		}
+		for _, p := range strings.Fields(a.known) {
+			add(p + a.canon)
+		}
+		if a.pressure {
+			for _, p := range append([]string{""}, strings.Fields(a.known)...) {
+				if a.canon == "psi" {
+					continue
+				}
+				add(p + a.canon + "(g)")
+				add(p + a.canon + "(a)")
+			}
+		}
+	}
+	return out
+}()
+
+// Known returns every unit symbol spelling in the table, with the commonly
+// prefixed forms (mm, kPa, kW ...), for completion and did-you-mean.
+func Known() []string { return slices.Clone(known) }
+
+// suggestPool is what Suggest draws from: the symbols and the common
+// compound units.
+var suggestPool = func() []string {
+	out := slices.Clone(known)
+	seen := map[string]bool{}
+	for _, s := range out {
+		seen[s] = true
+	}
+	dims := make([]Dim, 0, len(commonTexts))
+	for d := range commonTexts {
+		dims = append(dims, d)
+	}
+	slices.SortFunc(dims, func(a, b Dim) int { return strings.Compare(a.String(), b.String()) })
+	for _, d := range dims {
+		for _, t := range commonTexts[d] {
+			if t != "" && !seen[t] {
+				seen[t] = true
+				out = append(out, t)
+			}
+		}
+	}
+	return out
+}()
+
+// Suggest returns up to three known spellings closest to s, best first:
+// spellings equal but for case, then those with the same letters and digits
+// (kgs -> kg/s), then anagrams (psgi -> psig), then by edit distance.
+func Suggest(s string) []string {
+	if s == "" || len(s) > 64 {
+		return nil
+	}
+	type cand struct {
+		text             string
+		fold, skel, anag int
+		edits            int
+		idx              int
+	}
+	sk := skeleton(s)
+	lower := strings.ToLower(s)
+	limit := 1
+	if n := len([]rune(s)); n > 4 {
+		limit = 2
+	}
+	var cs []cand
+	for i, t := range suggestPool {
+		if t == s {
+			continue
+		}
+		c := cand{text: t, idx: i, edits: editDistance(s, t), skel: editDistance(sk, skeleton(t))}
+		c.fold = 1
+		c.anag = 1
+		if sameLetters(s, t) {
+			c.anag = 0
+		}
+		if strings.ToLower(t) == lower {
+			c.fold = 0
+		}
+		if c.fold == 0 || (c.skel == 0 && sk != "") || c.edits <= limit {
+			cs = append(cs, c)
+		}
+	}
+	slices.SortStableFunc(cs, func(a, b cand) int {
+		if a.fold != b.fold {
+			return a.fold - b.fold
+		}
+		if a.skel != b.skel {
+			return a.skel - b.skel
+		}
+		if a.anag != b.anag {
+			return a.anag - b.anag
+		}
+		if a.edits != b.edits {
+			return a.edits - b.edits
+		}
+		return a.idx - b.idx
+	})
+	var out []string
+	for _, c := range cs {
+		if len(out) == 3 {
+			break
+		}
+		out = append(out, c.text)
+	}
+	return out
+}
+
+// sameLetters reports whether a and b hold the same runes in some order.
+func sameLetters(a, b string) bool {
+	ra, rb := []rune(a), []rune(b)
+	if len(ra) != len(rb) {
+		return false
+	}
+	slices.Sort(ra)
+	slices.Sort(rb)
+	return slices.Equal(ra, rb)
+}
+
+// skeleton keeps only the letters and digits of a spelling.
+func skeleton(s string) string {
+	var b strings.Builder
+	for _, r := range s {
+		if r >= 'a' && r <= 'z' || r >= 'A' && r <= 'Z' || r >= '0' && r <= '9' {
+			b.WriteRune(r)
+		}
+	}
+	return b.String()
+}
+
+// editDistance is the optimal string alignment distance over runes
+// (insertions, deletions, substitutions and adjacent transpositions).
+func editDistance(a, b string) int {
+	ra, rb := []rune(a), []rune(b)
+	n, m := len(ra), len(rb)
+	prev2 := make([]int, m+1)
+	prev := make([]int, m+1)
+	cur := make([]int, m+1)
+	for j := range prev {
+		prev[j] = j
+	}
+	for i := 1; i <= n; i++ {
+		cur[0] = i
+		for j := 1; j <= m; j++ {
+			cost := 1
+			if ra[i-1] == rb[j-1] {
+				cost = 0
+			}
+			cur[j] = min(prev[j]+1, cur[j-1]+1, prev[j-1]+cost)
+			if i > 1 && j > 1 && ra[i-1] == rb[j-2] && ra[i-2] == rb[j-1] {
+				cur[j] = min(cur[j], prev2[j-2]+1)
+			}
+		}
+		prev2, prev, cur = prev, cur, prev2
+	}
+	return prev[m]
+}
