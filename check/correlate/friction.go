@@ -90,29 +90,94 @@ func FrictionGradient(m FrictionMethod, G, x, D, relRough float64, p Props, g fl
 // single-phase liquid gradient and x ≥ 1 the single-phase vapour gradient,
 // and every method tends to those limits continuously.
 func (f Friction) Gradient(G, x, D, relRough float64, p Props, g float64) float64 {
+	pf := f.Prepare(G, D, relRough, p, g)
+	return pf.Gradient(x)
+}
+
+// PreparedFriction is a friction method bound to one tube, mass flux,
+// property set and body force, with the parts that do not depend on
+// quality computed once. The estimator prepares once per component and
+// calls Gradient per cell; the result equals Friction.Gradient exactly.
+type PreparedFriction struct {
+	method   FrictionMethod
+	sp       SinglePhase
+	G, D, rr float64
+	p        Props
+	zero     bool // no flow or unusable inputs: gradient 0
+	// Liquid-only and vapour-only gradients, Pa/m, for the methods built on
+	// them (Müller-Steinhagen & Heck, Friedel).
+	dpLo, dpGo float64
+	// Friedel: E ratio ρl f_go/(ρv f_lo); ln(3.24 H); ln(G²/(gD)); ln(G²D/σ);
+	// whether the Fr–We term applies.
+	eRatio, lnH, lnFr0, lnWe0 float64
+	friedelTerm               bool
+}
+
+// Prepare binds f to one tube (D, e/D), mass flux G, properties p and
+// body-force magnitude g; see Gradient for the meaning of each.
+func (f Friction) Prepare(G, D, relRough float64, p Props, g float64) PreparedFriction {
 	sp := f.SinglePhase
 	if sp == nil {
 		sp = Churchill
 	}
 	G = math.Abs(G)
-	if G == 0 || !(D > 0) || !(p.RhoL > 0) || !(p.RhoV > 0) || !(p.MuL > 0) || !(p.MuV > 0) {
+	pf := PreparedFriction{method: f.Method, sp: sp, G: G, D: D, rr: relRough, p: p}
+	if G == 0 || G != G || !(D > 0) || !(p.RhoL > 0) || !(p.RhoV > 0) || !(p.MuL > 0) || !(p.MuV > 0) {
+		pf.zero = true
+		return pf
+	}
+	if f.Method != MullerSteinhagenHeck && f.Method != Friedel {
+		// The other methods need the single-phase gradients only at x ≤ 0
+		// or x ≥ 1; Gradient computes them there.
+		return pf
+	}
+	pf.dpLo = SinglePhaseGradient(sp, G, D, relRough, p.RhoL, p.MuL)
+	pf.dpGo = SinglePhaseGradient(sp, G, D, relRough, p.RhoV, p.MuV)
+	if f.Method == Friedel {
+		// f_go/f_lo from the gradients: dp = f G²/(2Dρ).
+		if pf.dpLo > 0 {
+			pf.eRatio = pf.dpGo / pf.dpLo
+		}
+		mr := p.MuV / p.MuL
+		h := math.Pow(p.RhoL/p.RhoV, 0.91) * math.Pow(mr, 0.19) * math.Pow(math.Max(1-mr, 0), 0.7)
+		g = math.Abs(g)
+		if h > 0 && g > 0 && p.Sigma > 0 && !math.IsInf(g, 0) {
+			pf.friedelTerm = true
+			pf.lnH = math.Log(3.24 * h)
+			pf.lnFr0 = math.Log(G * G / (g * D))
+			pf.lnWe0 = math.Log(G * G * D / p.Sigma)
+		}
+	}
+	return pf
+}
+
+// Gradient is the frictional pressure gradient, Pa/m, at quality x.
+func (pf *PreparedFriction) Gradient(x float64) float64 {
+	if pf.zero {
 		return 0
 	}
-	if !(x > 0) {
-		return SinglePhaseGradient(sp, G, D, relRough, p.RhoL, p.MuL)
-	}
-	if x >= 1 {
-		return SinglePhaseGradient(sp, G, D, relRough, p.RhoV, p.MuV)
+	p := &pf.p
+	if !(x > 0) || x >= 1 {
+		if pf.method == MullerSteinhagenHeck || pf.method == Friedel {
+			if x >= 1 {
+				return pf.dpGo
+			}
+			return pf.dpLo
+		}
+		if x >= 1 {
+			return SinglePhaseGradient(pf.sp, pf.G, pf.D, pf.rr, p.RhoV, p.MuV)
+		}
+		return SinglePhaseGradient(pf.sp, pf.G, pf.D, pf.rr, p.RhoL, p.MuL)
 	}
 	var dp float64
-	switch f.Method {
+	switch pf.method {
 	case Friedel:
-		dp = friedel(sp, G, x, D, relRough, p, g)
+		dp = pf.friedel(x)
 	case LockhartMartinelliChisholm:
-		dp = lockhartMartinelli(sp, G, x, D, relRough, p)
+		dp = lockhartMartinelli(pf.sp, pf.G, x, pf.D, pf.rr, p)
 	case HomogeneousMcAdams, HomogeneousCicchitti, HomogeneousDukler:
 		var mu float64
-		switch f.Method {
+		switch pf.method {
 		case HomogeneousMcAdams:
 			mu = 1 / (x/p.MuV + (1-x)/p.MuL)
 		case HomogeneousCicchitti:
@@ -121,10 +186,9 @@ func (f Friction) Gradient(G, x, D, relRough float64, p Props, g float64) float6
 			b := 1 / (1 + (1-x)/x*(p.RhoV/p.RhoL))
 			mu = b*p.MuV + (1-b)*p.MuL
 		}
-		dp = SinglePhaseGradient(sp, G, D, relRough, HomogeneousDensity(x, p), mu)
+		dp = SinglePhaseGradient(pf.sp, pf.G, pf.D, pf.rr, 1/(x/p.RhoV+(1-x)/p.RhoL), mu)
 	default:
-		a := SinglePhaseGradient(sp, G, D, relRough, p.RhoL, p.MuL)
-		b := SinglePhaseGradient(sp, G, D, relRough, p.RhoV, p.MuV)
+		a, b := pf.dpLo, pf.dpGo
 		lambda := a + 2*(b-a)*x
 		dp = lambda*math.Cbrt(1-x) + b*x*x*x
 	}
@@ -134,37 +198,28 @@ func (f Friction) Gradient(G, x, D, relRough float64, p Props, g float64) float6
 // friedel is φlo² (dp/dz)lo with
 // φlo² = E + 3.24 F H/(Fr^0.0454 We^0.035),
 // E = (1−x)² + x² ρl f_go/(ρv f_lo), F = x^0.78 (1−x)^0.224,
-// H = (ρl/ρv)^0.91 (μv/μl)^0.19 (1 − μv/μl)^0.7.
-func friedel(sp SinglePhase, G, x, D, rr float64, p Props, g float64) float64 {
-	reLo := G * D / p.MuL
-	reGo := G * D / p.MuV
-	fLo := sp(reLo, rr)
-	fGo := sp(reGo, rr)
-	dpLo := SinglePhaseGradient(sp, G, D, rr, p.RhoL, p.MuL)
-	if !(fLo > 0) || !(fGo > 0) {
-		return dpLo
+// H = (ρl/ρv)^0.91 (μv/μl)^0.19 (1 − μv/μl)^0.7,
+// Fr = G²/(g D ρH²), We = G² D/(σ ρH). A zero body force or surface
+// tension drops the second term. The powers of the second term are summed
+// as logarithms under one Exp.
+func (pf *PreparedFriction) friedel(x float64) float64 {
+	p := &pf.p
+	e := (1-x)*(1-x) + x*x*pf.eRatio
+	if !pf.friedelTerm {
+		return e * pf.dpLo
 	}
-	e := (1-x)*(1-x) + x*x*(p.RhoL*fGo)/(p.RhoV*fLo)
-	ff := math.Pow(x, 0.78) * math.Pow(1-x, 0.224)
-	mr := p.MuV / p.MuL
-	h := math.Pow(p.RhoL/p.RhoV, 0.91) * math.Pow(mr, 0.19) * math.Pow(math.Max(1-mr, 0), 0.7)
-	rh := HomogeneousDensity(x, p)
-	g = math.Abs(g)
-	// Fr^0.0454 We^0.035 with Fr = G²/(g D ρH²), We = G² D/(σ ρH); a zero
-	// body force or surface tension drops the second term.
-	var corr float64
-	if g > 0 && p.Sigma > 0 {
-		fr := G * G / (g * D * rh * rh)
-		we := G * G * D / (p.Sigma * rh)
-		corr = 3.24 * ff * h / (math.Pow(fr, FriedelFroudeExponent) * math.Pow(we, 0.035))
-	}
-	return (e + corr) * dpLo
+	lnRh := -math.Log(x/p.RhoV + (1-x)/p.RhoL)
+	lnFr := pf.lnFr0 - 2*lnRh
+	lnWe := pf.lnWe0 - lnRh
+	corr := math.Exp(pf.lnH + 0.78*math.Log(x) + 0.224*math.Log(1-x) -
+		FriedelFroudeExponent*lnFr - 0.035*lnWe)
+	return (e + corr) * pf.dpLo
 }
 
 // lockhartMartinelli is φl²(dp/dz)l = (dp/dz)l + C √((dp/dz)l (dp/dz)v) +
 // (dp/dz)v, Chisholm's φl² = 1 + C/X + 1/X² multiplied out so that either
 // phase may vanish.
-func lockhartMartinelli(sp SinglePhase, G, x, D, rr float64, p Props) float64 {
+func lockhartMartinelli(sp SinglePhase, G, x, D, rr float64, p *Props) float64 {
 	gl, gv := G*(1-x), G*x
 	turbL := gl*D/p.MuL >= lmReynoldsCritical
 	turbV := gv*D/p.MuV >= lmReynoldsCritical

@@ -93,20 +93,20 @@ func MixtureDensity(alpha float64, p Props) float64 {
 
 // AccelerationTerm is the momentum flux G²[x²/(ρv α) + (1−x)²/(ρl (1−α))],
 // Pa; the accelerational pressure drop of a cell is its outlet value minus
-// its inlet value. A phase with zero quality contributes nothing, so x = 0
-// gives G²/ρl and x = 1 gives G²/ρv whatever α is.
+// its inlet value. x ≤ 0 gives G²/ρl and x ≥ 1 gives G²/ρv whatever α is.
+// For 0 < x < 1, α should come from VoidFraction; α = 0 or 1 there means
+// one phase moves infinitely fast and the result is clamped to
+// math.MaxFloat64.
 func AccelerationTerm(G, x, alpha float64, p Props) float64 {
 	if G == 0 || G != G {
 		return 0
 	}
-	x = clampQuality(x)
+	if !(x > 0) {
+		return finite(G * G / p.RhoL)
+	}
+	if x >= 1 {
+		return finite(G * G / p.RhoV)
+	}
 	alpha = clampQuality(alpha)
-	var s float64
-	if x > 0 {
-		s += x * x / (p.RhoV * alpha)
-	}
-	if x < 1 {
-		s += (1 - x) * (1 - x) / (p.RhoL * (1 - alpha))
-	}
-	return finite(G * G * s)
+	return finite(G * G * (x*x/(p.RhoV*alpha) + (1-x)*(1-x)/(p.RhoL*(1-alpha))))
 }
