@@ -23,8 +23,8 @@ type File struct {
 type Stmt struct {
 	Pos    lexer.Position
 	EndPos lexer.Position
-	Word   *Ident  `parser:"@@"`
-	Parts  []*Part `parser:"@@*"`
+	Word   *Ident `parser:"@@"`
+	Args   []*Arg `parser:"@@*"`
 
 	Block *Block // nil when the statement has no block
 	Bad   bool   // the statement did not parse; Word may still be set
@@ -59,9 +59,9 @@ type Ident struct {
 // Span returns the name's span.
 func (i *Ident) Span() Span { return Span{i.Pos.Offset, i.EndPos.Offset} }
 
-// Part is one piece of a statement after its word: a connective keyword
+// Arg is one piece of a statement after its word: a connective keyword
 // (from, to, at, =) or an expression.
-type Part struct {
+type Arg struct {
 	Pos    lexer.Position
 	EndPos lexer.Position
 	Key    string `parser:"  @(\"from\" | \"to\" | \"at\" | \"=\")"`
@@ -69,7 +69,7 @@ type Part struct {
 }
 
 // Span returns the part's span.
-func (p *Part) Span() Span { return Span{p.Pos.Offset, p.EndPos.Offset} }
+func (p *Arg) Span() Span { return Span{p.Pos.Offset, p.EndPos.Offset} }
 
 // Expr is a sum of terms.
 type Expr struct {

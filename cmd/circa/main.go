@@ -1,0 +1,74 @@
+// Command circa checks .loop files that describe passive two-phase cooling
+// loops, formats them, estimates their circulation and serves editors.
+package main
+
+import (
+	"fmt"
+	"io"
+	"os"
+	"sort"
+	"strings"
+)
+
+// Exit statuses shared by every subcommand.
+const (
+	exitOK       = 0
+	exitFindings = 1
+	exitUsage    = 2
+)
+
+// command is one subcommand. run gets the arguments after the subcommand's
+// name and returns the exit status.
+type command struct {
+	name    string
+	summary string
+	run     func(args []string, stdin io.Reader, stdout, stderr io.Writer) int
+}
+
+var commands = map[string]*command{}
+
+func register(c *command) { commands[c.name] = c }
+
+func main() {
+	os.Exit(run(os.Args[1:], os.Stdin, os.Stdout, os.Stderr))
+}
+
+func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
+	if len(args) == 0 || args[0] == "-h" || args[0] == "--help" || args[0] == "help" && len(args) == 1 {
+		usage(stderr)
+		if len(args) == 0 {
+			return exitUsage
+		}
+		return exitOK
+	}
+	name := args[0]
+	if name == "help" {
+		name = args[1]
+		args = []string{name, "--help"}
+	}
+	c, ok := commands[name]
+	if !ok {
+		fmt.Fprintf(stderr, "circa: unknown command %q\n\n", name)
+		usage(stderr)
+		return exitUsage
+	}
+	return c.run(args[1:], stdin, stdout, stderr)
+}
+
+func usage(w io.Writer) {
+	fmt.Fprintln(w, "circa checks passive two-phase cooling loops written as .loop files.")
+	fmt.Fprintln(w, "\nUsage: circa COMMAND [options] [arguments]\n\nCommands:")
+	names := make([]string, 0, len(commands))
+	for n := range commands {
+		names = append(names, n)
+	}
+	sort.Strings(names)
+	for _, n := range names {
+		fmt.Fprintf(w, "  %-10s %s\n", n, commands[n].summary)
+	}
+	fmt.Fprintln(w, "\nRun 'circa COMMAND --help' for a command's options.")
+	fmt.Fprintln(w, strings.TrimSpace(`
+Estimates are for early design only. Pressure equipment, flammable or toxic
+working fluids and hot surfaces must follow local codes and licensed
+engineering practice.`))
+}

@@ -1,0 +1,18 @@
+package main
+
+import (
+	"fmt"
+	"io"
+	"runtime/debug"
+)
+
+func init() {
+	register(&command{name: "version", summary: "print the version", run: func(args []string, _ io.Reader, stdout, _ io.Writer) int {
+		v := "(devel)"
+		if bi, ok := debug.ReadBuildInfo(); ok && bi.Main.Version != "" {
+			v = bi.Main.Version
+		}
+		fmt.Fprintln(stdout, "circa", v)
+		return exitOK
+	}})
+}

@@ -1,0 +1,349 @@
+package lang
+
+// The typed model: what a set of .loop files says, in SI, with every value
+// remembering where it was written. The checker reads only this.
+
+// Value is a scalar in SI units. Set is false when the file did not give it;
+// SI then holds the default, if there is one.
+type Value struct {
+	SI   float64
+	Set  bool
+	File string
+	Span Span   // the expression as written
+	Unit string // the unit as written ("" for bare numbers and defaults)
+}
+
+// Loc returns where the value was written.
+func (v Value) Loc() Location { return Location{File: v.File, Span: v.Span} }
+
+// Vec is a vector in SI units in the equipment frame (x forward, y left, z up).
+type Vec struct {
+	X, Y, Z float64
+	Set     bool
+	File    string
+	Span    Span
+	Unit    string
+}
+
+// Loc returns where the vector was written.
+func (v Vec) Loc() Location { return Location{File: v.File, Span: v.Span} }
+
+// Decl is what every named declaration shares.
+type Decl struct {
+	Name     string
+	File     string
+	NameSpan Span // the name
+	Span     Span // the statement head
+	// BlockClose is the offset of the block's '}' (-1 without a closed block);
+	// fixes insert missing fields before it.
+	BlockClose int
+}
+
+// NameLoc returns where the name was written.
+func (d Decl) NameLoc() Location { return Location{File: d.File, Span: d.NameSpan} }
+
+// Loc returns where the declaration's head was written.
+func (d Decl) Loc() Location { return Location{File: d.File, Span: d.Span} }
+
+// Model is the resolved content of one root file and everything it includes.
+type Model struct {
+	Root    string           // path of the root file
+	Files   map[string]*File // every file read, by path
+	Order   []string         // paths in the order they were read
+	Params  []*Param
+	Parts   []*Part
+	Loops   []*Loop
+	Cases   []*Case
+	Nominal *Case // the case marked nominal, else the first case; nil without cases
+	Limits  Limits
+	Methods Methods
+	Allows  []*Allow
+	// Refs lists every place a name is used, for navigation and rename.
+	Refs []Ref
+	// Diags holds the syntax, unit and name findings, in file order.
+	Diags []Diagnostic
+}
+
+// Param is a named quantity.
+type Param struct {
+	Decl
+	Value Value
+	Expr  *Expr
+}
+
+// Part is a named set of component fields.
+type Part struct {
+	Decl
+	Stmts []*Stmt
+}
+
+// FluidSpec names the working fluid: a built-in name or a CSV table.
+type FluidSpec struct {
+	Name  string // built-in name as written; for tables, the file's base name
+	Table string // path of a CSV table, resolved against the including file
+	Set   bool
+	File  string
+	Span  Span
+}
+
+// Loc returns where the fluid was named.
+func (f FluidSpec) Loc() Location { return Location{File: f.File, Span: f.Span} }
+
+// Loop is one loop (or network) with its own fluid, nodes and components.
+type Loop struct {
+	Decl
+	Fluid          FluidSpec
+	Charge         Value
+	DesignPressure Value
+	Saturation     Value
+	Nodes          []*Node
+	Components     []*Component
+}
+
+// Node is a point of a loop.
+type Node struct {
+	Decl
+	Loop     *Loop
+	At       Vec // coordinates, when given
+	Junction bool
+	Index    int // position in Loop.Nodes
+}
+
+// Kind is a component's kind.
+type Kind int
+
+const (
+	Pipe Kind = iota
+	Evaporator
+	Condenser
+	Bend
+	Fitting
+	Reservoir
+)
+
+var kindNames = [...]string{"pipe", "evaporator", "condenser", "bend", "fitting", "reservoir"}
+
+func (k Kind) String() string {
+	if int(k) < len(kindNames) {
+		return kindNames[k]
+	}
+	return "component"
+}
+
+// Kinds returns every component keyword.
+func Kinds() []string { return append([]string(nil), kindNames[:]...) }
+
+// Component joins two nodes (a reservoir hangs off one node).
+type Component struct {
+	Decl
+	Kind     Kind
+	Loop     *Loop
+	From, To *Node // To is nil for a reservoir
+	FromSpan Span
+	ToSpan   Span
+	Index    int // position in Loop.Components
+
+	Length      Value
+	Rise        Value
+	Run         Vec
+	Bore        Value
+	FlowArea    Value
+	HydDiameter Value
+	Roughness   Value // default 1.5 µm
+	Loss        Value // local loss coefficient K
+
+	Heat          Value // evaporator: default load
+	HeatedLength  Value
+	WettedArea    Value
+	HeatFlux      Value
+	WallLimit     Value
+	BoilRoughness Value // default 1 µm
+
+	Conductance Value // condenser UA
+	Sink        Value
+	Outlet      Value
+	Subcool     Value
+
+	Volume Value // reservoir
+
+	Uses []*Part
+}
+
+// Diameter returns the hydraulic diameter: bore, else hydraulic_diameter,
+// else from the flow area of a round tube.
+func (c *Component) Diameter() float64 {
+	switch {
+	case c.Bore.Set:
+		return c.Bore.SI
+	case c.HydDiameter.Set:
+		return c.HydDiameter.SI
+	case c.FlowArea.Set && c.FlowArea.SI > 0:
+		return sqrt(4 * c.FlowArea.SI / 3.141592653589793)
+	}
+	return 0
+}
+
+// Area returns the flow area: flow_area, else from the bore or hydraulic diameter.
+func (c *Component) Area() float64 {
+	if c.FlowArea.Set {
+		return c.FlowArea.SI
+	}
+	d := c.Diameter()
+	return 3.141592653589793 / 4 * d * d
+}
+
+// Case is an operating case.
+type Case struct {
+	Decl
+	Nominal    bool
+	Heat       []CompValue // per evaporator
+	Sink       Value       // every condenser's sink
+	Sinks      []CompValue // per condenser
+	Pitch      Value
+	Roll       Value
+	Yaw        Value
+	Accel      Vec
+	Saturation Value
+}
+
+// CompValue is a value given in a case for one component.
+type CompValue struct {
+	Comp     *Component
+	NameSpan Span
+	File     string
+	Value    Value
+}
+
+// Limits are the design margin limits, with defaults filled in.
+type Limits struct {
+	ExitQuality   Value // default 0.5 (common practice)
+	CHFRatio      Value // default 2 (common practice)
+	Flooding      Value // default 0.7 (common practice)
+	TiltMargin    Value // default 5° (common practice)
+	WallMargin    Value // default 0 K
+	HeadRatio     Value // default 1.5 (common practice)
+	SaturationMax Value // no default
+}
+
+// DefaultLimits returns the documented defaults.
+func DefaultLimits() Limits {
+	return Limits{
+		ExitQuality: Value{SI: 0.5},
+		CHFRatio:    Value{SI: 2},
+		Flooding:    Value{SI: 0.7},
+		TiltMargin:  Value{SI: 5 * 3.141592653589793 / 180},
+		WallMargin:  Value{SI: 0},
+		HeadRatio:   Value{SI: 1.5},
+	}
+}
+
+// Methods are the correlation choices for the estimates.
+type Methods struct {
+	Void        Choice
+	Friction    Choice
+	SinglePhase Choice
+	CHF         Choice
+	Cells       int
+	CellsSet    bool
+}
+
+// Choice is a method name as written (underscores, e.g. "rouhani_axelsson").
+type Choice struct {
+	Name string
+	Set  bool
+	File string
+	Span Span
+}
+
+// MethodChoices lists the accepted names of each method field, default first.
+var MethodChoices = map[string][]string{
+	"void_fraction": {"rouhani_axelsson", "homogeneous", "zivi", "chisholm", "rouhani_axelsson_vertical", "rouhani_axelsson_horizontal"},
+	"friction":      {"muller_steinhagen_heck", "friedel", "lockhart_martinelli", "homogeneous_mcadams", "homogeneous_cicchitti", "homogeneous_dukler"},
+	"single_phase":  {"churchill", "colebrook"},
+	"chf":           {"lienhard_dhir", "zuber"},
+}
+
+// DefaultMethods returns the documented defaults.
+func DefaultMethods() Methods {
+	return Methods{
+		Void:        Choice{Name: "rouhani_axelsson"},
+		Friction:    Choice{Name: "muller_steinhagen_heck"},
+		SinglePhase: Choice{Name: "churchill"},
+		CHF:         Choice{Name: "lienhard_dhir"},
+		Cells:       40,
+	}
+}
+
+// Allow is a "# allow: RULE" silencer on one line.
+type Allow struct {
+	File string
+	Line int // zero-based
+	Rule string
+	Span Span // the rule name in the comment
+	Used bool
+}
+
+// RefKind says what a reference names.
+type RefKind int
+
+const (
+	RefParam RefKind = iota
+	RefNode
+	RefComponent
+	RefCase
+	RefPart
+	RefFluid
+)
+
+// Ref is one use or declaration of a name.
+type Ref struct {
+	Kind   RefKind
+	Name   string
+	Loop   *Loop // for nodes
+	File   string
+	Span   Span
+	IsDecl bool
+}
+
+// Loc returns where the reference was written.
+func (r Ref) Loc() Location { return Location{File: r.File, Span: r.Span} }
+
+// Component returns the named component in any loop, or nil.
+func (m *Model) Component(name string) *Component {
+	for _, l := range m.Loops {
+		for _, c := range l.Components {
+			if c.Name == name {
+				return c
+			}
+		}
+	}
+	return nil
+}
+
+// Case returns the named case, or nil.
+func (m *Model) Case(name string) *Case {
+	for _, c := range m.Cases {
+		if c.Name == name {
+			return c
+		}
+	}
+	return nil
+}
+
+// Silenced reports whether an allow comment silences rule at loc, marking
+// the silencer used.
+func (m *Model) Silenced(rule string, loc Location) bool {
+	f := m.Files[loc.File]
+	if f == nil {
+		return false
+	}
+	line := f.Mapper.OffsetLine(loc.Span.Start)
+	hit := false
+	for _, a := range m.Allows {
+		if a.File == loc.File && a.Line == line && a.Rule == rule {
+			a.Used = true
+			hit = true
+		}
+	}
+	return hit
+}
