@@ -14,10 +14,14 @@ const (
 	// MullerSteinhagenHeck interpolates between the liquid-only and
 	// vapour-only gradients: Λ(1−x)^(1/3) + B x³, Λ = A + 2(B−A)x.
 	MullerSteinhagenHeck FrictionMethod = iota
-	// Friedel is the liquid-only two-phase multiplier of Friedel (1979).
+	// Friedel is the liquid-only two-phase multiplier of Friedel (1979),
+	// recommended for μl/μv < 1000.
 	Friedel
 	// LockhartMartinelliChisholm is φl² = 1 + C/X + 1/X² on the liquid-alone
-	// gradient, C = 20, 12, 10 or 5 by the phases' flow regimes.
+	// gradient, C = 20, 12, 10 or 5 by the phases' flow regimes (each phase
+	// turbulent above Re = 2000). The original used the Blasius pair
+	// (BlasiusLaminar) for the phase gradients; like every method here it
+	// uses the Friction's SinglePhase factor, Churchill by default.
 	LockhartMartinelliChisholm
 	// HomogeneousMcAdams is the homogeneous model with 1/μ = x/μv + (1−x)/μl.
 	HomogeneousMcAdams

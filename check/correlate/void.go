@@ -113,7 +113,7 @@ func VoidFraction(m VoidMethod, x, G float64, p Props, accel, cosIncl float64) f
 func rouhaniAxelsson(x, G float64, p Props, accel, c float64) float64 {
 	G = math.Abs(G)
 	var vgj float64
-	if d := accel * p.Sigma * (p.RhoL - p.RhoV); d > 0 {
+	if d := math.Abs(accel) * p.Sigma * (p.RhoL - p.RhoV); d > 0 {
 		vgj = 1.18 * (1 - x) * math.Sqrt(math.Sqrt(d)/p.RhoL)
 	}
 	num := G * x / p.RhoV
