@@ -11,7 +11,8 @@
 // Quality below 0 is treated as saturated liquid and above 1 as saturated
 // vapour.
 //
-// Methods and their references:
+// Methods and their references (volume and page numbers beyond author,
+// year and journal are given from memory):
 //
 // Single-phase Darcy friction factor:
 //   - [Churchill] (default): S.W. Churchill, "Friction-factor equation spans
@@ -42,7 +43,7 @@
 //     Transfer 10 (1967) 1767–1778.
 //   - Homogeneous with the mixture viscosity of W.H. McAdams et al., Trans.
 //     ASME 64 (1942) 193–200; A. Cicchitti et al., Energia Nucleare 7 (1960)
-//     407–425; or A.E. Dukler et al., AIChE J. 10 (1964) 38–43.
+//     407–425; or A.E. Dukler et al., AIChE J. 10 (1964) 38–51.
 //
 // Boiling and condensation:
 //   - [CHFPool]: pool-boiling critical heat flux, N. Zuber, AECU-4439 (1958)
