@@ -458,7 +458,7 @@ func (p *csvParser) finish() (Fluid, error) {
 	if p.info.Source == "" {
 		p.info.Source = "user table"
 	}
-	ct := &csvTable{info: p.info, tmin: T[0], tmax: T[n-1], pmin: p.data[cP][0], pmax: p.data[cP][n-1]}
+	ct := &csvTable{info: p.info, tmin: T[0], tmax: T[n-1]}
 	x := make([]float64, n)
 	for i, t := range T {
 		x[i] = -1 / t
@@ -470,6 +470,10 @@ func (p *csvParser) finish() (Fluid, error) {
 	if err := ct.lnp.Fit(x, lnp); err != nil {
 		return nil, &TableError{Msg: "fitting the pressure: " + err.Error()}
 	}
+	// The pressure range is that of the interpolant at its ends, which may
+	// differ from the table in the last bit, so that AtT and AtP agree on it.
+	ct.pmin = math.Exp(ct.lnp.Predict(x[0]))
+	ct.pmax = math.Exp(ct.lnp.Predict(x[n-1]))
 	for c := cRhoL; c < cCount; c++ {
 		if !p.has[c] && c != cHL {
 			continue
@@ -505,7 +509,8 @@ func (ct *csvTable) AtT(T float64) (Sat, error) {
 	if !(T >= ct.tmin && T <= ct.tmax) {
 		return Sat{}, &RangeError{Fluid: ct.info.Name, Quantity: "temperature", Value: T, Min: ct.tmin, Max: ct.tmax, Unit: "K"}
 	}
-	return ct.at(T, math.Exp(ct.lnp.Predict(-1/T))), nil
+	p := math.Exp(ct.lnp.Predict(-1 / T))
+	return ct.at(T, min(max(p, ct.pmin), ct.pmax)), nil // AtP accepts every pressure AtT gives
 }
 
 func (ct *csvTable) at(T, p float64) Sat {

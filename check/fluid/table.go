@@ -39,6 +39,11 @@ const (
 	fSigma
 )
 
+// tableFieldNames names the fields in error messages.
+var tableFieldNames = [tableNumFields]string{"pressure", "liquid density", "vapour density",
+	"liquid enthalpy", "latent heat", "liquid specific heat", "vapour specific heat",
+	"liquid viscosity", "vapour viscosity", "liquid conductivity", "vapour conductivity", "surface tension"}
+
 // tableLog marks the fields interpolated as logarithms: those spanning
 // decades (pressure, vapour density, liquid viscosity) or vanishing at the
 // critical point (latent heat, surface tension). The others are smooth
@@ -156,18 +161,15 @@ func tableValues(name string, s Sat) ([tableNumFields]float64, error) {
 	raw := [tableNumFields]float64{s.P, s.RhoL, s.RhoV, s.HL, s.Hlv, s.CpL, s.CpV, s.MuL, s.MuV, s.KL, s.KV, s.Sigma}
 	for f, v := range raw {
 		if math.IsNaN(v) || math.IsInf(v, 0) {
-			return y, fmt.Errorf("%s: non-finite saturated property at %g K", name, s.T)
+			return y, fmt.Errorf("%s: saturated %s is %g at %g K", name, tableFieldNames[f], v, s.T)
+		}
+		if f != fHL && v <= 0 { // every property but the enthalpy, whose zero is arbitrary
+			return y, fmt.Errorf("%s: saturated %s is %g at %g K, not positive", name, tableFieldNames[f], v, s.T)
 		}
 		if tableLog[f] {
-			if v <= 0 {
-				return y, fmt.Errorf("%s: non-positive saturated property at %g K", name, s.T)
-			}
 			v = math.Log(v)
 		}
 		y[f] = v
-	}
-	if s.P <= 0 {
-		return y, fmt.Errorf("%s: non-positive saturation pressure at %g K", name, s.T)
 	}
 	return y, nil
 }
@@ -219,8 +221,10 @@ func (tb *tabulated) fit(n int, x1 float64, ys [][tableNumFields]float64) {
 			copy(tb.lnp, y)
 		}
 	}
-	tb.pmin = math.Exp(tb.lnp[0])
-	tb.pmax = math.Exp(tb.lnp[n])
+	// The pressure range is that of the interpolant at its ends, which may
+	// differ from the nodes in the last bit, so that AtT and AtP agree on it.
+	tb.pmin = tb.eval(0, 0, 0).P
+	tb.pmax = tb.eval(n-1, 1, 0).P
 }
 
 // eval returns the state at local coordinate t of interval i; T is the
@@ -255,15 +259,21 @@ func (tb *tabulated) AtT(T float64) (Sat, error) {
 		return Sat{}, &RangeError{Fluid: tb.info.Name, Quantity: "temperature", Value: T,
 			Min: tb.info.Tmin, Max: tb.info.Tmax, Unit: "K"}
 	}
-	u := (tb.gridX(T) - tb.x0) / tb.dx
-	i := int(u)
-	if i >= tb.n {
-		i = tb.n - 1
-	} else if i < 0 {
-		i = 0
+	var i int
+	var t float64
+	switch T {
+	case tb.info.Tmin: // the ends exactly, free of round-off in the grid map
+		i, t = 0, 0
+	case tb.info.Tmax:
+		i, t = tb.n-1, 1
+	default:
+		u := (tb.gridX(T) - tb.x0) / tb.dx
+		i = min(max(int(u), 0), tb.n-1)
+		t = min(max(u-float64(i), 0), 1)
 	}
-	t := min(max(u-float64(i), 0), 1)
-	return tb.eval(i, t, T), nil
+	s := tb.eval(i, t, T)
+	s.P = min(max(s.P, tb.pmin), tb.pmax) // AtP accepts every pressure AtT gives
+	return s, nil
 }
 
 // AtP finds the saturated state at p (Pa) by solving the interpolated ln p(T)
