@@ -6,8 +6,9 @@
 // saturated phase properties, so the package does not depend on any property
 // source. Functions never panic. For physical inputs they return finite
 // numbers; inputs outside the physical range (negative densities,
-// diameters, NaN) give 0 rather than NaN or Inf, so callers validate their
-// inputs first ([Props.Validate]) and must not read a 0 as a verdict.
+// diameters, NaN) give 0 rather than NaN, and overflow is clamped to
+// ±math.MaxFloat64, so callers validate their inputs first
+// ([Props.Validate]) and must not read a 0 as a verdict.
 // Quality below 0 is treated as saturated liquid and above 1 as saturated
 // vapour.
 //
