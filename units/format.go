@@ -179,41 +179,68 @@ var suggestPool = func() []string {
 	return out
 }()
 
+// poolEntry is a spelling Suggest may offer, with its forms precomputed.
+type poolEntry struct {
+	text, lower, skel string
+	sorted            []rune
+}
+
+var suggestEntries = func() []poolEntry {
+	out := make([]poolEntry, len(suggestPool))
+	for i, t := range suggestPool {
+		out[i] = poolEntry{text: t, lower: strings.ToLower(t), skel: skeleton(t), sorted: sortedRunes(t)}
+	}
+	return out
+}()
+
 // Suggest returns up to three known spellings closest to s, best first:
-// spellings equal but for case, then those with the same letters and digits
-// (kgs -> kg/s), then anagrams (psgi -> psig), then by edit distance.
+// spellings equal but for case, then those with the same letters and
+// digits (kgs -> kg/s), then two symbols run together (kgK -> kg*K), then
+// anagrams (psgi -> psig), then by edit distance.
 func Suggest(s string) []string {
 	if s == "" || len(s) > 64 {
 		return nil
 	}
 	type cand struct {
-		text             string
-		fold, skel, anag int
-		edits            int
-		idx              int
+		text                    string
+		fold, skel, split, anag int
+		edits                   int
+		idx                     int
 	}
 	sk := skeleton(s)
 	lower := strings.ToLower(s)
+	sorted := sortedRunes(s)
 	limit := 1
 	if n := len([]rune(s)); n > 4 {
 		limit = 2
 	}
 	var cs []cand
-	for i, t := range suggestPool {
-		if t == s {
+	for i, e := range suggestEntries {
+		if e.text == s {
 			continue
 		}
-		c := cand{text: t, idx: i, edits: editDistance(s, t), skel: editDistance(sk, skeleton(t))}
-		c.fold = 1
-		c.anag = 1
-		if sameLetters(s, t) {
-			c.anag = 0
-		}
-		if strings.ToLower(t) == lower {
+		c := cand{text: e.text, idx: i, fold: 1, skel: 1, anag: 1, edits: editDistance(s, e.text)}
+		if e.lower == lower {
 			c.fold = 0
 		}
-		if c.fold == 0 || (c.skel == 0 && sk != "") || c.edits <= limit {
+		if sk != "" && e.skel == sk {
+			c.skel = 0
+		}
+		if slices.Equal(sorted, e.sorted) {
+			c.anag = 0
+		}
+		// A known symbol that starts s: "degree" -> "deg".
+		prefix := len(e.text) >= 3 && strings.HasPrefix(s, e.text)
+		if c.fold == 0 || c.skel == 0 || c.anag == 0 || c.edits <= limit || prefix {
 			cs = append(cs, c)
+		}
+	}
+	// Two unprefixed symbols run together: "kgK" -> "kg*K". Ranked after
+	// known spellings with the same letters, so "kgs" still gives "kg/s".
+	for i := 1; i < len(s); i++ {
+		if atoms[s[:i]] != nil && atoms[s[i:]] != nil {
+			cs = append(cs, cand{text: s[:i] + "*" + s[i:], fold: 1, split: 1, idx: -1})
+			break
 		}
 	}
 	slices.SortStableFunc(cs, func(a, b cand) int {
@@ -222,6 +249,9 @@ func Suggest(s string) []string {
 		}
 		if a.skel != b.skel {
 			return a.skel - b.skel
+		}
+		if a.split != b.split {
+			return a.split - b.split
 		}
 		if a.anag != b.anag {
 			return a.anag - b.anag
@@ -236,20 +266,17 @@ func Suggest(s string) []string {
 		if len(out) == 3 {
 			break
 		}
-		out = append(out, c.text)
+		if !slices.Contains(out, c.text) {
+			out = append(out, c.text)
+		}
 	}
 	return out
 }
 
-// sameLetters reports whether a and b hold the same runes in some order.
-func sameLetters(a, b string) bool {
-	ra, rb := []rune(a), []rune(b)
-	if len(ra) != len(rb) {
-		return false
-	}
-	slices.Sort(ra)
-	slices.Sort(rb)
-	return slices.Equal(ra, rb)
+func sortedRunes(s string) []rune {
+	r := []rune(s)
+	slices.Sort(r)
+	return r
 }
 
 // skeleton keeps only the letters and digits of a spelling.

@@ -20,11 +20,19 @@ type Unit struct {
 	Gauge  bool // a gauge pressure: the SI value adds the standard atmosphere, 101325 Pa
 }
 
-// ToSI converts a value written in u to SI.
-func (u Unit) ToSI(v float64) float64 { return u.Factor*v + u.Offset }
+// ToSI converts a value written in u to SI. The zero Unit acts as the
+// dimensionless unit.
+func (u Unit) ToSI(v float64) float64 { return u.scale()*v + u.Offset }
 
 // FromSI converts an SI value to u.
-func (u Unit) FromSI(si float64) float64 { return (si - u.Offset) / u.Factor }
+func (u Unit) FromSI(si float64) float64 { return (si - u.Offset) / u.scale() }
+
+func (u Unit) scale() float64 {
+	if u.Factor == 0 {
+		return 1
+	}
+	return u.Factor
+}
 
 // Quantity returns the quantity that v written in u denotes.
 func (u Unit) Quantity(v float64) Quantity {
@@ -205,6 +213,11 @@ func (p *parser) finish(v val) (Unit, error) {
 	if !v.dim.fits(maxExp) {
 		return Unit{}, p.errf(0, len(p.s), "unit powers are too large")
 	}
+	for _, pt := range v.parts {
+		if pt.exp > maxPower || pt.exp < -maxPower {
+			return Unit{}, p.errf(0, len(p.s), "the power of %q is too large", pt.name)
+		}
+	}
 	if !finitePositive(v.factor) {
 		return Unit{}, p.errf(0, len(p.s), "unit scale is out of range")
 	}
@@ -304,6 +317,9 @@ func (p *parser) expr() (val, error) {
 			return val{}, p.errf(p.pos, p.pos+n, "write a product with \"*\" or \"·\", not \".\"")
 		case spaced && startsFactor(r):
 			// A space between two units is a product: "Pa s", "W/(m2 K)".
+		case startsFactor(r):
+			return val{}, p.errf(p.pos, p.pos+n, "put \"*\" or a space between two units (as in %s*%s)",
+				strings.TrimSpace(p.s[:p.pos]), p.s[p.pos:p.pos+n])
 		default:
 			return val{}, p.errf(p.pos, p.pos+n, "unexpected %q in unit", string(r))
 		}

@@ -200,14 +200,16 @@ func TestKnownParse(t *testing.T) {
 
 func TestSuggest(t *testing.T) {
 	tests := map[string]string{
-		"kgs":   "kg/s",
-		"Kpa":   "kPa",
-		"mmm":   "mm",
-		"degf":  "degF",
-		"psgi":  "psig",
-		"Wm2K":  "W/(m2*K)",
-		"btu":   "Btu",
-		"delta": "",
+		"kgs":    "kg/s",
+		"Kpa":    "kPa",
+		"mmm":    "mm",
+		"degf":   "degF",
+		"psgi":   "psig",
+		"Wm2K":   "W/(m2*K)",
+		"kgK":    "kg*K",
+		"degree": "deg",
+		"btu":    "Btu",
+		"delta":  "",
 	}
 	for in, want := range tests {
 		got := Suggest(in)

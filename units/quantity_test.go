@@ -137,6 +137,9 @@ func TestFormat(t *testing.T) {
 		{-0.0001, "m", "-1e-4 m"},
 		{0.2930710701722222, "Btu/h", "1 Btu/h"}, // NIST SP 811 (2008) B.8: 1 Btu_IT/h = 0.293 071 1 W
 	}
+	if got := Format(0.5, Unit{}); got != "0.5" {
+		t.Errorf("Format with the zero Unit = %q, want 0.5", got)
+	}
 	for _, tc := range tests {
 		if got := Format(tc.si, MustParse(tc.u)); got != tc.want {
 			t.Errorf("Format(%g, %q) = %q, want %q", tc.si, tc.u, got, tc.want)
