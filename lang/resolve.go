@@ -694,6 +694,32 @@ func (r *resolver) componentFields(c *Component, st *Stmt) {
 	for _, s := range own {
 		r.componentField(c, c.File, s)
 	}
+	r.conflicts(c)
+}
+
+// conflicts reports fields that say the same thing twice in different ways.
+func (r *resolver) conflicts(c *Component) {
+	pairs := []struct {
+		a, b   string
+		va, vb bool
+		spanB  Span
+		fileB  string
+	}{
+		{"rise", "run", c.Rise.Set, c.Run.Set, c.Run.Span, c.Run.File},
+		{"bore", "flow_area", c.Bore.Set, c.FlowArea.Set, c.FlowArea.Span, c.FlowArea.File},
+		{"bore", "hydraulic_diameter", c.Bore.Set, c.HydDiameter.Set, c.HydDiameter.Span, c.HydDiameter.File},
+		{"wetted_area", "heat_flux", c.WettedArea.Set, c.HeatFlux.Set, c.HeatFlux.Span, c.HeatFlux.File},
+		{"conductance", "outlet", c.Conductance.Set, c.Outlet.Set, c.Outlet.Span, c.Outlet.File},
+	}
+	for _, p := range pairs {
+		if p.va && p.vb {
+			r.errorf("conflicting-fields", p.fileB, p.spanB, "%s %s gives both %s and %s; keep one", c.Kind, c.Name, p.a, p.b)
+		}
+	}
+	if c.FlowArea.Set && !c.HydDiameter.Set && !c.Bore.Set {
+		// A flow area alone is taken as a round tube; say so only through Diameter's doc.
+		return
+	}
 }
 
 func (r *resolver) componentField(c *Component, file string, s *Stmt) {
