@@ -10,8 +10,8 @@ import (
 // grid that is uniform in x = (1 − T/Tc)^(1/3). In that variable the
 // power laws that govern the approach to the critical point are nearly
 // linear, so the grid is dense in temperature near Tmax and sparse at low
-// temperature. Positive properties are interpolated as logarithms (pressure
-// as ln p, which is nearly linear in 1/T). The grid is refined by halving
+// temperature. Properties spanning decades are interpolated as logarithms
+// (pressure as ln p, which is nearly linear in 1/T). The grid is refined by halving
 // until the interval midpoints, checked against the fluid's equations, agree
 // within tableTol.
 
@@ -45,12 +45,9 @@ var tableFieldNames = [tableNumFields]string{"pressure", "liquid density", "vapo
 	"liquid viscosity", "vapour viscosity", "liquid conductivity", "vapour conductivity", "surface tension"}
 
 // tableLog marks the fields interpolated as logarithms: those spanning
-// decades (pressure, vapour density, liquid viscosity) or vanishing at the
-// critical point (latent heat, surface tension). The others are smooth
-// enough as they are, and each logarithm costs an exponential per look-up.
-var tableLog = [tableNumFields]bool{
-	fP: true, fRhoV: true, fHlv: true, fMuL: true, fSigma: true,
-}
+// decades (pressure, vapour density, liquid viscosity). The others need no
+// more nodes as they are, and each logarithm costs an exponential per look-up.
+var tableLog = [tableNumFields]bool{fP: true, fRhoV: true, fMuL: true}
 
 // tabulated is an immutable cached table of one fluid's saturated states.
 type tabulated struct {

@@ -142,12 +142,21 @@ func BenchmarkAtP(b *testing.B) {
 	}
 }
 
+// BenchmarkBuild times building one fluid's table, for every built-in fluid.
 func BenchmarkBuild(b *testing.B) {
-	b.ReportAllocs()
-	for b.Loop() {
-		if _, err := newTabulated(water{}); err != nil {
-			b.Fatal(err)
-		}
+	for _, in := range List() {
+		e, _ := Direct(in.Name)
+		b.Run(in.Name, func(b *testing.B) {
+			b.ReportAllocs()
+			for b.Loop() {
+				if _, err := newTabulated(e); err != nil {
+					b.Skip(err)
+				}
+			}
+			if tb, err := newTabulated(e); err == nil {
+				b.ReportMetric(float64(tb.(*tabulated).n), "intervals")
+			}
+		})
 	}
 }
 
