@@ -113,9 +113,9 @@ func (fm *formatter) print() []byte {
 		lones = append(lones, lone{c.Span.Start, line, text})
 	}
 
-	lastLine := -1      // source line of the last thing written
-	afterOpen := false  // the last line written opened a block
-	wrote := false      // anything written yet
+	lastLine := -1     // source line of the last thing written
+	afterOpen := false // the last line written opened a block
+	wrote := false     // anything written yet
 	blankBefore := func(line int) bool {
 		return wrote && !afterOpen && lastLine >= 0 && line-lastLine >= 2
 	}
