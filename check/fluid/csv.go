@@ -153,8 +153,9 @@ func LoadCSV(path string) (Fluid, error) {
 // the rows), zero at the first row, which neglects the small pressure term of
 // a saturated liquid's enthalpy. Without cp_v or k_v those fields are zero.
 //
-// Temperatures must increase down the table, pressures with them, and every
-// value except h_l must be positive; at least four rows are needed. Values
+// Temperatures must increase down the table (by at least a millionth from
+// row to row), pressures with them, and every value except h_l must be
+// positive; at least four rows are needed. Values
 // between rows are interpolated with monotone cubics in the logarithms of the
 // values (ln p against −1/T, the others against T; h_l as it is);
 // nothing is extrapolated: look-ups outside the table's range are
@@ -226,6 +227,7 @@ func readCSV(r io.Reader, name string, nameFirst bool) (Fluid, error) {
 type csvParser struct {
 	info  Info
 	cols  []int // csvColumns index of each field; nil before the header
+	tcol  int   // field number of T, from 1
 	names []string
 	unit  [cCount]units.Unit
 	has   [cCount]bool
@@ -343,6 +345,9 @@ func (p *csvParser) header(line int, text string) error {
 		}
 		p.has[c] = true
 		p.cols[j] = c
+		if c == cT {
+			p.tcol = j + 1
+		}
 		unitText[c], unitCol[c] = u, j+1
 	}
 	for c, col := range csvColumns {
@@ -462,6 +467,12 @@ func (p *csvParser) finish() (Fluid, error) {
 	x := make([]float64, n)
 	for i, t := range T {
 		x[i] = -1 / t
+		// Rows closer than a millionth of the temperature make the
+		// interpolants' slopes meaninglessly steep.
+		if i > 0 && !(t-T[i-1] >= 1e-6*t) {
+			return nil, &TableError{Line: p.lines[i], Column: p.tcol, Name: p.names[p.tcol-1],
+				Msg: fmt.Sprintf("temperature %g K is too close to the previous row's %g K (rows must differ by a millionth or more)", t, T[i-1])}
+		}
 	}
 	lnp := make([]float64, n)
 	for i, v := range p.data[cP] {

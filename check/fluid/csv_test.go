@@ -133,6 +133,8 @@ func TestFromCSVRejects(t *testing.T) {
 			"line 4, column 10 (sigma): sigma must be positive, got 0"},
 		{"negative kelvin", csvRows("-5, 3.5, 996, 0.026, 2437, 4.18, 0.85, 9.9, 0.61, 71.7", row2, row3, row4),
 			"line 2, column 1 (T): temperature -5 is not above absolute zero"},
+		{"temperatures too close", csvRows(row1, row2, row3, strings.Replace(row4, "330", "320.00000000000006", 1)),
+			"line 5, column 1 (T): temperature 320.00000000000006 K is too close to the previous row's 320 K"},
 		{"field count", csvRows(row1, row2, row3+", 7", row4), "line 4: 11 fields, but the header names 10 columns"},
 		{"NaN value", csvRows(row1, row2, strings.Replace(row3, "989", "NaN", 1), row4),
 			`line 4, column 3 (rho_l): not a number "NaN"`},
