@@ -7,9 +7,9 @@ package fluid
 // Eng. Chem. Res. 53 (2014) 2498, which cites that paper; checked against
 // saturation values computed from it (see eos_test.go).
 
-func init() { register(acetone.prepare()) }
+func init() { register(acetone) }
 
-var acetone = &helmholtz{
+var acetone = (&helmholtz{
 	info: Info{
 		Name:      "Acetone",
 		Aliases:   []string{"propanone", "2-propanone", "dimethyl ketone"},
@@ -39,7 +39,7 @@ var acetone = &helmholtz{
 		n: []float64{-2.7083518485413607, -3.1091181958405696, -11.940789313674161, 6086.186843505146, -12978.535578983987, 7630.400461122001},
 		t: []float64{0.375, 0.899, 5.115, 12.812, 13.551, 14.638}},
 	sigma: mulero{Tc: 508.1, a: []float64{0.0633}, n: []float64{1.16}},
-}
+}).prepare()
 
 // Residual part αʳ of the equation of state cited at the top of this file.
 var acetoneResidual = residual{

@@ -11,9 +11,9 @@ package fluid
 // Eng. Chem. Res. 53 (2014) 2498, which cites that paper; checked against
 // saturation values computed from it (see eos_test.go).
 
-func init() { register(ammonia.prepare()) }
+func init() { register(ammonia) }
 
-var ammonia = &helmholtz{
+var ammonia = (&helmholtz{
 	info: Info{
 		Name:      "Ammonia",
 		Aliases:   []string{"R717", "R-717", "NH3"},
@@ -45,7 +45,7 @@ var ammonia = &helmholtz{
 		n: []float64{-0.053296, -3.4589, -6.7572, -17.26, -43.12, -115.18},
 		t: []float64{0.14, 0.44, 1.314, 3.225, 6.4, 14.0}},
 	sigma: mulero{Tc: 405.4, a: []float64{0.1028, -0.09453}, n: []float64{1.211, 5.585}},
-}
+}).prepare()
 
 // Residual part αʳ of the equation of state cited at the top of this file.
 var ammoniaResidual = residual{

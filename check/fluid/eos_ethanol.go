@@ -7,9 +7,9 @@ package fluid
 // Eng. Chem. Res. 53 (2014) 2498, which cites that paper; checked against
 // saturation values computed from it (see eos_test.go).
 
-func init() { register(ethanol.prepare()) }
+func init() { register(ethanol) }
 
-var ethanol = &helmholtz{
+var ethanol = (&helmholtz{
 	info: Info{
 		Name:      "Ethanol",
 		Aliases:   []string{"C2H5OH", "ethyl alcohol"},
@@ -39,7 +39,7 @@ var ethanol = &helmholtz{
 		n: []float64{-4.698337259111072, -10.953380258011986, 12.92351305172882, -1017.0017776259273, 1604.552160868234, -1439.9265562459323},
 		t: []float64{0.443, 2.304, 4.146, 11.027, 12.113, 17.485}},
 	sigma: mulero{Tc: 513.9, a: []float64{0.05}, n: []float64{0.952}},
-}
+}).prepare()
 
 // Residual part αʳ of the equation of state cited at the top of this file.
 var ethanolResidual = residual{

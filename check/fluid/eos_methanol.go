@@ -7,9 +7,9 @@ package fluid
 // Eng. Chem. Res. 53 (2014) 2498, which cites that paper; checked against
 // saturation values computed from it (see eos_test.go).
 
-func init() { register(methanol.prepare()) }
+func init() { register(methanol) }
 
-var methanol = &helmholtz{
+var methanol = (&helmholtz{
 	info: Info{
 		Name:      "Methanol",
 		Aliases:   []string{"CH3OH", "methyl alcohol"},
@@ -39,7 +39,7 @@ var methanol = &helmholtz{
 		n: []float64{-3.567397307329701, 6.410399799034237, -7.619523084192452, -4.47952181298982, -2.9395458001342796, 5.838421064753882},
 		t: []float64{0.07600000000000001, 0.14, 0.362, 1.8333333333333333, 7.0, 14.166666666666666}},
 	sigma: mulero{Tc: 513.38, a: []float64{0.22421, -0.21408, 0.083233}, n: []float64{1.3355, 1.677, 4.4402}},
-}
+}).prepare()
 
 // Residual part αʳ of the equation of state cited at the top of this file.
 var methanolResidual = residual{

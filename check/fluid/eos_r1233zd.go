@@ -7,9 +7,9 @@ package fluid
 // Eng. Chem. Res. 53 (2014) 2498, which cites that paper; checked against
 // saturation values computed from it (see eos_test.go).
 
-func init() { register(r1233zd.prepare()) }
+func init() { register(r1233zd) }
 
-var r1233zd = &helmholtz{
+var r1233zd = (&helmholtz{
 	info: Info{
 		Name:      "R1233zd(E)",
 		Aliases:   []string{"R-1233zd(E)", "R1233zdE", "R1233zd", "HCFO-1233zd(E)", "HCFO1233zdE", "trans-1-chloro-3,3,3-trifluoropropene"},
@@ -29,14 +29,20 @@ var r1233zd = &helmholtz{
 	// "Surface tension of low GWP refrigerants R1243zf, R1234ze(Z), and
 	// R1233zd(E)", Int. J. Refrig. 53 (2015) 80–89, in the Mulero form.
 	sigma: mulero{Tc: 438.75, a: []float64{0.06195}, n: []float64{1.277}},
-	refT:  273.15, refH: 200e3,
+	trans: pair{
+		// Viscosity: extended corresponding states with R134a as reference
+		// fluid (Huber et al. 2003), no fitted shape factor, Chung dilute gas.
+		visc: &ecsViscosity{ref: r134aViscosity, refEOS: r134a, dilute: chungDilute{}},
+		cond: chungConductivity{},
+	},
+	refT: 273.15, refH: 200e3,
 	liq: ancillary{form: ancLinear, overT: false, Tr: 438.86, red: 3704.0 * 130.4962 / 1000,
 		n: []float64{0.61448, 2.6345, -1.316, 0.86885, 0.34071},
 		t: []float64{0.22, 0.55, 0.94, 1.4, 6.8}},
 	vap: ancillary{form: ancExp, overT: false, Tr: 438.86, red: 3704.0 * 130.4962 / 1000,
 		n: []float64{-0.80785, -3.2355, -2.7567, -10.863, -33.456, -69.31},
 		t: []float64{0.24, 0.59, 1.0, 2.2, 4.7, 9.0}},
-}
+}).prepare()
 
 // Residual part αʳ of the equation of state cited at the top of this file.
 var r1233zdResidual = residual{

@@ -7,9 +7,9 @@ package fluid
 // Eng. Chem. Res. 53 (2014) 2498, which cites that paper; checked against
 // saturation values computed from it (see eos_test.go).
 
-func init() { register(r1234yf.prepare()) }
+func init() { register(r1234yf) }
 
-var r1234yf = &helmholtz{
+var r1234yf = (&helmholtz{
 	info: Info{
 		Name:      "R1234yf",
 		Aliases:   []string{"R-1234yf", "HFO-1234yf", "HFO1234yf", "2,3,3,3-tetrafluoroprop-1-ene"},
@@ -25,7 +25,22 @@ var r1234yf = &helmholtz{
 	res: r1234yfResidual, id: r1234yfIdeal,
 	// Transport: Chung et al. (1988) with dipole moment from Tanaka and Higashi, Int. J. Refrig. 33 (2010) 474 (from memory);
 	chung: chung{M: 114.0416, Tc: 367.85, Vc: 114.0416 / 476.69 * 1000, mu: 2.48, kappa: 0},
-	refT:  273.15, refH: 200e3,
+	trans: pair{
+		// Viscosity: extended corresponding states with R134a as reference
+		// fluid (Huber et al. 2003), no fitted shape factor, Chung dilute gas.
+		visc: &ecsViscosity{ref: r134aViscosity, refEOS: r134a, dilute: chungDilute{}},
+		// Thermal conductivity: R.A. Perkins, M.L. Huber, "Measurement and
+		// correlation of the thermal conductivity of 2,3,3,3-tetrafluoroprop-1-ene
+		// (R1234yf) and trans-1,3,3,3-tetrafluoropropene (R1234ze(E))",
+		// J. Chem. Eng. Data 56 (2011) 4868–4874.
+		cond: &refConductivity{Tr: 367.85, rhoR: 475.55,
+			a:  []float64{-0.0102778, 0.0291098, 0.000860643},
+			b1: []float64{-0.0368219, 0.0883226, -0.0705909, 0.0259026, -0.0032295},
+			b2: []float64{0.0397166, -0.077239, 0.0664707, -0.0249071, 0.00336228},
+			crit: olchowy{R0: 1.03, gamma: 1.239, nu: 0.63, Gamma: 0.0496, xi0: 1.94e-10, qD: 1.7137960582e9,
+				Tref: 1.5 * 367.85, pc: 3384400, rhoc: 476.69}},
+	},
+	refT: 273.15, refH: 200e3,
 	liq: ancillary{form: ancLinear, overT: false, Tr: 367.85, red: 4180.0 * 114.0416 / 1000,
 		n: []float64{3.392, -4.119, 8.932, -8.525, 3.384},
 		t: []float64{0.4, 0.7, 1.1, 1.5, 2.1}},
@@ -33,7 +48,7 @@ var r1234yf = &helmholtz{
 		n: []float64{-3.616, -74.91, 197.7, -152.76, -61.062, -115.53},
 		t: []float64{0.426, 2.0, 2.4, 2.7, 7.5, 15.0}},
 	sigma: mulero{Tc: 367.85, a: []float64{0.06274}, n: []float64{1.394}},
-}
+}).prepare()
 
 // Residual part αʳ of the equation of state cited at the top of this file.
 var r1234yfResidual = residual{

@@ -7,9 +7,9 @@ package fluid
 // Eng. Chem. Res. 53 (2014) 2498, which cites that paper; checked against
 // saturation values computed from it (see eos_test.go).
 
-func init() { register(r1234ze.prepare()) }
+func init() { register(r1234ze) }
 
-var r1234ze = &helmholtz{
+var r1234ze = (&helmholtz{
 	info: Info{
 		Name:      "R1234ze(E)",
 		Aliases:   []string{"R-1234ze(E)", "R1234zeE", "R1234ze", "HFO-1234ze(E)", "HFO1234zeE", "trans-1,3,3,3-tetrafluoropropene"},
@@ -25,7 +25,20 @@ var r1234ze = &helmholtz{
 	res: r1234zeResidual, id: r1234zeIdeal,
 	// Transport: Chung et al. (1988) with dipole moment from Tanaka and Higashi, Int. J. Refrig. 33 (2010) 474 (from memory);
 	chung: chung{M: 114.0416, Tc: 382.52, Vc: 114.0416 / 489.24 * 1000, mu: 1.27, kappa: 0},
-	refT:  273.15, refH: 200e3,
+	trans: pair{
+		// Viscosity: extended corresponding states with R134a as reference
+		// fluid (Huber et al. 2003), no fitted shape factor, Chung dilute gas.
+		visc: &ecsViscosity{ref: r134aViscosity, refEOS: r134a, dilute: chungDilute{}},
+		// Thermal conductivity: R.A. Perkins, M.L. Huber, J. Chem. Eng. Data 56
+		// (2011) 4868–4874 (see R1234yf).
+		cond: &refConductivity{Tr: 382.52, rhoR: 489.24,
+			a:  []float64{-0.0103589, 0.0308929, 0.000230348},
+			b1: []float64{-0.0428296, 0.0927099, -0.0702107, 0.0249708, -0.00301838},
+			b2: []float64{0.0434288, -0.0605844, 0.0440187, -0.0155082, 0.0021019},
+			crit: olchowy{R0: 1.03, gamma: 1.239, nu: 0.63, Gamma: 0.0496, xi0: 1.94e-10, qD: 1.7137960582e9,
+				Tref: 1.5 * 382.52, pc: 3635376, rhoc: 489.24}},
+	},
+	refT: 273.15, refH: 200e3,
 	liq: ancillary{form: ancLinear, overT: false, Tr: 382.52, red: 4290.0 * 114.0416 / 1000,
 		n: []float64{-8.42282936179494, 35.592169315198404, -27.748444759203856, 3.0869391194586315, 0.49297732386262993, 2436.2254360953007},
 		t: []float64{0.07, 0.096, 0.10800000000000001, 0.383, 2.6666666666666665, 25.0}},
@@ -33,7 +46,7 @@ var r1234ze = &helmholtz{
 		n: []float64{1.9861295422409955, -3.601910664347684, 110.97544193749978, -113.63727224413014, -1.7016720393939881, -5.765500312051858},
 		t: []float64{0.10500000000000001, 0.139, 0.38749999999999996, 0.39449999999999996, 1.3333333333333333, 4.166666666666667}},
 	sigma: mulero{Tc: 382.51, a: []float64{0.06158, 0.8247}, n: []float64{1.281, 6.505}},
-}
+}).prepare()
 
 // Residual part αʳ of the equation of state cited at the top of this file.
 var r1234zeResidual = residual{

@@ -7,9 +7,9 @@ package fluid
 // Eng. Chem. Res. 53 (2014) 2498, which cites that paper; checked against
 // saturation values computed from it (see eos_test.go).
 
-func init() { register(r245fa.prepare()) }
+func init() { register(r245fa) }
 
-var r245fa = &helmholtz{
+var r245fa = (&helmholtz{
 	info: Info{
 		Name:      "R245fa",
 		Aliases:   []string{"R-245fa", "HFC-245fa", "HFC245fa", "1,1,1,3,3-pentafluoropropane"},
@@ -25,7 +25,16 @@ var r245fa = &helmholtz{
 	res: r245faResidual, id: r245faIdeal,
 	// Transport: Chung et al. (1988) with dipole moment from Goodwin and Mehl, Int. J. Thermophys. 18 (1997) 795 (from memory);
 	chung: chung{M: 134.0479, Tc: 427.01, Vc: 134.0479 / 519.44 * 1000, mu: 1.549, kappa: 0},
-	refT:  273.15, refH: 200e3,
+	trans: pair{
+		// Viscosity: extended corresponding states of M.L. Huber, A. Laesecke,
+		// R.A. Perkins, Ind. Eng. Chem. Res. 42 (2003) 3163 with R134a as
+		// reference fluid and the fluid's published parameters (σ, ε/k, ψ).
+		visc: &ecsViscosity{ref: r134aViscosity, refEOS: r134a,
+			psi: []float64{1.1529, -0.044154}, psiRho: 3857,
+			dilute: chapmanEnskog{M: 134.0479, sigma: 0.5529, epsK: 329.72}},
+		cond: chungConductivity{},
+	},
+	refT: 273.15, refH: 200e3,
 	liq: ancillary{form: ancLinear, overT: false, Tr: 427.01, red: 3875.0 * 134.0479 / 1000,
 		n: []float64{-0.645916749226158, 1.2435143264412414, 2.1374254146018647, -1.4105539340976712, 2.697825229930464, -1.236775453941409},
 		t: []float64{0.144, 0.165, 0.53, 1.993, 2.646, 3.593}},
@@ -33,7 +42,7 @@ var r245fa = &helmholtz{
 		n: []float64{-0.12316786769188867, -3.5467162730203325, -2.100626576983384, -3.02259697521286, -10.604906302496444, 12.900898794193413},
 		t: []float64{0.075, 0.466, 1.018, 2.817, 6.14, 8.5}},
 	sigma: mulero{Tc: 427.16, a: []float64{0.073586, 0.0103, -0.02663}, n: []float64{1.0983, 0.60033, 0.72765}},
-}
+}).prepare()
 
 // Residual part αʳ of the equation of state cited at the top of this file.
 var r245faResidual = residual{

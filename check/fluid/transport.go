@@ -170,56 +170,44 @@ func (d dippr101) at(T float64) float64 {
 	return math.Exp(d[0] + d[1]/T + d[2]*math.Log(T) + d[3]*math.Pow(T, d[4]))
 }
 
-// refTransport is a fluid-specific reference correlation of the form
-// η = η0(T) + η1(T) ρ + Δη(ρ, T) and λ = λ0(T) + λr(ρ, T) + λc(ρ, T):
-// dilute gas from kinetic theory with a fitted collision integral, the
-// Rainwater–Friend initial-density term, a residual term and, for the
-// thermal conductivity, the simplified critical enhancement of Olchowy and
-// Sengers (Int. J. Thermophys. 10 (1989) 417).
-type refTransport struct {
-	// Dilute-gas viscosity η0 = 0.021357 √(M T) / (σ² Ω) µPa·s,
-	// ln Ω = Σ a_i (ln T*)^i, T* = T/(ε/k).
+// refViscosity is a fluid-specific reference viscosity correlation
+// η = η0(T) + η1(T) ρ + Δη(ρ, T): dilute gas from kinetic theory with a fitted
+// collision integral, the Rainwater–Friend initial-density term and a
+// residual term in the modified Batschinski–Hildebrand form.
+type refViscosity struct {
+	// Dilute gas η0 = 0.021357 √(M T) / (σ² Ω) µPa·s, ln Ω = Σ a_i (ln T*)^i,
+	// T* = T/(ε/k).
 	M      float64 // molar mass, g/mol
 	sigma  float64 // Lennard-Jones size, nm
 	epsK   float64 // Lennard-Jones energy ε/k, K
 	omegaA []float64
 	// Initial-density term η1 = η0 N_A σ³ Σ b_i T*^t_i.
 	rfB, rfT []float64
-	// Residual viscosity (Pa·s), modified Batschinski–Hildebrand form:
-	// Δη = Σ a_i δ^d_i τ^t_i + f (1/(δ0−δ) − 1/δ0), δ0 = g/Σ p_i τ^q_i,
-	// δ = ρ/(rhoRV·M), τ = TrV/T.
-	TrV, rhoRV    float64 // K, mol/m³
+	// Residual (Pa·s): Σ a_i δ^d_i τ^t_i + f (1/(δ0−δ) − 1/δ0),
+	// δ0 = g / Σ p_i τ^q_i, δ = ρ/rhoR (molar), τ = Tr/T.
+	Tr, rhoR      float64 // K, mol/m³
 	hoA, hoD, hoT []float64
 	hoF, hoG      float64
 	hoP, hoQ      []float64
-	// Conductivity (W/(m·K)): λ0 = Σ k0_i T^i;
-	// λr = Σ kr_i (ρ/rhoRK)^i (i = 1, 2, …).
-	k0    []float64
-	kr    []float64
-	rhoRK float64 // kg/m³
-	// Critical enhancement parameters.
-	crit olchowy
-}
-
-// olchowy holds the simplified Olchowy–Sengers critical-enhancement constants.
-type olchowy struct {
-	R0, gamma, nu, Gamma float64
-	xi0, qD              float64 // m, 1/m
-	Tref                 float64 // K
-	Tc, pc, rhoc         float64 // K, Pa, kg/m³
 }
 
 const avogadro = 6.02214076e23
 
-func (r *refTransport) viscosity(T, rho float64) float64 {
-	ts := T / r.epsK
-	lt := math.Log(ts)
+// dilute is η0(T) in Pa·s.
+func (r *refViscosity) dilute(T float64) float64 {
+	lt := math.Log(T / r.epsK)
 	lnOm, pw := 0.0, 1.0
 	for _, a := range r.omegaA {
 		lnOm += a * pw
 		pw *= lt
 	}
-	eta0 := 0.021357e-6 * math.Sqrt(r.M*T) / (r.sigma * r.sigma * math.Exp(lnOm))
+	return 0.021357e-6 * math.Sqrt(r.M*T) / (r.sigma * r.sigma * math.Exp(lnOm))
+}
+
+// at is η(T, ρ) in Pa·s, ρ in kg/m³.
+func (r *refViscosity) at(T, rho float64) float64 {
+	eta0 := r.dilute(T)
+	ts := T / r.epsK
 	bs := 0.0
 	for i, b := range r.rfB {
 		bs += b * math.Pow(ts, r.rfT[i])
@@ -227,7 +215,7 @@ func (r *refTransport) viscosity(T, rho float64) float64 {
 	sig := r.sigma * 1e-9
 	rhoMol := rho / (r.M * 1e-3)
 	eta1 := eta0 * avogadro * sig * sig * sig * bs * rhoMol
-	delta, tau := rhoMol/r.rhoRV, r.TrV/T
+	delta, tau := rhoMol/r.rhoR, r.Tr/T
 	s := 0.0
 	for i, a := range r.hoA {
 		s += a * math.Pow(delta, r.hoD[i]) * math.Pow(tau, r.hoT[i])
@@ -241,21 +229,119 @@ func (r *refTransport) viscosity(T, rho float64) float64 {
 	return eta0 + eta1 + s
 }
 
-func (r *refTransport) transport(st state) (mu, k float64) {
-	mu = r.viscosity(st.T, st.rho)
-	pw := 1.0
-	for _, c := range r.k0 {
-		k += c * pw
-		pw *= st.T
+func (r *refViscosity) viscosity(s state) float64 { return r.at(s.T, s.rho) }
+
+// ecsViscosity is the extended corresponding-states viscosity of M.L. Huber,
+// A. Laesecke, R.A. Perkins, Ind. Eng. Chem. Res. 42 (2003) 3163:
+// η(T, ρ) = η*(T) + [η₀(T₀, ρ₀ψ) − η₀*(T₀)] F, F = √f h^(−2/3) √(M/M₀),
+// with the reference fluid's correlation η₀ and the conformal state
+// (T₀ = T/f, ρ₀ = ρ h) found exactly from both equations of state (equal
+// reduced residual Helmholtz energy and compressibility factor). ψ is the
+// fluid's viscosity shape factor Σ c_i (ρ/ρc)^i (1 where none is published);
+// η* is the fluid's dilute-gas viscosity.
+type ecsViscosity struct {
+	ref    *refViscosity
+	refEOS *helmholtz
+	psi    []float64 // in powers of δ = ρ/psiRho (molar)
+	psiRho float64   // mol/m³
+	dilute viscosityModel
+}
+
+// conformal returns T₀ and ρ₀ (kg/m³ of the reference fluid) of the state of
+// the reference fluid that corresponds to (T, ρ) of fluid h.
+func conformal(h, ref *helmholtz, T, rho float64) (T0, rho0 float64, ok bool) {
+	tau, delta := h.Tr/T, rho/h.rhoR
+	r := alphar(h.terms, tau, delta)
+	wantA, wantZ := r.a, delta*r.d
+	// Start from the ratio of critical constants.
+	t0 := ref.Tr / (T * ref.info.Tc / h.info.Tc)
+	d0 := rho / h.M * (ref.info.RhoC / ref.M) / (h.info.RhoC / h.M) * ref.M / ref.rhoR
+	for it := 0; it < 50; it++ {
+		q := alphar(ref.terms, t0, d0)
+		fa, fz := q.a-wantA, d0*q.d-wantZ
+		// Jacobian in (τ₀, δ₀).
+		a11, a12 := q.t, q.d
+		a21, a22 := d0*q.dt, q.d+d0*q.dd
+		det := a11*a22 - a12*a21
+		if det == 0 || math.IsNaN(det) {
+			return 0, 0, false
+		}
+		dt := (fa*a22 - fz*a12) / det
+		dd := (a11*fz - a21*fa) / det
+		for k := 0; k < 20 && (t0-dt <= 0 || d0-dd <= 0); k++ {
+			dt, dd = dt/2, dd/2
+		}
+		t0 -= dt
+		d0 -= dd
+		if math.Abs(dt) < 1e-12*t0 && math.Abs(dd) < 1e-12*d0 {
+			return ref.Tr / t0, d0 * ref.rhoR, true
+		}
 	}
-	d := st.rho / r.rhoRK
-	pw = d
-	for _, c := range r.kr {
-		k += c * pw
+	return 0, 0, false
+}
+
+func (e *ecsViscosity) viscosity(s state) float64 {
+	h, ref := s.h, e.refEOS
+	T0, rho0, ok := conformal(h, ref, s.T, s.rho)
+	if !ok { // fall back on the ratio of critical constants
+		T0 = s.T * ref.info.Tc / h.info.Tc
+		rho0 = s.rho / h.M * (ref.info.RhoC / ref.M) / (h.info.RhoC / h.M) * ref.M
+	}
+	f := s.T / T0
+	hh := (rho0 / ref.M) / (s.rho / h.M) // molar density ratio ρ₀/ρ
+	psi, pw := 0.0, 1.0
+	d := s.rho / h.M / e.psiRho
+	for _, c := range e.psi {
+		psi += c * pw
 		pw *= d
 	}
-	k += r.crit.enhancement(st, mu)
-	return mu, k
+	if e.psi == nil {
+		psi = 1
+	}
+	res := e.ref.at(T0, rho0*psi) - e.ref.dilute(T0)
+	F := math.Sqrt(f) * math.Pow(hh, -2.0/3.0) * math.Sqrt(h.M/ref.M)
+	return e.dilute.viscosity(s) + res*F
+}
+
+// refConductivity is a fluid-specific reference thermal-conductivity
+// correlation λ = λ0(T) + λr(ρ, T) + λc(ρ, T), in W/(m·K): λ0 = Σ a_i (T/Tr)^i,
+// λr = Σ (b1_i + b2_i T/Tr) (ρ/rhoR)^i (i = 1, 2, …) and λc the simplified
+// critical enhancement of G.A. Olchowy and J.V. Sengers, Int. J.
+// Thermophys. 10 (1989) 417.
+type refConductivity struct {
+	Tr     float64 // K
+	rhoR   float64 // kg/m³
+	a      []float64
+	b1, b2 []float64
+	crit   olchowy
+}
+
+func (r *refConductivity) conductivity(s state, mu float64) float64 {
+	tr := s.T / r.Tr
+	k, pw := 0.0, 1.0
+	for _, c := range r.a {
+		k += c * pw
+		pw *= tr
+	}
+	d := s.rho / r.rhoR
+	pw = d
+	for i, c := range r.b1 {
+		b := c
+		if i < len(r.b2) {
+			b += r.b2[i] * tr
+		}
+		k += b * pw
+		pw *= d
+	}
+	return k + r.crit.enhancement(s, mu)
+}
+
+// olchowy holds the simplified Olchowy–Sengers critical-enhancement constants.
+type olchowy struct {
+	R0, gamma, nu, Gamma float64
+	xi0, qD              float64 // m, 1/m
+	Tref                 float64 // K
+	pc, rhoc             float64 // Pa, kg/m³
 }
 
 // enhancement is the simplified Olchowy–Sengers critical term λc.
@@ -272,4 +358,45 @@ func (o *olchowy) enhancement(st state, mu float64) float64 {
 	om := 2 / math.Pi * ((st.cp-st.cv)/st.cp*math.Atan(qx) + st.cv/st.cp*qx)
 	om0 := 2 / math.Pi * (1 - math.Exp(-1/(1/qx+qx*qx/3*(o.rhoc/rho)*(o.rhoc/rho))))
 	return rho * st.cp * o.R0 * kB * T / (6 * math.Pi * mu * xi) * (om - om0)
+}
+
+// viscosityModel and conductivityModel are the two halves of a transport
+// model; pair joins them (the conductivity's critical term needs η).
+type viscosityModel interface{ viscosity(s state) float64 }
+type conductivityModel interface {
+	conductivity(s state, mu float64) float64
+}
+
+type pair struct {
+	visc viscosityModel
+	cond conductivityModel
+}
+
+func (p pair) transport(s state) (mu, k float64) {
+	mu = p.visc.viscosity(s)
+	return mu, p.cond.conductivity(s, mu)
+}
+
+// chungConductivity is the conductivity half of the fluid's Chung model.
+type chungConductivity struct{}
+
+func (chungConductivity) conductivity(s state, _ float64) float64 {
+	_, k := s.h.chung.transport(s)
+	return k
+}
+
+// chapmanEnskog is the dilute-gas viscosity 0.0266958 √(M T)/(σ² Ω) µPa·s of
+// kinetic theory with the Neufeld collision integral (M in g/mol, σ in nm).
+type chapmanEnskog struct{ M, sigma, epsK float64 }
+
+func (c chapmanEnskog) viscosity(s state) float64 {
+	return 0.0266958e-6 * math.Sqrt(c.M*s.T) / (c.sigma * c.sigma * neufeld(s.T/c.epsK))
+}
+
+// chungDilute is the fluid's Chung dilute-gas viscosity.
+type chungDilute struct{}
+
+func (chungDilute) viscosity(s state) float64 {
+	_, _, mu0, _ := s.h.chung.dense(s.T, 0, s.cv0)
+	return mu0
 }
