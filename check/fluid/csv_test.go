@@ -106,6 +106,39 @@ func TestFromCSVMinimal(t *testing.T) {
 	if f.Info().Name != "mini" {
 		t.Errorf("name %q", f.Info().Name)
 	}
+	// Brackets, aliases, a borrowed unit, comments and a "# name:" line used
+	// when no name is given.
+	text := "# name: bracketed\n# a plain comment: ignored\n" +
+		"Tsat [degC], psat [bar], rho_liquid [kg/m3], rho_g, h_fg [J/g], cp_l [J/(g K)], eta_l [cP], mu_g [uPa s], lambda_l [mW/(m K)], surface_tension [N/m]\n" +
+		"10, 0.012282, 999.654, 0.0094066, 2477.21, 4.1958, 1.306, 9.2384, 578.71, 0.074221\n" +
+		"# a comment between rows\n" +
+		"20, 0.023392, 998.161, 0.017313, 2453.55, 4.1851, 1.0016, 9.5441, 597.95, 0.072736\n" +
+		"30, 0.042467, 995.609, 0.030412, 2429.84, 4.1803, 0.79722, 9.8602, 614.34, 0.071194\n" +
+		"\n" +
+		"40, 0.073844, 992.183, 0.051237, 2406, 4.1788, 0.65272, 10.185, 628.45, 0.069596\n"
+	f, err = FromCSV(strings.NewReader(text), "")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if f.Info().Name != "bracketed" || math.Abs(f.Info().Tmin-283.15) > 1e-9 {
+		t.Errorf("Info() = %+v", f.Info())
+	}
+	// The 20 °C row in SI, as written in the table above.
+	s, err = f.AtT(293.15)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, c := range []struct {
+		name      string
+		got, want float64
+	}{
+		{"p", s.P, 2339.2}, {"rho_v", s.RhoV, 0.017313}, {"h_lv", s.Hlv, 2453.55e3}, {"cp_l", s.CpL, 4185.1},
+		{"mu_l", s.MuL, 1.0016e-3}, {"mu_v", s.MuV, 9.5441e-6}, {"k_l", s.KL, 0.59795}, {"sigma", s.Sigma, 0.072736},
+	} {
+		if math.Abs(c.got-c.want) > 1e-9*c.want {
+			t.Errorf("%s = %.8g, want %.8g", c.name, c.got, c.want)
+		}
+	}
 }
 
 func TestFromCSVRejects(t *testing.T) {
