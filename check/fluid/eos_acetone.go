@@ -26,10 +26,9 @@ var acetone = (&helmholtz{
 	// Transport: Chung et al. (1988) with dipole moment from Poling et al., The Properties of Gases and Liquids 5th ed., App. A (from memory);
 	chung: chung{M: 58.07914, Tc: 508.1, Vc: 58.07914 / 272.97 * 1000, mu: 2.88, kappa: 0,
 		// VDI Heat Atlas, 2nd ed. (2010), section D3.1, tables of PPDS coefficients:
-		liqMu:  ppdsViscosity{1.65496, 0.5733, 610.687, 11.477, 2.915e-5}.at,
-		liqK:   ppdsPoly{0.2871, -4.233e-4, 1.9e-8, -1.48e-10, 2.28e-13}.at,
-		gasMu0: ppdsPoly{-4.063e-7, 2.6639e-8, -5.33e-13, 0, 0}.at,
-		gasK0:  ppdsPoly{-0.001474, 1.2e-5, 1.0358e-7, 0, 0}.at,
+		liqMu: ppdsViscosity{1.65496, 0.5733, 610.687, 11.477, 2.915e-5}.at,
+		liqK:  ppdsPoly{0.2871, -4.233e-4, 1.9e-8, -1.48e-10, 2.28e-13}.at,
+		gasK0: ppdsPoly{-0.001474, 1.2e-5, 1.0358e-7, 0, 0}.at,
 	},
 	refT: 273.15, refH: 200e3,
 	liq: ancillary{form: ancLinear, overT: false, Tr: 508.1, red: 4699.999999999999 * 58.07914 / 1000,

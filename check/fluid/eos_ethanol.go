@@ -26,10 +26,9 @@ var ethanol = (&helmholtz{
 	// Transport: Chung et al. (1988) with dipole moment from Poling et al., The Properties of Gases and Liquids 5th ed., App. A (from memory); Chung et al. (1988), Table 1 (from memory)
 	chung: chung{M: 46.06844, Tc: 514.71, Vc: 46.06844 / 273.19 * 1000, mu: 1.69, kappa: 0.174823,
 		// VDI Heat Atlas, 2nd ed. (2010), section D3.1, tables of PPDS coefficients:
-		liqMu:  ppdsViscosity{6.16832, -0.00125, 740.323, 90.778, 3.8e-7}.at,
-		liqK:   ppdsPoly{0.2467, -2.636e-4, 0, 0, 0}.at,
-		gasMu0: ppdsPoly{-6.394e-7, 3.6445e-8, -1.7984e-11, 1.28e-14, -4.13e-18}.at,
-		gasK0:  ppdsPoly{-0.002398, 2.4e-5, 1.18133e-7, -9.986e-12, 3.912e-15}.at,
+		liqMu: ppdsViscosity{6.16832, -0.00125, 740.323, 90.778, 3.8e-7}.at,
+		liqK:  ppdsPoly{0.2467, -2.636e-4, 0, 0, 0}.at,
+		gasK0: ppdsPoly{-0.002398, 2.4e-5, 1.18133e-7, -9.986e-12, 3.912e-15}.at,
 	},
 	refT: 273.15, refH: 200e3,
 	liq: ancillary{form: ancLinear, overT: false, Tr: 514.71, red: 5930.0 * 46.06844 / 1000,
