@@ -23,7 +23,8 @@ var acetone = (&helmholtz{
 	R: 8.314472, M: 58.07914 / 1000,
 	Tr: 508.1, rhoR: 4699.999999999999 * 58.07914 / 1000,
 	res: acetoneResidual, id: acetoneIdeal,
-	// Transport: Chung et al. (1988) with dipole moment from Poling et al., The Properties of Gases and Liquids 5th ed., App. A (from memory);
+	// Chung et al. (1988) constants (ω is set from the equation of state);
+	// dipole moment: Poling et al., The Properties of Gases and Liquids 5th ed., App. A (from memory).
 	chung: chung{M: 58.07914, Tc: 508.1, Vc: 58.07914 / 272.97 * 1000, mu: 2.88, kappa: 0,
 		// VDI Heat Atlas, 2nd ed. (2010), section D3.1, tables of PPDS coefficients:
 		liqMu: ppdsViscosity{1.65496, 0.5733, 610.687, 11.477, 2.915e-5}.at,

@@ -27,7 +27,8 @@ var ammonia = (&helmholtz{
 	R: 8.3144598, M: 17.03052 / 1000,
 	Tr: 405.56, rhoR: 13696 * 17.03052 / 1000,
 	res: ammoniaResidual, id: ammoniaIdeal,
-	// Transport: Chung et al. (1988) with dipole moment from Poling et al., The Properties of Gases and Liquids 5th ed., App. A (from memory); no association factor is tabulated for ammonia; κ = 0
+	// Chung et al. (1988) constants (ω is set from the equation of state);
+	// dipole moment: Poling et al., The Properties of Gases and Liquids 5th ed., App. A (from memory); no association factor is tabulated for ammonia; κ = 0.
 	chung: chung{M: 17.03052, Tc: 405.56, Vc: 17.03052 / 233.25 * 1000, mu: 1.47, kappa: 0,
 		// Liquid viscosity: DIPPR equation 101 from Perry's Chemical Engineers'
 		// Handbook, 8th ed. (2008), Table 2-313 (fitted 195.41–393.15 K).

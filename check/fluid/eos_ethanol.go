@@ -23,7 +23,8 @@ var ethanol = (&helmholtz{
 	R: 8.314472, M: 46.06844 / 1000,
 	Tr: 514.71, rhoR: 5930 * 46.06844 / 1000,
 	res: ethanolResidual, id: ethanolIdeal,
-	// Transport: Chung et al. (1988) with dipole moment from Poling et al., The Properties of Gases and Liquids 5th ed., App. A (from memory); Chung et al. (1988), Table 1 (from memory)
+	// Chung et al. (1988) constants (ω is set from the equation of state);
+	// dipole moment: Poling et al., The Properties of Gases and Liquids 5th ed., App. A (from memory); Chung et al. (1988), Table 1 (from memory).
 	chung: chung{M: 46.06844, Tc: 514.71, Vc: 46.06844 / 273.19 * 1000, mu: 1.69, kappa: 0.174823,
 		// VDI Heat Atlas, 2nd ed. (2010), section D3.1, tables of PPDS coefficients:
 		liqMu: ppdsViscosity{6.16832, -0.00125, 740.323, 90.778, 3.8e-7}.at,

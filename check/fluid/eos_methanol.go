@@ -23,7 +23,8 @@ var methanol = (&helmholtz{
 	R: 8.31448, M: 32.04216 / 1000,
 	Tr: 513.38, rhoR: 8785.17 * 32.04216 / 1000,
 	res: methanolResidual, id: methanolIdeal,
-	// Transport: Chung et al. (1988) with dipole moment from Poling et al., The Properties of Gases and Liquids 5th ed., App. A (from memory); Chung et al. (1988), Table 1 (from memory)
+	// Chung et al. (1988) constants (ω is set from the equation of state);
+	// dipole moment: Poling et al., The Properties of Gases and Liquids 5th ed., App. A (from memory); Chung et al. (1988), Table 1 (from memory).
 	chung: chung{M: 32.04216, Tc: 512.5, Vc: 32.04216 / 273 * 1000, mu: 1.7, kappa: 0.215175,
 		// VDI Heat Atlas, 2nd ed. (2010), section D3.1, tables of PPDS coefficients:
 		liqMu:  ppdsViscosity{3.79226, 0.17755, 546.563, 87.845, 7.91e-6}.at,

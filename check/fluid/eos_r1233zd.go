@@ -18,12 +18,13 @@ var r1233zd = (&helmholtz{
 		Tmin:   233.15, // −40 °C; triple point 165.75 K
 		Tmax:   438.86 - 3,
 		Safety: "A1", // ASHRAE 34 safety group (from memory)
-		Source: "EOS: Akasaka and Lemmon, J. Phys. Chem. Ref. Data 51 (2022) 023101; transport: Chung et al., Ind. Eng. Chem. Res. 27 (1988) 671; surface tension: Kondou et al., Int. J. Refrig. 53 (2015) 80",
+		Source: "EOS: Akasaka and Lemmon, J. Phys. Chem. Ref. Data 51 (2022) 023101; viscosity: extended corresponding states (Huber et al., Ind. Eng. Chem. Res. 42 (2003) 3163) with R134a as reference; thermal conductivity: Chung et al., Ind. Eng. Chem. Res. 27 (1988) 671; surface tension: Kondou et al., Int. J. Refrig. 53 (2015) 80",
 	},
 	R: 8.314462618, M: 130.4962 / 1000,
 	Tr: 438.86, rhoR: 3704.0 * 130.4962 / 1000,
 	res: r1233zdResidual, id: r1233zdIdeal,
-	// Transport: Chung et al. (1988) with dipole moment from from memory (value commonly quoted with the reference equation of state);
+	// Chung et al. (1988) constants (ω is set from the equation of state);
+	// dipole moment: value commonly quoted for this fluid (from memory).
 	chung: chung{M: 130.4962, Tc: 438.86, Vc: 130.4962 / 483.36 * 1000, mu: 1.44, kappa: 0},
 	// Surface tension: C. Kondou, R. Nagata, N. Nii, S. Koyama, Y. Higashi,
 	// "Surface tension of low GWP refrigerants R1243zf, R1234ze(Z), and

@@ -18,12 +18,13 @@ var r1234yf = (&helmholtz{
 		Tmin:   233.15, // −40 °C; triple point 121.6 K
 		Tmax:   367.85 - 3,
 		Safety: "A2L", // ASHRAE 34 safety group (from memory)
-		Source: "EOS: Lemmon and Akasaka, Int. J. Thermophys. 43 (2022) 119; transport: Chung et al., Ind. Eng. Chem. Res. 27 (1988) 671; surface tension: Mulero et al., J. Phys. Chem. Ref. Data 41 (2012) 043105",
+		Source: "EOS: Lemmon and Akasaka, Int. J. Thermophys. 43 (2022) 119; viscosity: extended corresponding states (Huber et al., Ind. Eng. Chem. Res. 42 (2003) 3163) with R134a as reference; thermal conductivity: Perkins and Huber, J. Chem. Eng. Data 56 (2011) 4868; surface tension: Mulero et al., J. Phys. Chem. Ref. Data 41 (2012) 043105",
 	},
 	R: 8.314462618, M: 114.0416 / 1000,
 	Tr: 367.85, rhoR: 4180.0 * 114.0416 / 1000,
 	res: r1234yfResidual, id: r1234yfIdeal,
-	// Transport: Chung et al. (1988) with dipole moment from Tanaka and Higashi, Int. J. Refrig. 33 (2010) 474 (from memory);
+	// Chung et al. (1988) constants (ω is set from the equation of state);
+	// dipole moment: Tanaka and Higashi, Int. J. Refrig. 33 (2010) 474 (from memory).
 	chung: chung{M: 114.0416, Tc: 367.85, Vc: 114.0416 / 476.69 * 1000, mu: 2.48, kappa: 0},
 	trans: pair{
 		// Viscosity: extended corresponding states with R134a as reference

@@ -18,12 +18,13 @@ var r1234ze = (&helmholtz{
 		Tmin:   233.15, // −40 °C; triple point 168.62 K
 		Tmax:   382.52 - 3,
 		Safety: "A2L", // ASHRAE 34 safety group (from memory)
-		Source: "EOS: Thol and Lemmon, Int. J. Thermophys. 37 (2016) 28; transport: Chung et al., Ind. Eng. Chem. Res. 27 (1988) 671; surface tension: Mulero and Cachadiña, J. Phys. Chem. Ref. Data 43 (2014) 023104",
+		Source: "EOS: Thol and Lemmon, Int. J. Thermophys. 37 (2016) 28; viscosity: extended corresponding states (Huber et al., Ind. Eng. Chem. Res. 42 (2003) 3163) with R134a as reference; thermal conductivity: Perkins and Huber, J. Chem. Eng. Data 56 (2011) 4868; surface tension: Mulero and Cachadiña, J. Phys. Chem. Ref. Data 43 (2014) 023104",
 	},
 	R: 8.314472, M: 114.0416 / 1000,
 	Tr: 382.513, rhoR: 4290 * 114.0416 / 1000,
 	res: r1234zeResidual, id: r1234zeIdeal,
-	// Transport: Chung et al. (1988) with dipole moment from Tanaka and Higashi, Int. J. Refrig. 33 (2010) 474 (from memory);
+	// Chung et al. (1988) constants (ω is set from the equation of state);
+	// dipole moment: Tanaka and Higashi, Int. J. Refrig. 33 (2010) 474 (from memory).
 	chung: chung{M: 114.0416, Tc: 382.52, Vc: 114.0416 / 489.24 * 1000, mu: 1.27, kappa: 0},
 	trans: pair{
 		// Viscosity: extended corresponding states with R134a as reference

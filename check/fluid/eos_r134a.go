@@ -23,7 +23,8 @@ var r134a = (&helmholtz{
 	R: 8.314471, M: 102.032 / 1000,
 	Tr: 374.18, rhoR: 4978.830171000001 * 102.032 / 1000,
 	res: r134aResidual, id: r134aIdeal,
-	// Transport: Chung et al. (1988) with dipole moment from Meyer and Morrison, J. Phys. Chem. 95 (1991) 3860 (from memory);
+	// Chung et al. (1988) constants (ω is set from the equation of state);
+	// dipole moment: Meyer and Morrison, J. Phys. Chem. 95 (1991) 3860 (from memory).
 	chung: chung{M: 102.032, Tc: 374.21, Vc: 102.032 / 511.9 * 1000, mu: 2.058, kappa: 0},
 	trans: pair{r134aViscosity, r134aConductivity},
 	refT:  273.15, refH: 200e3,

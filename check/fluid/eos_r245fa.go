@@ -18,12 +18,13 @@ var r245fa = (&helmholtz{
 		Tmin:   233.15, // −40 °C; triple point 171.05 K
 		Tmax:   427.01 - 3,
 		Safety: "B1", // ASHRAE 34 safety group (from memory)
-		Source: "EOS: Akasaka, Zhou and Lemmon, J. Phys. Chem. Ref. Data 44 (2015) 013104; transport: Chung et al., Ind. Eng. Chem. Res. 27 (1988) 671; surface tension: Mulero et al., J. Phys. Chem. Ref. Data 41 (2012) 043105",
+		Source: "EOS: Akasaka, Zhou and Lemmon, J. Phys. Chem. Ref. Data 44 (2015) 013104; viscosity: extended corresponding states of Huber et al., Ind. Eng. Chem. Res. 42 (2003) 3163; thermal conductivity: Chung et al., Ind. Eng. Chem. Res. 27 (1988) 671; surface tension: Mulero et al., J. Phys. Chem. Ref. Data 41 (2012) 043105",
 	},
 	R: 8.3144621, M: 134.0479 / 1000,
 	Tr: 427.01, rhoR: 3875 * 134.0479 / 1000,
 	res: r245faResidual, id: r245faIdeal,
-	// Transport: Chung et al. (1988) with dipole moment from Goodwin and Mehl, Int. J. Thermophys. 18 (1997) 795 (from memory);
+	// Chung et al. (1988) constants (ω is set from the equation of state);
+	// dipole moment: Goodwin and Mehl, Int. J. Thermophys. 18 (1997) 795 (from memory).
 	chung: chung{M: 134.0479, Tc: 427.01, Vc: 134.0479 / 519.44 * 1000, mu: 1.549, kappa: 0},
 	trans: pair{
 		// Viscosity: extended corresponding states of M.L. Huber, A. Laesecke,

@@ -164,10 +164,8 @@ func alphar(ts []term, tau, delta float64) derivs {
 			f1 = -2 * tm.dEta * x
 			f2 = -2 * tm.dEta
 		}
-		D := math.Exp(tm.d*lnd + f)
 		q := tm.d/delta + f1
-		D1 := D * q
-		D2 := D * (q*q - tm.d/(delta*delta) + f2)
+		qq := q*q - tm.d/(delta*delta) + f2
 		// τ factor, likewise.
 		g, g1, g2 := 0.0, 0.0, 0.0
 		switch tm.tKind {
@@ -189,16 +187,16 @@ func alphar(ts []term, tau, delta float64) derivs {
 			g1 = -u1 / (u * u)
 			g2 = -2*tm.tBeta/(u*u) + 2*u1*u1/(u*u*u)
 		}
-		E := math.Exp(tm.t*lnt + g)
 		p := tm.t/tau + g1
-		E1 := E * p
-		E2 := E * (p*p - tm.t/(tau*tau) + g2)
-		r.a += tm.n * D * E
-		r.d += tm.n * D1 * E
-		r.dd += tm.n * D2 * E
-		r.t += tm.n * D * E1
-		r.tt += tm.n * D * E2
-		r.dt += tm.n * D1 * E1
+		pp := p*p - tm.t/(tau*tau) + g2
+		// n D E, with D = δ^d e^f and E = τ^t e^g, in one exponential.
+		w := tm.n * math.Exp(tm.d*lnd+f+tm.t*lnt+g)
+		r.a += w
+		r.d += w * q
+		r.dd += w * qq
+		r.t += w * p
+		r.tt += w * pp
+		r.dt += w * q * p
 	}
 	return r
 }
@@ -322,7 +320,9 @@ func (h *helmholtz) saturate(T float64) (dl, dv float64, err error) {
 		}
 		dl += stepL
 		dv += stepV
-		if math.Abs(stepL) <= 1e-13*dl && math.Abs(stepV) <= 1e-13*dv {
+		// Convergence is quadratic: after a step this small the iterate is
+		// exact to rounding.
+		if math.Abs(stepL) <= 1e-11*dl && math.Abs(stepV) <= 1e-11*dv {
 			if dl/dv < 1+1e-6 {
 				return 0, 0, errNoConvergence // collapsed onto one root
 			}

@@ -131,3 +131,31 @@ func TestLiquidViscosityDIPPR(t *testing.T) {
 		}
 	}
 }
+
+// TestHalocarbonLiquids is a coarse check, within 10 %, of the saturated
+// liquid at 25 °C for fluids without a VDI table here. The reference
+// values are from memory (values of the fluids' reference transport
+// correlations as commonly tabulated), so the tolerance is wide.
+func TestHalocarbonLiquids(t *testing.T) {
+	for _, c := range []struct {
+		name     string
+		mu, k    float64 // Pa·s, W/(m·K); 0: not checked
+		muSource string
+	}{
+		{"R1234yf", 155e-6, 0.0630, "from memory"},
+		{"R1234ze(E)", 200e-6, 0.0750, "from memory"},
+		{"R245fa", 402e-6, 0, "from memory"},
+	} {
+		e, _ := Direct(c.name)
+		s, err := e.Direct(298.15)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !within(s.MuL, c.mu, 0, 0.10) {
+			t.Errorf("%s at 25 °C: µ' = %.4g Pa·s, expected about %.4g (%s)", c.name, s.MuL, c.mu, c.muSource)
+		}
+		if c.k > 0 && !within(s.KL, c.k, 0, 0.10) {
+			t.Errorf("%s at 25 °C: λ' = %.4g W/(m·K), expected about %.4g (%s)", c.name, s.KL, c.k, c.muSource)
+		}
+	}
+}
