@@ -1,0 +1,459 @@
+package flow
+
+import (
+	"errors"
+	"fmt"
+	"runtime"
+	"strings"
+	"sync"
+
+	"circa/check/correlate"
+	"circa/check/fluid"
+	"circa/check/geom"
+	"circa/lang"
+)
+
+// Options adjust an estimate.
+type Options struct {
+	// Case restricts the estimate to one case ("" for every case).
+	Case string
+	// Void and Friction override the methods block (names as in loop files,
+	// underscores or hyphens).
+	Void, Friction string
+	// Cells overrides the number of cells per heated component.
+	Cells int
+	// NoTilt skips the search for the attitudes at which circulation stops.
+	NoTilt bool
+	// Sweep adds a grid of attitudes and accelerations to every case.
+	Sweep *Sweep
+	// Workers bounds the parallel evaluations (0: GOMAXPROCS).
+	Workers int
+}
+
+// Sweep is a grid of attitudes (radians) and accelerations (m/s², equipment
+// frame) evaluated for every case, each combination replacing the case's own
+// attitude and acceleration. An empty list keeps the case's value.
+type Sweep struct {
+	Pitch, Roll []float64
+	Accel       [][3]float64
+}
+
+// point is one attitude and acceleration of a case.
+type point struct {
+	c                *lang.Case
+	grid             bool
+	yaw, pitch, roll float64
+	accel            geom.Vec3
+}
+
+// prepared is what a loop needs for every case.
+type prepared struct {
+	l        *lang.Loop
+	net      *network
+	fl       fluid.Fluid
+	info     fluid.Info
+	methods  MethodsUsed
+	void     correlate.VoidMethod
+	fric     correlate.Friction
+	chfK     float64
+	limits   lang.Limits
+	findings []Finding
+}
+
+// Estimate evaluates every loop of m in every case (or the one named in
+// opts), with the tilt limits of each case unless opts.NoTilt. It returns an
+// error only for an unusable request (an unknown case or method name);
+// everything the model itself makes impossible is a finding in the result.
+func Estimate(m *lang.Model, opts Options) (*Result, error) {
+	res := &Result{Cautions: append([]string(nil), Cautions...)}
+	if m == nil {
+		return res, nil
+	}
+	cases := m.Cases
+	if opts.Case != "" {
+		c := m.Case(opts.Case)
+		if c == nil {
+			var names []string
+			for _, c := range m.Cases {
+				names = append(names, c.Name)
+			}
+			return nil, fmt.Errorf("no case %q (cases: %s)", opts.Case, strings.Join(names, ", "))
+		}
+		cases = []*lang.Case{c}
+	}
+	methods, err := chooseMethods(m.Methods, opts)
+	if err != nil {
+		return nil, err
+	}
+	var points []point
+	for _, c := range cases {
+		points = append(points, pointsOf(c, opts.Sweep)...)
+	}
+	if len(cases) == 0 {
+		points = append(points, point{})
+	}
+	for _, l := range m.Loops {
+		p := prepare(m, l, methods)
+		lr := LoopResult{Loop: l.Name, Fluid: l.Fluid.Name, Methods: p.methods, Assumptions: assumptions(),
+			Findings: p.findings}
+		if p.fl != nil {
+			lr.Safety = p.info.Safety
+			lr.Fluid = p.info.Name
+		}
+		if p.net != nil {
+			lr.Network = !p.net.ring
+		}
+		lr.Cases = make([]CaseResult, len(points))
+		if p.net != nil && p.fl != nil {
+			runParallel(len(points), opts.Workers, func(i int) {
+				lr.Cases[i] = p.run(points[i], !opts.NoTilt && !points[i].grid)
+			})
+		} else {
+			for i, pt := range points {
+				lr.Cases[i] = CaseResult{Case: caseName(pt.c), Reason: "the loop cannot be estimated (see the loop's findings)"}
+			}
+		}
+		lr.Worst = worst(lr.Cases)
+		res.Loops = append(res.Loops, lr)
+	}
+	return res, nil
+}
+
+func caseName(c *lang.Case) string {
+	if c == nil {
+		return "(no case)"
+	}
+	return c.Name
+}
+
+// runParallel calls f(0..n−1) on up to workers goroutines.
+func runParallel(n, workers int, f func(int)) {
+	if workers <= 0 {
+		workers = runtime.GOMAXPROCS(0)
+	}
+	if workers > n {
+		workers = n
+	}
+	if workers <= 1 {
+		for i := 0; i < n; i++ {
+			f(i)
+		}
+		return
+	}
+	var wg sync.WaitGroup
+	next := make(chan int, n)
+	for i := 0; i < n; i++ {
+		next <- i
+	}
+	close(next)
+	for w := 0; w < workers; w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for i := range next {
+				f(i)
+			}
+		}()
+	}
+	wg.Wait()
+}
+
+func pointsOf(c *lang.Case, sw *Sweep) []point {
+	base := point{c: c, yaw: c.Yaw.SI, pitch: c.Pitch.SI, roll: c.Roll.SI,
+		accel: geom.Vec3{c.Accel.X, c.Accel.Y, c.Accel.Z}}
+	out := []point{base}
+	if sw == nil || len(sw.Pitch)+len(sw.Roll)+len(sw.Accel) == 0 {
+		return out
+	}
+	pitches, rolls := sw.Pitch, sw.Roll
+	if len(pitches) == 0 {
+		pitches = []float64{base.pitch}
+	}
+	if len(rolls) == 0 {
+		rolls = []float64{base.roll}
+	}
+	accels := sw.Accel
+	if len(accels) == 0 {
+		accels = [][3]float64{base.accel}
+	}
+	for _, p := range pitches {
+		for _, r := range rolls {
+			for _, a := range accels {
+				out = append(out, point{c: c, grid: true, yaw: base.yaw, pitch: p, roll: r, accel: geom.Vec3(a)})
+			}
+		}
+	}
+	return out
+}
+
+func underscore(s string) string { return strings.ReplaceAll(s, "-", "_") }
+func hyphen(s string) string     { return strings.ReplaceAll(s, "_", "-") }
+
+func chooseMethods(ms lang.Methods, opts Options) (MethodsUsed, error) {
+	def := lang.DefaultMethods()
+	pick := func(c lang.Choice, d lang.Choice) string {
+		if c.Name != "" {
+			return c.Name
+		}
+		return d.Name
+	}
+	mu := MethodsUsed{
+		Void: pick(ms.Void, def.Void), Friction: pick(ms.Friction, def.Friction),
+		SinglePhase: pick(ms.SinglePhase, def.SinglePhase), CHF: pick(ms.CHF, def.CHF), Cells: def.Cells,
+	}
+	if ms.CellsSet && ms.Cells > 0 {
+		mu.Cells = ms.Cells
+	}
+	if opts.Cells > 0 {
+		mu.Cells = opts.Cells
+	}
+	if opts.Void != "" {
+		mu.Void = underscore(opts.Void)
+	}
+	if opts.Friction != "" {
+		mu.Friction = underscore(opts.Friction)
+	}
+	if _, err := correlate.ParseVoidMethod(hyphen(mu.Void)); err != nil {
+		return mu, err
+	}
+	if _, err := correlate.ParseFrictionMethod(hyphen(mu.Friction)); err != nil {
+		return mu, err
+	}
+	if mu.SinglePhase != "churchill" && mu.SinglePhase != "colebrook" {
+		return mu, fmt.Errorf("unknown single-phase friction method %q (want churchill or colebrook)", mu.SinglePhase)
+	}
+	if mu.CHF != "lienhard_dhir" && mu.CHF != "zuber" {
+		return mu, fmt.Errorf("unknown critical heat flux method %q (want lienhard_dhir or zuber)", mu.CHF)
+	}
+	if mu.Cells > 100000 {
+		mu.Cells = 100000
+	}
+	return mu, nil
+}
+
+func assumptions() []string {
+	return []string{
+		"steady, one-dimensional, quasi-static in attitude and acceleration",
+		"one saturation state per loop and case for all properties",
+		"condensing-side temperature uniform when the condenser balance sets the saturation temperature",
+		"evaporator heat uniform over the heated length, centred on the component",
+		"condensers bring their outflow to saturated (or subcooled) liquid linearly over their length",
+		"subcooled liquid: saturated-liquid density and viscosity at its own temperature",
+		"reservoirs hold liquid only and carry no flow",
+	}
+}
+
+// prepare resolves the fluid, methods and network of a loop.
+func prepare(m *lang.Model, l *lang.Loop, mu MethodsUsed) *prepared {
+	p := &prepared{l: l, methods: mu, limits: m.Limits}
+	p.void, _ = correlate.ParseVoidMethod(hyphen(mu.Void))
+	fm, _ := correlate.ParseFrictionMethod(hyphen(mu.Friction))
+	p.fric = correlate.Friction{Method: fm, SinglePhase: correlate.Churchill}
+	if mu.SinglePhase == "colebrook" {
+		p.fric.SinglePhase = correlate.Colebrook
+	}
+	p.chfK = correlate.LienhardDhir
+	if mu.CHF == "zuber" {
+		p.chfK = correlate.Zuber
+	}
+	var err error
+	switch {
+	case l.Fluid.Table != "":
+		p.fl, err = fluid.LoadCSV(l.Fluid.Table)
+	case l.Fluid.Name != "":
+		p.fl, err = fluid.Lookup(l.Fluid.Name)
+	default:
+		err = errors.New("the loop names no fluid")
+	}
+	if err != nil {
+		p.fl = nil
+		p.findings = append(p.findings, Finding{Rule: RuleFluidUnknown, Severity: "error", Loop: l.Name,
+			Message: fmt.Sprintf("no estimate for loop %s: %v", l.Name, err)})
+	} else {
+		p.info = p.fl.Info()
+		if s := p.info.Safety; s != "" && s != "A1" {
+			p.findings = append(p.findings, Finding{Rule: RuleFluidSafety, Severity: "info", Loop: l.Name,
+				Message: fmt.Sprintf("%s is safety class %s: flammability and toxicity rules, charge limits and local codes apply", p.info.Name, s)})
+		}
+	}
+	net, fs := buildNetwork(l, geom.Place(l))
+	for i := range fs {
+		fs[i].Loop = l.Name
+	}
+	p.findings = append(p.findings, fs...)
+	p.net = net
+	if net != nil {
+		nc := 0
+		for _, cp := range net.comps {
+			if cp.kind == lang.Condenser {
+				nc++
+			}
+		}
+		if nc == 0 {
+			p.findings = append(p.findings, Finding{Rule: RuleNoCondenser, Severity: "error", Loop: l.Name,
+				Message: fmt.Sprintf("loop %s has no condenser: the heat has nowhere to go and there is no steady state", l.Name)})
+			p.net = nil
+		}
+	}
+	return p
+}
+
+// newState fixes the operating state of one case. A nil state comes with
+// the findings that prevented it.
+func (p *prepared) newState(pt point, cr *CaseResult) (*state, []Finding) {
+	l := p.l
+	net := p.net
+	s := &state{net: net, void: p.void, fric: p.fric, sp: p.fric.SinglePhase, cells: p.methods.Cells, info: p.info}
+	s.heat = make([]float64, len(net.comps))
+	s.xCond = make([]float64, len(net.comps))
+	var fs []Finding
+	cname := caseName(pt.c)
+	find := func(rule, sev, comp string, v, lim float64, unit, format string, args ...any) {
+		fs = append(fs, Finding{Rule: rule, Severity: sev, Loop: l.Name, Case: cname, Component: comp,
+			Value: v, Limit: lim, Unit: unit, Message: fmt.Sprintf(format, args...)})
+	}
+	var qTot float64
+	for ci, cp := range net.comps {
+		if cp.kind != lang.Evaporator {
+			continue
+		}
+		q := cp.c.Heat.SI
+		if pt.c != nil {
+			for _, h := range pt.c.Heat {
+				if h.Comp == cp.c {
+					q = h.Value.SI
+				}
+			}
+		}
+		if !finite(q) || q < 0 {
+			find(RuleNegativeHeat, "error", cp.name, q, 0, "W", "evaporator %s has heat %g W in case %s; the estimate needs a heat input of zero or more", cp.name, q, cname)
+			q = 0
+		}
+		s.heat[ci] = q
+		qTot += q
+	}
+	cr.Heat = qTot
+	// Saturation temperature.
+	var T float64
+	sinkOf := func(cp comp) (float64, bool) {
+		if pt.c != nil {
+			for _, sv := range pt.c.Sinks {
+				if sv.Comp == cp.c {
+					return sv.Value.SI, true
+				}
+			}
+			if pt.c.Sink.Set {
+				return pt.c.Sink.SI, true
+			}
+		}
+		return cp.c.Sink.SI, cp.c.Sink.Set
+	}
+	var ua, uaT float64
+	var outletT float64
+	outletSet := false
+	missing := ""
+	for _, cp := range net.comps {
+		if cp.kind != lang.Condenser {
+			continue
+		}
+		if cp.c.Outlet.Set && !outletSet {
+			outletT, outletSet = cp.c.Outlet.SI, true
+		}
+		ts, ok := sinkOf(cp)
+		if !cp.c.Conductance.Set || !ok {
+			if !cp.c.Outlet.Set && missing == "" {
+				missing = cp.name
+			}
+			continue
+		}
+		ua += cp.c.Conductance.SI
+		uaT += cp.c.Conductance.SI * ts
+	}
+	switch {
+	case pt.c != nil && pt.c.Saturation.Set:
+		T, cr.SatSource = pt.c.Saturation.SI, "case"
+	case l.Saturation.Set:
+		T, cr.SatSource = l.Saturation.SI, "loop"
+	case outletSet:
+		T, cr.SatSource = outletT, "condenser outlet"
+	case ua > 0 && missing == "":
+		T, cr.SatSource = (qTot+uaT)/ua, "condenser balance"
+	default:
+		name := missing
+		find(RuleNoSink, "error", name, 0, 0, "", "no saturation temperature in case %s: give condenser %s a conductance and a sink temperature (or an outlet temperature), or give the loop or the case a saturation", cname, name)
+		return nil, fs
+	}
+	cr.SatTemperature = T
+	sat, err := p.fl.AtT(T)
+	if err != nil || !(sat.RhoL > sat.RhoV) || !(sat.Hlv > 0) {
+		why := "outside the fluid's range"
+		if T >= p.info.Tc && p.info.Tc > 0 {
+			why = "at or above the critical temperature " + fmt.Sprintf("%.2f °C", p.info.Tc-273.15)
+		}
+		find(RuleFluidRange, "error", "", T, p.info.Tmax, "K", "saturation temperature %.2f °C in case %s is %s of %s (%.2f to %.2f °C): no estimate", T-273.15, cname, why, p.info.Name, p.info.Tmin-273.15, p.info.Tmax-273.15)
+		return nil, fs
+	}
+	s.sat = sat
+	cr.SatPressure = sat.P
+	pr := 0.0
+	if p.info.Pc > 0 {
+		pr = sat.P / p.info.Pc
+	}
+	s.p = correlate.Props{RhoL: sat.RhoL, RhoV: sat.RhoV, MuL: sat.MuL, MuV: sat.MuV, Sigma: sat.Sigma,
+		KL: sat.KL, CpL: sat.CpL, Hlv: sat.Hlv, ReducedPressure: pr, MolarMass: p.info.MolarMass}
+	if err := s.p.Validate(); err != nil {
+		find(RuleFluidRange, "error", "", T, p.info.Tmax, "K", "the properties of %s at %.2f °C are unusable (%v): no estimate", p.info.Name, T-273.15, err)
+		return nil, fs
+	}
+	// Subcooled-liquid table.
+	s.liqDT = liquidSpan / (liquidPoints - 1)
+	for k := 0; k < liquidPoints; k++ {
+		Tk := T - float64(k)*s.liqDT
+		s.liqRho[k], s.liqMu[k] = sat.RhoL, sat.MuL
+		if k > 0 {
+			s.liqRho[k], s.liqMu[k] = s.liqRho[k-1], s.liqMu[k-1]
+		}
+		if st, err := p.fl.AtT(Tk); err == nil && Tk >= p.info.Tmin {
+			s.liqRho[k], s.liqMu[k] = st.RhoL, st.MuL
+		}
+	}
+	for ci, cp := range net.comps {
+		if cp.kind == lang.Condenser {
+			sub := cp.c.Subcool.SI
+			if !(sub > 0) || !finite(sub) {
+				sub = 0
+			}
+			s.xCond[ci] = -sub * sat.CpL / sat.Hlv
+		}
+	}
+	s.setBody(geom.BodyForceAt(pt.yaw, pt.pitch, pt.roll, pt.accel))
+	return s, fs
+}
+
+// setBody sets the body force and what depends on it.
+func (s *state) setBody(b geom.Vec3) {
+	s.b = b
+	s.bmag = b.Norm()
+	n := len(s.net.comps)
+	if len(s.bDisp) != n {
+		s.bDisp = make([]float64, n)
+		s.cosInc = make([]float64, n)
+	}
+	for ci, cp := range s.net.comps {
+		s.bDisp[ci] = b.Dot(cp.disp)
+		d := cp.disp.Norm()
+		if d > 0 && s.bmag > 0 {
+			s.cosInc[ci] = s.bDisp[ci] / (d * s.bmag)
+		} else {
+			s.cosInc[ci] = 1
+		}
+	}
+}
+
+// withBody returns a copy of s under another body force.
+func (s *state) withBody(b geom.Vec3) *state {
+	c := *s
+	c.bDisp, c.cosInc = nil, nil
+	c.setBody(b)
+	return &c
+}

@@ -1,0 +1,215 @@
+package flow
+
+import (
+	"math"
+
+	"circa/check/correlate"
+	"circa/check/fluid"
+	"circa/check/geom"
+	"circa/lang"
+)
+
+// liquidPoints is the number of temperatures at which subcooled-liquid
+// properties are tabulated below saturation.
+const liquidPoints = 13
+
+// liquidSpan is the temperature span of that table, K.
+const liquidSpan = 60.0
+
+// state is everything one case's evaluation needs, fixed before solving.
+type state struct {
+	net    *network
+	sat    fluid.Sat
+	info   fluid.Info
+	p      correlate.Props
+	b      geom.Vec3
+	bmag   float64
+	void   correlate.VoidMethod
+	fric   correlate.Friction
+	sp     correlate.SinglePhase
+	cells  int
+	heat   []float64 // by comps index: evaporator heat, W
+	xCond  []float64 // by comps index: condenser outlet quality
+	cosInc []float64 // by comps index: cos of the angle between tube and body force
+	bDisp  []float64 // by comps index: b·disp, J/kg
+	// Subcooled liquid: density and viscosity at T_sat − k·dT.
+	liqDT        float64
+	liqRho       [liquidPoints]float64
+	liqMu        [liquidPoints]float64
+	subcoolLimit float64 // lowest x the table covers
+}
+
+// parts are the pressure changes of a component, Pa, as losses: positive
+// friction, local and acceleration terms reduce the pressure; gravity is the
+// pressure gain ∫ρ_m b·ŝ ds.
+type parts struct {
+	fric, local, acc, grav float64
+}
+
+func (q parts) loss() float64 { return q.fric + q.local + q.acc - q.grav }
+
+// cellRec receives the state of each cell when a component is recorded.
+type cellRec struct {
+	x, alpha, rhoM, rhoH, ds float64
+}
+
+// liquid returns the subcooled-liquid density and viscosity at quality
+// equivalent x < 0.
+func (s *state) liquid(x float64) (rho, mu float64) {
+	dT := -x * s.p.Hlv / s.p.CpL // K below saturation
+	if !(dT > 0) || s.liqDT == 0 {
+		return s.p.RhoL, s.p.MuL
+	}
+	f := dT / s.liqDT
+	i := int(f)
+	if i >= liquidPoints-1 {
+		return s.liqRho[liquidPoints-1], s.liqMu[liquidPoints-1]
+	}
+	t := f - float64(i)
+	return s.liqRho[i] + t*(s.liqRho[i+1]-s.liqRho[i]), s.liqMu[i] + t*(s.liqMu[i+1]-s.liqMu[i])
+}
+
+// outletX is a component's outlet quality for inlet quality xin at mass flow
+// |m| (kg/s): evaporators add their heat, condensers bring the fluid down to
+// their outlet state, everything else passes it on.
+func (s *state) outletX(ci int, m, xin float64) float64 {
+	switch s.net.comps[ci].kind {
+	case lang.Evaporator:
+		return xin + s.heat[ci]/(flowFloor(m)*s.p.Hlv)
+	case lang.Condenser:
+		return math.Min(xin, s.xCond[ci])
+	}
+	return xin
+}
+
+// flowFloor keeps enthalpy finite as the flow vanishes.
+func flowFloor(m float64) float64 {
+	m = math.Abs(m)
+	if m < 1e-12 {
+		return 1e-12
+	}
+	return m
+}
+
+// cell evaluates one cell at quality x: friction gradient, void, mixture and
+// homogeneous densities.
+func (s *state) cell(pf *correlate.PreparedFriction, cp *comp, G, x, cosInc float64) (dpdz, alpha, rhoM, rhoH float64) {
+	switch {
+	case x <= 0:
+		rho, mu := s.liquid(x)
+		return correlate.SinglePhaseGradient(s.sp, G, cp.D, cp.rr, rho, mu), 0, rho, rho
+	case x >= 1:
+		return pf.Gradient(1), 1, s.p.RhoV, s.p.RhoV
+	}
+	alpha = correlate.VoidFraction(s.void, x, G, s.p, s.bmag, cosInc)
+	return pf.Gradient(x), alpha, correlate.MixtureDensity(alpha, s.p), correlate.HomogeneousDensity(x, s.p)
+}
+
+// march integrates component ci at mass flow m (kg/s, sign: along the leg
+// sign's direction when positive) from inlet quality xin. It returns the
+// outlet quality and the pressure-change parts along the flow. rec, when not
+// nil, receives every cell.
+func (s *state) march(ci int, dir float64, m, xin float64, rec func(cellRec)) (float64, parts) {
+	cp := &s.net.comps[ci]
+	am := math.Abs(m)
+	G := am / cp.A
+	xout := s.outletX(ci, am, xin)
+	var q parts
+	bd := s.bDisp[ci] * dir // b·(displacement along the flow)
+	cosInc := s.cosInc[ci]
+	pf := s.fric.Prepare(G, cp.D, cp.rr, s.p, s.bmag)
+	if xout == xin || cp.L == 0 {
+		// One state along the whole component.
+		dpdz, alpha, rhoM, rhoH := s.cell(&pf, cp, G, xin, cosInc)
+		q.fric = dpdz * cp.L
+		q.grav = rhoM * bd
+		q.local = cp.K * G * G / (2 * rhoH)
+		if xout != xin {
+			// A zero-length heated component: the step change's
+			// acceleration and the outlet velocity head.
+			aOut := s.voidAt(xout, G, cosInc)
+			q.acc = correlate.AccelerationTerm(G, xout, aOut, s.p) - correlate.AccelerationTerm(G, xin, alpha, s.p)
+			q.local = cp.K * G * G / (2 * s.homog(xout))
+		}
+		if rec != nil {
+			rec(cellRec{x: xin, alpha: alpha, rhoM: rhoM, rhoH: rhoH, ds: cp.L})
+			if xout != xin {
+				rec(cellRec{x: xout, alpha: s.voidAt(xout, G, cosInc), rhoM: s.mixture(xout, G, cosInc), rhoH: s.homog(xout), ds: 0})
+			}
+		}
+		return xout, q
+	}
+	n := s.cells
+	ds := cp.L / float64(n)
+	dg := bd / float64(n)
+	// Quality at the cell faces: linear in the heated fraction passed.
+	face := func(k int) float64 {
+		f := float64(k) / float64(n)
+		if cp.kind == lang.Evaporator {
+			lo, hi := cp.heatedFrom, cp.heatedTo
+			if dir < 0 {
+				lo, hi = 1-hi, 1-lo
+			}
+			switch {
+			case f <= lo:
+				return xin
+			case f >= hi:
+				return xout
+			}
+			return xin + (xout-xin)*(f-lo)/(hi-lo)
+		}
+		return xin + (xout-xin)*f
+	}
+	xa := xin
+	for k := 0; k < n; k++ {
+		xb := face(k + 1)
+		xm := 0.5 * (xa + xb)
+		if xa < 0 && xb > 0 || xa > 0 && xb < 0 || xa < 1 && xb > 1 || xa > 1 && xb < 1 {
+			// The cell spans a phase boundary: average its two parts.
+			xc := 0.0
+			if (xa-1)*(xb-1) < 0 {
+				xc = 1
+			}
+			w := (xc - xa) / (xb - xa)
+			d1, a1, m1, h1 := s.cell(&pf, cp, G, 0.5*(xa+xc), cosInc)
+			d2, a2, m2, h2 := s.cell(&pf, cp, G, 0.5*(xc+xb), cosInc)
+			q.fric += (w*d1 + (1-w)*d2) * ds
+			q.grav += (w*m1 + (1-w)*m2) * dg
+			if rec != nil {
+				rec(cellRec{x: xm, alpha: w*a1 + (1-w)*a2, rhoM: w*m1 + (1-w)*m2, rhoH: w*h1 + (1-w)*h2, ds: ds})
+			}
+		} else {
+			dpdz, alpha, rhoM, rhoH := s.cell(&pf, cp, G, xm, cosInc)
+			q.fric += dpdz * ds
+			q.grav += rhoM * dg
+			if rec != nil {
+				rec(cellRec{x: xm, alpha: alpha, rhoM: rhoM, rhoH: rhoH, ds: ds})
+			}
+		}
+		xa = xb
+	}
+	aIn, aOut := s.voidAt(xin, G, cosInc), s.voidAt(xout, G, cosInc)
+	q.acc = correlate.AccelerationTerm(G, xout, aOut, s.p) - correlate.AccelerationTerm(G, xin, aIn, s.p)
+	q.local = cp.K * G * G / (2 * s.homog(xout))
+	return xout, q
+}
+
+func (s *state) voidAt(x, G, cosInc float64) float64 {
+	return correlate.VoidFraction(s.void, x, G, s.p, s.bmag, cosInc)
+}
+
+func (s *state) mixture(x, G, cosInc float64) float64 {
+	if x <= 0 {
+		rho, _ := s.liquid(x)
+		return rho
+	}
+	return correlate.MixtureDensity(s.voidAt(x, G, cosInc), s.p)
+}
+
+func (s *state) homog(x float64) float64 {
+	if x <= 0 {
+		rho, _ := s.liquid(x)
+		return rho
+	}
+	return correlate.HomogeneousDensity(x, s.p)
+}

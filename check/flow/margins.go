@@ -1,0 +1,433 @@
+package flow
+
+import (
+	"fmt"
+	"math"
+	"sort"
+
+	"circa/check/correlate"
+	"circa/check/geom"
+	"circa/lang"
+)
+
+// Margin names.
+const (
+	MarginExitQuality = "exit_quality"
+	MarginCHF         = "chf_ratio"
+	MarginFlooding    = "flooding"
+	MarginWall        = "wall_temperature"
+	MarginPressure    = "design_pressure"
+	MarginCondenser   = "condenser"
+	MarginCharge      = "charge"
+	MarginHead        = "head_ratio"
+	MarginTilt        = "tilt"
+)
+
+func status(use float64, errAt float64) string {
+	switch {
+	case use >= errAt:
+		return "error"
+	case use > 1:
+		return "warning"
+	}
+	return "ok"
+}
+
+func (cr *CaseResult) add(m Margin) {
+	m.Case = cr.Case
+	if !finite(m.Use) {
+		m.Use = math.MaxFloat64
+	}
+	cr.Margins = append(cr.Margins, m)
+}
+
+// wallFlux is an evaporator's wall heat flux, W/m², at heat q.
+func wallFlux(c *lang.Component, q, D, L float64) float64 {
+	switch {
+	case c.HeatFlux.Set && c.HeatFlux.SI > 0:
+		if c.Heat.Set && c.Heat.SI > 0 {
+			return c.HeatFlux.SI * q / c.Heat.SI
+		}
+		return c.HeatFlux.SI
+	case c.WettedArea.Set && c.WettedArea.SI > 0:
+		return q / c.WettedArea.SI
+	}
+	lh := L
+	if c.HeatedLength.Set && c.HeatedLength.SI > 0 {
+		lh = c.HeatedLength.SI
+	}
+	if D > 0 && lh > 0 {
+		return q / (math.Pi * D * lh)
+	}
+	return 0
+}
+
+// margins evaluates every margin of a circulating case.
+func (p *prepared) margins(s *state, cr *CaseResult) {
+	lim := p.limits
+	n := s.net
+	for ci, cs := range cr.Components {
+		cp := &n.comps[ci]
+		if cp.kind == lang.Evaporator && s.heat[ci] > 0 {
+			// Exit quality.
+			x := cs.XOut
+			xl := lim.ExitQuality.SI
+			m := Margin{Margin: MarginExitQuality, Component: cp.name, Value: x, Limit: xl, Unit: "", Use: x / xl}
+			switch {
+			case x >= 1:
+				m.Status = "error"
+				cr.Findings = append(cr.Findings, p.finding(RuleDryout, "error", cr.Case, cp.name, x, 1, "", "exit_quality",
+					"dryout: exit quality %.2f at evaporator %s in case %s reaches 1 (the outlet is dry vapour)", x, cp.name, cr.Case))
+			case x > xl:
+				m.Status = "warning"
+				cr.Findings = append(cr.Findings, p.finding(RuleExitQuality, "warning", cr.Case, cp.name, x, xl, "", "exit_quality",
+					"exit quality %.2f at evaporator %s in case %s exceeds the limit %.2f", x, cp.name, cr.Case, xl))
+			default:
+				m.Status = "ok"
+			}
+			cr.add(m)
+			// Critical heat flux.
+			qw := wallFlux(cp.c, s.heat[ci], cp.D, cp.L)
+			if qw > 0 {
+				chf := correlate.CHFPool(p.chfK, s.p.Hlv, s.p.RhoL, s.p.RhoV, s.p.Sigma, s.bmag)
+				ratio := chf / qw
+				rl := lim.CHFRatio.SI
+				m := Margin{Margin: MarginCHF, Component: cp.name, Value: ratio, Limit: rl, Use: rl / math.Max(ratio, 1e-300)}
+				m.Status = status(m.Use, rl)
+				cr.add(m)
+				if ratio < rl {
+					sev := "warning"
+					if ratio < 1 {
+						sev = "error"
+					}
+					cr.Findings = append(cr.Findings, p.finding(RuleCHF, sev, cr.Case, cp.name, ratio, rl, "", "chf_ratio",
+						"critical heat flux ratio %.2f at evaporator %s in case %s is below the limit %.2f (wall flux %.3g W/cm², pool-boiling CHF %.3g W/cm² at |b| = %.2f m/s²)",
+						ratio, cp.name, cr.Case, rl, qw/1e4, chf/1e4, s.bmag))
+				}
+				// Wall temperature.
+				if cp.c.WallLimit.Set {
+					rp := 1.0
+					if cp.c.BoilRoughness.Set && cp.c.BoilRoughness.SI > 0 {
+						rp = cp.c.BoilRoughness.SI * 1e6
+					}
+					tw := s.sat.T + correlate.CooperSuperheat(s.p.ReducedPressure, s.p.MolarMass, rp, qw)
+					tl := cp.c.WallLimit.SI - lim.WallMargin.SI
+					use := math.MaxFloat64
+					if tl > s.sat.T {
+						use = (tw - s.sat.T) / (tl - s.sat.T)
+					}
+					m := Margin{Margin: MarginWall, Component: cp.name, Value: tw, Limit: tl, Unit: "K", Use: use}
+					m.Status = "ok"
+					if tw > tl {
+						m.Status = "error"
+						cr.Findings = append(cr.Findings, p.finding(RuleWall, "error", cr.Case, cp.name, tw, tl, "K", "wall_limit",
+							"wall temperature %.1f °C at evaporator %s in case %s exceeds the limit %.1f °C (saturation %.1f °C plus Cooper nucleate-boiling superheat)",
+							tw-273.15, cp.name, cr.Case, tl-273.15, s.sat.T-273.15))
+					}
+					cr.add(m)
+				}
+			}
+		}
+		// Flooding where two-phase flow runs along the body force: the
+		// vapour's buoyancy opposes its net flow.
+		along := s.bDisp[ci] * math.Copysign(1, cs.MassFlow)
+		if along > 0 && cp.L > 0 {
+			cosA := math.Abs(s.cosInc[ci])
+			worstF := 0.0
+			G := math.Abs(cs.MassFlux)
+			for _, x := range []float64{cs.XIn, cs.XOut, 0.5 * (cs.XIn + cs.XOut)} {
+				if x <= 0 || x >= 1 {
+					continue
+				}
+				jg, jf := G*x/s.p.RhoV, G*(1-x)/s.p.RhoL
+				f := correlate.WallisFraction(jg, jf, s.p.RhoL, s.p.RhoV, cp.D, s.bmag*cosA, correlate.WallisM, correlate.WallisCSharpEdge)
+				worstF = math.Max(worstF, f)
+			}
+			if worstF > 0 {
+				fl := lim.Flooding.SI
+				m := Margin{Margin: MarginFlooding, Component: cp.name, Value: worstF, Limit: fl, Use: worstF / fl}
+				m.Status = status(m.Use, 1/fl)
+				cr.add(m)
+				if worstF > fl {
+					sev := "warning"
+					if worstF >= 1 {
+						sev = "error"
+					}
+					cr.Findings = append(cr.Findings, p.finding(RuleFlooding, sev, cr.Case, cp.name, worstF, fl, "", "flooding",
+						"flooding fraction %.2f in %s %s in case %s exceeds the limit %.2f (Wallis, counter-current vapour against the body force)",
+						worstF, cp.kind, cp.name, cr.Case, fl))
+				}
+			}
+		}
+	}
+	p.pressureMargin(s, cr)
+	p.condenserMargin(s, cr)
+	p.chargeMargin(s, cr)
+	// Head ratio.
+	losses := cr.Totals.Friction + cr.Totals.Local + cr.Totals.Accel
+	if losses > 0 {
+		ratio := cr.Totals.HeadMax / losses
+		hl := lim.HeadRatio.SI
+		m := Margin{Margin: MarginHead, Value: ratio, Limit: hl, Use: hl / math.Max(ratio, 1e-300)}
+		m.Status = status(m.Use, hl)
+		cr.add(m)
+		if ratio < hl {
+			cr.Findings = append(cr.Findings, p.finding(RuleHead, "warning", cr.Case, "", ratio, hl, "", "head_ratio",
+				"head ratio %.2f in case %s is below the limit %.2f: the available gravity head (%.0f Pa) is not well above the losses at the operating point (%.0f Pa)",
+				ratio, cr.Case, hl, cr.Totals.HeadMax, losses))
+		}
+	}
+}
+
+// pressureMargin compares the saturation pressure with the design rating.
+func (p *prepared) pressureMargin(s *state, cr *CaseResult) {
+	dp := p.l.DesignPressure
+	if !dp.Set || !(dp.SI > 0) || s == nil {
+		return
+	}
+	use := s.sat.P / dp.SI
+	m := Margin{Margin: MarginPressure, Value: s.sat.P, Limit: dp.SI, Unit: "Pa", Use: use, Status: status(use, 1)}
+	if use > 1 {
+		m.Status = "error"
+		cr.Findings = append(cr.Findings, p.finding(RulePressure, "error", cr.Case, "", s.sat.P, dp.SI, "Pa", "design_pressure",
+			"saturation pressure %.2f bar (absolute) in case %s exceeds the design pressure %.2f bar (absolute); pressure equipment must satisfy local pressure-equipment codes and be approved by licensed engineers",
+			s.sat.P/1e5, cr.Case, dp.SI/1e5))
+	}
+	cr.add(m)
+}
+
+// condenserMargin checks that the condensers reject the load within the
+// allowed saturation temperature.
+func (p *prepared) condenserMargin(s *state, cr *CaseResult) {
+	var ua, uaT float64
+	for _, cp := range s.net.comps {
+		if cp.kind != lang.Condenser || !cp.c.Conductance.Set {
+			continue
+		}
+		ts, ok := cp.c.Sink.SI, cp.c.Sink.Set
+		if cr.pointCase != nil {
+			if cr.pointCase.Sink.Set {
+				ts, ok = cr.pointCase.Sink.SI, true
+			}
+			for _, sv := range cr.pointCase.Sinks {
+				if sv.Comp == cp.c {
+					ts, ok = sv.Value.SI, true
+				}
+			}
+		}
+		if ok {
+			ua += cp.c.Conductance.SI
+			uaT += cp.c.Conductance.SI * ts
+		}
+	}
+	if ua <= 0 {
+		return
+	}
+	tSink := uaT / ua
+	tMax := p.info.Tmax
+	field := ""
+	if p.limits.SaturationMax.Set {
+		tMax = math.Min(tMax, p.limits.SaturationMax.SI)
+		field = "saturation_max"
+	}
+	if cr.SatSource == "condenser balance" {
+		use := math.MaxFloat64
+		if tMax > tSink {
+			use = (s.sat.T - tSink) / (tMax - tSink)
+		}
+		m := Margin{Margin: MarginCondenser, Value: s.sat.T, Limit: tMax, Unit: "K", Use: use, Status: status(use, 1)}
+		if use > 1 {
+			m.Status = "error"
+			cr.Findings = append(cr.Findings, p.finding(RuleCondenser, "error", cr.Case, "", s.sat.T, tMax, "K", field,
+				"the condensers (UA %.0f W/K) need a saturation temperature of %.1f °C to reject %.0f W in case %s, above the allowed %.1f °C",
+				ua, s.sat.T-273.15, cr.Heat, cr.Case, tMax-273.15))
+		}
+		cr.add(m)
+		return
+	}
+	capac := ua * (s.sat.T - tSink)
+	use := math.MaxFloat64
+	if capac > 0 {
+		use = cr.Heat / capac
+	}
+	m := Margin{Margin: MarginCondenser, Value: capac, Limit: cr.Heat, Unit: "W", Use: use, Status: status(use, 1)}
+	if use > 1 {
+		m.Status = "error"
+		cr.Findings = append(cr.Findings, p.finding(RuleCondenser, "error", cr.Case, "", capac, cr.Heat, "W", "",
+			"the condensers can reject only %.0f W at the saturation temperature %.1f °C in case %s, less than the load %.0f W",
+			math.Max(capac, 0), s.sat.T-273.15, cr.Case, cr.Heat))
+	}
+	cr.add(m)
+}
+
+// chargeMargin compares the fill charge with the inventory at the
+// operating point. The flow path in its computed state plus full reservoirs
+// is the most the loop holds without liquid backing up into the
+// condensers; the flow path with empty reservoirs is the least that keeps
+// the evaporators fed.
+func (p *prepared) chargeMargin(s *state, cr *CaseResult) {
+	ch := p.l.Charge
+	if !ch.Set || !(ch.SI > 0) {
+		return
+	}
+	most := cr.Totals.Inventory + cr.Totals.Reservoirs
+	least := cr.Totals.Inventory
+	var vCond float64
+	for _, cp := range s.net.comps {
+		if cp.kind == lang.Condenser {
+			vCond += cp.A * cp.L
+		}
+	}
+	switch {
+	case ch.SI < least:
+		use := least / ch.SI
+		m := Margin{Margin: MarginCharge, Value: ch.SI, Limit: least, Unit: "kg", Use: use, Status: "warning"}
+		cr.add(m)
+		cr.Findings = append(cr.Findings, p.finding(RuleCharge, "warning", cr.Case, "", ch.SI, least, "kg", "",
+			"charge %.3g kg is below the %.3g kg the flow path holds at the operating point in case %s: the evaporator would be starved of liquid",
+			ch.SI, least, cr.Case))
+	case ch.SI > most:
+		flooded := 0.0
+		if vCond > 0 {
+			flooded = (ch.SI - most) / ((s.p.RhoL - s.p.RhoV) * vCond)
+		}
+		use := 1 + flooded
+		m := Margin{Margin: MarginCharge, Value: ch.SI, Limit: most, Unit: "kg", Use: use, Status: "warning"}
+		if flooded >= 1 {
+			m.Status = "error"
+		}
+		cr.add(m)
+		cr.Findings = append(cr.Findings, p.finding(RuleCharge, m.Status, cr.Case, "", ch.SI, most, "kg", "",
+			"charge %.3g kg exceeds the %.3g kg the loop holds at the operating point in case %s: the excess liquid floods about %.0f %% of the condenser volume",
+			ch.SI, most, cr.Case, math.Min(flooded, 9.99)*100))
+	default:
+		m := Margin{Margin: MarginCharge, Value: ch.SI, Limit: most, Unit: "kg", Status: "ok"}
+		if most > least {
+			m.Use = (ch.SI - least) / (most - least)
+		}
+		cr.add(m)
+	}
+}
+
+// circulatesUnder reports whether the loop circulates under body force b.
+func (p *prepared) circulatesUnder(s *state, b geom.Vec3) bool {
+	t := s.withBody(b)
+	ev := t.newEval()
+	if p.net.ring {
+		return t.circulates(ev)
+	}
+	f, _, err := t.solveNetwork(ev)
+	if err != nil {
+		return false
+	}
+	t.evaluate(f, ev)
+	for bi, br := range t.net.branches {
+		for _, lg := range br.legs {
+			if t.heat[lg.ci] > 0 && !(ev.mb[bi]*lg.sign > 0) {
+				return false
+			}
+		}
+	}
+	return true
+}
+
+// tilt finds the pitch and roll angles, from the case's attitude, at which
+// circulation stops: a 5° scan to ±90° then bisection.
+func (p *prepared) tilt(s *state, pt point, cr *CaseResult) {
+	tl := &TiltLimits{Margin: math.Pi / 2}
+	search := func(axis int, sign float64) *float64 {
+		at := func(d float64) bool {
+			pitch, roll := pt.pitch, pt.roll
+			if axis == 0 {
+				pitch += sign * d
+			} else {
+				roll += sign * d
+			}
+			return p.circulatesUnder(s, geom.BodyForceAt(pt.yaw, pitch, roll, pt.accel))
+		}
+		step := 5 * math.Pi / 180
+		lo := 0.0
+		for d := step; d <= math.Pi/2+1e-9; d += step {
+			if !at(d) {
+				hi := d
+				for i := 0; i < 14; i++ {
+					mid := 0.5 * (lo + hi)
+					if at(mid) {
+						lo = mid
+					} else {
+						hi = mid
+					}
+				}
+				crit := 0.5 * (lo + hi)
+				tl.Margin = math.Min(tl.Margin, crit)
+				var a float64
+				if axis == 0 {
+					a = pt.pitch + sign*crit
+				} else {
+					a = pt.roll + sign*crit
+				}
+				return &a
+			}
+			lo = d
+		}
+		return nil
+	}
+	tl.PitchUp = search(0, 1)
+	tl.PitchDown = search(0, -1)
+	tl.RollLeft = search(1, 1)
+	tl.RollRight = search(1, -1)
+	cr.Tilt = tl
+	lim := p.limits.TiltMargin.SI
+	use := lim / math.Max(tl.Margin, 1e-300)
+	m := Margin{Margin: MarginTilt, Value: tl.Margin, Limit: lim, Unit: "rad", Use: use, Status: "ok"}
+	if tl.Margin < lim {
+		m.Status = "warning"
+		cr.Findings = append(cr.Findings, p.finding(RuleTilt, "warning", cr.Case, "", tl.Margin, lim, "rad", "tilt_margin",
+			"case %s is %.1f° from an attitude where circulation stops (%s), within the tilt margin %.1f°",
+			cr.Case, tl.Margin*180/math.Pi, tl.describe(), lim*180/math.Pi))
+	}
+	cr.add(m)
+}
+
+func (tl *TiltLimits) describe() string {
+	var parts []string
+	add := func(name string, v *float64) {
+		if v != nil {
+			parts = append(parts, fmt.Sprintf("%s %.1f°", name, *v*180/math.Pi))
+		}
+	}
+	add("pitch", tl.PitchUp)
+	add("pitch", tl.PitchDown)
+	add("roll", tl.RollLeft)
+	add("roll", tl.RollRight)
+	if len(parts) == 0 {
+		return "none within ±90°"
+	}
+	out := parts[0]
+	for _, s := range parts[1:] {
+		out += ", " + s
+	}
+	return out
+}
+
+// worst picks, for each margin, the case and component closest to the limit.
+func worst(cases []CaseResult) []Margin {
+	best := map[string]Margin{}
+	for _, c := range cases {
+		for _, m := range c.Margins {
+			if b, ok := best[m.Margin]; !ok || m.Use > b.Use {
+				best[m.Margin] = m
+			}
+		}
+	}
+	names := make([]string, 0, len(best))
+	for k := range best {
+		names = append(names, k)
+	}
+	sort.Strings(names)
+	out := make([]Margin, len(names))
+	for i, n := range names {
+		out[i] = best[n]
+	}
+	return out
+}

@@ -1,0 +1,347 @@
+package flow
+
+import (
+	"fmt"
+	"math"
+	"sort"
+
+	"circa/check/geom"
+	"circa/lang"
+)
+
+// comp is one flow component prepared for the solver.
+type comp struct {
+	c          *lang.Component
+	name       string
+	kind       lang.Kind
+	L, D, A    float64
+	rr, K      float64
+	disp       geom.Vec3 // inlet→outlet displacement, equipment frame
+	heatedFrom float64   // heated interval [heatedFrom, heatedTo] as fractions of L
+	heatedTo   float64
+}
+
+// leg is a component as a branch traverses it: sign +1 along its declared
+// direction, −1 against it.
+type leg struct {
+	ci   int
+	sign float64
+}
+
+// branch is a chain of components between two junctions (or, for a plain
+// ring, from one node round to itself).
+type branch struct {
+	legs     []leg
+	from, to int // junction numbers
+}
+
+// network is a loop reduced to branches and fundamental cycles.
+type network struct {
+	loop     *lang.Loop
+	comps    []comp
+	byIndex  []int // Component.Index → comps index, −1 for reservoirs and unused
+	res      []*lang.Component
+	branches []branch
+	nj       int         // junctions
+	cycles   [][]float64 // cycle k: coefficient of cycle flow k in each branch flow
+	ring     bool        // a single loop without junctions
+}
+
+// buildNetwork validates the loop's geometry and reduces it to branches and
+// cycles. Problems are returned as findings; a nil network means the loop
+// cannot be estimated.
+func buildNetwork(l *lang.Loop, lay *geom.Layout) (*network, []Finding) {
+	var fs []Finding
+	bad := func(c *lang.Component, format string, args ...any) {
+		fs = append(fs, Finding{Rule: RuleGeometry, Severity: "error", Component: c.Name,
+			Message: fmt.Sprintf(format, args...)})
+	}
+	n := &network{loop: l, byIndex: make([]int, len(l.Components))}
+	deg := make([]int, len(l.Nodes))
+	for i, c := range l.Components {
+		n.byIndex[i] = -1
+		if c.Kind == lang.Reservoir {
+			n.res = append(n.res, c)
+			continue
+		}
+		if c.From == nil || c.To == nil || c.From.Index < 0 || c.To.Index < 0 ||
+			c.From.Index >= len(l.Nodes) || c.To.Index >= len(l.Nodes) {
+			bad(c, "%s %s is not connected at both ends; the loop cannot be estimated", c.Kind, c.Name)
+			continue
+		}
+		L := c.Length.SI
+		D := c.Diameter()
+		A := c.Area()
+		short := c.Kind == lang.Bend || c.Kind == lang.Fitting
+		switch {
+		case !finite(L) || L < 0:
+			bad(c, "%s %s has length %g m; a length must be zero or more", c.Kind, c.Name, L)
+		case L == 0 && !short:
+			bad(c, "%s %s has no length; the estimate needs its length along the flow", c.Kind, c.Name)
+		case !finite(D) || D <= 0:
+			bad(c, "%s %s has no positive bore or hydraulic diameter", c.Kind, c.Name)
+		case !finite(A) || A <= 0:
+			bad(c, "%s %s has no positive flow area", c.Kind, c.Name)
+		}
+		if c.Loss.SI < 0 || !finite(c.Loss.SI) {
+			bad(c, "%s %s has a negative loss coefficient %g", c.Kind, c.Name, c.Loss.SI)
+		}
+		cp := comp{c: c, name: c.Name, kind: c.Kind, L: L, D: D, A: A, K: c.Loss.SI, heatedTo: 1}
+		if D > 0 {
+			cp.rr = c.Roughness.SI / D
+		}
+		if lay != nil && i < len(lay.Disp) {
+			cp.disp = lay.Disp[i]
+		} else {
+			cp.disp = geom.Vec3{0, 0, c.Rise.SI}
+		}
+		if c.Kind == lang.Evaporator && c.HeatedLength.Set && L > 0 {
+			h := c.HeatedLength.SI
+			if !(h > 0) || h > L || !finite(h) {
+				bad(c, "evaporator %s has heated length %g m; it must lie in (0, %g] m", c.Name, h, L)
+			} else {
+				cp.heatedFrom = (1 - h/L) / 2
+				cp.heatedTo = 1 - cp.heatedFrom
+			}
+		}
+		n.byIndex[i] = len(n.comps)
+		n.comps = append(n.comps, cp)
+		deg[c.From.Index]++
+		if c.To.Index != c.From.Index {
+			deg[c.To.Index]++
+		}
+	}
+	if len(fs) > 0 {
+		return nil, fs
+	}
+	if len(n.comps) == 0 {
+		return nil, []Finding{{Rule: RuleGeometry, Severity: "error", Message: fmt.Sprintf("loop %s has no components to circulate through", l.Name)}}
+	}
+	for i, d := range deg {
+		if d == 1 {
+			return nil, []Finding{{Rule: RuleGeometry, Severity: "error",
+				Message: fmt.Sprintf("node %s of loop %s is an open end; the loop is not closed and cannot be estimated", l.Nodes[i].Name, l.Name)}}
+		}
+	}
+	// Junctions: nodes where three or more components meet.
+	jn := make([]int, len(l.Nodes))
+	for i := range jn {
+		jn[i] = -1
+	}
+	for i, d := range deg {
+		if d >= 3 {
+			jn[i] = n.nj
+			n.nj++
+		}
+	}
+	adj := make([][]int, len(l.Nodes)) // comps index by node
+	for ci, cp := range n.comps {
+		adj[cp.c.From.Index] = append(adj[cp.c.From.Index], ci)
+		if cp.c.To.Index != cp.c.From.Index {
+			adj[cp.c.To.Index] = append(adj[cp.c.To.Index], ci)
+		}
+	}
+	used := make([]bool, len(n.comps))
+	// walk follows a chain from node u through component ci until a junction
+	// (or back to stop).
+	walk := func(u, ci, stop int) branch {
+		var b branch
+		for {
+			used[ci] = true
+			cp := n.comps[ci]
+			v, s := cp.c.To.Index, 1.0
+			if cp.c.From.Index != u {
+				v, s = cp.c.From.Index, -1
+			}
+			b.legs = append(b.legs, leg{ci, s})
+			u = v
+			if jn[u] >= 0 || u == stop {
+				b.to = u
+				return b
+			}
+			next := -1
+			for _, cj := range adj[u] {
+				if !used[cj] {
+					next = cj
+					break
+				}
+			}
+			if next < 0 {
+				b.to = u
+				return b
+			}
+			ci = next
+		}
+	}
+	if n.nj == 0 {
+		// Plain rings; more than one ring in one loop is not one loop.
+		start := n.comps[0].c.From.Index
+		for _, cp := range n.comps {
+			if cp.kind == lang.Condenser {
+				start = cp.c.To.Index
+				break
+			}
+		}
+		first := -1
+		for _, ci := range adj[start] {
+			if n.comps[ci].c.From.Index == start {
+				first = ci
+				break
+			}
+		}
+		if first < 0 {
+			first = adj[start][0]
+		}
+		b := walk(start, first, start)
+		b.from, b.to = 0, 0
+		n.branches = []branch{b}
+		for ci := range used {
+			if !used[ci] {
+				return nil, []Finding{{Rule: RuleGeometry, Severity: "error",
+					Message: fmt.Sprintf("loop %s falls apart into separate rings (component %s is not on the ring through %s)", l.Name, n.comps[ci].name, n.comps[first].name)}}
+			}
+		}
+		n.nj = 1
+		n.ring = true
+	} else {
+		for u := range l.Nodes {
+			if jn[u] < 0 {
+				continue
+			}
+			for _, ci := range adj[u] {
+				if used[ci] {
+					continue
+				}
+				b := walk(u, ci, -1)
+				b.from = jn[u]
+				if jn[b.to] < 0 {
+					return nil, []Finding{{Rule: RuleGeometry, Severity: "error",
+						Message: fmt.Sprintf("loop %s: the chain from junction %s ends at node %s, which is not a junction", l.Name, l.Nodes[u].Name, l.Nodes[b.to].Name)}}
+				}
+				b.to = jn[b.to]
+				n.branches = append(n.branches, b)
+			}
+		}
+		for ci := range used {
+			if !used[ci] {
+				return nil, []Finding{{Rule: RuleGeometry, Severity: "error",
+					Message: fmt.Sprintf("component %s of loop %s is on a ring not joined to the rest", n.comps[ci].name, l.Name)}}
+			}
+		}
+	}
+	// Orient each branch along the majority of its components' declared
+	// directions, so positive branch flow is the declared flow.
+	for bi := range n.branches {
+		b := &n.branches[bi]
+		var s float64
+		for _, lg := range b.legs {
+			s += lg.sign * math.Max(n.comps[lg.ci].L, 1e-3)
+		}
+		if s < 0 {
+			rev := make([]leg, len(b.legs))
+			for i, lg := range b.legs {
+				rev[len(b.legs)-1-i] = leg{lg.ci, -lg.sign}
+			}
+			b.legs = rev
+			b.from, b.to = b.to, b.from
+		}
+	}
+	n.cycles = fundamentalCycles(n.nj, n.branches)
+	if len(n.cycles) == 0 {
+		return nil, []Finding{{Rule: RuleGeometry, Severity: "error", Message: fmt.Sprintf("loop %s has no closed path to circulate round", l.Name)}}
+	}
+	return n, nil
+}
+
+// fundamentalCycles returns the cycle basis of a spanning tree: one cycle per
+// branch outside the tree, as coefficients on every branch flow.
+func fundamentalCycles(nj int, bs []branch) [][]float64 {
+	type edge struct{ b, other int }
+	adj := make([][]edge, nj)
+	for bi, b := range bs {
+		adj[b.from] = append(adj[b.from], edge{bi, b.to})
+		if b.to != b.from {
+			adj[b.to] = append(adj[b.to], edge{bi, b.from})
+		}
+	}
+	parent := make([]int, nj)   // branch to the parent, −1 at a root
+	up := make([]int, nj)       // parent junction
+	depth := make([]int, nj)    //
+	seen := make([]bool, nj)    //
+	inTree := make([]bool, len(bs))
+	for r := 0; r < nj; r++ {
+		if seen[r] {
+			continue
+		}
+		seen[r], parent[r], up[r] = true, -1, -1
+		q := []int{r}
+		for len(q) > 0 {
+			u := q[0]
+			q = q[1:]
+			for _, e := range adj[u] {
+				if seen[e.other] {
+					continue
+				}
+				seen[e.other] = true
+				parent[e.other], up[e.other], depth[e.other] = e.b, u, depth[u]+1
+				inTree[e.b] = true
+				q = append(q, e.other)
+			}
+		}
+	}
+	// pathUp adds coefficient s·(direction from u towards the root) of every
+	// tree branch on u's path up to ancestor a.
+	var cycles [][]float64
+	for bi, b := range bs {
+		if inTree[bi] {
+			continue
+		}
+		c := make([]float64, len(bs))
+		c[bi] = 1
+		// The cycle goes along b from b.from to b.to, then back through the
+		// tree from b.to to b.from.
+		u, v := b.to, b.from
+		for depth[u] > depth[v] {
+			c[parent[u]] += treeSign(bs, parent[u], u)
+			u = up[u]
+		}
+		var tail []int
+		for depth[v] > depth[u] {
+			tail = append(tail, v)
+			v = up[v]
+		}
+		for u != v {
+			c[parent[u]] += treeSign(bs, parent[u], u)
+			u = up[u]
+			tail = append(tail, v)
+			v = up[v]
+		}
+		for _, w := range tail {
+			// Going down from up[w] to w.
+			c[parent[w]] -= treeSign(bs, parent[w], w)
+		}
+		cycles = append(cycles, c)
+	}
+	return cycles
+}
+
+// treeSign is +1 when going from child junction u to its parent follows
+// branch bi's reference direction.
+func treeSign(bs []branch, bi, u int) float64 {
+	if bs[bi].from == u {
+		return 1
+	}
+	return -1
+}
+
+// sortedNames is used for deterministic output order.
+func sortedNames(m map[string]bool) []string {
+	out := make([]string, 0, len(m))
+	for k := range m {
+		out = append(out, k)
+	}
+	sort.Strings(out)
+	return out
+}
+
+func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }

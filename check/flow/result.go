@@ -1,0 +1,194 @@
+package flow
+
+import "circa/lang"
+
+// Result is the estimate for every loop of a model. All quantities are SI
+// (kg/s, kg/(m²s), Pa, K, W, m/s, kg, radians for angles) unless a field
+// says otherwise. The layout is documented in docs/estimate-json.md and is
+// kept stable.
+type Result struct {
+	// Cautions are printed with every estimate.
+	Cautions []string     `json:"cautions"`
+	Loops    []LoopResult `json:"loops"`
+	// Findings that concern the whole model (an unknown case name).
+	Findings []Finding `json:"findings,omitempty"`
+}
+
+// LoopResult is the estimate for one loop in every case.
+type LoopResult struct {
+	Loop        string       `json:"loop"`
+	Fluid       string       `json:"fluid"`
+	Safety      string       `json:"safety_class,omitempty"`
+	Network     bool         `json:"network"` // parallel branches between junctions
+	Methods     MethodsUsed  `json:"methods"`
+	Assumptions []string     `json:"assumptions"`
+	Cases       []CaseResult `json:"cases"`
+	// Worst lists, for each margin, the case that comes closest to its limit.
+	Worst []Margin `json:"worst"`
+	// TiltLimits are the attitude limits of the nominal case, when searched.
+	Findings []Finding `json:"findings,omitempty"`
+}
+
+// MethodsUsed names the correlations of the estimate (names as written in
+// loop files).
+type MethodsUsed struct {
+	Void        string `json:"void_fraction"`
+	Friction    string `json:"friction"`
+	SinglePhase string `json:"single_phase"`
+	CHF         string `json:"chf"`
+	Cells       int    `json:"cells"`
+}
+
+// CaseResult is the operating point of one loop in one case.
+type CaseResult struct {
+	Case string `json:"case"`
+	// Grid is set for points of an attitude/acceleration sweep derived from
+	// the case.
+	Grid      bool       `json:"grid,omitempty"`
+	Yaw       float64    `json:"yaw"`
+	Pitch     float64    `json:"pitch"`
+	Roll      float64    `json:"roll"`
+	Accel     [3]float64 `json:"accel"`
+	BodyForce [3]float64 `json:"body_force"` // m/s², equipment frame
+	Heat      float64    `json:"heat"`       // total evaporator load, W
+
+	SatTemperature float64 `json:"saturation_temperature"` // K
+	SatPressure    float64 `json:"saturation_pressure"`    // Pa, absolute
+	SatSource      string  `json:"saturation_source"`      // "case", "loop", "condenser outlet", "condenser balance"
+
+	Circulates bool    `json:"circulates"`
+	Reason     string  `json:"reason,omitempty"` // why not, when it does not
+	MassFlow   float64 `json:"mass_flow"`        // single loop: the loop flow; network: the flow through the condensers
+	Roots      []Root  `json:"roots,omitempty"`  // single loop: every balance found on the flow grid
+	Iterations int     `json:"iterations,omitempty"`
+
+	Components []ComponentState `json:"components,omitempty"`
+	Totals     Totals           `json:"totals"`
+	Margins    []Margin         `json:"margins,omitempty"`
+	Tilt       *TiltLimits      `json:"tilt,omitempty"`
+	Findings   []Finding        `json:"findings,omitempty"`
+
+	pointCase *lang.Case
+}
+
+// Root is one balance of a single loop's excess head.
+type Root struct {
+	MassFlow float64 `json:"mass_flow"`
+	Slope    float64 `json:"slope"`  // dE/dṁ, Pa/(kg/s)
+	Stable   bool    `json:"stable"` // dE/dṁ < 0
+}
+
+// ComponentState is one component at the operating point.
+type ComponentState struct {
+	Component string  `json:"component"`
+	Kind      string  `json:"kind"`
+	MassFlow  float64 `json:"mass_flow"` // along the declared direction; negative is reverse flow
+	MassFlux  float64 `json:"mass_flux"`
+	Heat      float64 `json:"heat"` // added (evaporators, positive) or removed (condensers, negative), W
+	XIn       float64 `json:"quality_in"`
+	XOut      float64 `json:"quality_out"` // below 0: subcooled liquid; above 1: dry
+	VoidOut   float64 `json:"void_out"`
+	VoidMean  float64 `json:"void_mean"`
+	// Phase velocities at the outlet, m/s (zero for an absent phase).
+	VelLiquid float64 `json:"velocity_liquid"`
+	VelVapour float64 `json:"velocity_vapour"`
+	// Pressure changes along the flow, Pa: friction, local and acceleration
+	// losses (positive reduce the pressure) and the gravity gain.
+	DpFriction float64 `json:"dp_friction"`
+	DpLocal    float64 `json:"dp_local"`
+	DpAccel    float64 `json:"dp_acceleration"`
+	DpGravity  float64 `json:"dp_gravity"`
+	DpTotal    float64 `json:"dp_total"` // p_in − p_out
+	Mass       float64 `json:"mass"`     // fluid held, kg
+}
+
+// Totals sums the loop at the operating point.
+type Totals struct {
+	Heat       float64 `json:"heat"`     // W added
+	Rejected   float64 `json:"rejected"` // W removed by the condensers
+	EnergyGap  float64 `json:"energy_closure"`
+	MassGap    float64 `json:"mass_closure"` // largest junction imbalance over the flow
+	Friction   float64 `json:"dp_friction"`
+	Local      float64 `json:"dp_local"`
+	Accel      float64 `json:"dp_acceleration"`
+	Gravity    float64 `json:"dp_gravity"`       // net gravity head at the operating point
+	HeadMax    float64 `json:"head_available"`   // gravity head at vanishing flow
+	Inventory  float64 `json:"inventory"`        // fluid in the flow path at the operating point, kg
+	Reservoirs float64 `json:"reservoir_liquid"` // reservoirs full of liquid, kg
+}
+
+// Margin is one design margin in one case. Use is the fraction of the limit
+// used: 1 or more means the limit is reached.
+type Margin struct {
+	Margin    string  `json:"margin"`
+	Case      string  `json:"case,omitempty"`
+	Component string  `json:"component,omitempty"`
+	Value     float64 `json:"value"`
+	Limit     float64 `json:"limit"`
+	Unit      string  `json:"unit"`
+	Use       float64 `json:"use"`
+	Status    string  `json:"status"` // "ok", "warning", "error"
+}
+
+// TiltLimits are the attitudes, from the case's own, at which circulation
+// stops. A nil limit means none within ±90°.
+type TiltLimits struct {
+	PitchUp   *float64 `json:"pitch_up,omitempty"`
+	PitchDown *float64 `json:"pitch_down,omitempty"`
+	RollLeft  *float64 `json:"roll_left,omitempty"`
+	RollRight *float64 `json:"roll_right,omitempty"`
+	Margin    float64  `json:"margin"` // smallest angle from the case to a limit, rad (π/2 when none)
+}
+
+// Finding is one margin or estimate finding, with the case, the component,
+// the value and the limit it is checked against.
+type Finding struct {
+	Rule      string  `json:"rule"`
+	Severity  string  `json:"severity"` // "error", "warning", "info"
+	Loop      string  `json:"loop,omitempty"`
+	Case      string  `json:"case,omitempty"`
+	Component string  `json:"component,omitempty"`
+	Value     float64 `json:"value"`
+	Limit     float64 `json:"limit"`
+	Unit      string  `json:"unit,omitempty"`
+	// Limit field, when the limit comes from the limits block
+	// ("exit_quality", …) or from a component field ("wall_limit").
+	LimitField string `json:"limit_field,omitempty"`
+	Message    string `json:"message"`
+}
+
+// Rule identifiers of the findings.
+const (
+	RuleGeometry       = "estimate-geometry"
+	RuleFluidRange     = "fluid-range"
+	RuleNoSink         = "estimate-no-sink"
+	RuleNoCirculation  = "no-circulation"
+	RuleUnstable       = "ledinegg-unstable"
+	RuleConverge       = "network-not-converged"
+	RuleReverse        = "reverse-flow"
+	RuleExitQuality    = "margin-exit-quality"
+	RuleDryout         = "margin-dryout"
+	RuleCHF            = "margin-chf"
+	RuleFlooding       = "margin-flooding"
+	RuleWall           = "margin-wall-temperature"
+	RulePressure       = "margin-design-pressure"
+	RuleCondenser      = "margin-condenser"
+	RuleCharge         = "margin-charge"
+	RuleHead           = "margin-head"
+	RuleTilt           = "margin-tilt"
+	RuleFluidSafety    = "fluid-safety"
+	RuleEnergyClosure  = "estimate-energy-closure"
+	RuleUnknownCase    = "estimate-unknown-case"
+	RuleNegativeHeat   = "estimate-negative-heat"
+	RuleMethod         = "estimate-method"
+	RuleFluidUnknown   = "estimate-fluid"
+	RuleNoCondenser    = "estimate-no-condenser"
+	RuleSuperheatCells = "margin-superheat"
+)
+
+// Cautions printed with every estimate.
+var Cautions = []string{
+	"Estimates for early design only: a steady, one-dimensional, quasi-static model with the stated correlations; confirm by test.",
+	"Pressure findings compare the saturation pressure with the stated rating only; pressure equipment must satisfy local pressure-equipment codes and be approved by licensed engineers.",
+	"Flammable or toxic working fluids (ASHRAE 34 / ISO 817 safety classes other than A1) must follow local codes for charge limits, ventilation and detection.",
+}

@@ -1,0 +1,233 @@
+package flow
+
+import (
+	"fmt"
+	"math"
+
+	"circa/lang"
+)
+
+// run estimates one case.
+func (p *prepared) run(pt point, tilt bool) CaseResult {
+	cr := CaseResult{Case: caseName(pt.c), Grid: pt.grid, Yaw: pt.yaw, Pitch: pt.pitch, Roll: pt.roll,
+		Accel: [3]float64(pt.accel), pointCase: pt.c}
+	s, fs := p.newState(pt, &cr)
+	cr.Findings = append(cr.Findings, fs...)
+	if s == nil {
+		cr.Reason = "no operating state (see the findings)"
+		return cr
+	}
+	cr.BodyForce = [3]float64(s.b)
+	ev := s.newEval()
+	var f []float64
+	ok := false
+	if p.net.ring {
+		roots, e0 := s.ringRoots(ev)
+		best := -1
+		for i, r := range roots {
+			cr.Roots = append(cr.Roots, Root{MassFlow: r.m, Slope: r.slope, Stable: r.slope < 0})
+			if r.slope < 0 {
+				best = i
+			} else {
+				cr.Findings = append(cr.Findings, p.finding(RuleUnstable, "warning", cr.Case, "", r.m, 0, "kg/s", "",
+					"statically unstable balance (Ledinegg: excess head rises with flow) at %.3g g/s in case %s", r.m*1e3, cr.Case))
+			}
+		}
+		if best >= 0 {
+			f, ok = []float64{roots[best].m}, true
+		} else {
+			cr.Reason = p.noFlowReason(s, ev, cr.Heat, e0)
+		}
+	} else {
+		var it int
+		var err error
+		f, it, err = s.solveNetwork(ev)
+		cr.Iterations = it
+		if err != nil {
+			cr.Findings = append(cr.Findings, p.finding(RuleConverge, "error", cr.Case, "", float64(it), 60, "", "",
+				"the network did not converge in case %s after %d Newton steps: no estimate", cr.Case, it))
+			cr.Reason = "the network solution did not converge"
+		} else {
+			ok = true
+		}
+	}
+	if !ok {
+		if cr.Heat > 0 {
+			cr.Findings = append(cr.Findings, p.finding(RuleNoCirculation, "error", cr.Case, "", 0, 0, "", "",
+				"no circulation in case %s: %s", cr.Case, cr.Reason))
+		}
+		if cr.Heat == 0 && cr.Reason == "" {
+			cr.Reason = "no heat input"
+		}
+		p.pressureMargin(s, &cr)
+		return cr
+	}
+	s.evaluate(f, ev)
+	p.record(s, ev, &cr)
+	if !p.net.ring {
+		// Circulation means a positive flow through every heated branch.
+		for _, c := range cr.Components {
+			if c.Kind == "evaporator" && c.Heat > 0 && !(c.MassFlow > 0) {
+				cr.Findings = append(cr.Findings, p.finding(RuleReverse, "error", cr.Case, c.Component, c.MassFlow, 0, "kg/s", "",
+					"evaporator %s carries %.3g g/s against its direction in case %s", c.Component, c.MassFlow*1e3, cr.Case))
+			}
+		}
+	}
+	cr.Circulates = cr.MassFlow > 0
+	p.margins(s, &cr)
+	if tilt {
+		p.tilt(s, pt, &cr)
+	}
+	return cr
+}
+
+// finding builds a finding for this loop.
+func (p *prepared) finding(rule, sev, cs, comp string, v, lim float64, unit, field, format string, args ...any) Finding {
+	return Finding{Rule: rule, Severity: sev, Loop: p.l.Name, Case: cs, Component: comp, Value: v, Limit: lim,
+		Unit: unit, LimitField: field, Message: fmt.Sprintf(format, args...)}
+}
+
+// noFlowReason explains why a single loop has no balance.
+func (p *prepared) noFlowReason(s *state, ev *eval, heat, e0 float64) string {
+	if heat == 0 {
+		return "no heat input"
+	}
+	head := s.headAtVanishingFlow(ev)
+	if head <= 0 {
+		return fmt.Sprintf("the gravity head is %.3g Pa even with the riser full of vapour: the condenser is not above the evaporator along the body force", head)
+	}
+	if e0 > 0 {
+		return fmt.Sprintf("the excess head stays positive up to %g kg/s", flowMax)
+	}
+	return fmt.Sprintf("the losses exceed the gravity head (at most %.3g Pa) at every flow", head)
+}
+
+// headAtVanishingFlow is the net gravity head with the flow at the bottom
+// of the grid (the heated side as dry as the heat makes it).
+func (s *state) headAtVanishingFlow(ev *eval) float64 {
+	f := make([]float64, len(s.net.cycles))
+	for k := range f {
+		f[k] = flowMin
+	}
+	s.evaluate(f, ev)
+	var g float64
+	for bi, b := range s.net.branches {
+		up := b.from
+		if ev.mb[bi] < 0 {
+			up = b.to
+		}
+		m := ev.mb[bi]
+		if m == 0 {
+			continue
+		}
+		s.branchDP(bi, m, ev.xj[up], func(ci int, dir, m, xin, xout float64, q parts) { g += q.grav })
+	}
+	return g
+}
+
+// record fills the component states and totals at the solution.
+func (p *prepared) record(s *state, ev *eval, cr *CaseResult) {
+	n := s.net
+	states := make([]ComponentState, len(n.comps))
+	for bi, b := range n.branches {
+		m := ev.mb[bi]
+		up := b.from
+		if m < 0 {
+			up = b.to
+		}
+		s.branchDP(bi, m, ev.xj[up], func(ci int, dir, mc, xin, xout float64, q parts) {
+			cp := &n.comps[ci]
+			cs := ComponentState{Component: cp.name, Kind: cp.kind.String(), MassFlow: mc, MassFlux: mc / cp.A,
+				XIn: xin, XOut: xout, DpFriction: q.fric, DpLocal: q.local, DpAccel: q.acc, DpGravity: q.grav,
+				DpTotal: q.loss()}
+			cs.Heat = math.Abs(mc) * s.p.Hlv * (xout - xin)
+			G := math.Abs(cs.MassFlux)
+			var sumA, sumL, mass float64
+			s.march(ci, dir, mc, xin, func(c cellRec) {
+				sumA += c.alpha * c.ds
+				sumL += c.ds
+				mass += c.rhoM * cp.A * c.ds
+			})
+			if sumL > 0 {
+				cs.VoidMean = sumA / sumL
+			}
+			cs.Mass = mass
+			cs.VoidOut = s.voidAt(xout, G, s.cosInc[ci])
+			xo := math.Min(math.Max(xout, 0), 1)
+			if cs.VoidOut < 1 {
+				cs.VelLiquid = G * (1 - xo) / (s.homogLiquid(xout) * (1 - cs.VoidOut))
+			}
+			if cs.VoidOut > 0 {
+				cs.VelVapour = G * xo / (s.p.RhoV * cs.VoidOut)
+			}
+			if mc < 0 {
+				cs.VelLiquid, cs.VelVapour = -cs.VelLiquid, -cs.VelVapour
+			}
+			states[ci] = cs
+		})
+	}
+	cr.Components = states
+	var t Totals
+	for _, c := range states {
+		if c.Heat > 0 {
+			t.Heat += c.Heat
+		} else {
+			t.Rejected -= c.Heat
+		}
+		t.Friction += c.DpFriction
+		t.Local += c.DpLocal
+		t.Accel += c.DpAccel
+		t.Gravity += c.DpGravity
+		t.Inventory += c.Mass
+	}
+	for _, r := range n.res {
+		if r.Volume.SI > 0 {
+			t.Reservoirs += r.Volume.SI * s.p.RhoL
+		}
+	}
+	if t.Heat > 0 {
+		t.EnergyGap = math.Abs(t.Heat-t.Rejected) / t.Heat
+	}
+	// Mass at each junction.
+	in := make([]float64, n.nj)
+	tot := 0.0
+	for bi, b := range n.branches {
+		in[b.to] += ev.mb[bi]
+		in[b.from] -= ev.mb[bi]
+		tot = math.Max(tot, math.Abs(ev.mb[bi]))
+	}
+	for _, v := range in {
+		if tot > 0 {
+			t.MassGap = math.Max(t.MassGap, math.Abs(v)/tot)
+		}
+	}
+	t.HeadMax = s.headAtVanishingFlow(s.newEval())
+	cr.Totals = t
+	// The loop flow: through the condensers.
+	var mf float64
+	for _, c := range states {
+		if c.Kind == "condenser" {
+			mf += math.Abs(c.MassFlow)
+		}
+	}
+	if n.ring {
+		mf = math.Abs(ev.mb[0])
+	}
+	cr.MassFlow = mf
+	if t.EnergyGap > 1e-9 {
+		cr.Findings = append(cr.Findings, p.finding(RuleEnergyClosure, "warning", cr.Case, "", t.EnergyGap, 1e-9, "", "",
+			"the energy balance closes only to %.2g relative in case %s", t.EnergyGap, cr.Case))
+	}
+}
+
+// homogLiquid is the liquid density at quality-equivalent x.
+func (s *state) homogLiquid(x float64) float64 {
+	if x < 0 {
+		rho, _ := s.liquid(x)
+		return rho
+	}
+	return s.p.RhoL
+}
+
+// unusedKind keeps lang imported for kind comparisons in this file.
+var _ = lang.Pipe
