@@ -22,7 +22,7 @@ var ammonia = (&helmholtz{
 		Tmin:   233.15, // −40 °C; triple point 195.495 K
 		Tmax:   405.56 - 3,
 		Safety: "B2L", // ASHRAE 34 safety group (from memory)
-		Source: "EOS: Gao et al., J. Phys. Chem. Ref. Data 52 (2023) 013102; liquid viscosity: Perry's Chemical Engineers' Handbook, 8th ed., Table 2-313; transport: Chung et al., Ind. Eng. Chem. Res. 27 (1988) 671 with liquid and dilute-gas correlations of the VDI Heat Atlas, 2nd ed. (2010), D3.1; surface tension: Mulero et al., J. Phys. Chem. Ref. Data 41 (2012) 043105",
+		Source: "EOS: Gao et al., J. Phys. Chem. Ref. Data 52 (2023) 013102; viscosity: Fenghour et al., J. Phys. Chem. Ref. Data 24 (1995) 1649; thermal conductivity: VDI Heat Atlas, 2nd ed. (2010), D3.1 liquid and dilute-gas polynomials with the density dependence of Chung et al., Ind. Eng. Chem. Res. 27 (1988) 671; surface tension: Mulero et al., J. Phys. Chem. Ref. Data 41 (2012) 043105",
 	},
 	R: 8.3144598, M: 17.03052 / 1000,
 	Tr: 405.56, rhoR: 13696 * 17.03052 / 1000,
@@ -30,13 +30,31 @@ var ammonia = (&helmholtz{
 	// Chung et al. (1988) constants (ω is set from the equation of state);
 	// dipole moment: Poling et al., The Properties of Gases and Liquids 5th ed., App. A (from memory); no association factor is tabulated for ammonia; κ = 0.
 	chung: chung{M: 17.03052, Tc: 405.56, Vc: 17.03052 / 233.25 * 1000, mu: 1.47, kappa: 0,
-		// Liquid viscosity: DIPPR equation 101 from Perry's Chemical Engineers'
-		// Handbook, 8th ed. (2008), Table 2-313 (fitted 195.41–393.15 K).
-		liqMu: dippr101{-6.743, 598.3, -0.7341, -3.69e-27, 10}.at,
-		// VDI Heat Atlas, 2nd ed. (2010), section D3.1, tables of PPDS coefficients:
-		liqK:   ppdsPoly{-0.5047, 0.017496, -9.2075e-5, 1.97003e-7, -1.61999e-10}.at,
-		gasMu0: ppdsPoly{-7.883e-7, 3.6749e-8, -4.51e-13, 0, 0}.at,
-		gasK0:  ppdsPoly{-0.006678, 9.2e-5, 4.767e-8, 0, 0}.at,
+		// Thermal conductivity: VDI Heat Atlas, 2nd ed. (2010), section D3.1,
+		// PPDS polynomials for the liquid and the dilute gas.
+		liqK:  ppdsPoly{-0.5047, 0.017496, -9.2075e-5, 1.97003e-7, -1.61999e-10}.at,
+		gasK0: ppdsPoly{-0.006678, 9.2e-5, 4.767e-8, 0, 0}.at,
+	},
+	// Viscosity: A. Fenghour, W.A. Wakeham, V. Vesovic, J.T.R. Watson,
+	// J. Millat, E. Vogel, "The viscosity of ammonia", J. Phys. Chem. Ref.
+	// Data 24 (1995) 1649–1667 (residual terms in reduced variables).
+	// (The Tufeu et al. 1984 conductivity correlation was tried and matched
+	// the VDI table worse than the VDI polynomials with Chung's density
+	// dependence: 8 % at 240 K, 17 % at 390 K without its critical term.)
+	trans: pair{
+		visc: &refViscosity{c0: 2.1357, M: 17.03026, sigma: 0.2957, epsK: 386,
+			omegaA: []float64{4.9931822, -0.61122364, 0, 0.18535124, -0.11160946},
+			rfB: []float64{-1.7999496, 46.692621, -534.60794, 3360.4074, -13019.164, 33414.23,
+				-58711.743, 71426.686, -59834.012, 33652.741, -12027.35, 2434.8205, -208.07957},
+			rfT: []float64{0, -0.5, -1, -1.5, -2, -2.5, -3, -3.5, -4, -4.5, -5, -5.5, -6},
+			Tr:  405.4, rhoR: 13211.8,
+			hoA: []float64{4.005040600989671e-06, -1.4107915123955129e-05, 3.4760743039321816e-05,
+				4.631310990138071e-06, -3.937374461785061e-06, -1.200075068367531e-05, 1.9284977991745303e-06},
+			hoD: []float64{3, 3, 2, 4, 4, 2, 4},
+			hoT: []float64{0, 1, 2, 2, 3, 4, 4},
+			hoG: 1, hoP: []float64{1}, hoQ: []float64{0},
+		},
+		cond: chungConductivity{},
 	},
 	refT: 273.15, refH: 200e3,
 	liq: ancillary{form: ancLinear, overT: false, Tr: 405.56, red: 13696 * 17.03052 / 1000,

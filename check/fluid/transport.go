@@ -175,8 +175,9 @@ func (d dippr101) at(T float64) float64 {
 // collision integral, the Rainwater–Friend initial-density term and a
 // residual term in the modified Batschinski–Hildebrand form.
 type refViscosity struct {
-	// Dilute gas η0 = 0.021357 √(M T) / (σ² Ω) µPa·s, ln Ω = Σ a_i (ln T*)^i,
-	// T* = T/(ε/k).
+	// Dilute gas η0 = c0 √(M T) / (σ² Ω) µPa·s, ln Ω = Σ a_i (ln T*)^i,
+	// T* = T/(ε/k); c0 is 0.021357 unless set.
+	c0     float64
 	M      float64 // molar mass, g/mol
 	sigma  float64 // Lennard-Jones size, nm
 	epsK   float64 // Lennard-Jones energy ε/k, K
@@ -201,7 +202,11 @@ func (r *refViscosity) dilute(T float64) float64 {
 		lnOm += a * pw
 		pw *= lt
 	}
-	return 0.021357e-6 * math.Sqrt(r.M*T) / (r.sigma * r.sigma * math.Exp(lnOm))
+	c0 := r.c0
+	if c0 == 0 {
+		c0 = 0.021357
+	}
+	return c0 * 1e-6 * math.Sqrt(r.M*T) / (r.sigma * r.sigma * math.Exp(lnOm))
 }
 
 // at is η(T, ρ) in Pa·s, ρ in kg/m³.
@@ -224,8 +229,10 @@ func (r *refViscosity) at(T, rho float64) float64 {
 	for i, p := range r.hoP {
 		den += p * math.Pow(tau, r.hoQ[i])
 	}
-	d0 := r.hoG / den
-	s += r.hoF * (1/(d0-delta) - 1/d0)
+	if r.hoF != 0 {
+		d0 := r.hoG / den
+		s += r.hoF * (1/(d0-delta) - 1/d0)
+	}
 	return eta0 + eta1 + s
 }
 
@@ -307,7 +314,7 @@ func (e *ecsViscosity) viscosity(s state) float64 {
 // correlation λ = λ0(T) + λr(ρ, T) + λc(ρ, T), in W/(m·K): λ0 = Σ a_i (T/Tr)^i,
 // λr = Σ (b1_i + b2_i T/Tr) (ρ/rhoR)^i (i = 1, 2, …) and λc the simplified
 // critical enhancement of G.A. Olchowy and J.V. Sengers, Int. J.
-// Thermophys. 10 (1989) 417.
+// Thermophys. 10 (1989) 417 (omitted when crit is zero).
 type refConductivity struct {
 	Tr     float64 // K
 	rhoR   float64 // kg/m³
@@ -332,6 +339,9 @@ func (r *refConductivity) conductivity(s state, mu float64) float64 {
 		}
 		k += b * pw
 		pw *= d
+	}
+	if r.crit.xi0 == 0 {
+		return k
 	}
 	return k + r.crit.enhancement(s, mu)
 }

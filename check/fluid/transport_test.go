@@ -20,9 +20,9 @@ var vdiTransportLimits = []vdiLimit{
 	// λ' 1.8 %, λ'' 4.6 %, σ 1.6 % (to 0.98 Tc).
 	{"R134a", "muL", 0.98, 0.05}, {"R134a", "muV", 0.98, 0.05},
 	{"R134a", "kL", 0.98, 0.05}, {"R134a", "kV", 0.98, 0.05}, {"R134a", "sigma", 0.98, 0.05},
-	// Ammonia: µ' 1.1 %; µ'' (Chung) 7.9 % at 350 K; λ' (VDI PPDS polynomial)
-	// 6.0 % at 240 K; λ'' 4.0 %; σ 3.9 % to 0.9 Tc, 6.5 % at 370 K.
-	{"Ammonia", "muL", 0.95, 0.05}, {"Ammonia", "muV", 0.95, 0.085},
+	// Ammonia: µ' 1.1 %, µ'' 0.1 % (Fenghour et al. 1995); λ' (VDI PPDS
+	// polynomial) 6.0 % at 240 K; λ'' 4.0 %; σ 3.9 % to 0.9 Tc, 6.5 % at 370 K.
+	{"Ammonia", "muL", 0.95, 0.05}, {"Ammonia", "muV", 0.95, 0.05},
 	{"Ammonia", "kL", 0.95, 0.065}, {"Ammonia", "kV", 0.95, 0.05},
 	{"Ammonia", "sigma", 0.9, 0.05}, {"Ammonia", "sigma", 0.95, 0.07},
 	// Methanol: µ' 3.2 %; µ'' 9.4 % at 460 K; λ' 7.4 % at 460 K; λ'' 12 % to
