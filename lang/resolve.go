@@ -490,7 +490,11 @@ func (r *resolver) unknownName(file string, id *Ident, what string, cands []stri
 func (r *resolver) fill() {
 	for _, l := range r.m.Loops {
 		st := r.loopStmts[l]
-		for _, s := range st.Block.Stmts {
+		var body []*Stmt // a loop written without a block has none
+		if st.Block != nil {
+			body = st.Block.Stmts
+		}
+		for _, s := range body {
 			if s.Bad {
 				continue
 			}
