@@ -15,6 +15,19 @@ var stmtParser = participle.MustBuild[Stmt](
 	participle.UseLookahead(2),
 )
 
+// argParser parses one part of a statement; it is used only to explain why
+// the statement parser stopped before the end of a line.
+var argParser = participle.MustBuild[Arg](
+	participle.Lexer(lexDef{}),
+	participle.Elide("Space", "Comment"),
+	participle.UseLookahead(2),
+)
+
+// MaxNesting bounds how deeply parentheses may nest in one statement. The
+// grammar is parsed recursively; the bound keeps hostile text from using
+// unbounded stack, and no real expression comes near it.
+const MaxNesting = 100
+
 // Parse parses one .loop text. It never fails: syntax errors are collected
 // in File.Errors (at most one per line) and every statement that parsed is
 // kept, so a half-typed line leaves the rest of the file usable.
@@ -35,6 +48,8 @@ type parser struct {
 	stack []*Stmt
 	// line of the last error, to keep one error per line
 	errLine int
+	// deepBlocks is set once nesting too deep has been reported
+	deepBlocks bool
 }
 
 func (p *parser) errorf(span Span, format string, args ...any) {
@@ -88,6 +103,18 @@ func (p *parser) run() {
 	}
 }
 
+// push opens the block of s. Blocks nested deeper than MaxNesting are an
+// error (reported once, at the first brace too many): real files nest two
+// or three levels, and the canonical layout of deeper nesting grows with
+// the square of the depth.
+func (p *parser) push(s *Stmt) {
+	if len(p.stack) == MaxNesting && !p.deepBlocks {
+		p.deepBlocks = true
+		p.errorf(Span{s.Block.Open, s.Block.Open + 1}, "blocks nested too deeply: more than %d levels", MaxNesting)
+	}
+	p.stack = append(p.stack, s)
+}
+
 // close ends the innermost block at the '}' at span sp.
 func (p *parser) close(sp Span) {
 	n := len(p.stack)
@@ -113,6 +140,11 @@ func (p *parser) statement() {
 	lex := p.lex
 	cp := lex.MakeCheckpoint()
 	first := *lex.Peek()
+	if deep := p.tooDeep(int(cp.RawCursor())); deep != nil {
+		p.errorf(tokSpan(deep), "expression nested too deeply: more than %d parentheses are open here", MaxNesting)
+		p.skipBad(first)
+		return
+	}
 	stmt, err := parseStmt(lex)
 	if err == nil {
 		p.add(stmt)
@@ -122,11 +154,46 @@ func (p *parser) statement() {
 	// Recover: report, keep what can be kept, skip to the end of the line,
 	// opening a block if the bad line opens one so later lines nest right.
 	lex.LoadCheckpoint(cp)
+	p.reportParseError(err, first)
+	p.skipBad(first)
+}
+
+// tooDeep returns the parenthesis that opens one level too many in the
+// statement starting at raw token index i, or nil.
+func (p *parser) tooDeep(i int) *lexer.Token {
+	depth := 0
+	for ; i < len(p.toks); i++ {
+		t := &p.toks[i]
+		if t.Type == TokNewline || t.Type == TokEOF {
+			return nil
+		}
+		if t.Type != TokPunct {
+			continue
+		}
+		switch t.Value {
+		case "(":
+			depth++
+			if depth > MaxNesting {
+				return t
+			}
+		case ")":
+			depth--
+		case ";", "{", "}":
+			return nil
+		}
+	}
+	return nil
+}
+
+// skipBad keeps a statement that did not parse as a Bad one and skips to
+// the end of its line, opening a block if the line opens one so later
+// lines nest right.
+func (p *parser) skipBad(first lexer.Token) {
+	lex := p.lex
 	bad := &Stmt{Pos: first.Pos, Bad: true}
 	if first.Type == TokIdent {
 		bad.Word = &Ident{Pos: first.Pos, EndPos: lexer.Position{Offset: first.Pos.Offset + len(first.Value)}, Name: first.Value}
 	}
-	p.reportParseError(err, first)
 	end := first.Pos.Offset + len(first.Value)
 	for {
 		t := lex.Peek()
@@ -139,7 +206,7 @@ func (p *parser) statement() {
 			bad.EndPos = lexer.Position{Offset: t.Pos.Offset}
 			bad.Block = &Block{Open: t.Pos.Offset, Close: -1}
 			p.add(bad)
-			p.stack = append(p.stack, bad)
+			p.push(bad)
 			return
 		}
 	}
@@ -160,10 +227,13 @@ func (p *parser) terminator(s *Stmt) {
 		s.Block = &Block{Open: t.Pos.Offset, Close: -1}
 		nt := lex.Peek()
 		s.Block.OneLine = !(nt.Type == TokNewline || nt.EOF())
-		p.stack = append(p.stack, s)
+		p.push(s)
 		return
 	}
-	p.errorf(tokSpan(t), "%s", unexpected(t, "at the end of the statement"))
+	// The statement is incomplete: keep its head but mark it Bad so no
+	// later pass reads half an expression as the whole value.
+	s.Bad = true
+	p.explainStop(t)
 	for {
 		t := lex.Peek()
 		if t.EOF() || t.Type == TokNewline || isPunctTok(t, "}") || isPunctTok(t, ";") {
@@ -172,10 +242,45 @@ func (p *parser) terminator(s *Stmt) {
 		lex.Next()
 		if isPunctTok(t, "{") {
 			s.Block = &Block{Open: t.Pos.Offset, Close: -1}
-			p.stack = append(p.stack, s)
+			p.push(s)
 			return
 		}
 	}
+}
+
+// explainStop reports why the statement parser stopped at t, which is not
+// the end of the statement: an operator with nothing after it, or the
+// error found by parsing one more part from t.
+func (p *parser) explainStop(t *lexer.Token) {
+	lex := p.lex
+	if t.Type == TokPunct && strings.Contains("+-*/^", t.Value) {
+		cp := lex.MakeCheckpoint()
+		lex.Next()
+		n := lex.Peek()
+		lex.LoadCheckpoint(cp)
+		if n.EOF() || n.Type == TokNewline || isPunctTok(n, ";") || isPunctTok(n, "}") || isPunctTok(n, "{") {
+			p.errorf(tokSpan(t), "%q needs a value after it", t.Value)
+			return
+		}
+	}
+	cp := lex.MakeCheckpoint()
+	_, err := parseArg(lex)
+	lex.LoadCheckpoint(cp)
+	var perr participle.Error
+	if err != nil && errors.As(err, &perr) && perr.Position().Offset > t.Pos.Offset {
+		p.reportParseError(err, *t)
+		return
+	}
+	p.errorf(tokSpan(t), "%s", unexpected(t, "at the end of the statement"))
+}
+
+func parseArg(lex *lexer.PeekingLexer) (a *Arg, err error) {
+	defer func() {
+		if r := recover(); r != nil {
+			a, err = nil, fmt.Errorf("cannot parse this part (%v)", r)
+		}
+	}()
+	return argParser.ParseFromLexer(lex, participle.AllowTrailing(true))
 }
 
 // parseStmt runs the participle grammar for one statement, turning any
@@ -241,6 +346,8 @@ func friendlyExpected(s string) string {
 	s = strings.ReplaceAll(s, "Expr", "a value")
 	s = strings.ReplaceAll(s, "Factor", "a value")
 	s = strings.ReplaceAll(s, "Term", "a value")
+	// After a statement's word every name is part of a value.
+	s = strings.ReplaceAll(s, "expected Ident", "expected a value")
 	return "(" + s + ")"
 }
 

@@ -1,0 +1,209 @@
+package lang
+
+import (
+	"strings"
+	"testing"
+	"time"
+)
+
+// good lists the words of the statements that parsed, depth first, with
+// blocks as "{" and "}", so a test can check what a partial tree kept.
+func good(f *File) string {
+	var out []string
+	var walk func([]*Stmt)
+	walk = func(list []*Stmt) {
+		for _, s := range list {
+			w := s.Keyword()
+			if s.Bad {
+				w = "!" + w
+			}
+			out = append(out, w)
+			if s.Block != nil {
+				out = append(out, "{")
+				walk(s.Block.Stmts)
+				out = append(out, "}")
+			}
+		}
+	}
+	walk(f.Stmts)
+	return strings.Join(out, " ")
+}
+
+func TestParseMalformed(t *testing.T) {
+	for _, tc := range []struct {
+		name, src string
+		// Each error as "LINE:COL message-substring", columns counted in
+		// bytes from 1.
+		errs []string
+		tree string // good(f)
+	}{
+		{"unclosed block", "loop a {\n  node x\n",
+			[]string{`1:8 block of "loop" opened here is never closed`}, "loop { node }"},
+		{"stray brace", "}\nnode y\n",
+			[]string{"1:1 unmatched '}'"}, "node"},
+		{"stray brace after block", "a {\n}\n}\nb\n",
+			[]string{"3:1 unmatched '}'"}, "a { } b"},
+		{"unterminated string", "include \"parts.loop\nparam a = 1 m\n",
+			[]string{"1:9 string is not closed"}, "!include param"},
+		{"bad character", "param a = 3 $ 4\nnode b\n",
+			[]string{`1:13 unexpected character "$"`}, "!param node"},
+		{"dangling plus", "length 1 m +\nbore 2 mm\n",
+			[]string{`1:12 "+" needs a value after it`}, "!length bore"},
+		{"dangling times in a block", "pipe p from a to b {\n  length 1 m *\n  bore 8 mm\n}\n",
+			[]string{`2:14 "*" needs a value after it`}, "pipe { !length bore }"},
+		{"dangling power", "x 2 ^\n", []string{`1:5 "^" needs a value after it`}, "!x"},
+		{"power without base", "x ^2\n", []string{`1:3 unexpected "^"`}, "!x"},
+		{"empty vector", "node a at ()\n", []string{`1:12 unexpected ")" (expected a value)`}, "!node"},
+		{"empty vector element", "node a at (1, , 2) m\n", []string{`1:13 unexpected ","`}, "!node"},
+		{"comma outside parentheses", "x 1,2\n", []string{`1:4 unexpected ","`}, "!x"},
+		{"unclosed parenthesis", "x (1, 2\nnode b\n", []string{`1:8 unexpected end of line (expected ")")`}, "!x node"},
+		{"extra parenthesis", "x 1 m)\n", []string{`1:6 unexpected ")"`}, "!x"},
+		{"NUL byte", "a \x00 b\nc\n", []string{`1:3 unexpected character "\x00"`}, "!a c"},
+		{"invalid UTF-8", "a \xff\xfe b\nc\n", []string{`1:3 unexpected character "\xff"`}, "!a c"},
+		{"line starting with a brace", "{\nnode a\n}\n", []string{`1:1 unexpected "{"`}, "! { node }"},
+		{"CRLF", "loop r {\r\n  fluid water\r\n  bore 1 m +\r\n}\r\n",
+			[]string{`3:12 "+" needs a value after it`}, "loop { fluid !bore }"},
+		{"one error per line", "x $ $ $\ny\n", []string{`1:3 unexpected character "$"`}, "!x y"},
+		// The grammar is uniform: these parse, and the resolver explains them.
+		{"param without a name", "param = 3\n", nil, "param"},
+		{"doubled key", "x = = 3\n", nil, "x"},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			f := Parse("t.loop", []byte(tc.src))
+			checkErrs(t, f, tc.errs)
+			if got := good(f); got != tc.tree {
+				t.Errorf("tree %q, want %q", got, tc.tree)
+			}
+		})
+	}
+}
+
+func checkErrs(t *testing.T, f *File, want []string) {
+	t.Helper()
+	var got []string
+	for _, d := range f.Errors {
+		p := f.Mapper.OffsetPosition(d.Loc.Span.Start, UTF8)
+		got = append(got, strings.Join([]string{itoa(p.Line+1) + ":" + itoa(p.Col+1), d.Message()}, " "))
+		if d.Rule != "syntax" || d.Severity != Error || d.Loc.File != f.Path {
+			t.Errorf("error %q: rule %q severity %v file %q", d.Message(), d.Rule, d.Severity, d.Loc.File)
+		}
+	}
+	if len(got) != len(want) {
+		t.Fatalf("errors %q, want %q", got, want)
+	}
+	for i := range want {
+		pos, msg, _ := strings.Cut(want[i], " ")
+		if !strings.HasPrefix(got[i], pos+" ") || !strings.Contains(got[i], msg) {
+			t.Errorf("error %d: %q, want %q", i, got[i], want[i])
+		}
+	}
+}
+
+func itoa(n int) string {
+	if n == 0 {
+		return "0"
+	}
+	neg := n < 0
+	if neg {
+		n = -n
+	}
+	var b []byte
+	for ; n > 0; n /= 10 {
+		b = append([]byte{byte('0' + n%10)}, b...)
+	}
+	if neg {
+		return "-" + string(b)
+	}
+	return string(b)
+}
+
+func TestParseDeepParentheses(t *testing.T) {
+	const n = 100_000
+	src := "param a = " + strings.Repeat("(", n) + "1" + strings.Repeat(")", n) + "\nnode b\n"
+	f := Parse("deep.loop", []byte(src))
+	// The first '(' past the limit is at byte 10+MaxNesting of line 1.
+	checkErrs(t, f, []string{"1:" + itoa(11+MaxNesting) + " expression nested too deeply"})
+	if got := good(f); got != "!param node" {
+		t.Errorf("tree %q", got)
+	}
+	// Up to the limit parses.
+	ok := "param a = " + strings.Repeat("(", MaxNesting) + "1" + strings.Repeat(")", MaxNesting) + "\n"
+	if f := Parse("ok.loop", []byte(ok)); len(f.Errors) > 0 {
+		t.Errorf("%d parentheses: %s", MaxNesting, f.Errors[0].Message())
+	}
+	// Unclosed ones too, and after a ';' the count starts again.
+	f = Parse("open.loop", []byte("a 1; b "+strings.Repeat("(", n)))
+	checkErrs(t, f, []string{"1:" + itoa(8+MaxNesting) + " expression nested too deeply"})
+}
+
+func TestParseDeepBlocks(t *testing.T) {
+	const n = 100_000
+	src := strings.Repeat("a {\n", n) + "b\n" + strings.Repeat("}\n", n)
+	f := Parse("deep.loop", []byte(src))
+	// Reported once, at the first '{' too many (line MaxNesting+1, column 3).
+	checkErrs(t, f, []string{itoa(MaxNesting+1) + ":3 blocks nested too deeply"})
+	if _, err := Format(f); err == nil {
+		t.Error("Format accepted blocks nested too deeply")
+	}
+	if m := LoadSource("deep.loop", []byte(src), memFS{}); len(m.Diags) == 0 {
+		t.Error("no findings")
+	}
+	// Up to the limit is fine, and formats to its depth.
+	ok := strings.Repeat("a {\n", MaxNesting) + "b\n" + strings.Repeat("}\n", MaxNesting)
+	f = Parse("ok.loop", []byte(ok))
+	checkErrs(t, f, nil)
+	out, err := Format(f)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if want := "\n" + strings.Repeat("  ", MaxNesting) + "b\n"; !strings.Contains(string(out), want) {
+		t.Error("innermost statement not indented to its depth")
+	}
+	// Never closed: one error per open block, each at its '{'.
+	f = Parse("open.loop", []byte(strings.Repeat("a {\n", 50)))
+	if len(f.Errors) != 50 {
+		t.Errorf("%d errors, want 50", len(f.Errors))
+	}
+}
+
+func TestParseLongLine(t *testing.T) {
+	var b strings.Builder
+	b.WriteString("param a = 1 m")
+	for i := 0; i < 100_000; i++ {
+		b.WriteString(" + 1 m")
+	}
+	b.WriteString(" $\n")
+	start := time.Now()
+	f := Parse("long.loop", []byte(b.String()))
+	checkErrs(t, f, []string{"1:" + itoa(b.Len()-1) + " unexpected character"})
+	// Not a speed target (see the benchmarks): a sanity bound against
+	// quadratic behaviour on a 600 kB line.
+	if d := time.Since(start); d > 20*time.Second {
+		t.Errorf("a 600 kB line took %v", d)
+	}
+	// Many statements on one line.
+	long := strings.Repeat("a;", 200_000) + "("
+	f = Parse("semi.loop", []byte(long))
+	if len(f.Stmts) != 200_001 || len(f.Errors) != 1 {
+		t.Errorf("%d statements, %d errors", len(f.Stmts), len(f.Errors))
+	}
+}
+
+func TestParseKeepsPositions(t *testing.T) {
+	src := "loop r {\n  pipe p from a to b { length 1.5 m }\n}\n"
+	f := Parse("p.loop", []byte(src))
+	if len(f.Errors) > 0 {
+		t.Fatal(f.Errors[0].Message())
+	}
+	p := f.Stmts[0].Block.Stmts[0]
+	if got := src[p.Span().Start:p.Span().End]; got != "pipe p from a to b" {
+		t.Errorf("head span %q", got)
+	}
+	if !p.Block.OneLine || src[p.Block.Open] != '{' || src[p.Block.Close] != '}' {
+		t.Errorf("block %+v", p.Block)
+	}
+	l := p.Block.Stmts[0].Args[0].Expr
+	if got := src[l.Span().Start:l.Span().End]; got != "1.5 m" {
+		t.Errorf("expression span %q", got)
+	}
+}
