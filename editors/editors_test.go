@@ -103,7 +103,7 @@ func circa(t *testing.T) string {
 func serveReady(t *testing.T) bool {
 	t.Helper()
 	out, _ := runErr(t.TempDir(), time.Minute, nil, circa(t), "help")
-	return strings.Contains(out, "serve")
+	return strings.Contains(out, "\n  serve ")
 }
 
 func readFile(t *testing.T, path string) string {
