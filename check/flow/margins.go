@@ -128,35 +128,25 @@ func (p *prepared) margins(s *state, cr *CaseResult) {
 				}
 			}
 		}
-		// Flooding where two-phase flow runs along the body force: the
-		// vapour's buoyancy opposes its net flow.
+		// Flooding where vapour and liquid flow counter-current: two-phase
+		// flow running along the body force whose vapour drift against it
+		// (Rouhani–Axelsson drift velocity) exceeds the mixture's flux.
 		along := s.bDisp[ci] * math.Copysign(1, cs.MassFlow)
 		if along > 0 && cp.L > 0 {
-			cosA := math.Abs(s.cosInc[ci])
-			worstF := 0.0
 			G := math.Abs(cs.MassFlux)
+			worstF := 0.0
 			for _, x := range []float64{cs.XIn, cs.XOut, 0.5 * (cs.XIn + cs.XOut)} {
 				if x <= 0 || x >= 1 {
 					continue
 				}
 				jg, jf := G*x/s.p.RhoV, G*(1-x)/s.p.RhoL
-				f := correlate.WallisFraction(jg, jf, s.p.RhoL, s.p.RhoV, cp.D, s.bmag*cosA, correlate.WallisM, correlate.WallisCSharpEdge)
-				worstF = math.Max(worstF, f)
+				if s.drift(x)*math.Abs(s.cosInc[ci]) <= (1+0.2*(1-x))*(jg+jf) {
+					continue // the vapour is carried along: co-current
+				}
+				worstF = math.Max(worstF, s.wallis(jg, jf, cp.D, ci))
 			}
 			if worstF > 0 {
-				fl := lim.Flooding.SI
-				m := Margin{Margin: MarginFlooding, Component: cp.name, Value: worstF, Limit: fl, Use: worstF / fl}
-				m.Status = status(m.Use, 1/fl)
-				cr.add(m)
-				if worstF > fl {
-					sev := "warning"
-					if worstF >= 1 {
-						sev = "error"
-					}
-					cr.Findings = append(cr.Findings, p.finding(RuleFlooding, sev, cr.Case, cp.name, worstF, fl, "", "flooding",
-						"flooding fraction %.2f in %s %s in case %s exceeds the limit %.2f (Wallis, counter-current vapour against the body force)",
-						worstF, cp.kind, cp.name, cr.Case, fl))
-				}
+				p.floodMargin(cr, cp, worstF)
 			}
 		}
 	}
@@ -176,6 +166,54 @@ func (p *prepared) margins(s *state, cr *CaseResult) {
 				"head ratio %.2f in case %s is below the limit %.2f: the available gravity head (%.0f Pa) is not well above the losses at the operating point (%.0f Pa)",
 				ratio, cr.Case, hl, cr.Totals.HeadMax, losses))
 		}
+	}
+}
+
+// drift is the Rouhani–Axelsson drift velocity of the vapour, m/s.
+func (s *state) drift(x float64) float64 {
+	d := s.bmag * s.p.Sigma * (s.p.RhoL - s.p.RhoV)
+	if !(d > 0) {
+		return 0
+	}
+	return 1.18 * (1 - x) * math.Sqrt(math.Sqrt(d)/s.p.RhoL)
+}
+
+// wallis is the fraction of the Wallis flooding limit used in component ci
+// with superficial velocities jg and jf.
+func (s *state) wallis(jg, jf, D float64, ci int) float64 {
+	return correlate.WallisFraction(jg, jf, s.p.RhoL, s.p.RhoV, D, s.bmag*math.Abs(s.cosInc[ci]),
+		correlate.WallisM, correlate.WallisCSharpEdge)
+}
+
+// floodMargin records a flooding fraction.
+func (p *prepared) floodMargin(cr *CaseResult, cp *comp, f float64) {
+	fl := p.limits.Flooding.SI
+	m := Margin{Margin: MarginFlooding, Component: cp.name, Value: f, Limit: fl, Use: f / fl}
+	m.Status = status(m.Use, 1/fl)
+	cr.add(m)
+	if f > fl {
+		sev := "warning"
+		if f >= 1 {
+			sev = "error"
+		}
+		cr.Findings = append(cr.Findings, p.finding(RuleFlooding, sev, cr.Case, cp.name, f, fl, "", "flooding",
+			"flooding fraction %.2f in %s %s in case %s exceeds the limit %.2f (Wallis, vapour and liquid counter-current)",
+			f, cp.kind, cp.name, cr.Case, fl))
+	}
+}
+
+// heatPipeFlooding is the flooding fraction of each heated component when
+// the loop does not circulate: the vapour it makes rises through the
+// liquid that has to come back down the same tube.
+func (p *prepared) heatPipeFlooding(s *state, cr *CaseResult) {
+	for ci, cp := range s.net.comps {
+		q := s.heat[ci]
+		if cp.kind != lang.Evaporator || !(q > 0) || s.bDisp[ci] >= 0 {
+			continue
+		}
+		mv := q / s.p.Hlv
+		jg, jf := mv/(s.p.RhoV*cp.A), mv/(s.p.RhoL*cp.A)
+		p.floodMargin(cr, &s.net.comps[ci], s.wallis(jg, jf, cp.D, ci))
 	}
 }
 
@@ -277,6 +315,23 @@ func (p *prepared) chargeMargin(s *state, cr *CaseResult) {
 		if cp.kind == lang.Condenser {
 			vCond += cp.A * cp.L
 		}
+	}
+	var vol float64
+	for _, cp := range s.net.comps {
+		vol += cp.A * cp.L
+	}
+	for _, r := range s.net.res {
+		if r.Volume.SI > 0 {
+			vol += r.Volume.SI
+		}
+	}
+	if full := vol * s.p.RhoL; ch.SI > full {
+		m := Margin{Margin: MarginCharge, Value: ch.SI, Limit: full, Unit: "kg", Use: ch.SI / math.Max(most, 1e-300), Status: "error"}
+		cr.add(m)
+		cr.Findings = append(cr.Findings, p.finding(RuleCharge, "error", cr.Case, "", ch.SI, full, "kg", "",
+			"charge %.3g kg is more than the %.3g kg of liquid that fills the whole loop (%.3g L) at %.1f °C in case %s: there is no room for vapour",
+			ch.SI, full, vol*1e3, s.sat.T-273.15, cr.Case))
+		return
 	}
 	switch {
 	case ch.SI < least:

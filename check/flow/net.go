@@ -264,10 +264,10 @@ func fundamentalCycles(nj int, bs []branch) [][]float64 {
 			adj[b.to] = append(adj[b.to], edge{bi, b.from})
 		}
 	}
-	parent := make([]int, nj)   // branch to the parent, −1 at a root
-	up := make([]int, nj)       // parent junction
-	depth := make([]int, nj)    //
-	seen := make([]bool, nj)    //
+	parent := make([]int, nj) // branch to the parent, −1 at a root
+	up := make([]int, nj)     // parent junction
+	depth := make([]int, nj)  //
+	seen := make([]bool, nj)  //
 	inTree := make([]bool, len(bs))
 	for r := 0; r < nj; r++ {
 		if seen[r] {

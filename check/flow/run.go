@@ -60,6 +60,7 @@ func (p *prepared) run(pt point, tilt bool) CaseResult {
 			cr.Reason = "no heat input"
 		}
 		p.pressureMargin(s, &cr)
+		p.heatPipeFlooding(s, &cr)
 		return cr
 	}
 	s.evaluate(f, ev)

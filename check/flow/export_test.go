@@ -1,0 +1,5 @@
+package flow
+
+import "circa/check/fluid"
+
+func lookupForTest(name string) (fluid.Fluid, error) { return fluid.Lookup(name) }

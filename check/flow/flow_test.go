@@ -1,0 +1,353 @@
+package flow
+
+import (
+	"encoding/json"
+	"math"
+	"strings"
+	"testing"
+
+	"circa/lang"
+)
+
+const gn = 9.80665 // standard gravity, m/s² (3rd CGPM, 1901)
+
+// load resolves loop source text; included tables are read from testdata/flow.
+func load(t testing.TB, src string) *lang.Model {
+	t.Helper()
+	m := lang.LoadSource("../../testdata/flow/test.loop", []byte(src), lang.OSFS{})
+	for _, d := range m.Diags {
+		if d.Severity == lang.Error {
+			t.Fatalf("model: %s", d.Message())
+		}
+	}
+	return m
+}
+
+func estimate(t testing.TB, m *lang.Model, opts Options) *Result {
+	t.Helper()
+	r, err := Estimate(m, opts)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, err := json.Marshal(r); err != nil { // fails on NaN or Inf
+		t.Fatalf("result does not encode: %v", err)
+	}
+	return r
+}
+
+// ring is a rectangular thermosiphon: vertical evaporator, riser, a
+// condenser at the top and a downcomer.
+const ring = `
+loop r {
+  fluid R134a
+  charge 0.3 kg
+  node a at (0, 0, 0) m
+  node b at (0, 0, 0.3) m
+  node c at (0, 0, 1.3) m
+  node d at (-0.3, 0, 1.3) m
+  evaporator evap from a to b { length 0.3 m; bore 10 mm; heat HEAT; wetted_area 0.01 m2; wall_limit 90 degC }
+  pipe riser from b to c { length 1 m; bore 12 mm; loss 1 }
+  condenser cond from c to d { length 0.3 m; bore 10 mm; conductance 150 W/K; sink 25 degC }
+  pipe down from d to a { length 1.5 m; run (0.3, 0, -1.3) m; bore 8 mm; loss 1 }
+}
+case nominal { heat evap HEAT }
+`
+
+func ringModel(t testing.TB, heat string) *lang.Model {
+	return load(t, strings.ReplaceAll(ring, "HEAT", heat))
+}
+
+func only(t testing.TB, r *Result) *CaseResult {
+	t.Helper()
+	if len(r.Loops) != 1 || len(r.Loops[0].Cases) == 0 {
+		t.Fatalf("want one loop with a case, got %+v", r)
+	}
+	return &r.Loops[0].Cases[0]
+}
+
+func TestNoHeatNoFlow(t *testing.T) {
+	c := only(t, estimate(t, ringModel(t, "0 W"), Options{NoTilt: true}))
+	if c.Circulates || c.MassFlow != 0 {
+		t.Fatalf("no heat: circulates=%v mass flow %g", c.Circulates, c.MassFlow)
+	}
+}
+
+func TestHorizontalNoFlow(t *testing.T) {
+	src := `
+loop r {
+  fluid R134a
+  node a at (0, 0, 0) m
+  node b at (0.3, 0, 0) m
+  node c at (0.3, 0.5, 0) m
+  node d at (0, 0.5, 0) m
+  evaporator evap from a to b { length 0.3 m; bore 10 mm; heat 500 W }
+  pipe riser from b to c { length 0.5 m; bore 12 mm }
+  condenser cond from c to d { length 0.3 m; bore 10 mm; conductance 150 W/K; sink 25 degC }
+  pipe down from d to a { length 0.5 m; bore 8 mm }
+}
+case nominal { heat evap 500 W }
+`
+	c := only(t, estimate(t, load(t, src), Options{NoTilt: true}))
+	if c.Circulates {
+		t.Fatalf("level loop circulates at %g kg/s", c.MassFlow)
+	}
+	if !strings.Contains(c.Reason, "not above") {
+		t.Errorf("reason %q should say the condenser is not above the evaporator", c.Reason)
+	}
+}
+
+func flowOf(t testing.TB, src string) float64 {
+	t.Helper()
+	c := only(t, estimate(t, load(t, src), Options{NoTilt: true}))
+	if !c.Circulates {
+		t.Fatalf("does not circulate: %s", c.Reason)
+	}
+	return c.MassFlow
+}
+
+func TestInvariance(t *testing.T) {
+	base := strings.ReplaceAll(ring, "HEAT", "800 W")
+	m0 := flowOf(t, base)
+	// Yaw turns the equipment about the body-force axis: nothing changes.
+	yawed := strings.Replace(base, "case nominal { heat evap 800 W }", "case nominal { heat evap 800 W; yaw 37 deg }", 1)
+	if m := flowOf(t, yawed); math.Abs(m-m0) > 1e-9*m0 {
+		t.Errorf("yaw 37°: %g kg/s, level %g kg/s", m, m0)
+	}
+	// Renamed nodes and components, listed in another order.
+	renamed := `
+loop other {
+  fluid R134a
+  node n4 at (-0.3, 0, 1.3) m
+  node n1 at (0, 0, 0) m
+  node n3 at (0, 0, 1.3) m
+  node n2 at (0, 0, 0.3) m
+  pipe ret from n4 to n1 { length 1.5 m; run (0.3, 0, -1.3) m; bore 8 mm; loss 1 }
+  condenser cool from n3 to n4 { length 0.3 m; bore 10 mm; conductance 150 W/K; sink 25 degC }
+  evaporator boil from n1 to n2 { length 0.3 m; bore 10 mm; heat 800 W; wetted_area 0.01 m2 }
+  pipe up from n2 to n3 { length 1 m; bore 12 mm; loss 1 }
+}
+case other_name { heat boil 800 W }
+`
+	if m := flowOf(t, renamed); math.Abs(m-m0) > 1e-9*m0 {
+		t.Errorf("relabelled: %g kg/s, original %g kg/s", m, m0)
+	}
+	// One standard gravity of forward acceleration on a level loop gives
+	// b = (−g_n, 0, −g_n): the body force of a 45° nose-up pitch, scaled
+	// by √2. The pitched case reaches the same b with an extra
+	// acceleration (√2−1)·g_n along its own body force: a = (√2−1)/√2·g_n·(1, 0, 1)
+	// in the equipment frame (frame convention of docs/language.md).
+	acc := strings.Replace(base, "case nominal { heat evap 800 W }", "case nominal { heat evap 800 W; accel (1, 0, 0) gn }", 1)
+	k := (math.Sqrt2 - 1) / math.Sqrt2
+	pitched := strings.Replace(base, "case nominal { heat evap 800 W }",
+		"case nominal { heat evap 800 W; pitch 45 deg; accel ("+ftoa(k)+", 0, "+ftoa(k)+") gn }", 1)
+	ca := only(t, estimate(t, load(t, acc), Options{NoTilt: true}))
+	cp := only(t, estimate(t, load(t, pitched), Options{NoTilt: true}))
+	bmag := math.Hypot(ca.BodyForce[0], ca.BodyForce[2])
+	if math.Abs(bmag-math.Sqrt2*gn) > 1e-9 || math.Abs(ca.BodyForce[0]-ca.BodyForce[2]) > 1e-9 {
+		t.Errorf("1 gn forward: body force %v, want magnitude √2·g_n at 45°", ca.BodyForce)
+	}
+	if ca.Circulates != cp.Circulates || math.Abs(ca.MassFlow-cp.MassFlow) > 1e-6*math.Max(ca.MassFlow, 1e-9) {
+		t.Errorf("1 gn forward: %g kg/s; pitched 45° at √2·g_n: %g kg/s", ca.MassFlow, cp.MassFlow)
+	}
+}
+
+func ftoa(v float64) string {
+	b, _ := json.Marshal(v)
+	return string(b)
+}
+
+func TestEnergyCloses(t *testing.T) {
+	c := only(t, estimate(t, ringModel(t, "800 W"), Options{NoTilt: true}))
+	if c.Totals.EnergyGap > 1e-9 || math.Abs(c.Totals.Heat-800) > 1e-9*800 {
+		t.Errorf("ΣQ: heat %g W, rejected %g W, gap %g", c.Totals.Heat, c.Totals.Rejected, c.Totals.EnergyGap)
+	}
+	m := lang.Load("../../testdata/examples/ferry-cabinet.loop", lang.OSFS{})
+	r := estimate(t, m, Options{NoTilt: true})
+	for _, c := range r.Loops[0].Cases {
+		if !c.Circulates || c.Totals.EnergyGap > 1e-9 || c.Totals.MassGap > 1e-9 {
+			t.Errorf("network case %s: circulates %v, energy gap %g, mass gap %g", c.Case, c.Circulates, c.Totals.EnergyGap, c.Totals.MassGap)
+		}
+	}
+}
+
+func TestGridConvergence(t *testing.T) {
+	m := ringModel(t, "800 W")
+	// Halving the cell size changes the mass flow by less than 0.1 % (the
+	// estimator's own accuracy target).
+	for _, n := range []int{40, 80} {
+		a := only(t, estimate(t, m, Options{NoTilt: true, Cells: n})).MassFlow
+		b := only(t, estimate(t, m, Options{NoTilt: true, Cells: 2 * n})).MassFlow
+		if math.Abs(a-b) > 1e-3*b {
+			t.Errorf("%d → %d cells: %g → %g kg/s", n, 2*n, a, b)
+		}
+	}
+}
+
+// TestHandWorkedHomogeneous checks testdata/flow/hand.loop against this
+// arithmetic (constant properties ρl = 1000, ρv = 10 kg/m³, h_lv = 1 MJ/kg;
+// homogeneous void and friction; heater and cooler level):
+//
+//	v_l = 0.001, v_v = 0.1 m³/kg; at ṁ = 0.05 kg/s the heater's 5 kW gives
+//	x = 5000/(0.05·1e6) = 0.1, v_h = 0.001 + 0.1·0.099 = 0.0109 m³/kg,
+//	ρ_h = 91.743 kg/m³.
+//	Head: g·H·(ρl − ρh) = 9.80665·1·(1000 − 91.743) = 8906.96 Pa.
+//	A = π/4·0.1² = 7.8540e-3 m², G = 0.05/A = 6.3662 kg/(m²s),
+//	riser outlet loss K·G²·v_h/2 = K·0.22088 Pa, so K = 8906.96/0.22088
+//	= 40324.8 balances at 0.05 kg/s. Acceleration cancels (heater
+//	+G²(v_h − v_l), cooler −G²(v_h − v_l), one bore); friction at
+//	Re ≈ 640–64000 over 2.2 m of 100 mm tube is below 0.5 Pa (< 0.01 %).
+func TestHandWorkedHomogeneous(t *testing.T) {
+	m := lang.Load("../../testdata/flow/hand.loop", lang.OSFS{})
+	for _, d := range m.Diags {
+		t.Fatalf("hand.loop: %s", d.Message())
+	}
+	c := only(t, estimate(t, m, Options{NoTilt: true}))
+	const want = 0.05 // kg/s, the arithmetic above
+	if math.Abs(c.MassFlow-want) > 0.01*want {
+		t.Fatalf("hand-worked loop: %g kg/s, want %g within 1 %%", c.MassFlow, want)
+	}
+	if x := c.Components[0].XOut; math.Abs(x-0.1) > 0.001 {
+		t.Errorf("heater exit quality %g, want 0.1", x)
+	}
+}
+
+// TestVijayanSinglePhase checks a single-phase (all subcooled) loop against
+// Vijayan's generalized steady-state correlation Re = C (Gr_m/N_G)^r,
+// laminar C = 0.1768, r = 0.5 (Vijayan & Austregesilo, Nucl. Eng. Des. 152
+// (1994) 331; Vijayan, Nucl. Eng. Des. 215 (2002) 139). The loop is
+// uniform-diameter with no local losses; the correlation's scatter against
+// its data is about ±20 % (from memory), the band used here. The whole loop
+// stays liquid because the cooler subcools by 40 K.
+func TestVijayanSinglePhase(t *testing.T) {
+	src := `
+loop sp {
+  fluid water
+  saturation 100 degC
+  node a at (0, 0, 0) m
+  node b at (0, 0, 0.5) m
+  node c at (0, 0, 1.5) m
+  node d at (0, 0, 2) m
+  node e at (0.5, 0, 2) m
+  node f at (0.5, 0, 0) m
+  evaporator heater from a to b { length 0.5 m; bore 10 mm; heat 30 W }
+  pipe riser from b to c { length 1 m; bore 10 mm }
+  pipe top from c to d { length 0.5 m; bore 10 mm }
+  condenser cooler from d to e { length 0.5 m; bore 10 mm; subcool 40 K; conductance 100 W/K; sink 20 degC }
+  pipe down from e to f { length 2 m; bore 10 mm }
+  pipe bottom from f to a { length 0.5 m; bore 10 mm }
+}
+case nominal { heat heater 30 W }
+`
+	m := load(t, src)
+	c := only(t, estimate(t, m, Options{NoTilt: true}))
+	if !c.Circulates {
+		t.Fatalf("no circulation: %s", c.Reason)
+	}
+	for _, cs := range c.Components {
+		if cs.XOut >= 0 {
+			t.Fatalf("%s reaches quality %g: not single-phase", cs.Component, cs.XOut)
+		}
+	}
+	// Properties at the loop's mean temperature, from the estimator's own
+	// fluid (water, IAPWS): β from the liquid density slope.
+	var sub, cool float64
+	for _, cs := range c.Components {
+		if cs.Component == "heater" {
+			sub = cs.XIn
+		}
+		if cs.Component == "cooler" {
+			cool = cs.XIn
+		}
+	}
+	_ = cool
+	fl, _ := lookupForTest("water")
+	sat, _ := fl.AtT(373.15)
+	tMean := 373.15 + 0.5*(sub+c.Components[0].XOut)*sat.Hlv/sat.CpL
+	s1, _ := fl.AtT(tMean - 1)
+	s2, _ := fl.AtT(tMean + 1)
+	sm, _ := fl.AtT(tMean)
+	rho, mu, cp := sm.RhoL, sm.MuL, sm.CpL
+	beta := -(s2.RhoL - s1.RhoL) / 2 / rho
+	D, Lt, dz, Q := 0.01, 5.0, 1.25, 30.0 // Δz: heater centre 0.25 m to cooler 2 m... centre-to-centre
+	_ = dz
+	dz = 2 - 0.25
+	A := math.Pi / 4 * D * D
+	grm := D * D * D * rho * rho * beta * gn * Q * dz / (A * mu * mu * mu * cp)
+	ng := Lt / D
+	re := 0.1768 * math.Sqrt(grm/ng)
+	want := re * A * mu / D
+	if math.Abs(c.MassFlow-want) > 0.2*want {
+		t.Errorf("single-phase loop: %g kg/s, Vijayan laminar %g kg/s (Re %.0f), outside ±20 %%", c.MassFlow, want, re)
+	}
+	t.Logf("single-phase loop %.4g g/s, Vijayan %.4g g/s, Re %.0f", c.MassFlow*1e3, want*1e3, re)
+}
+
+func TestBadStates(t *testing.T) {
+	cases := map[string]string{
+		"zero length":     strings.Replace(strings.ReplaceAll(ring, "HEAT", "800 W"), "length 1 m; bore 12 mm", "length 0 m; bore 12 mm", 1),
+		"negative length": strings.Replace(strings.ReplaceAll(ring, "HEAT", "800 W"), "length 1 m; bore 12 mm", "length -1 m; bore 12 mm", 1),
+		"past critical":   strings.Replace(strings.ReplaceAll(ring, "HEAT", "800 W"), "sink 25 degC", "sink 150 degC", 1),
+		"dryout":          strings.ReplaceAll(ring, "HEAT", "60 kW"),
+	}
+	for name, src := range cases {
+		m := lang.LoadSource("../../testdata/flow/test.loop", []byte(src), lang.OSFS{})
+		r := estimate(t, m, Options{})
+		var fs []Finding
+		for _, l := range r.Loops {
+			fs = append(fs, l.Findings...)
+			for _, c := range l.Cases {
+				fs = append(fs, c.Findings...)
+			}
+		}
+		hasError := false
+		for _, f := range fs {
+			if f.Severity == "error" {
+				hasError = true
+			}
+		}
+		if !hasError {
+			t.Errorf("%s: no error finding (%+v)", name, fs)
+		}
+	}
+}
+
+// TestExamples checks that every example gives plausible numbers: mass
+// flow of order 1–100 g/s for 1–7 kW and exit quality 0.05–0.7 (common
+// practice for electronics thermosiphons, see the rules of thumb).
+func TestExamples(t *testing.T) {
+	for _, f := range []string{"rack-door", "forestry-inverter", "ferry-cabinet"} {
+		m := lang.Load("../../testdata/examples/"+f+".loop", lang.OSFS{})
+		r := estimate(t, m, Options{NoTilt: true})
+		for _, c := range r.Loops[0].Cases {
+			if !c.Circulates {
+				t.Errorf("%s/%s: no circulation: %s", f, c.Case, c.Reason)
+				continue
+			}
+			if c.MassFlow < 1e-3 || c.MassFlow > 0.15 {
+				t.Errorf("%s/%s: mass flow %g kg/s", f, c.Case, c.MassFlow)
+			}
+			for _, cs := range c.Components {
+				if cs.Kind == "evaporator" && (cs.XOut < 0.05 || cs.XOut > 0.7) {
+					t.Errorf("%s/%s: exit quality %g at %s", f, c.Case, cs.XOut, cs.Component)
+				}
+			}
+			t.Logf("%s/%s: %.1f g/s, T_sat %.1f °C", f, c.Case, c.MassFlow*1e3, c.SatTemperature-273.15)
+		}
+	}
+}
+
+func TestTiltLimits(t *testing.T) {
+	c := only(t, estimate(t, ringModel(t, "800 W"), Options{}))
+	if c.Tilt == nil || c.Tilt.Margin <= 0 || c.Tilt.Margin > math.Pi/2 {
+		t.Fatalf("tilt limits %+v", c.Tilt)
+	}
+	// Just past the critical pitch, the loop no longer circulates.
+	if c.Tilt.PitchUp != nil {
+		src := strings.Replace(strings.ReplaceAll(ring, "HEAT", "800 W"), "case nominal { heat evap 800 W }",
+			"case nominal { heat evap 800 W; pitch "+ftoa(*c.Tilt.PitchUp*180/math.Pi+0.5)+" deg }", 1)
+		cc := only(t, estimate(t, load(t, src), Options{NoTilt: true}))
+		if cc.Circulates {
+			t.Errorf("past the critical pitch %g° it still circulates", *c.Tilt.PitchUp*180/math.Pi)
+		}
+	}
+}
