@@ -18,13 +18,14 @@ var acetone = (&helmholtz{
 		Tmin:   233.15, // −40 °C; triple point 178.5 K
 		Tmax:   508.1 - 3,
 		Safety: "flammable (not classified in ASHRAE 34)", // descriptive; no ASHRAE 34 number
-		Source: "EOS: Lemmon and Span, J. Chem. Eng. Data 51 (2006) 785; transport: Chung et al., Ind. Eng. Chem. Res. 27 (1988) 671 with liquid and dilute-gas correlations of the VDI Heat Atlas, 2nd ed. (2010), D3.1; surface tension: Mulero et al., J. Phys. Chem. Ref. Data 41 (2012) 043105",
+		Source: "EOS: Lemmon and Span, J. Chem. Eng. Data 51 (2006) 785; liquid viscosity and conductivity: VDI Heat Atlas, 2nd ed. (2010), D3.1; vapour: Chung et al., Ind. Eng. Chem. Res. 27 (1988) 671, conductivity scaled to the VDI dilute-gas polynomial; surface tension: Mulero et al., J. Phys. Chem. Ref. Data 41 (2012) 043105",
 	},
 	R: 8.314472, M: 58.07914 / 1000,
 	Tr: 508.1, rhoR: 4699.999999999999 * 58.07914 / 1000,
 	res: acetoneResidual, id: acetoneIdeal,
 	// Chung et al. (1988) constants (ω is set from the equation of state);
-	// dipole moment: Poling et al., The Properties of Gases and Liquids 5th ed., App. A (from memory).
+	// dipole moment: Poling et al., The Properties of Gases and Liquids 5th ed., App. A
+	// (from memory).
 	chung: chung{M: 58.07914, Tc: 508.1, Vc: 58.07914 / 272.97 * 1000, mu: 2.88, kappa: 0,
 		// VDI Heat Atlas, 2nd ed. (2010), section D3.1, tables of PPDS coefficients:
 		liqMu: ppdsViscosity{1.65496, 0.5733, 610.687, 11.477, 2.915e-5}.at,

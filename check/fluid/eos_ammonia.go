@@ -28,7 +28,9 @@ var ammonia = (&helmholtz{
 	Tr: 405.56, rhoR: 13696 * 17.03052 / 1000,
 	res: ammoniaResidual, id: ammoniaIdeal,
 	// Chung et al. (1988) constants (ω is set from the equation of state);
-	// dipole moment: Poling et al., The Properties of Gases and Liquids 5th ed., App. A (from memory); no association factor is tabulated for ammonia; κ = 0.
+	// dipole moment: Poling et al., The Properties of Gases and Liquids 5th ed., App. A
+	// (from memory);
+	// no association factor is tabulated for ammonia, so κ = 0.
 	chung: chung{M: 17.03052, Tc: 405.56, Vc: 17.03052 / 233.25 * 1000, mu: 1.47, kappa: 0,
 		// Thermal conductivity: VDI Heat Atlas, 2nd ed. (2010), section D3.1,
 		// PPDS polynomials for the liquid and the dilute gas.
@@ -52,7 +54,6 @@ var ammonia = (&helmholtz{
 				4.631310990138071e-06, -3.937374461785061e-06, -1.200075068367531e-05, 1.9284977991745303e-06},
 			hoD: []float64{3, 3, 2, 4, 4, 2, 4},
 			hoT: []float64{0, 1, 2, 2, 3, 4, 4},
-			hoG: 1, hoP: []float64{1}, hoQ: []float64{0},
 		},
 		cond: chungConductivity{},
 	},

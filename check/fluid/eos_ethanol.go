@@ -18,18 +18,44 @@ var ethanol = (&helmholtz{
 		Tmin:   233.15, // −40 °C; triple point 159.10000000000002 K
 		Tmax:   514.71 - 3,
 		Safety: "flammable (not classified in ASHRAE 34)", // descriptive; no ASHRAE 34 number
-		Source: "EOS: Schroeder et al., J. Phys. Chem. Ref. Data 43 (2014) 043102; transport: Chung et al., Ind. Eng. Chem. Res. 27 (1988) 671 with liquid and dilute-gas correlations of the VDI Heat Atlas, 2nd ed. (2010), D3.1; surface tension: Mulero et al., J. Phys. Chem. Ref. Data 41 (2012) 043105",
+		Source: "EOS: Schroeder et al., J. Phys. Chem. Ref. Data 43 (2014) 043102; viscosity: Kiselev et al., Ind. Eng. Chem. Res. 44 (2005) 6916; thermal conductivity: Assael et al., J. Phys. Chem. Ref. Data 42 (2013) 023102; surface tension: Mulero et al., J. Phys. Chem. Ref. Data 41 (2012) 043105",
 	},
 	R: 8.314472, M: 46.06844 / 1000,
 	Tr: 514.71, rhoR: 5930 * 46.06844 / 1000,
 	res: ethanolResidual, id: ethanolIdeal,
 	// Chung et al. (1988) constants (ω is set from the equation of state);
-	// dipole moment: Poling et al., The Properties of Gases and Liquids 5th ed., App. A (from memory); Chung et al. (1988), Table 1 (from memory).
-	chung: chung{M: 46.06844, Tc: 514.71, Vc: 46.06844 / 273.19 * 1000, mu: 1.69, kappa: 0.174823,
-		// VDI Heat Atlas, 2nd ed. (2010), section D3.1, tables of PPDS coefficients:
-		liqMu: ppdsViscosity{6.16832, -0.00125, 740.323, 90.778, 3.8e-7}.at,
-		liqK:  ppdsPoly{0.2467, -2.636e-4, 0, 0, 0}.at,
-		gasK0: ppdsPoly{-0.002398, 2.4e-5, 1.18133e-7, -9.986e-12, 3.912e-15}.at,
+	// dipole moment: Poling et al., The Properties of Gases and Liquids 5th ed., App. A
+	// (from memory);
+	// association factor κ: Chung et al. (1988), Table 1 (from memory).
+	chung: chung{M: 46.06844, Tc: 514.71, Vc: 46.06844 / 273.19 * 1000, mu: 1.69, kappa: 0.174823},
+	// Viscosity: S.B. Kiselev, J.F. Ely, I.M. Abdulagatov, M.L. Huber,
+	// "Generalized SAFT-DFT/DMT model for the thermodynamic, interfacial,
+	// and transport properties of associating fluids: application for
+	// n-alkanols", Ind. Eng. Chem. Res. 44 (2005) 6916–6927.
+	// Thermal conductivity: M.J. Assael, E.A. Sykioti, M.L. Huber, R.A.
+	// Perkins, "Reference correlation of the thermal conductivity of ethanol
+	// from the triple point to 600 K and up to 245 MPa", J. Phys. Chem. Ref.
+	// Data 42 (2013) 023102.
+	trans: pair{
+		visc: &refViscosity{M: 46.06844, sigma: 0.453, epsK: 362.6,
+			dilutePoly: []float64{-1.03116e-06, 3.48379e-08, -6.50264e-12},
+			rfB:        []float64{-19.572881, 219.73999, -1015.3226, 2471.01251, -3375.1717, 2491.6597, -787.26086, 14.085455, -0.34664158},
+			rfT:        []float64{0, -0.25, -0.5, -0.75, -1.0, -1.25, -1.5, -2.5, -5.5},
+			Tr:         513.9, rhoR: 5991,
+			hoA: []float64{0.000131194057, -0.000382240694, -8.05700894e-05, 0.000153811778, -0.000110578307},
+			hoD: []float64{2, 2, 3, 3, 3},
+			hoT: []float64{0, 1, 0, 1, 2},
+			hoF: 0.0237222995, hoFD: 1,
+			hoG: []float64{-3.38264465, 12.7568864}, hoH: []float64{0, -0.5},
+			hoP: []float64{1}, hoQ: []float64{0},
+		},
+		cond: &refConductivity{Tr: 514.71, rhoR: 273.186,
+			a:    []float64{-0.00209575, 0.0199045, -0.053964, 0.0821223, -0.00198864, -0.000495513},
+			aDen: []float64{0.17223, -0.078273, 1},
+			b1:   []float64{0.0267222, 0.148279, -0.130429, 0.0346232, -0.00244293},
+			b2:   []float64{0.0177166, -0.0893088, 0.0684664, -0.0145702, 0.000809189},
+			crit: olchowy{R0: 1.02, gamma: 1.239, nu: 0.63, Gamma: 0.05885, xi0: 1.64296e-10, qD: 1.88e9,
+				Tref: 1.5 * 514.71, pc: 6268000, rhoc: 273.19}},
 	},
 	refT: 273.15, refH: 200e3,
 	liq: ancillary{form: ancLinear, overT: false, Tr: 514.71, red: 5930.0 * 46.06844 / 1000,

@@ -18,19 +18,33 @@ var methanol = (&helmholtz{
 		Tmin:   233.15, // −40 °C; triple point 175.61 K
 		Tmax:   512.5 - 3,
 		Safety: "flammable, toxic (not classified in ASHRAE 34)", // descriptive; no ASHRAE 34 number
-		Source: "EOS: de Reuck and Craven, IUPAC Methanol tables (1993); transport: Chung et al., Ind. Eng. Chem. Res. 27 (1988) 671 with liquid and dilute-gas correlations of the VDI Heat Atlas, 2nd ed. (2010), D3.1; surface tension: Mulero et al., J. Phys. Chem. Ref. Data 41 (2012) 043105",
+		Source: "EOS: de Reuck and Craven, IUPAC Methanol tables (1993); viscosity: VDI Heat Atlas, 2nd ed. (2010), D3.1 (liquid) and Chung et al., Ind. Eng. Chem. Res. 27 (1988) 671 (vapour); thermal conductivity: Sykioti et al., J. Phys. Chem. Ref. Data 42 (2013) 043101; surface tension: Mulero et al., J. Phys. Chem. Ref. Data 41 (2012) 043105",
 	},
 	R: 8.31448, M: 32.04216 / 1000,
 	Tr: 513.38, rhoR: 8785.17 * 32.04216 / 1000,
 	res: methanolResidual, id: methanolIdeal,
 	// Chung et al. (1988) constants (ω is set from the equation of state);
-	// dipole moment: Poling et al., The Properties of Gases and Liquids 5th ed., App. A (from memory); Chung et al. (1988), Table 1 (from memory).
+	// dipole moment: Poling et al., The Properties of Gases and Liquids 5th ed., App. A
+	// (from memory);
+	// association factor κ: Chung et al. (1988), Table 1 (from memory).
 	chung: chung{M: 32.04216, Tc: 512.5, Vc: 32.04216 / 273 * 1000, mu: 1.7, kappa: 0.215175,
 		// VDI Heat Atlas, 2nd ed. (2010), section D3.1, tables of PPDS coefficients:
 		liqMu:  ppdsViscosity{3.79226, 0.17755, 546.563, 87.845, 7.91e-6}.at,
-		liqK:   ppdsPoly{0.2803, -2.234e-4, -3.59e-7, 9.75e-10, -9.74e-13}.at,
 		gasMu0: ppdsPoly{-1.5159e-6, 3.927e-8, -6.541e-12, 0, 0}.at,
-		gasK0:  ppdsPoly{0.002362, 5e-6, 1.3151e-7, 0, 0}.at,
+	},
+	// Thermal conductivity: M. Sykioti, M.J. Assael, M.L. Huber, R.A.
+	// Perkins, "Reference correlation of the thermal conductivity of
+	// methanol from the triple point to 660 K and up to 245 MPa", J. Phys.
+	// Chem. Ref. Data 42 (2013) 043101.
+	trans: pair{
+		visc: chungViscosity{},
+		cond: &refConductivity{Tr: 512.6, rhoR: 275.563,
+			a:    []float64{-0.00357796, 0.0629638, -0.0373047, -0.0521182, 0.231607, 0.0441575},
+			aDen: []float64{3.33313, -6.08398, 8.18739, -0.261074, 1},
+			b1:   []float64{0.0556918, 0.112174, -0.0843893, 0.0197525, -0.0015253},
+			b2:   []float64{0.0104771, -0.0745272, 0.0637569, -0.0246826, 0.00434656},
+			crit: olchowy{R0: 1.03, gamma: 1.239, nu: 0.63, Gamma: 0.05283, xi0: 1.487e-10, qD: 1.0 / 0.7e-9,
+				Tref: 1.5 * 512.6, pc: 8089819, rhoc: 273}},
 	},
 	refT: 273.15, refH: 200e3,
 	liq: ancillary{form: ancLinear, overT: false, Tr: 512.5, red: 8520.024867237415 * 32.04216 / 1000,

@@ -184,11 +184,14 @@ type refViscosity struct {
 	omegaA []float64
 	// Initial-density term η1 = η0 N_A σ³ Σ b_i T*^t_i.
 	rfB, rfT []float64
-	// Residual (Pa·s): Σ a_i δ^d_i τ^t_i + f (1/(δ0−δ) − 1/δ0),
-	// δ0 = g / Σ p_i τ^q_i, δ = ρ/rhoR (molar), τ = Tr/T.
+	// Dilute gas as Σ dilutePoly_i T^i Pa·s instead, when set.
+	dilutePoly []float64
+	// Residual (Pa·s): Σ a_i δ^d_i τ^t_i + f δ^fd (1/(δ0−δ) − 1/δ0),
+	// δ0 = Σ g_i τ^h_i / Σ p_i τ^q_i, δ = ρ/rhoR (molar), τ = Tr/T.
 	Tr, rhoR      float64 // K, mol/m³
 	hoA, hoD, hoT []float64
-	hoF, hoG      float64
+	hoF, hoFD     float64
+	hoG, hoH      []float64
 	hoP, hoQ      []float64
 }
 
@@ -196,6 +199,14 @@ const avogadro = 6.02214076e23
 
 // dilute is η0(T) in Pa·s.
 func (r *refViscosity) dilute(T float64) float64 {
+	if r.dilutePoly != nil {
+		v, pw := 0.0, 1.0
+		for _, c := range r.dilutePoly {
+			v += c * pw
+			pw *= T
+		}
+		return v
+	}
 	lt := math.Log(T / r.epsK)
 	lnOm, pw := 0.0, 1.0
 	for _, a := range r.omegaA {
@@ -225,13 +236,16 @@ func (r *refViscosity) at(T, rho float64) float64 {
 	for i, a := range r.hoA {
 		s += a * math.Pow(delta, r.hoD[i]) * math.Pow(tau, r.hoT[i])
 	}
-	den := 0.0
-	for i, p := range r.hoP {
-		den += p * math.Pow(tau, r.hoQ[i])
-	}
 	if r.hoF != 0 {
-		d0 := r.hoG / den
-		s += r.hoF * (1/(d0-delta) - 1/d0)
+		num, den := 0.0, 0.0
+		for i, g := range r.hoG {
+			num += g * math.Pow(tau, r.hoH[i])
+		}
+		for i, p := range r.hoP {
+			den += p * math.Pow(tau, r.hoQ[i])
+		}
+		d0 := num / den
+		s += r.hoF * math.Pow(delta, r.hoFD) * (1/(d0-delta) - 1/d0)
 	}
 	return eta0 + eta1 + s
 }
@@ -311,7 +325,8 @@ func (e *ecsViscosity) viscosity(s state) float64 {
 }
 
 // refConductivity is a fluid-specific reference thermal-conductivity
-// correlation λ = λ0(T) + λr(ρ, T) + λc(ρ, T), in W/(m·K): λ0 = Σ a_i (T/Tr)^i,
+// correlation λ = λ0(T) + λr(ρ, T) + λc(ρ, T), in W/(m·K): λ0 = Σ a_i (T/Tr)^i
+// (divided by Σ aDen_i (T/Tr)^i when aDen is set),
 // λr = Σ (b1_i + b2_i T/Tr) (ρ/rhoR)^i (i = 1, 2, …) and λc the simplified
 // critical enhancement of G.A. Olchowy and J.V. Sengers, Int. J.
 // Thermophys. 10 (1989) 417 (omitted when crit is zero).
@@ -319,6 +334,7 @@ type refConductivity struct {
 	Tr     float64 // K
 	rhoR   float64 // kg/m³
 	a      []float64
+	aDen   []float64
 	b1, b2 []float64
 	crit   olchowy
 }
@@ -329,6 +345,15 @@ func (r *refConductivity) conductivity(s state, mu float64) float64 {
 	for _, c := range r.a {
 		k += c * pw
 		pw *= tr
+	}
+	if r.aDen != nil {
+		den := 0.0
+		pw = 1
+		for _, c := range r.aDen {
+			den += c * pw
+			pw *= tr
+		}
+		k /= den
 	}
 	d := s.rho / r.rhoR
 	pw = d
@@ -385,6 +410,15 @@ type pair struct {
 func (p pair) transport(s state) (mu, k float64) {
 	mu = p.visc.viscosity(s)
 	return mu, p.cond.conductivity(s, mu)
+}
+
+// chungViscosity is the viscosity half of the fluid's Chung model (with its
+// liquid and dilute-gas overrides).
+type chungViscosity struct{}
+
+func (chungViscosity) viscosity(s state) float64 {
+	mu, _ := s.h.chung.transport(s)
+	return mu
 }
 
 // chungConductivity is the conductivity half of the fluid's Chung model.
