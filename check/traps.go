@@ -1,0 +1,196 @@
+package check
+
+import (
+	"circa/check/geom"
+	"circa/lang"
+)
+
+// Traps in the nominal case: a high point in the liquid line collects
+// vapour, a low point in the vapour line collects liquid. Heights are taken
+// along the nominal case's body force. The liquid line is every component
+// reachable from a condenser outlet, and leading to an evaporator inlet,
+// without passing through an evaporator or condenser; the vapour line the
+// same from evaporator outlets to condenser inlets. Each series run of such
+// components (between junctions) is checked on its own; humps spanning a
+// junction are not seen, nor windings inside one component.
+
+// trapTol is the least rise and fall that make a hump (common practice:
+// smaller humps are within the tolerance of a layout drawing).
+const trapTol = 5e-3
+
+func init() {
+	Register(&Rule{ID: "downcomer-high-point", Category: CategoryTraps, Severity: lang.Warning,
+		Summary:   "the liquid line climbs and falls again: a high point collects vapour",
+		Rationale: "Vapour bubbles or flash gas in the liquid return rise to a local high point and gather there; the pocket throttles or blocks the return of liquid to the evaporator.",
+		Example:   "pipe down1 from coil_out to hump { rise 0.1 m ... }\npipe down2 from hump to base { rise -1.3 m ... }",
+		Fix:       "Run the liquid line downhill all the way, or vent the high point to the vapour side.",
+		Run:       func(c *Context) { traps(c, true) }})
+	Register(&Rule{ID: "riser-low-point", Category: CategoryTraps, Severity: lang.Warning,
+		Summary:   "the vapour line falls and climbs again: a low point collects liquid",
+		Rationale: "Liquid entrained or condensed in the riser drains to a local low point and gathers there; the liquid plug must be pushed up by the vapour, adding head and causing surging.",
+		Example:   "pipe up1 from plate_out to dip { rise -0.1 m ... }\npipe up2 from dip to coil_in { rise 1.3 m ... }",
+		Fix:       "Run the vapour line uphill all the way from the evaporator to the condenser.",
+		Run:       func(c *Context) { traps(c, false) }})
+}
+
+// lineSet marks the components between the outlets of one kind and the
+// inlets of the other.
+func lineSet(g *Graph, from, to lang.Kind) []bool {
+	l := g.Loop
+	nc := len(l.Components)
+	pass := func(ci int) bool {
+		k := l.Components[ci].Kind
+		return k != lang.Evaporator && k != lang.Condenser
+	}
+	fwd, bwd := make([]bool, nc), make([]bool, nc)
+	seenF, seenB := make([]bool, len(l.Nodes)), make([]bool, len(l.Nodes))
+	var qf, qb []int
+	for _, ci := range g.Edges {
+		c := l.Components[ci]
+		if c.Kind == from && !seenF[c.To.Index] {
+			seenF[c.To.Index] = true
+			qf = append(qf, c.To.Index)
+		}
+		if c.Kind == to && !seenB[c.From.Index] {
+			seenB[c.From.Index] = true
+			qb = append(qb, c.From.Index)
+		}
+	}
+	for len(qf) > 0 {
+		u := qf[0]
+		qf = qf[1:]
+		for _, ci := range g.Out[u] {
+			if !pass(ci) || fwd[ci] {
+				continue
+			}
+			fwd[ci] = true
+			if v := l.Components[ci].To.Index; !seenF[v] {
+				seenF[v] = true
+				qf = append(qf, v)
+			}
+		}
+	}
+	for len(qb) > 0 {
+		u := qb[0]
+		qb = qb[1:]
+		for _, ci := range g.In[u] {
+			if !pass(ci) || bwd[ci] {
+				continue
+			}
+			bwd[ci] = true
+			if v := l.Components[ci].From.Index; !seenB[v] {
+				seenB[v] = true
+				qb = append(qb, v)
+			}
+		}
+	}
+	for i := range fwd {
+		fwd[i] = fwd[i] && bwd[i]
+	}
+	return fwd
+}
+
+func traps(c *Context, liquid bool) {
+	g, l, lay := c.Graph, c.Loop, c.Layout
+	from, to := lang.Condenser, lang.Evaporator
+	if !liquid {
+		from, to = lang.Evaporator, lang.Condenser
+	}
+	in := lineSet(g, from, to)
+	down := geom.BodyForce(c.Model.Nominal).Unit().Scale(-1)
+	if down == (geom.Vec3{}) {
+		return
+	}
+	// Height of each node along the body force.
+	height := func(v int) float64 { return lay.Pos[v].Dot(down) }
+	nin, nout := make([]int, len(l.Nodes)), make([]int, len(l.Nodes))
+	next := make([]int, len(l.Nodes))
+	for ci, ok := range in {
+		if !ok {
+			continue
+		}
+		comp := l.Components[ci]
+		nout[comp.From.Index]++
+		nin[comp.To.Index]++
+		next[comp.From.Index] = ci
+	}
+	interior := func(v int) bool { return nin[v] == 1 && nout[v] == 1 }
+	done := make([]bool, len(l.Components))
+	for ci, ok := range in {
+		if !ok || done[ci] || interior(l.Components[ci].From.Index) {
+			continue
+		}
+		// Walk one series run.
+		var comps []int
+		nodes := []int{l.Components[ci].From.Index}
+		for cur := ci; !done[cur]; {
+			done[cur] = true
+			comps = append(comps, cur)
+			v := l.Components[cur].To.Index
+			nodes = append(nodes, v)
+			if !interior(v) {
+				break
+			}
+			cur = next[v]
+		}
+		checkRun(c, liquid, comps, nodes, height)
+	}
+}
+
+// checkRun reports the humps (liquid) or dips (vapour) of one series run:
+// an interior node that the run climbs to by more than trapTol from its
+// lowest point before and falls from by more than trapTol to its lowest
+// point after (mirrored for dips).
+func checkRun(c *Context, liquid bool, comps, nodes []int, height func(int) float64) {
+	n := len(nodes)
+	if n < 3 {
+		return
+	}
+	h := make([]float64, n)
+	for i, v := range nodes {
+		h[i] = height(v)
+		if !liquid {
+			h[i] = -h[i] // a dip is a hump upside down
+		}
+	}
+	pre := make([]float64, n) // lowest before and at i
+	suf := make([]float64, n) // lowest at and after i
+	pre[0], suf[n-1] = h[0], h[n-1]
+	for i := 1; i < n; i++ {
+		pre[i] = min(pre[i-1], h[i])
+	}
+	for i := n - 2; i >= 0; i-- {
+		suf[i] = min(suf[i+1], h[i])
+	}
+	l := c.Loop
+	for i := 1; i < n-1; i++ {
+		// A local top: higher than the previous node, not lower than the next
+		// (the first node of a plateau).
+		if !(h[i] > h[i-1]) || h[i] < h[i+1] {
+			continue
+		}
+		j := i + 1
+		for j < n-1 && h[j] == h[i] {
+			j++
+		}
+		if h[j] > h[i] {
+			continue // the plateau climbs on: not a top
+		}
+		climb, fall := h[i]-pre[i], h[i]-suf[i]
+		if climb <= trapTol || fall <= trapTol {
+			continue
+		}
+		node := l.Nodes[nodes[i]]
+		before, after := l.Components[comps[i-1]], l.Components[comps[i]]
+		var d *lang.Diagnostic
+		if liquid {
+			d = c.Reportf(compLoc(before), "the liquid line climbs %s to node %s and then falls %s: vapour collects at this high point (nominal case)",
+				q(climb, "m"), node.Name, q(fall, "m"))
+		} else {
+			d = c.Reportf(compLoc(before), "the vapour line falls %s to node %s and then climbs %s: liquid collects at this low point (nominal case)",
+				q(climb, "m"), node.Name, q(fall, "m"))
+		}
+		d.Related = append(d.Related, lang.Related{Loc: node.NameLoc(), Message: "node " + node.Name},
+			related(after, "%s %s leaves it", after.Kind, after.Name))
+	}
+}
