@@ -253,9 +253,8 @@ func (h *helmholtz) prepare() *helmholtz {
 	h.hOff = 0
 	// Pitzer's acentric factor ω = −log10(ps(0.7 Tc)/pc) − 1, from the
 	// equation itself, for the transport correlation.
-	if dl, dv, err := h.saturate(0.7 * h.info.Tc); err == nil {
+	if dl, _, err := h.saturate(0.7 * h.info.Tc); err == nil {
 		p := h.phaseAt(0.7*h.info.Tc, dl*h.rhoR).p
-		_ = dv
 		h.chung.omega = -math.Log10(p/h.info.Pc) - 1
 	}
 	if s, err := h.direct(h.refT); err == nil {
