@@ -18,7 +18,7 @@ var r1233zd = (&helmholtz{
 		Tmin:   233.15, // −40 °C; triple point 165.75 K
 		Tmax:   438.86 - 3,
 		Safety: "A1", // ASHRAE 34 safety group (from memory)
-		Source: "EOS: Akasaka and Lemmon, J. Phys. Chem. Ref. Data 51 (2022) 023101; viscosity: extended corresponding states (Huber et al., Ind. Eng. Chem. Res. 42 (2003) 3163) with R134a as reference; thermal conductivity: Chung et al., Ind. Eng. Chem. Res. 27 (1988) 671; surface tension: Kondou et al., Int. J. Refrig. 53 (2015) 80",
+		Source: "EOS: Akasaka and Lemmon, J. Phys. Chem. Ref. Data 51 (2022) 023101; viscosity: extended corresponding states (Huber et al., Ind. Eng. Chem. Res. 42 (2003) 3163) with R134a as reference; thermal conductivity: extended corresponding states with R134a as reference; surface tension: Kondou et al., Int. J. Refrig. 53 (2015) 80",
 	},
 	R: 8.314462618, M: 130.4962 / 1000,
 	Tr: 438.86, rhoR: 3704.0 * 130.4962 / 1000,
@@ -34,7 +34,13 @@ var r1233zd = (&helmholtz{
 		// Viscosity: extended corresponding states with R134a as reference
 		// fluid (Huber et al. 2003), no fitted shape factor, Chung dilute gas.
 		visc: &ecsViscosity{ref: r134aViscosity, refEOS: r134a, dilute: chungDilute{}},
-		cond: chungConductivity{},
+		// Thermal conductivity: the same corresponding-states method with
+		// the R134a correlation as reference and a generic critical term
+		// (checked against the reference correlations of R1234yf and
+		// R1234ze(E) in transport_test.go).
+		cond: &ecsConductivity{ref: r134aConductivity, refEOS: r134a,
+			crit: olchowy{R0: 1.03, gamma: 1.239, nu: 0.63, Gamma: 0.0496, xi0: 1.94e-10, qD: 2e9,
+				Tref: 1.5 * 438.86, pc: 3582800, rhoc: 483.36}},
 	},
 	refT: 273.15, refH: 200e3,
 	liq: ancillary{form: ancLinear, overT: false, Tr: 438.86, red: 3704.0 * 130.4962 / 1000,

@@ -18,7 +18,7 @@ var r245fa = (&helmholtz{
 		Tmin:   233.15, // −40 °C; triple point 171.05 K
 		Tmax:   427.01 - 3,
 		Safety: "B1", // ASHRAE 34 safety group (from memory)
-		Source: "EOS: Akasaka, Zhou and Lemmon, J. Phys. Chem. Ref. Data 44 (2015) 013104; viscosity: extended corresponding states of Huber et al., Ind. Eng. Chem. Res. 42 (2003) 3163; thermal conductivity: Chung et al., Ind. Eng. Chem. Res. 27 (1988) 671; surface tension: Mulero et al., J. Phys. Chem. Ref. Data 41 (2012) 043105",
+		Source: "EOS: Akasaka, Zhou and Lemmon, J. Phys. Chem. Ref. Data 44 (2015) 013104; viscosity: extended corresponding states of Huber et al., Ind. Eng. Chem. Res. 42 (2003) 3163; thermal conductivity: extended corresponding states with R134a as reference; surface tension: Mulero et al., J. Phys. Chem. Ref. Data 41 (2012) 043105",
 	},
 	R: 8.3144621, M: 134.0479 / 1000,
 	Tr: 427.01, rhoR: 3875 * 134.0479 / 1000,
@@ -33,7 +33,13 @@ var r245fa = (&helmholtz{
 		visc: &ecsViscosity{ref: r134aViscosity, refEOS: r134a,
 			psi: []float64{1.1529, -0.044154}, psiRho: 3857,
 			dilute: chapmanEnskog{M: 134.0479, sigma: 0.5529, epsK: 329.72}},
-		cond: chungConductivity{},
+		// Thermal conductivity: the same corresponding-states method with
+		// the R134a correlation as reference and a generic critical term
+		// (checked against the reference correlations of R1234yf and
+		// R1234ze(E) in transport_test.go).
+		cond: &ecsConductivity{ref: r134aConductivity, refEOS: r134a,
+			crit: olchowy{R0: 1.03, gamma: 1.239, nu: 0.63, Gamma: 0.0496, xi0: 1.94e-10, qD: 2e9,
+				Tref: 1.5 * 427.01, pc: 3651000, rhoc: 519.44}},
 	},
 	refT: 273.15, refH: 200e3,
 	liq: ancillary{form: ancLinear, overT: false, Tr: 427.01, red: 3875.0 * 134.0479 / 1000,

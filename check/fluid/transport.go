@@ -339,6 +339,23 @@ type refConductivity struct {
 	crit   olchowy
 }
 
+// residual is λr(ρ, T) alone.
+func (r *refConductivity) residual(T, rho float64) float64 {
+	tr := T / r.Tr
+	k := 0.0
+	d := rho / r.rhoR
+	pw := d
+	for i, c := range r.b1 {
+		b := c
+		if i < len(r.b2) {
+			b += r.b2[i] * tr
+		}
+		k += b * pw
+		pw *= d
+	}
+	return k
+}
+
 func (r *refConductivity) conductivity(s state, mu float64) float64 {
 	tr := s.T / r.Tr
 	k, pw := 0.0, 1.0
@@ -369,6 +386,30 @@ func (r *refConductivity) conductivity(s state, mu float64) float64 {
 		return k
 	}
 	return k + r.crit.enhancement(s, mu)
+}
+
+// ecsConductivity is the corresponding-states counterpart of ecsViscosity
+// (same method and reference fluid, shape factors one): λ = λ*(T) +
+// λr₀(T₀, ρ₀) √f h^(−2/3) √(M₀/M) + λc, with the fluid's Chung dilute-gas
+// conductivity λ* and its own critical enhancement λc.
+type ecsConductivity struct {
+	ref    *refConductivity
+	refEOS *helmholtz
+	crit   olchowy
+}
+
+func (e *ecsConductivity) conductivity(s state, mu float64) float64 {
+	h, ref := s.h, e.refEOS
+	T0, rho0, ok := conformal(h, ref, s.T, s.rho)
+	if !ok {
+		T0 = s.T * ref.info.Tc / h.info.Tc
+		rho0 = s.rho / h.M * (ref.info.RhoC / ref.M) / (h.info.RhoC / h.M) * ref.M
+	}
+	f := s.T / T0
+	hh := (rho0 / ref.M) / (s.rho / h.M)
+	F := math.Sqrt(f) * math.Pow(hh, -2.0/3.0) * math.Sqrt(ref.M/h.M)
+	_, _, _, k0 := h.chung.dense(s.T, 0, s.cv0)
+	return k0 + e.ref.residual(T0, rho0)*F + e.crit.enhancement(s, mu)
 }
 
 // olchowy holds the simplified Olchowy–Sengers critical-enhancement constants.
