@@ -1,0 +1,264 @@
+package lsp
+
+import (
+	"bufio"
+	"context"
+	"encoding/json"
+	"fmt"
+	"io"
+	"net"
+	"strconv"
+	"strings"
+	"sync"
+	"testing"
+	"time"
+)
+
+// testClient speaks the protocol to an in-process server over a pipe. It
+// writes frames itself (so tests can send malformed ones) and keeps the
+// latest diagnostics published for each URI.
+type testClient struct {
+	t      testing.TB
+	conn   net.Conn
+	srv    *Server
+	exitCh chan int
+
+	wmu      sync.Mutex
+	mu       sync.Mutex
+	nextID   int
+	pending  map[string]chan rpcReply
+	diags    map[string]publishedDiags
+	notes    []rpcMessage
+	calls    []rpcMessage // requests from the server
+	analysed map[uint64]bool
+	anCond   *sync.Cond
+}
+
+type rpcMessage struct {
+	JSONRPC string          `json:"jsonrpc"`
+	ID      json.RawMessage `json:"id,omitempty"`
+	Method  string          `json:"method,omitempty"`
+	Params  json.RawMessage `json:"params,omitempty"`
+	Result  json.RawMessage `json:"result,omitempty"`
+	Error   *rpcError       `json:"error,omitempty"`
+}
+
+type rpcError struct {
+	Code    int    `json:"code"`
+	Message string `json:"message"`
+}
+
+func (e *rpcError) Error() string { return fmt.Sprintf("%d %s", e.Code, e.Message) }
+
+type rpcReply struct {
+	result json.RawMessage
+	err    *rpcError
+}
+
+type publishedDiags struct {
+	Version     *int32            `json:"version"`
+	Diagnostics []json.RawMessage `json:"diagnostics"`
+	count       int
+}
+
+// newTestClient starts a server with the given options and a zero debounce
+// unless set.
+func newTestClient(t testing.TB, opts Options) *testClient {
+	if opts.Log == nil {
+		opts.Log = io.Discard
+	}
+	a, b := net.Pipe()
+	srv := newServer(opts)
+	c := &testClient{t: t, conn: a, srv: srv, exitCh: make(chan int, 1), pending: map[string]chan rpcReply{},
+		diags: map[string]publishedDiags{}, analysed: map[uint64]bool{}}
+	c.anCond = sync.NewCond(&c.mu)
+	srv.onAnalysed = func(id uint64) {
+		c.mu.Lock()
+		c.analysed[id] = true
+		c.anCond.Broadcast()
+		c.mu.Unlock()
+	}
+	go func() { c.exitCh <- srv.run(context.Background(), b) }()
+	go c.read()
+	t.Cleanup(func() { a.Close() })
+	return c
+}
+
+func (c *testClient) read() {
+	r := bufio.NewReader(c.conn)
+	for {
+		n := -1
+		for {
+			line, err := r.ReadString('\n')
+			if err != nil {
+				c.fail(err)
+				return
+			}
+			line = strings.TrimRight(line, "\r\n")
+			if line == "" {
+				break
+			}
+			if v, ok := strings.CutPrefix(line, "Content-Length: "); ok {
+				n, _ = strconv.Atoi(v)
+			}
+		}
+		body := make([]byte, n)
+		if _, err := io.ReadFull(r, body); err != nil {
+			c.fail(err)
+			return
+		}
+		var m rpcMessage
+		if err := json.Unmarshal(body, &m); err != nil {
+			c.t.Errorf("server sent invalid JSON: %s", body)
+			continue
+		}
+		c.mu.Lock()
+		switch {
+		case m.Method != "" && len(m.ID) > 0:
+			c.calls = append(c.calls, m)
+			go c.write(fmt.Appendf(nil, `{"jsonrpc":"2.0","id":%s,"result":null}`, m.ID))
+		case m.Method != "":
+			c.notes = append(c.notes, m)
+			if m.Method == "textDocument/publishDiagnostics" {
+				var p struct {
+					URI string `json:"uri"`
+					publishedDiags
+				}
+				json.Unmarshal(m.Params, &p)
+				prev := c.diags[p.URI]
+				p.publishedDiags.count = prev.count + 1
+				c.diags[p.URI] = p.publishedDiags
+			}
+		default:
+			key := string(m.ID)
+			if ch, ok := c.pending[key]; ok {
+				delete(c.pending, key)
+				ch <- rpcReply{m.Result, m.Error}
+			} else {
+				// replies to ids we did not send (null id): keep them for tests
+				c.notes = append(c.notes, m)
+			}
+		}
+		c.mu.Unlock()
+	}
+}
+
+func (c *testClient) fail(err error) {
+	c.mu.Lock()
+	defer c.mu.Unlock()
+	for k, ch := range c.pending {
+		ch <- rpcReply{err: &rpcError{Code: 0, Message: "connection closed: " + err.Error()}}
+		delete(c.pending, k)
+	}
+}
+
+func (c *testClient) write(body []byte) {
+	c.wmu.Lock()
+	defer c.wmu.Unlock()
+	fmt.Fprintf(c.conn, "Content-Length: %d\r\n\r\n", len(body))
+	c.conn.Write(body)
+}
+
+// callID sends a request with the given raw id and waits for its reply.
+func (c *testClient) callID(id string, method string, params any) (json.RawMessage, *rpcError) {
+	ch := c.send(id, method, params)
+	select {
+	case r := <-ch:
+		return r.result, r.err
+	case <-time.After(20 * time.Second):
+		c.t.Fatalf("%s: no reply", method)
+		return nil, nil
+	}
+}
+
+func (c *testClient) send(id, method string, params any) chan rpcReply {
+	ch := make(chan rpcReply, 1)
+	c.mu.Lock()
+	c.pending[id] = ch
+	c.mu.Unlock()
+	msg := map[string]any{"jsonrpc": "2.0", "id": json.RawMessage(id), "method": method}
+	if params != nil {
+		msg["params"] = params
+	}
+	b, err := json.Marshal(msg)
+	if err != nil {
+		c.t.Fatal(err)
+	}
+	c.write(b)
+	return ch
+}
+
+func (c *testClient) call(method string, params any) (json.RawMessage, *rpcError) {
+	c.mu.Lock()
+	c.nextID++
+	id := strconv.Itoa(c.nextID)
+	c.mu.Unlock()
+	return c.callID(id, method, params)
+}
+
+// mustCall fails the test on an error reply.
+func (c *testClient) mustCall(method string, params any) json.RawMessage {
+	r, err := c.call(method, params)
+	if err != nil {
+		c.t.Fatalf("%s: %v", method, err)
+	}
+	return r
+}
+
+func (c *testClient) notify(method string, params any) {
+	msg := map[string]any{"jsonrpc": "2.0", "method": method}
+	if params != nil {
+		msg["params"] = params
+	}
+	b, _ := json.Marshal(msg)
+	c.write(b)
+}
+
+func (c *testClient) initialize(caps any) json.RawMessage {
+	if caps == nil {
+		caps = map[string]any{}
+	}
+	r := c.mustCall("initialize", map[string]any{"processId": nil, "rootUri": nil, "capabilities": caps})
+	c.notify("initialized", map[string]any{})
+	return r
+}
+
+// settle waits until the server has finished analysing its current snapshot
+// and every notification before that point has been read.
+func (c *testClient) settle() {
+	c.srv.mu.Lock()
+	id := c.srv.snap.id
+	c.srv.mu.Unlock()
+	deadline := time.Now().Add(20 * time.Second)
+	c.mu.Lock()
+	for !c.analysed[id] && id != 0 {
+		if time.Now().After(deadline) {
+			c.mu.Unlock()
+			c.t.Fatalf("snapshot %d never finished", id)
+		}
+		go func() { time.Sleep(10 * time.Millisecond); c.anCond.Broadcast() }()
+		c.anCond.Wait()
+	}
+	c.mu.Unlock()
+	// A round trip: its reply follows every notification sent before it.
+	c.mustCall("workspace/symbol", map[string]any{"query": "\x00none"})
+}
+
+func (c *testClient) published(uri string) (publishedDiags, bool) {
+	c.mu.Lock()
+	defer c.mu.Unlock()
+	d, ok := c.diags[uri]
+	return d, ok
+}
+
+func (c *testClient) shutdownExit() int {
+	c.mustCall("shutdown", nil)
+	c.notify("exit", nil)
+	select {
+	case code := <-c.exitCh:
+		return code
+	case <-time.After(5 * time.Second):
+		c.t.Fatal("server did not exit")
+		return -1
+	}
+}

@@ -1,0 +1,253 @@
+package lsp
+
+import (
+	"context"
+	"fmt"
+	"hash/fnv"
+	"sort"
+	"time"
+
+	"go.lsp.dev/protocol"
+
+	"circa/lang"
+)
+
+// worker analyses the latest snapshot: lang findings are published at once,
+// the checks and estimates after the debounce. A newer snapshot cancels the
+// older one's wait and work, and its results are dropped.
+func (s *Server) worker(ctx context.Context) {
+	for {
+		select {
+		case <-ctx.Done():
+			return
+		case <-s.work:
+		}
+		s.mu.Lock()
+		snap := s.pending
+		s.pending = nil
+		s.mu.Unlock()
+		if snap == nil || snap.ctx.Err() != nil {
+			continue
+		}
+		s.analyse(snap)
+	}
+}
+
+func (s *Server) analyse(snap *snapshot) {
+	roots := snap.sortedRoots()
+	for _, a := range roots {
+		if snap.ctx.Err() != nil {
+			return
+		}
+		a.Model()
+	}
+	s.publish(snap, false)
+	if d := s.opts.Debounce; d > 0 {
+		t := time.NewTimer(d)
+		select {
+		case <-snap.ctx.Done():
+			t.Stop()
+			return
+		case <-t.C:
+		}
+	}
+	for _, a := range roots {
+		if snap.ctx.Err() != nil {
+			return
+		}
+		s.runChecks(snap.ctx, a)
+	}
+	if snap.ctx.Err() != nil {
+		return
+	}
+	s.mu.Lock()
+	for _, a := range roots {
+		if _, _, ok := a.checks(); ok {
+			s.lastEst[a.root] = a
+		}
+	}
+	s.mu.Unlock()
+	s.publish(snap, true)
+	if s.onAnalysed != nil {
+		s.onAnalysed(snap.id)
+	}
+}
+
+// runChecks runs the checker and the estimates for one analysis, unless a
+// finished result is already there (an analysis kept from an older
+// snapshot). A cancelled run leaves nothing behind.
+func (s *Server) runChecks(ctx context.Context, a *analysis) {
+	if _, _, ok := a.checks(); ok {
+		return
+	}
+	m := a.Model()
+	diags, est := checkModel(ctx, m)
+	if ctx.Err() != nil {
+		return
+	}
+	a.checkMu.Lock()
+	a.checkDiag, a.est, a.checked = diags, est, true
+	a.checkMu.Unlock()
+}
+
+// fileDiags gathers each file's findings from the snapshot's analyses. A
+// file included by an open file takes its findings from the includer (where
+// its names resolve); an open file that nothing includes takes its own.
+func fileDiags(snap *snapshot, full bool) map[string][]lang.Diagnostic {
+	roots := snap.sortedRoots()
+	owner := map[string]*analysis{}
+	for _, a := range roots {
+		for path := range a.Model().Files {
+			if path == a.root {
+				continue
+			}
+			if _, ok := owner[path]; !ok {
+				owner[path] = a
+			}
+		}
+	}
+	for _, a := range roots {
+		if _, ok := owner[a.root]; !ok {
+			owner[a.root] = a
+		}
+	}
+	out := map[string][]lang.Diagnostic{}
+	for path := range owner {
+		out[path] = nil
+	}
+	seen := map[string]bool{}
+	add := func(a *analysis, d lang.Diagnostic) {
+		file := d.Loc.File
+		if file == "" {
+			file = a.root
+		}
+		if owner[file] != a {
+			return
+		}
+		k := fmt.Sprintf("%s|%s|%d|%d|%s", file, d.Rule, d.Loc.Span.Start, d.Loc.Span.End, d.Message())
+		if seen[k] {
+			return
+		}
+		seen[k] = true
+		out[file] = append(out[file], d)
+	}
+	for _, a := range roots {
+		for _, d := range a.Model().Diags {
+			add(a, d)
+		}
+		if full {
+			cd, _, _ := a.checks()
+			for _, d := range cd {
+				add(a, d)
+			}
+		}
+	}
+	for _, ds := range out {
+		sort.SliceStable(ds, func(i, j int) bool { return ds[i].Loc.Span.Start < ds[j].Loc.Span.Start })
+	}
+	return out
+}
+
+// publish sends every file's findings whose content or version changed since
+// the last publication. Files no longer reported get an empty list.
+func (s *Server) publish(snap *snapshot, full bool) {
+	perFile := fileDiags(snap, full)
+	type item struct {
+		path   string
+		params *protocol.PublishDiagnosticsParams
+		state  pubState
+	}
+	var items []item
+	s.pubMu.Lock()
+	defer s.pubMu.Unlock()
+	if snap.ctx.Err() != nil {
+		return
+	}
+	for path := range s.published {
+		if _, ok := perFile[path]; !ok {
+			perFile[path] = nil
+		}
+	}
+	paths := make([]string, 0, len(perFile))
+	for p := range perFile {
+		paths = append(paths, p)
+	}
+	sort.Strings(paths)
+	for _, path := range paths {
+		diags := perFile[path]
+		conv := s.toProtocolDiags(snap, path, diags)
+		version := int32(-1)
+		if d, ok := snap.docs[path]; ok {
+			version = d.version
+		}
+		st := pubState{version: version, key: diagKey(conv)}
+		prev, had := s.published[path]
+		if had && prev == st {
+			continue
+		}
+		if !had && len(conv) == 0 && version < 0 {
+			continue
+		}
+		p := &protocol.PublishDiagnosticsParams{URI: uriOf(path), Diagnostics: conv}
+		if version >= 0 {
+			p.Version = protocol.NewOptional(version)
+		}
+		items = append(items, item{path, p, st})
+	}
+	for _, it := range items {
+		if err := s.conn.Notify(context.Background(), "textDocument/publishDiagnostics", it.params); err != nil {
+			s.logf("publishing diagnostics: %v", err)
+			continue
+		}
+		if len(it.params.Diagnostics) == 0 && it.state.version < 0 {
+			delete(s.published, it.path)
+		} else {
+			s.published[it.path] = it.state
+		}
+		if s.onPublish != nil {
+			s.onPublish(it.path, it.state.version, full, len(it.params.Diagnostics))
+		}
+	}
+}
+
+func diagKey(ds []protocol.Diagnostic) string {
+	h := fnv.New64a()
+	for _, d := range ds {
+		b, _ := protocol.Marshal(d)
+		h.Write(b)
+	}
+	return fmt.Sprintf("%d:%x", len(ds), h.Sum64())
+}
+
+// toProtocolDiags converts findings in one file; their spans are read with
+// that file's mapper (the open buffer's, else the loaded file's).
+func (s *Server) toProtocolDiags(snap *snapshot, path string, ds []lang.Diagnostic) []protocol.Diagnostic {
+	out := make([]protocol.Diagnostic, 0, len(ds))
+	for _, d := range ds {
+		out = append(out, snap.toProtocolDiag(path, d))
+	}
+	return out
+}
+
+func (sn *snapshot) toProtocolDiag(path string, d lang.Diagnostic) protocol.Diagnostic {
+	pd := protocol.Diagnostic{
+		Range:    sn.rangeIn(path, d.Loc.Span, true),
+		Severity: protocol.DiagnosticSeverity(d.Severity + 1),
+		Source:   protocol.NewOptional("circa"),
+		Message:  protocol.String(d.Message()),
+	}
+	if d.Rule != "" {
+		pd.Code = protocol.String(d.Rule)
+	}
+	for _, r := range d.Related {
+		rp := r.Loc.File
+		if rp == "" {
+			rp = path
+		}
+		pd.RelatedInformation = append(pd.RelatedInformation, protocol.DiagnosticRelatedInformation{
+			Location: protocol.Location{URI: uriOf(rp), Range: sn.rangeIn(rp, r.Loc.Span, true)},
+			Message:  r.Message,
+		})
+	}
+	return pd
+}

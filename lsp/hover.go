@@ -1,0 +1,360 @@
+package lsp
+
+import (
+	"context"
+	"fmt"
+	"math"
+	"strconv"
+	"strings"
+
+	"go.lsp.dev/protocol"
+
+	"circa/check/fluid"
+	"circa/lang"
+	"circa/units"
+)
+
+// cursor is a position resolved in a snapshot: the file, the byte offset
+// and the analysis whose model holds the file.
+type cursor struct {
+	snap *snapshot
+	path string
+	off  int
+	a    *analysis
+	m    *lang.Model
+	f    *lang.File
+}
+
+func (sn *snapshot) cursorAt(u protocol.TextDocumentPositionParams) (*cursor, bool) {
+	path := pathOf(u.TextDocument.URI)
+	a := sn.analysisFor(path)
+	if a == nil {
+		return nil, false
+	}
+	m := a.Model()
+	f := m.Files[path]
+	if f == nil {
+		return nil, false
+	}
+	off, ok := sn.offsetIn(path, u.Position)
+	if !ok {
+		return nil, false
+	}
+	return &cursor{snap: sn, path: path, off: off, a: a, m: m, f: f}, true
+}
+
+// refAt returns the name reference under the cursor.
+func (c *cursor) refAt() (lang.Ref, bool) {
+	for _, r := range c.m.Refs {
+		if r.File == c.path && contains(r.Span, c.off) {
+			return r, true
+		}
+	}
+	return lang.Ref{}, false
+}
+
+func hoverRequest(ctx context.Context, s *Server, sn *snapshot, params []byte) (any, error) {
+	p, err := decode[protocol.HoverParams](params)
+	if err != nil {
+		return nil, err
+	}
+	c, ok := sn.cursorAt(p.TextDocumentPositionParams)
+	if !ok {
+		return nil, nil
+	}
+	text, sp, ok := s.hoverText(c)
+	if !ok {
+		return nil, nil
+	}
+	r := sn.rangeIn(c.path, sp, true)
+	return &protocol.Hover{Contents: &protocol.MarkupContent{Kind: protocol.MarkupKindMarkdown, Value: text}, Range: &r}, nil
+}
+
+func (s *Server) hoverText(c *cursor) (string, lang.Span, bool) {
+	for _, al := range c.m.Allows {
+		if al.File == c.path && contains(al.Span, c.off) {
+			return ruleHover(al.Rule), al.Span, true
+		}
+	}
+	if r, ok := c.refAt(); ok {
+		if t := s.refHover(c, r); t != "" {
+			return t, r.Span, true
+		}
+	}
+	path := stmtPath(c.f, c.off)
+	if len(path) == 0 {
+		return "", lang.Span{}, false
+	}
+	st := path[len(path)-1]
+	if fac, at := atomAt(st, c.off); at != nil && at.Number != "" {
+		if t, ok := quantityHover(fac, at, st.Keyword()); ok {
+			return t, at.Span(), true
+		}
+	}
+	return "", lang.Span{}, false
+}
+
+// quantityHover shows a number with its unit in SI and in the other common
+// units of its dimension.
+func quantityHover(fac *lang.Factor, at *lang.Atom, field string) (string, bool) {
+	v, err := strconv.ParseFloat(at.Number, 64)
+	if err != nil || math.IsInf(v, 0) || math.IsNaN(v) {
+		return "", false
+	}
+	if fac != nil && fac.Sign == "-" {
+		v = -v
+	}
+	var u units.Unit
+	if at.Unit != nil {
+		u, err = units.Parse(at.Unit.Text)
+		if err != nil {
+			return fmt.Sprintf("`%s`: %v", at.Unit.Text, err), true
+		}
+	}
+	q := u.Quantity(v)
+	difference := false
+	if need, ok := lang.FieldNeeds[field]; ok && need.Dim == units.Temperature {
+		difference = need.Difference
+	}
+	if u.Dim == units.Temperature && !u.Affine && !difference {
+		difference = strings.HasPrefix(u.Text, "delta_")
+	}
+	return quantityTable(q.SI, u, difference), true
+}
+
+// quantityTable renders an SI value in its own unit, in SI and in the other
+// common units of the dimension.
+func quantityTable(si float64, u units.Unit, difference bool) string {
+	var b strings.Builder
+	name := units.Name(u.Dim)
+	fmt.Fprintf(&b, "**%s** — %s\n\n", units.Format(si, u), name)
+	common := units.Common(u.Dim)
+	b.WriteString("| unit | value |\n|---|---|\n")
+	shown := 0
+	for i, cu := range common {
+		if u.Dim == units.Temperature {
+			if difference && cu.Affine || !difference && strings.HasPrefix(cu.Text, "delta_") {
+				continue
+			}
+		}
+		label := cu.Text
+		if i == 0 {
+			label += " (SI)"
+		}
+		val := si
+		if u.Dim == units.Temperature && difference {
+			// A difference converts by scale alone.
+			val = si
+			fmt.Fprintf(&b, "| %s | %s %s |\n", label, fmtNum(cu.FromSI(val)-cu.FromSI(0)), cu.Text)
+			shown++
+			continue
+		}
+		fmt.Fprintf(&b, "| %s | %s |\n", label, units.Format(val, cu))
+		shown++
+	}
+	if shown == 0 {
+		fmt.Fprintf(&b, "| SI | %s |\n", fmtNum(si))
+	}
+	return b.String()
+}
+
+func fmtNum(v float64) string {
+	return units.Format(v, units.Unit{})
+}
+
+func (s *Server) refHover(c *cursor, r lang.Ref) string {
+	m := c.m
+	switch r.Kind {
+	case lang.RefParam:
+		for _, p := range m.Params {
+			if p.Name == r.Name && p.Value.Set {
+				u, err := units.Parse(p.Value.Unit)
+				if err != nil {
+					u = units.Unit{}
+				}
+				return fmt.Sprintf("param `%s`\n\n", p.Name) + quantityTable(p.Value.SI, siUnit(u), strings.HasPrefix(p.Value.Unit, "delta_"))
+			}
+		}
+	case lang.RefComponent:
+		if comp := m.Component(r.Name); comp != nil {
+			return s.componentHover(c, comp)
+		}
+	case lang.RefCase:
+		if cs := m.Case(r.Name); cs != nil {
+			return s.caseHover(c, cs)
+		}
+	case lang.RefFluid:
+		return fluidHover(c, r)
+	case lang.RefNode:
+		for _, l := range m.Loops {
+			if r.Loop != nil && l != r.Loop {
+				continue
+			}
+			for _, n := range l.Nodes {
+				if n.Name == r.Name {
+					return nodeHover(l, n)
+				}
+			}
+		}
+	case lang.RefPart:
+		for _, p := range m.Parts {
+			if p.Name == r.Name {
+				return fmt.Sprintf("part `%s`: %d fields", p.Name, len(p.Stmts))
+			}
+		}
+	}
+	return ""
+}
+
+// siUnit returns the coherent SI unit of u's dimension (first of its
+// common units), so a value is shown from SI outward.
+func siUnit(u units.Unit) units.Unit {
+	if c := units.Common(u.Dim); len(c) > 0 {
+		return c[0]
+	}
+	return u
+}
+
+func nodeHover(l *lang.Loop, n *lang.Node) string {
+	kind := "node"
+	if n.Junction {
+		kind = "junction"
+	}
+	s := fmt.Sprintf("%s `%s` of loop `%s`", kind, n.Name, l.Name)
+	if n.At.Set {
+		s += fmt.Sprintf("\n\nat (%s, %s, %s) m", fmtNum(n.At.X), fmtNum(n.At.Y), fmtNum(n.At.Z))
+	}
+	return s
+}
+
+func (s *Server) componentHover(c *cursor, comp *lang.Component) string {
+	var b strings.Builder
+	fmt.Fprintf(&b, "%s `%s` in loop `%s`", comp.Kind, comp.Name, comp.Loop.Name)
+	if comp.From != nil {
+		fmt.Fprintf(&b, ", from `%s`", comp.From.Name)
+	}
+	if comp.To != nil {
+		fmt.Fprintf(&b, " to `%s`", comp.To.Name)
+	}
+	b.WriteString("\n\n")
+	var rows [][2]string
+	add := func(name string, v lang.Value, u string) {
+		if v.Set {
+			rows = append(rows, [2]string{name, units.Format(v.SI, units.MustParse(u))})
+		}
+	}
+	add("length", comp.Length, "m")
+	add("rise", comp.Rise, "m")
+	if d := comp.Diameter(); d > 0 {
+		rows = append(rows, [2]string{"hydraulic diameter", units.Format(d, units.MustParse("mm"))})
+	}
+	add("loss K", comp.Loss, "")
+	add("heat", comp.Heat, "W")
+	add("conductance", comp.Conductance, "W/K")
+	if len(rows) > 0 {
+		b.WriteString("| | |\n|---|---|\n")
+		for _, r := range rows {
+			fmt.Fprintf(&b, "| %s | %s |\n", r[0], r[1])
+		}
+	}
+	b.WriteString(s.componentEstimate(c, comp))
+	return b.String()
+}
+
+func (s *Server) caseHover(c *cursor, cs *lang.Case) string {
+	var b strings.Builder
+	fmt.Fprintf(&b, "case `%s`", cs.Name)
+	if c.m.Nominal == cs {
+		b.WriteString(" (nominal)")
+	}
+	b.WriteString("\n\n")
+	for _, h := range cs.Heat {
+		if h.Comp != nil {
+			fmt.Fprintf(&b, "- heat on `%s`: %s\n", h.Comp.Name, units.Format(h.Value.SI, units.MustParse("W")))
+		}
+	}
+	if cs.Sink.Set {
+		fmt.Fprintf(&b, "- sink: %s\n", units.Format(cs.Sink.SI, units.MustParse("degC")))
+	}
+	for _, sk := range cs.Sinks {
+		if sk.Comp != nil {
+			fmt.Fprintf(&b, "- sink at `%s`: %s\n", sk.Comp.Name, units.Format(sk.Value.SI, units.MustParse("degC")))
+		}
+	}
+	for _, at := range []struct {
+		n string
+		v lang.Value
+	}{{"pitch", cs.Pitch}, {"roll", cs.Roll}, {"yaw", cs.Yaw}} {
+		if at.v.Set {
+			fmt.Fprintf(&b, "- %s: %s\n", at.n, units.Format(at.v.SI, units.MustParse("deg")))
+		}
+	}
+	if cs.Saturation.Set {
+		fmt.Fprintf(&b, "- saturation: %s\n", units.Format(cs.Saturation.SI, units.MustParse("degC")))
+	}
+	b.WriteString(s.caseEstimate(c, cs))
+	return b.String()
+}
+
+// saturationFor picks the temperature at which to show a loop's fluid:
+// the estimate's, else a fixed saturation in the loop or the nominal case,
+// else a condenser's fixed outlet.
+func saturationFor(c *cursor, l *lang.Loop) (float64, string) {
+	if t, ok := estimatedSaturation(c, l); ok {
+		return t, "estimated for the nominal case"
+	}
+	if l.Saturation.Set {
+		return l.Saturation.SI, "the loop's saturation"
+	}
+	if n := c.m.Nominal; n != nil && n.Saturation.Set {
+		return n.Saturation.SI, "case " + n.Name + "'s saturation"
+	}
+	for _, comp := range l.Components {
+		if comp.Kind == lang.Condenser && comp.Outlet.Set {
+			return comp.Outlet.SI, comp.Name + "'s outlet"
+		}
+	}
+	return 0, ""
+}
+
+func fluidHover(c *cursor, r lang.Ref) string {
+	fl, err := fluid.Lookup(r.Name)
+	if err != nil {
+		return fmt.Sprintf("fluid `%s`: %v", r.Name, err)
+	}
+	info := fl.Info()
+	var b strings.Builder
+	fmt.Fprintf(&b, "fluid **%s**", info.Name)
+	if info.Safety != "" {
+		fmt.Fprintf(&b, " — safety class %s (ASHRAE 34)", info.Safety)
+	}
+	fmt.Fprintf(&b, "\n\ncritical point %s, %s\n\n", units.Format(info.Tc, units.MustParse("degC")), units.Format(info.Pc, units.MustParse("bar")))
+	if r.Loop == nil {
+		return b.String()
+	}
+	T, from := saturationFor(c, r.Loop)
+	if from == "" {
+		b.WriteString("saturated properties: give the loop a `saturation`, or open a file with cases, to see them\n")
+		return b.String()
+	}
+	sat, err := fl.AtT(T)
+	if err != nil {
+		fmt.Fprintf(&b, "at %s (%s): %v\n", units.Format(T, units.MustParse("degC")), from, err)
+		return b.String()
+	}
+	fmt.Fprintf(&b, "saturated at %s (%s):\n\n| property | liquid | vapour |\n|---|---|---|\n", units.Format(T, units.MustParse("degC")), from)
+	fmt.Fprintf(&b, "| pressure | %s | |\n", units.Format(sat.P, units.MustParse("bar")))
+	fmt.Fprintf(&b, "| density | %s | %s |\n", units.Format(sat.RhoL, units.MustParse("kg/m3")), units.Format(sat.RhoV, units.MustParse("kg/m3")))
+	fmt.Fprintf(&b, "| latent heat | %s | |\n", units.Format(sat.Hlv, units.MustParse("kJ/kg")))
+	fmt.Fprintf(&b, "| viscosity | %s | %s |\n", units.Format(sat.MuL, units.MustParse("uPa*s")), units.Format(sat.MuV, units.MustParse("uPa*s")))
+	fmt.Fprintf(&b, "| surface tension | %s | |\n", units.Format(sat.Sigma, units.MustParse("mN/m")))
+	return b.String()
+}
+
+// ruleHover explains a rule named in an allow comment.
+func ruleHover(id string) string {
+	if t, ok := ruleText(id); ok {
+		return t
+	}
+	return fmt.Sprintf("`%s`: no rule has this name", id)
+}

@@ -1,0 +1,113 @@
+package lsp
+
+import (
+	"context"
+	"runtime/debug"
+
+	"go.lsp.dev/jsonrpc2"
+	"go.lsp.dev/protocol"
+
+	"circa/lang"
+)
+
+func (s *Server) initialize(params []byte) (any, error) {
+	p, err := decode[protocol.InitializeParams](params)
+	if err != nil {
+		return nil, err
+	}
+	s.mu.Lock()
+	defer s.mu.Unlock()
+	if s.initialized {
+		return nil, jsonrpc2.NewError(jsonrpc2.InvalidRequest, "initialize was already sent")
+	}
+	enc := protocol.PositionEncodingKindUTF16
+	if g := p.Capabilities.General; g != nil {
+		for _, e := range g.PositionEncodings {
+			if e == protocol.PositionEncodingKindUTF8 {
+				enc = e
+				s.enc = lang.UTF8
+			}
+		}
+	}
+	if w := p.Capabilities.Workspace; w != nil {
+		if w.DidChangeWatchedFiles != nil && w.DidChangeWatchedFiles.DynamicRegistration != nil {
+			s.caps.watchDynamic = *w.DidChangeWatchedFiles.DynamicRegistration
+		}
+	}
+	if t := p.Capabilities.TextDocument; t != nil && t.DocumentSymbol != nil && t.DocumentSymbol.HierarchicalDocumentSymbolSupport != nil {
+		s.caps.hierarchicalDS = *t.DocumentSymbol.HierarchicalDocumentSymbolSupport
+	}
+	if len(p.InitializationOptions) > 0 {
+		set, err := parseSettings(p.InitializationOptions, s.settings)
+		if err != nil {
+			s.logf("initializationOptions: %v", err)
+		}
+		s.settings = set
+	}
+	s.initialized = true
+	s.snap.settings = s.settings
+	s.snap.enc = s.enc
+	return &protocol.InitializeResult{Capabilities: capabilities(enc), ServerInfo: protocol.ServerInfo{Name: "circa", Version: protocol.NewOptional(version())}}, nil
+}
+
+func version() string {
+	if bi, ok := debug.ReadBuildInfo(); ok && bi.Main.Version != "" {
+		return bi.Main.Version
+	}
+	return "(devel)"
+}
+
+func capabilities(enc protocol.PositionEncodingKind) protocol.ServerCapabilities {
+	yes := true
+	incr := protocol.TextDocumentSyncKindIncremental
+	return protocol.ServerCapabilities{
+		PositionEncoding: enc,
+		TextDocumentSync: &protocol.TextDocumentSyncOptions{OpenClose: &yes, Change: &incr},
+		CompletionProvider: &protocol.CompletionOptions{
+			TriggerCharacters: []string{" ", "(", ","},
+		},
+		HoverProvider:                   protocol.Boolean(true),
+		DefinitionProvider:              protocol.Boolean(true),
+		ReferencesProvider:              protocol.Boolean(true),
+		DocumentSymbolProvider:          protocol.Boolean(true),
+		WorkspaceSymbolProvider:         protocol.Boolean(true),
+		DocumentFormattingProvider:      protocol.Boolean(true),
+		DocumentRangeFormattingProvider: protocol.Boolean(true),
+		RenameProvider:                  &protocol.RenameOptions{PrepareProvider: &yes},
+		CodeActionProvider:              &protocol.CodeActionOptions{CodeActionKinds: []protocol.CodeActionKind{protocol.CodeActionKindQuickFix}},
+		FoldingRangeProvider:            protocol.Boolean(true),
+		InlayHintProvider:               protocol.Boolean(true),
+		SemanticTokensProvider: &protocol.SemanticTokensOptions{
+			Legend: protocol.SemanticTokensLegend{TokenTypes: tokenTypes, TokenModifiers: tokenModifiers},
+			Full:   protocol.Boolean(true),
+		},
+	}
+}
+
+// initializedNotification registers the file watcher for included files
+// when the client can take a dynamic registration.
+func initializedNotification(ctx context.Context, s *Server, _ []byte) error {
+	s.mu.Lock()
+	dyn := s.caps.watchDynamic
+	s.mu.Unlock()
+	if !dyn {
+		return nil
+	}
+	opts, err := protocol.Marshal(protocol.DidChangeWatchedFilesRegistrationOptions{
+		Watchers: []protocol.FileSystemWatcher{{GlobPattern: protocol.Pattern("**/*.loop")}, {GlobPattern: protocol.Pattern("**/*.csv")}},
+	})
+	if err != nil {
+		return err
+	}
+	params := &protocol.RegistrationParams{Registrations: []protocol.Registration{{
+		ID: "circa-watch", Method: "workspace/didChangeWatchedFiles", RegisterOptions: opts,
+	}}}
+	// A call back to the client must not wait on the read loop that runs
+	// this notification.
+	go func() {
+		if _, err := s.conn.Call(jsonrpc2.DetachContext(ctx), "client/registerCapability", params, nil); err != nil {
+			s.logf("registering the file watcher: %v", err)
+		}
+	}()
+	return nil
+}

@@ -1,0 +1,169 @@
+// Package lsp is the language server for .loop files: it keeps the editor's
+// open documents in immutable snapshots, analyses them with the same lang and
+// check functions the command line uses, and answers the Language Server
+// Protocol over a stream (normally standard input and output).
+package lsp
+
+import (
+	"context"
+	"fmt"
+	"io"
+	"os"
+	"sync"
+	"time"
+
+	"go.lsp.dev/jsonrpc2"
+	"go.lsp.dev/protocol"
+
+	"circa/lang"
+)
+
+// Options configure a server beyond what the client negotiates.
+type Options struct {
+	// Debounce is how long the slower checks and estimates wait after an edit
+	// before they run; a newer edit cancels the wait. Zero means 150 ms; a
+	// negative value runs them at once.
+	Debounce time.Duration
+	// Log receives the server's log lines; nil means standard error.
+	Log io.Writer
+}
+
+const defaultDebounce = 150 * time.Millisecond
+
+// Server is one client's session.
+type Server struct {
+	opts Options
+	conn jsonrpc2.Conn
+	logw io.Writer
+	logM sync.Mutex
+
+	mu          sync.Mutex // guards the fields below; held only briefly
+	initialized bool
+	shutdown    bool
+	enc         lang.Encoding
+	caps        clientCaps
+	settings    Settings
+	docs        map[string]*document // open documents by path
+	snap        *snapshot
+	nextID      uint64
+	inflight    map[jsonrpc2.ID]context.CancelFunc
+	lastEst     map[string]*analysis // last analysis with finished checks, by root
+
+	disk diskCache
+
+	pubMu     sync.Mutex // orders publishing against snapshot switches
+	published map[string]pubState
+
+	work    chan struct{}
+	pending *snapshot // latest snapshot waiting for the worker (under mu)
+	exit    chan int
+	done    chan struct{}
+
+	// testing hooks
+	beforeReply func(ctx context.Context, method string)
+	onPublish   func(path string, version int32, full bool, n int)
+	onAnalysed  func(snapID uint64)
+}
+
+type clientCaps struct {
+	watchDynamic   bool
+	configDynamic  bool
+	relatedInfo    bool
+	hierarchicalDS bool
+}
+
+type pubState struct {
+	version int32
+	key     string
+}
+
+// Serve runs a session over rwc until the client sends exit or closes the
+// stream, and returns the process exit status: 0 after shutdown then exit, 1
+// when the session ended without shutdown.
+func Serve(ctx context.Context, rwc io.ReadWriteCloser, opts Options) int {
+	s := newServer(opts)
+	return s.run(ctx, rwc)
+}
+
+func newServer(opts Options) *Server {
+	if opts.Debounce == 0 {
+		opts.Debounce = defaultDebounce
+	}
+	logw := opts.Log
+	if logw == nil {
+		logw = os.Stderr
+	}
+	return &Server{
+		opts:      opts,
+		logw:      logw,
+		docs:      map[string]*document{},
+		inflight:  map[jsonrpc2.ID]context.CancelFunc{},
+		lastEst:   map[string]*analysis{},
+		published: map[string]pubState{},
+		settings:  DefaultSettings(),
+		work:      make(chan struct{}, 1),
+		exit:      make(chan int, 1),
+		done:      make(chan struct{}),
+	}
+}
+
+func (s *Server) run(ctx context.Context, rwc io.ReadWriteCloser) int {
+	ctx, cancel := context.WithCancel(ctx)
+	defer cancel()
+	stream := newGuardedStream(rwc, s.logf)
+	s.conn = jsonrpc2.NewConn(stream, jsonrpc2.WithCodec(codec{}))
+	s.mu.Lock()
+	s.snap = &snapshot{ctx: ctx, docs: map[string]*document{}, roots: map[string]*analysis{}, settings: s.settings}
+	s.mu.Unlock()
+	go s.worker(ctx)
+	s.conn.Go(ctx, s.handle)
+	code := 1
+	select {
+	case code = <-s.exit:
+	case <-s.conn.Done():
+		s.mu.Lock()
+		if s.shutdown {
+			code = 0
+		}
+		s.mu.Unlock()
+		if err := s.conn.Err(); err != nil {
+			s.logf("connection ended: %v", err)
+		}
+	case <-ctx.Done():
+	}
+	close(s.done)
+	cancel()
+	// Close waits for handlers to drain; do not let a stuck one hold the exit.
+	closed := make(chan struct{})
+	go func() { s.conn.Close(); close(closed) }()
+	select {
+	case <-closed:
+	case <-time.After(time.Second):
+	}
+	return code
+}
+
+func (s *Server) logf(format string, args ...any) {
+	s.logM.Lock()
+	defer s.logM.Unlock()
+	fmt.Fprintf(s.logw, "circa serve: "+format+"\n", args...)
+}
+
+// codec marshals protocol payloads with the protocol package, which knows its
+// union types.
+type codec struct{}
+
+func (codec) Marshal(v any) ([]byte, error) {
+	if r, ok := v.(jsonrpc2.RawMessage); ok {
+		return r, nil
+	}
+	return protocol.Marshal(v)
+}
+
+func (codec) Unmarshal(data []byte, v any) error {
+	if p, ok := v.(*jsonrpc2.RawMessage); ok {
+		*p = append(jsonrpc2.RawMessage(nil), data...)
+		return nil
+	}
+	return protocol.Unmarshal(data, v)
+}

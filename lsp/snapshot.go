@@ -1,0 +1,248 @@
+package lsp
+
+import (
+	"context"
+	"os"
+	"path/filepath"
+	"sort"
+	"sync"
+	"sync/atomic"
+
+	"go.lsp.dev/uri"
+
+	"circa/lang"
+)
+
+// document is one version of an open editor buffer. It is never changed:
+// an edit makes a new document.
+type document struct {
+	uri     uri.URI
+	path    string
+	version int32
+	text    []byte
+	mapper  *lang.Mapper
+}
+
+func newDocument(u uri.URI, path string, version int32, text []byte) *document {
+	return &document{uri: u, path: path, version: version, text: text, mapper: lang.NewMapper(text)}
+}
+
+// snapshot is the state of the workspace after one change: the open
+// documents, the settings and one analysis per open document. Requests read
+// a snapshot without locking; a newer change cancels ctx.
+type snapshot struct {
+	id       uint64
+	ctx      context.Context
+	cancel   context.CancelFunc
+	docs     map[string]*document
+	enc      lang.Encoding
+	settings Settings
+	roots    map[string]*analysis
+	disk     *diskCache
+}
+
+// analysis is what one root file and its includes resolve to. The model is
+// computed once, by whoever needs it first; the checks run in the worker.
+type analysis struct {
+	root     string
+	fs       overlay
+	settings Settings
+
+	once  sync.Once
+	model *lang.Model
+	ready atomic.Bool // the model is computed
+
+	checkMu   sync.Mutex
+	checked   bool
+	checkDiag []lang.Diagnostic
+	est       *estimates
+}
+
+// Model returns the resolved model, computing it on first use.
+func (a *analysis) Model() *lang.Model {
+	a.once.Do(func() {
+		var m *lang.Model
+		if d, ok := a.fs.docs[a.root]; ok {
+			m = lang.LoadSource(a.root, d.text, a.fs)
+		} else {
+			m = lang.Load(a.root, a.fs)
+		}
+		a.settings.apply(m)
+		a.model = m
+		a.ready.Store(true)
+	})
+	return a.model
+}
+
+// checks returns the checker's findings and the estimates, if the worker has
+// finished them for this analysis.
+func (a *analysis) checks() ([]lang.Diagnostic, *estimates, bool) {
+	a.checkMu.Lock()
+	defer a.checkMu.Unlock()
+	return a.checkDiag, a.est, a.checked
+}
+
+// dependsOn reports whether the analysis read path. An analysis whose model
+// is not computed yet counts as depending on everything.
+func (a *analysis) dependsOn(path string) bool {
+	if !a.ready.Load() {
+		return true
+	}
+	_, ok := a.model.Files[path]
+	return ok || path == a.root
+}
+
+// overlay reads open documents from the snapshot and the rest from disk.
+type overlay struct {
+	docs map[string]*document
+	disk *diskCache
+}
+
+func (o overlay) ReadFile(path string) ([]byte, error) {
+	if d, ok := o.docs[path]; ok {
+		return d.text, nil
+	}
+	return o.disk.read(path)
+}
+
+// diskCache holds files read from disk until a watched-file event or a
+// close of their buffer says they changed.
+type diskCache struct {
+	mu    sync.Mutex
+	files map[string]diskFile
+}
+
+type diskFile struct {
+	data []byte
+	err  error
+}
+
+func (c *diskCache) read(path string) ([]byte, error) {
+	c.mu.Lock()
+	f, ok := c.files[path]
+	c.mu.Unlock()
+	if ok {
+		return f.data, f.err
+	}
+	data, err := readLimited(path)
+	c.mu.Lock()
+	if c.files == nil {
+		c.files = map[string]diskFile{}
+	}
+	c.files[path] = diskFile{data, err}
+	c.mu.Unlock()
+	return data, err
+}
+
+func (c *diskCache) forget(path string) {
+	c.mu.Lock()
+	delete(c.files, path)
+	c.mu.Unlock()
+}
+
+func readLimited(path string) ([]byte, error) {
+	st, err := os.Stat(path)
+	if err != nil {
+		return nil, err
+	}
+	if st.Size() > lang.MaxFileSize {
+		return nil, &os.PathError{Op: "read", Path: path, Err: errTooLarge}
+	}
+	return os.ReadFile(path)
+}
+
+type constErr string
+
+func (e constErr) Error() string { return string(e) }
+
+const errTooLarge = constErr("file too large")
+
+// pathOf turns a document URI into the path the loader uses.
+func pathOf(u uri.URI) string {
+	if u.Scheme() == "file" {
+		return filepath.Clean(u.FsPath())
+	}
+	return string(u)
+}
+
+func uriOf(path string) uri.URI {
+	if filepath.IsAbs(path) {
+		return uri.File(path)
+	}
+	return uri.URI(path)
+}
+
+// change makes the next snapshot: docs replaced, the changed paths named so
+// analyses that did not read them are kept. The caller holds s.mu.
+func (s *Server) changeLocked(docs map[string]*document, changed []string, settingsChanged bool) *snapshot {
+	old := s.snap
+	ctx, cancel := context.WithCancel(context.Background())
+	s.nextID++
+	n := &snapshot{
+		id: s.nextID, ctx: ctx, cancel: cancel, docs: docs, enc: s.enc,
+		settings: s.settings, roots: map[string]*analysis{}, disk: &s.disk,
+	}
+	fs := overlay{docs: docs, disk: &s.disk}
+	for path := range docs {
+		if a, ok := old.roots[path]; ok && !settingsChanged && !touches(a, changed) {
+			n.roots[path] = a
+			continue
+		}
+		n.roots[path] = &analysis{root: path, fs: fs, settings: s.settings}
+	}
+	// Publishing takes pubMu; switching under it means a cancelled snapshot
+	// can never publish after this point.
+	s.pubMu.Lock()
+	if old.cancel != nil {
+		old.cancel()
+	}
+	s.snap = n
+	s.pubMu.Unlock()
+	s.pending = n
+	select {
+	case s.work <- struct{}{}:
+	default:
+	}
+	return n
+}
+
+func touches(a *analysis, changed []string) bool {
+	for _, p := range changed {
+		if a.dependsOn(p) {
+			return true
+		}
+	}
+	return false
+}
+
+// sortedRoots lists a snapshot's roots in path order.
+func (sn *snapshot) sortedRoots() []*analysis {
+	out := make([]*analysis, 0, len(sn.roots))
+	for _, a := range sn.roots {
+		out = append(out, a)
+	}
+	sort.Slice(out, func(i, j int) bool { return out[i].root < out[j].root })
+	return out
+}
+
+// analysisFor returns the analysis whose model holds path: its own when the
+// file is open, else one of the open files that include it.
+func (sn *snapshot) analysisFor(path string) *analysis {
+	if a, ok := sn.roots[path]; ok {
+		return a
+	}
+	for _, a := range sn.sortedRoots() {
+		if _, ok := a.Model().Files[path]; ok {
+			return a
+		}
+	}
+	return nil
+}
+
+// file returns the parsed file and its mapper for path in the analysis.
+func (a *analysis) file(path string) *lang.File {
+	if a == nil {
+		return nil
+	}
+	return a.Model().Files[path]
+}
