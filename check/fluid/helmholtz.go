@@ -120,6 +120,7 @@ type derivs struct {
 	a, d, dd, t, tt, dt float64
 }
 
+// compile flattens a residual table into separable terms.
 func compile(r residual) []term {
 	var ts []term
 	for _, p := range r.power {
