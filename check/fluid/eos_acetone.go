@@ -1,6 +1,6 @@
 package fluid
 
-// Acetone: acetone (propanone).
+// Acetone (propanone).
 //
 // Equation of state: E.W. Lemmon and R. Span, 'Short Fundamental Equations of State for 20 Industrial Fluids', J. Chem. Eng. Data 51 (2006) 785-850, doi:10.1021/je050186n
 // Coefficients as published in the public fluid file of C. Bell et al., Ind.

@@ -1,6 +1,6 @@
 package fluid
 
-// Ammonia: ammonia.
+// Ammonia (R717).
 //
 // Equation of state: K. Gao, J. Wu, I.H. Bell, A.H. Harvey, E.W. Lemmon,
 // "A reference equation of state with an associating term for the

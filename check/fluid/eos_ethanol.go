@@ -1,6 +1,6 @@
 package fluid
 
-// Ethanol: ethanol.
+// Ethanol.
 //
 // Equation of state: J.A. Schroeder, S.G. Penoncello, J.S. Schroeder, 'A Fundamental Equation of State for Ethanol', J. Phys. Chem. Ref. Data 43 (2014) 043102, doi:10.1063/1.4895394
 // Coefficients as published in the public fluid file of C. Bell et al., Ind.

@@ -1,6 +1,6 @@
 package fluid
 
-// Methanol: methanol.
+// Methanol.
 //
 // Equation of state: K.M. de Reuck and R.J.B. Craven, 'Methanol: International Thermodynamic Tables of the Fluid State - 12', IUPAC, Blackwell Scientific, Oxford, 1993
 // Coefficients as published in the public fluid file of C. Bell et al., Ind.
