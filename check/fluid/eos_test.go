@@ -131,6 +131,9 @@ func TestRange(t *testing.T) {
 				t.Errorf("%s: Direct(%v) error %v, want RangeError", in.Name, T, err)
 			}
 		}
+		if _, err := h.Direct(-40 + 273.15); err != nil { // rounds below 233.15
+			t.Errorf("%s: Direct(−40 °C): %v", in.Name, err)
+		}
 		prev := Sat{}
 		for i := 0; i <= 200; i++ {
 			T := in.Tmin + (in.Tmax-in.Tmin)*float64(i)/200

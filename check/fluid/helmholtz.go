@@ -332,10 +332,14 @@ func (h *helmholtz) saturate(T float64) (dl, dv float64, err error) {
 	return 0, 0, errNoConvergence
 }
 
+// rangeSlack forgives rounding at the range ends (−40 + 273.15 is not
+// exactly 233.15 in floating point).
+const rangeSlack = 1e-9 // K
+
 // Direct computes the saturated state at T from the equations. Outside
 // [Tmin, Tmax] it returns a *RangeError.
 func (h *helmholtz) Direct(T float64) (Sat, error) {
-	if !(T >= h.info.Tmin && T <= h.info.Tmax) {
+	if !(T >= h.info.Tmin-rangeSlack && T <= h.info.Tmax+rangeSlack) {
 		return Sat{}, &RangeError{Fluid: h.info.Name, Quantity: "temperature", Value: T,
 			Min: h.info.Tmin, Max: h.info.Tmax, Unit: "K"}
 	}
