@@ -85,38 +85,70 @@ func Estimate(m *lang.Model, opts Options) (*Result, error) {
 	if err != nil {
 		return nil, err
 	}
+	points := casePoints(cases, opts.Sweep)
+	for _, l := range m.Loops {
+		res.Loops = append(res.Loops, estimateLoop(m, l, methods, points, opts))
+	}
+	return res, nil
+}
+
+// EstimateLoop is Estimate for one loop of m in every case (or the one named
+// in opts; an unknown name gives a finding).
+func EstimateLoop(m *lang.Model, l *lang.Loop, opts Options) LoopResult {
+	if m == nil || l == nil {
+		return LoopResult{}
+	}
+	methods, err := chooseMethods(m.Methods, opts)
+	if err != nil {
+		return LoopResult{Loop: l.Name, Findings: []Finding{{Rule: RuleMethod, Severity: "error", Loop: l.Name, Message: err.Error()}}}
+	}
+	cases := m.Cases
+	if opts.Case != "" {
+		cases = nil
+		if c := m.Case(opts.Case); c != nil {
+			cases = []*lang.Case{c}
+		} else {
+			return LoopResult{Loop: l.Name, Findings: []Finding{{Rule: RuleUnknownCase, Severity: "error", Loop: l.Name,
+				Message: fmt.Sprintf("no case %q", opts.Case)}}}
+		}
+	}
+	return estimateLoop(m, l, methods, casePoints(cases, opts.Sweep), opts)
+}
+
+func casePoints(cases []*lang.Case, sw *Sweep) []point {
 	var points []point
 	for _, c := range cases {
-		points = append(points, pointsOf(c, opts.Sweep)...)
+		points = append(points, pointsOf(c, sw)...)
 	}
 	if len(cases) == 0 {
 		points = append(points, point{})
 	}
-	for _, l := range m.Loops {
-		p := prepare(m, l, methods)
-		lr := LoopResult{Loop: l.Name, Fluid: l.Fluid.Name, Methods: p.methods, Assumptions: assumptions(),
-			Findings: p.findings}
-		if p.fl != nil {
-			lr.Safety = p.info.Safety
-			lr.Fluid = p.info.Name
-		}
-		if p.net != nil {
-			lr.Network = !p.net.ring
-		}
-		lr.Cases = make([]CaseResult, len(points))
-		if p.net != nil && p.fl != nil {
-			runParallel(len(points), opts.Workers, func(i int) {
-				lr.Cases[i] = p.run(points[i], !opts.NoTilt && !points[i].grid)
-			})
-		} else {
-			for i, pt := range points {
-				lr.Cases[i] = CaseResult{Case: caseName(pt.c), Reason: "the loop cannot be estimated (see the loop's findings)"}
-			}
-		}
-		lr.Worst = worst(lr.Cases)
-		res.Loops = append(res.Loops, lr)
+	return points
+}
+
+func estimateLoop(m *lang.Model, l *lang.Loop, methods MethodsUsed, points []point, opts Options) LoopResult {
+	p := prepare(m, l, methods)
+	lr := LoopResult{Loop: l.Name, Fluid: l.Fluid.Name, Methods: p.methods, Assumptions: assumptions(),
+		Findings: p.findings}
+	if p.fl != nil {
+		lr.Safety = p.info.Safety
+		lr.Fluid = p.info.Name
 	}
-	return res, nil
+	if p.net != nil {
+		lr.Network = !p.net.ring
+	}
+	lr.Cases = make([]CaseResult, len(points))
+	if p.net != nil && p.fl != nil {
+		runParallel(len(points), opts.Workers, func(i int) {
+			lr.Cases[i] = p.run(points[i], !opts.NoTilt && !points[i].grid)
+		})
+	} else {
+		for i, pt := range points {
+			lr.Cases[i] = CaseResult{Case: caseName(pt.c), Reason: "the loop cannot be estimated (see the loop's findings)"}
+		}
+	}
+	lr.Worst = worst(lr.Cases)
+	return lr
 }
 
 func caseName(c *lang.Case) string {

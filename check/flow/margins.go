@@ -365,13 +365,13 @@ func (p *prepared) chargeMargin(s *state, cr *CaseResult) {
 }
 
 // circulatesUnder reports whether the loop circulates under body force b.
-func (p *prepared) circulatesUnder(s *state, b geom.Vec3) bool {
+func (p *prepared) circulatesUnder(s *state, b geom.Vec3, start []float64) bool {
 	t := s.withBody(b)
 	ev := t.newEval()
 	if p.net.ring {
 		return t.circulates(ev)
 	}
-	f, _, err := t.solveNetwork(ev)
+	f, _, err := t.solveNetwork(ev, start)
 	if err != nil {
 		return false
 	}
@@ -388,7 +388,7 @@ func (p *prepared) circulatesUnder(s *state, b geom.Vec3) bool {
 
 // tilt finds the pitch and roll angles, from the case's attitude, at which
 // circulation stops: a 5° scan to ±90° then bisection.
-func (p *prepared) tilt(s *state, pt point, cr *CaseResult) {
+func (p *prepared) tilt(s *state, pt point, cr *CaseResult, start []float64) {
 	tl := &TiltLimits{Margin: math.Pi / 2}
 	search := func(axis int, sign float64) *float64 {
 		at := func(d float64) bool {
@@ -398,7 +398,7 @@ func (p *prepared) tilt(s *state, pt point, cr *CaseResult) {
 			} else {
 				roll += sign * d
 			}
-			return p.circulatesUnder(s, geom.BodyForceAt(pt.yaw, pitch, roll, pt.accel))
+			return p.circulatesUnder(s, geom.BodyForceAt(pt.yaw, pitch, roll, pt.accel), start)
 		}
 		step := 5 * math.Pi / 180
 		lo := 0.0

@@ -41,7 +41,7 @@ func (p *prepared) run(pt point, tilt bool) CaseResult {
 	} else {
 		var it int
 		var err error
-		f, it, err = s.solveNetwork(ev)
+		f, it, err = s.solveNetwork(ev, nil)
 		cr.Iterations = it
 		if err != nil {
 			cr.Findings = append(cr.Findings, p.finding(RuleConverge, "error", cr.Case, "", float64(it), 60, "", "",
@@ -77,7 +77,7 @@ func (p *prepared) run(pt point, tilt bool) CaseResult {
 	cr.Circulates = cr.MassFlow > 0
 	p.margins(s, &cr)
 	if tilt {
-		p.tilt(s, pt, &cr)
+		p.tilt(s, pt, &cr, f)
 	}
 	return cr
 }

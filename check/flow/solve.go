@@ -282,7 +282,12 @@ var errNoConverge = errors.New("network solution did not converge")
 
 // solveNetwork solves every cycle's momentum balance by Newton's method with
 // a backtracking line search, started from one cycle at a time.
-func (s *state) solveNetwork(ev *eval) ([]float64, int, error) {
+func (s *state) solveNetwork(ev *eval, start []float64) ([]float64, int, error) {
+	if start != nil {
+		if f, it, err := s.newton(ev, append([]float64(nil), start...)); err == nil {
+			return f, it, nil
+		}
+	}
 	n := s.net
 	nc := len(n.cycles)
 	f := make([]float64, nc)
@@ -321,6 +326,13 @@ func (s *state) solveNetwork(ev *eval) ([]float64, int, error) {
 			f[k] = best
 		}
 	}
+	return s.newton(ev, f)
+}
+
+// newton drives the cycle momentum balances to zero from f.
+func (s *state) newton(ev *eval, f []float64) ([]float64, int, error) {
+	n := s.net
+	nc := len(n.cycles)
 	scale := 1.0
 	for ci := range n.comps {
 		scale = math.Max(scale, math.Abs(s.bDisp[ci])*s.p.RhoL)

@@ -1,0 +1,211 @@
+package check
+
+import (
+	"fmt"
+	"strings"
+
+	"circa/check/flow"
+	"circa/lang"
+)
+
+// The margin rules run the flow estimate once per loop (shared through the
+// context's memo) and report its findings, each at the component it
+// concerns, with the case and the written limit as related locations.
+
+// marginRule describes one family of estimate findings.
+type marginRule struct {
+	id        string
+	sev       lang.Severity
+	summary   string
+	rationale string
+	example   string
+	fix       string
+}
+
+var marginRules = []marginRule{
+	{flow.RuleExitQuality, lang.Warning, "the evaporator's exit quality exceeds the limit",
+		"High exit quality brings the evaporator close to dryout, where the wall loses its liquid film and its temperature jumps; the limit (default 0.5) is common practice for electronics loops.",
+		"limits { exit_quality 0.3 }", "Lower the load, raise the flow (wider downcomer, lower losses, more height), or relax the limit with a reason."},
+	{flow.RuleDryout, lang.Error, "the evaporator dries out (exit quality reaches 1)",
+		"At quality 1 the outlet is dry vapour: the heated wall is no longer wetted and its temperature is not bounded by boiling.",
+		"heat plate 20 kW", "Lower the load or increase the circulation."},
+	{flow.RuleCHF, lang.Warning, "the wall heat flux comes too close to the pool-boiling critical heat flux",
+		"Above the critical heat flux the wall blankets with vapour; the ratio is taken with the local body force, so low or tilted gravity lowers it.",
+		"wetted_area 0.001 m²", "Spread the heat over more wetted area, or use a fluid with higher latent heat and vapour density."},
+	{flow.RuleFlooding, lang.Warning, "vapour and liquid flow counter-current close to the flooding limit",
+		"Where vapour rises against returning liquid, the liquid is held up and finally carried back above the flooding limit (Wallis); the loop then stalls.",
+		"evaporator e from a to b { rise -0.3 m ... }", "Give the vapour a separate upward path, or widen the tube."},
+	{flow.RuleWall, lang.Error, "the estimated wall temperature exceeds the device limit",
+		"The wall runs at the saturation temperature plus the nucleate-boiling superheat (Cooper); above wall_limit minus wall_margin the device overheats.",
+		"wall_limit 50 °C", "Lower the saturation temperature (more condenser conductance, colder sink) or the heat flux."},
+	{flow.RulePressure, lang.Error, "the saturation pressure exceeds the design pressure",
+		"The loop holds the saturation pressure of its hottest case; pressure equipment must satisfy local pressure-equipment codes and be approved by licensed engineers.",
+		"design_pressure 2 bar(g)", "Rate the loop for the pressure, or lower the saturation temperature."},
+	{flow.RuleCondenser, lang.Error, "the condensers cannot reject the load within the allowed saturation temperature",
+		"The condenser balance Q = UA·(T_sat − T_sink) sets the saturation temperature; above saturation_max (or the fluid's range) the loop cannot run as designed.",
+		"conductance 10 W/K", "Increase the condenser conductance or lower the sink temperature."},
+	{flow.RuleCharge, lang.Warning, "the fill charge does not match the inventory at the operating point",
+		"Too little charge starves the evaporator; too much backs liquid up into the condenser and takes away condensing area; more than the loop full of liquid leaves no room for vapour.",
+		"charge 5 kg", "Set the charge between the flow path's inventory and that plus full reservoirs, or add a reservoir."},
+	{flow.RuleHead, lang.Warning, "the available gravity head is not well above the losses",
+		"A loop whose head barely exceeds its losses at full power stalls with a little extra loss or tilt; 1.5–2× is common practice.",
+		"loss 20", "Raise the condenser, widen the tubes or cut local losses."},
+	{flow.RuleTilt, lang.Warning, "the case is close to an attitude where circulation stops",
+		"Tilting moves the condenser down relative to the evaporator along the body force; beyond the critical angle the loop stops.",
+		"pitch 60 deg", "Raise the condenser or place it above the evaporator along the expected tilt axes."},
+	{flow.RuleNoCirculation, lang.Error, "the loop does not circulate in a case",
+		"Without a balance between gravity head and losses no flow is carried: the evaporator boils dry.",
+		"node coil_in at (0, 0, -1) m", "Put the condenser above the evaporator along the body force and keep the losses below the head."},
+	{flow.RuleUnstable, lang.Warning, "a statically unstable operating point (Ledinegg) exists",
+		"Where the excess head rises with flow, a small disturbance drives the flow away from the balance; the loop may jump between operating points.",
+		"loss 50", "Add inlet restriction to the evaporator side or reduce the two-phase share of the losses."},
+	{flow.RuleConverge, lang.Error, "the network estimate did not converge",
+		"The Newton iteration on the branch flows found no balance; the network may have no steady state or several.",
+		"junction split ... (many parallel evaporators with very different heights)", "Check the branch geometry and loads; simplify parallel paths."},
+	{flow.RuleReverse, lang.Error, "an evaporator carries flow against its direction",
+		"In a parallel network a weak branch can be driven backwards by the others; its evaporator then sees vapour from the wrong end.",
+		"evaporator low from split to merge { rise 0.1 m ... } beside a taller one", "Balance the branches (equal height and losses) or add restriction to the strong branch."},
+	{flow.RuleFluidRange, lang.Error, "the case's saturation temperature is outside the fluid's range or past its critical point",
+		"There is no two-phase state to estimate with above the critical temperature or outside the tabulated range.",
+		"saturation 200 °C", "Choose a fluid with a higher critical temperature or lower the saturation temperature."},
+	{flow.RuleFluidSafety, lang.Info, "the working fluid is flammable or toxic (safety class other than A1)",
+		"Fluids of ASHRAE 34 / ISO 817 classes A2L, A2, A3, B1, B2L, ... carry charge limits, ventilation and detection requirements under local codes.",
+		"fluid R1234yf", "Follow the local codes for the fluid's safety class."},
+	{flow.RuleNoSink, lang.Error, "no saturation temperature can be set for a case",
+		"The estimate needs either a given saturation temperature or a condenser conductance with a sink temperature.",
+		"condenser coil from a to b { length 1 m }", "Give the condenser conductance and sink, an outlet temperature, or a saturation."},
+	{flow.RuleNegativeHeat, lang.Error, "an evaporator load is negative",
+		"An evaporator takes heat in; a negative load is a sign error.", "heat plate -2 kW", "Give the load as a positive power."},
+	{flow.RuleFluidUnknown, lang.Error, "the working fluid cannot be loaded for the estimate",
+		"Without the fluid's properties there is no estimate.", "fluid R999", "Name a built-in fluid or a valid CSV table."},
+	{flow.RuleEnergyClosure, lang.Warning, "the estimate's energy balance does not close",
+		"A sign of a numerical problem in the estimate: the heat added and the heat rejected differ by more than 1e-9 of the load.", "(no known trigger)", "Report the file."},
+	{flow.RuleMethod, lang.Error, "an unknown estimate method",
+		"The estimate can only use the methods it knows.", "methods { void_fraction slip }", "Use one of the listed methods."},
+}
+
+// Findings the structural rules already report (open ends, zero lengths,
+// no condenser) are not repeated from the estimate.
+var structural = map[string]bool{flow.RuleGeometry: true, flow.RuleNoCondenser: true}
+
+func init() {
+	for _, r := range marginRules {
+		r := r
+		Register(&Rule{ID: r.id, Category: CategoryMargin, Severity: r.sev, Scope: PerLoop,
+			Summary: r.summary, Rationale: r.rationale, Example: r.example, Fix: r.fix,
+			Run: func(c *Context) { reportEstimate(c, r.id) }})
+	}
+}
+
+// loopEstimate returns the flow estimate of the context's loop, computed
+// once per loop.
+func loopEstimate(c *Context) *flow.LoopResult {
+	v := c.Memo("flow-estimate", func() any {
+		lr := flow.EstimateLoop(c.Model, c.Loop, flow.Options{})
+		return &lr
+	})
+	return v.(*flow.LoopResult)
+}
+
+var marginRuleOf = map[string]string{
+	flow.MarginExitQuality: flow.RuleExitQuality, flow.MarginCHF: flow.RuleCHF, flow.MarginFlooding: flow.RuleFlooding,
+	flow.MarginWall: flow.RuleWall, flow.MarginPressure: flow.RulePressure, flow.MarginCondenser: flow.RuleCondenser,
+	flow.MarginCharge: flow.RuleCharge, flow.MarginHead: flow.RuleHead, flow.MarginTilt: flow.RuleTilt,
+}
+
+// reportEstimate reports the estimate's findings of one rule.
+func reportEstimate(c *Context, id string) {
+	lr := loopEstimate(c)
+	for _, f := range lr.Findings {
+		if f.Rule == id && !structural[f.Rule] {
+			c.Report(diagnostic(c, f))
+		}
+	}
+	for i := range lr.Cases {
+		cr := &lr.Cases[i]
+		for _, f := range cr.Findings {
+			if f.Rule == id && !structural[f.Rule] {
+				c.Report(diagnostic(c, f))
+			}
+		}
+		for _, m := range cr.Margins {
+			if marginRuleOf[m.Margin] != id {
+				continue
+			}
+			c.NoteMargin(Margin{Rule: id, Case: m.Case, Component: m.Component, Used: m.Use,
+				Message: fmt.Sprintf("%s %.3g of %.3g", strings.ReplaceAll(m.Margin, "_", " "), m.Value, m.Limit),
+				Loc:     componentLoc(c.Loop, m.Component)})
+		}
+	}
+}
+
+func componentLoc(l *lang.Loop, name string) lang.Location {
+	for _, comp := range l.Components {
+		if comp.Name == name {
+			return comp.NameLoc()
+		}
+	}
+	return l.NameLoc()
+}
+
+// diagnostic turns an estimate finding into a located finding.
+func diagnostic(c *Context, f flow.Finding) lang.Diagnostic {
+	sev, ok := lang.ParseSeverity(f.Severity)
+	if !ok {
+		sev = lang.Warning
+	}
+	msg := f.Message
+	if strings.HasPrefix(f.Rule, "margin-") {
+		msg += " (early-design estimate)"
+	}
+	d := lang.Diagnostic{Rule: f.Rule, Severity: sev, Format: "%s", Args: []any{msg}}
+	l := c.Loop
+	switch {
+	case f.Rule == flow.RuleFluidSafety || f.Rule == flow.RuleFluidRange || f.Rule == flow.RuleFluidUnknown:
+		d.Loc = l.Fluid.Loc()
+		if l.Fluid.File == "" {
+			d.Loc = l.NameLoc()
+		}
+	case f.Rule == flow.RulePressure && l.DesignPressure.Set:
+		d.Loc = l.DesignPressure.Loc()
+	case f.Rule == flow.RuleCharge && l.Charge.Set:
+		d.Loc = l.Charge.Loc()
+	default:
+		d.Loc = componentLoc(l, f.Component)
+	}
+	if f.Case != "" {
+		if cs := c.Model.Case(f.Case); cs != nil {
+			d.Related = append(d.Related, lang.Related{Loc: cs.NameLoc(), Message: "case " + cs.Name})
+		}
+	}
+	if v, ok := limitValue(c.Model, l, f); ok && v.Set && v.File != "" {
+		d.Related = append(d.Related, lang.Related{Loc: v.Loc(), Message: "the limit " + f.LimitField})
+	}
+	return d
+}
+
+// limitValue is the written limit a finding is checked against.
+func limitValue(m *lang.Model, l *lang.Loop, f flow.Finding) (lang.Value, bool) {
+	lim := m.Limits
+	switch f.LimitField {
+	case "exit_quality":
+		return lim.ExitQuality, true
+	case "chf_ratio":
+		return lim.CHFRatio, true
+	case "flooding":
+		return lim.Flooding, true
+	case "head_ratio":
+		return lim.HeadRatio, true
+	case "tilt_margin":
+		return lim.TiltMargin, true
+	case "saturation_max":
+		return lim.SaturationMax, true
+	case "wall_limit":
+		for _, comp := range l.Components {
+			if comp.Name == f.Component {
+				return comp.WallLimit, true
+			}
+		}
+	}
+	return lang.Value{}, false
+}

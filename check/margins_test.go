@@ -1,0 +1,61 @@
+package check
+
+import (
+	"strings"
+	"testing"
+
+	"circa/lang"
+)
+
+// An overloaded evaporator gives an exit-quality finding at the component,
+// with the case and the written limit as related locations.
+func TestMarginFindings(t *testing.T) {
+	src := `
+loop r {
+  fluid R1234yf
+  node a at (0, 0, 0) m
+  node b at (0, 0, 0.3) m
+  node c at (0, 0, 1.3) m
+  node d at (-0.3, 0, 1.3) m
+  evaporator plate from a to b { length 0.3 m; bore 10 mm; wetted_area 0.01 m2 }
+  pipe riser from b to c { length 1 m; bore 12 mm; loss 1 }
+  condenser coil from c to d { length 0.3 m; bore 10 mm; conductance 150 W/K; sink 25 degC }
+  pipe down from d to a { length 1.5 m; run (0.3, 0, -1.3) m; bore 8 mm; loss 1 }
+}
+limits { exit_quality 0.1 }
+case overload { heat plate 3 kW }
+`
+	m := lang.LoadSource("t.loop", []byte(src), lang.OSFS{})
+	ds := Run(m, Options{})
+	var exit, safety *lang.Diagnostic
+	for i, d := range ds {
+		switch d.Rule {
+		case "margin-exit-quality":
+			exit = &ds[i]
+		case "fluid-safety":
+			safety = &ds[i]
+		}
+	}
+	if exit == nil {
+		t.Fatalf("no exit-quality finding in %v", ds)
+	}
+	if got := src[exit.Loc.Span.Start:exit.Loc.Span.End]; got != "plate" {
+		t.Errorf("finding at %q, want the component name", got)
+	}
+	if !strings.Contains(exit.Message(), "overload") || !strings.Contains(exit.Message(), "0.10") {
+		t.Errorf("message %q lacks the case or the limit", exit.Message())
+	}
+	if len(exit.Related) != 2 {
+		t.Errorf("related %v, want the case and the limit", exit.Related)
+	}
+	// R1234yf is class A2L (ASHRAE 34).
+	if safety == nil || safety.Severity != lang.Info {
+		t.Errorf("no info finding for the A2L fluid: %v", safety)
+	}
+	// SkipEstimates leaves the margins out.
+	for _, d := range Run(m, Options{SkipEstimates: true}) {
+		if strings.HasPrefix(d.Rule, "margin-") {
+			t.Errorf("margin finding with SkipEstimates: %s", d.Message())
+		}
+	}
+}

@@ -1,0 +1,61 @@
+package main
+
+import (
+	"bytes"
+	"encoding/csv"
+	"encoding/json"
+	"strings"
+	"testing"
+)
+
+func runEstimateCmd(t *testing.T, args ...string) (int, string, string) {
+	t.Helper()
+	var out, errb bytes.Buffer
+	code := run(append([]string{"estimate"}, args...), strings.NewReader(""), &out, &errb)
+	return code, out.String(), errb.String()
+}
+
+func TestEstimateFormats(t *testing.T) {
+	const file = "../../testdata/examples/rack-door.loop"
+	code, out, errs := runEstimateCmd(t, file, "--case", "hot_aisle", "--no-tilt")
+	if code == exitUsage || !strings.Contains(out, "case hot_aisle") || !strings.Contains(out, "mass flow") ||
+		!strings.Contains(out, "early design") || !strings.Contains(out, "local pressure-equipment codes") {
+		t.Fatalf("text: %d %q %q", code, out, errs)
+	}
+	code, out, _ = runEstimateCmd(t, "--format", "json", "--no-tilt", file)
+	var res struct {
+		Cautions []string `json:"cautions"`
+		Loops    []struct {
+			Cases []struct {
+				Case     string  `json:"case"`
+				MassFlow float64 `json:"mass_flow"`
+			} `json:"cases"`
+		} `json:"loops"`
+	}
+	if err := json.Unmarshal([]byte(out), &res); err != nil || code == exitUsage {
+		t.Fatalf("json: %d %v", code, err)
+	}
+	if len(res.Cautions) == 0 || len(res.Loops) != 1 || len(res.Loops[0].Cases) != 3 || !(res.Loops[0].Cases[0].MassFlow > 0) {
+		t.Errorf("json result %+v", res)
+	}
+	_, out, _ = runEstimateCmd(t, file, "--format", "csv", "--no-tilt", "--void", "homogeneous", "--friction", "friedel")
+	var body []string
+	for _, l := range strings.Split(out, "\n") {
+		if !strings.HasPrefix(l, "#") {
+			body = append(body, l)
+		}
+	}
+	rows, err := csv.NewReader(strings.NewReader(strings.Join(body, "\n"))).ReadAll()
+	if err != nil || len(rows) != 1+3*4 {
+		t.Errorf("csv: %d rows, %v", len(rows), err)
+	}
+}
+
+func TestEstimateUsage(t *testing.T) {
+	for _, args := range [][]string{{}, {"--format", "xml", "x.loop"}, {"../../testdata/examples/rack-door.loop", "--case", "nope"},
+		{"../../testdata/examples/rack-door.loop", "--void", "nope"}} {
+		if code, _, _ := runEstimateCmd(t, args...); code != exitUsage {
+			t.Errorf("estimate %v = %d, want %d", args, code, exitUsage)
+		}
+	}
+}
