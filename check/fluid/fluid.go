@@ -28,6 +28,30 @@ type Info struct {
 	Source string
 }
 
+// Caution returns the usual caution for a fluid whose safety class marks it
+// flammable or of higher toxicity, or "" for class A1 and unclassified
+// non-flammable fluids.
+func (in Info) Caution() string {
+	c := strings.ToUpper(in.Safety)
+	lower := strings.ToLower(in.Safety)
+	var parts []string
+	if strings.HasPrefix(c, "B") || strings.Contains(lower, "toxic") {
+		parts = append(parts, "higher toxicity")
+	}
+	switch {
+	case strings.Contains(c, "2L"):
+		parts = append(parts, "mildly flammable")
+	case strings.Contains(c, "2") || strings.Contains(c, "3") || strings.Contains(lower, "flammable"):
+		parts = append(parts, "flammable")
+	}
+	if len(parts) == 0 {
+		return ""
+	}
+	return in.Name + " is a " + strings.Join(parts, " and ") + " working fluid (" + in.Safety + "): charge limits, " +
+		"ventilation, ignition sources and leak detection are set by local refrigerant-safety codes; follow them " +
+		"and licensed engineering practice."
+}
+
 // Sat is the saturated state at one temperature: both phases' properties.
 type Sat struct {
 	T     float64 // saturation temperature, K
