@@ -2,6 +2,7 @@ package lang
 
 import (
 	"errors"
+	"reflect"
 	"fmt"
 	"strconv"
 	"strings"
@@ -40,7 +41,23 @@ func FuzzParse(f *testing.F) {
 	f.Fuzz(func(t *testing.T, src []byte) {
 		file := Parse("fuzz.loop", src)
 		checkSpans(t, file)
+		checkSameAsGrammar(t, file)
 	})
+}
+
+// checkSameAsGrammar parses the text again with the fast path off and
+// checks that the tree, positions included, and the errors are the same.
+func checkSameAsGrammar(t *testing.T, file *File) {
+	t.Helper()
+	participleOnly = true
+	slow := Parse(file.Path, file.Src)
+	participleOnly = false
+	if !reflect.DeepEqual(file.Stmts, slow.Stmts) {
+		t.Fatalf("the fast path built another tree than the grammar\nfast:\n%s\ngrammar:\n%s", dumpTree(file), dumpTree(slow))
+	}
+	if !reflect.DeepEqual(file.Errors, slow.Errors) {
+		t.Fatalf("the fast path gave other errors than the grammar\nfast: %v\ngrammar: %v", file.Errors, slow.Errors)
+	}
 }
 
 func checkSpans(t *testing.T, file *File) {

@@ -71,8 +71,9 @@ func (l *sliceLexer) Next() (lexer.Token, error) {
 // messages only, every caller converts offsets through a Mapper.
 func scan(src []byte) ([]lexer.Token, []Comment) {
 	s := scanner{src: src, str: string(src), line: 1, lineStart: 0}
-	// A rough guess keeps reallocation rare: one token per five bytes.
-	s.toks = make([]lexer.Token, 0, len(src)/5+4)
+	// A rough guess keeps reallocation rare: one token (blanks included) per
+	// three bytes.
+	s.toks = make([]lexer.Token, 0, len(src)/3+4)
 	s.run()
 	return s.toks, s.comments
 }

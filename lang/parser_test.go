@@ -2,6 +2,8 @@ package lang
 
 import (
 	"strings"
+
+	"circa/lang/loopgen"
 	"testing"
 	"time"
 )
@@ -205,5 +207,19 @@ func TestParseKeepsPositions(t *testing.T) {
 	l := p.Block.Stmts[0].Args[0].Expr
 	if got := src[l.Span().Start:l.Span().End]; got != "1.5 m" {
 		t.Errorf("expression span %q", got)
+	}
+}
+
+// TestFastPathMatchesGrammar checks the hand-written statement parser
+// against the participle grammar on every example and fuzz seed.
+func TestFastPathMatchesGrammar(t *testing.T) {
+	var texts [][]byte
+	for _, src := range exampleFiles(t) {
+		texts = append(texts, src)
+	}
+	texts = append(texts, fuzzSeeds(t, "FuzzParse")...)
+	texts = append(texts, loopgen.Lines(300), loopgen.Network(60, 4))
+	for _, src := range texts {
+		checkSameAsGrammar(t, Parse("same.loop", src))
 	}
 }

@@ -9,7 +9,6 @@ import (
 	"circa/lang"
 )
 
-
 func load(t *testing.T, src []byte) *lang.Model {
 	t.Helper()
 	m := lang.LoadSource("gen.loop", src, nil)
