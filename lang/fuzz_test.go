@@ -2,8 +2,8 @@ package lang
 
 import (
 	"errors"
-	"reflect"
 	"fmt"
+	"reflect"
 	"strconv"
 	"strings"
 	"testing"
