@@ -2,35 +2,43 @@ package lsp
 
 import (
 	"context"
+	"fmt"
+	"sort"
+	"strings"
 
+	"circa/check"
+	"circa/check/flow"
 	"circa/lang"
+	"circa/units"
 )
 
-// estimates are the checker's results for one analysis that hover and inlay
-// hints show.
+// estimates are the checker's and the circulation estimate's results for
+// one analysis, which hover and inlay hints show.
 type estimates struct {
+	report  *check.Report
+	flow    *flow.Result
+	flowErr error
 }
 
-// checkModel runs the same checks as the command line.
+// checkModel runs the same checks as the command line (check.RunReport,
+// margins included) and the circulation estimate that hover and inlay hints
+// show. The hover estimate skips the tilt-limit search, which takes far
+// longer than typing allows.
 func checkModel(ctx context.Context, m *lang.Model) ([]lang.Diagnostic, *estimates) {
 	if ctx.Err() != nil {
 		return nil, nil
 	}
-	return nil, &estimates{}
+	est := &estimates{}
+	est.report = check.RunReport(m, check.Options{})
+	if ctx.Err() != nil {
+		return nil, nil
+	}
+	est.flow, est.flowErr = flow.Estimate(m, flow.Options{NoTilt: true})
+	return est.report.Diagnostics, est
 }
 
-// componentEstimate renders a component's estimated state in the nominal case.
-func (s *Server) componentEstimate(c *cursor, comp *lang.Component) string { return "" }
-
-// caseEstimate renders a case's worst margin.
-func (s *Server) caseEstimate(c *cursor, cs *lang.Case) string { return "" }
-
-func estimatedSaturation(c *cursor, l *lang.Loop) (float64, bool) { return 0, false }
-
-func ruleText(id string) (string, bool) { return "", false }
-
 // estimatesFor returns the finished estimates of an analysis, else the
-// latest finished ones for the same root.
+// latest finished ones for the same root (shown until the new ones land).
 func (s *Server) estimatesFor(sn *snapshot, a *analysis) *estimates {
 	if _, est, ok := a.checks(); ok {
 		return est
@@ -44,4 +52,172 @@ func (s *Server) estimatesFor(sn *snapshot, a *analysis) *estimates {
 	return nil
 }
 
-func componentHint(est *estimates, c *lang.Component) string { return "" }
+// nominalCase returns the estimate of a loop in the nominal case.
+func (est *estimates) nominalCase(m *lang.Model, loop string) (*flow.CaseResult, bool) {
+	if est == nil || est.flow == nil {
+		return nil, false
+	}
+	name := ""
+	if m.Nominal != nil {
+		name = m.Nominal.Name
+	}
+	return est.caseResult(loop, name)
+}
+
+func (est *estimates) caseResult(loop, name string) (*flow.CaseResult, bool) {
+	if est == nil || est.flow == nil {
+		return nil, false
+	}
+	for i := range est.flow.Loops {
+		l := &est.flow.Loops[i]
+		if l.Loop != loop {
+			continue
+		}
+		for j := range l.Cases {
+			if c := &l.Cases[j]; c.Case == name && !c.Grid {
+				return c, true
+			}
+		}
+	}
+	return nil, false
+}
+
+func componentState(cr *flow.CaseResult, name string) (*flow.ComponentState, bool) {
+	for i := range cr.Components {
+		if cr.Components[i].Component == name {
+			return &cr.Components[i], true
+		}
+	}
+	return nil, false
+}
+
+var (
+	uGs   = units.MustParse("g/s")
+	uPa   = units.MustParse("Pa")
+	uW    = units.MustParse("W")
+	uDegC = units.MustParse("degC")
+	uBar  = units.MustParse("bar")
+)
+
+// componentEstimate renders a component's estimated state in the nominal
+// case as a small table.
+func (s *Server) componentEstimate(c *cursor, comp *lang.Component) string {
+	est := s.estimatesFor(c.snap, c.a)
+	cr, ok := est.nominalCase(c.m, comp.Loop.Name)
+	if !ok {
+		return "\n_No estimate yet._\n"
+	}
+	var b strings.Builder
+	fmt.Fprintf(&b, "\n**Estimate, case `%s`**", cr.Case)
+	if !cr.Circulates {
+		fmt.Fprintf(&b, ": no circulation — %s\n", cr.Reason)
+		return b.String()
+	}
+	st, ok := componentState(cr, comp.Name)
+	if !ok {
+		b.WriteString(": no state for this component\n")
+		return b.String()
+	}
+	fmt.Fprintf(&b, " (saturation %s, %s)\n\n", units.Format(cr.SatTemperature, uDegC), cr.SatSource)
+	b.WriteString("| | |\n|---|---|\n")
+	fmt.Fprintf(&b, "| mass flow | %s |\n", units.Format(st.MassFlow, uGs))
+	fmt.Fprintf(&b, "| quality in → out | %.3f → %.3f |\n", st.XIn, st.XOut)
+	fmt.Fprintf(&b, "| void fraction outlet / mean | %.3f / %.3f |\n", st.VoidOut, st.VoidMean)
+	if st.Heat != 0 {
+		fmt.Fprintf(&b, "| heat | %s |\n", units.Format(st.Heat, uW))
+	}
+	fmt.Fprintf(&b, "| Δp friction | %s |\n", units.Format(st.DpFriction, uPa))
+	fmt.Fprintf(&b, "| Δp local | %s |\n", units.Format(st.DpLocal, uPa))
+	fmt.Fprintf(&b, "| Δp acceleration | %s |\n", units.Format(st.DpAccel, uPa))
+	fmt.Fprintf(&b, "| Δp gravity | %s |\n", units.Format(st.DpGravity, uPa))
+	fmt.Fprintf(&b, "| Δp total (in − out) | %s |\n", units.Format(st.DpTotal, uPa))
+	for _, mg := range cr.Margins {
+		if mg.Component == comp.Name {
+			fmt.Fprintf(&b, "| margin %s | %s of %s (%.0f %% used, %s) |\n", mg.Margin, fmtNum(mg.Value), fmtLimit(mg.Limit, mg.Unit), 100*mg.Use, mg.Status)
+		}
+	}
+	return b.String()
+}
+
+func fmtLimit(v float64, unit string) string {
+	if unit == "" {
+		return fmtNum(v)
+	}
+	return fmtNum(v) + " " + unit
+}
+
+// caseEstimate renders a case's operating point and its worst margin.
+func (s *Server) caseEstimate(c *cursor, cs *lang.Case) string {
+	est := s.estimatesFor(c.snap, c.a)
+	if est == nil || est.flow == nil {
+		return "\n_No estimate yet._\n"
+	}
+	var b strings.Builder
+	for _, l := range est.flow.Loops {
+		cr, ok := est.caseResult(l.Loop, cs.Name)
+		if !ok {
+			continue
+		}
+		fmt.Fprintf(&b, "\n**Loop `%s`**: ", l.Loop)
+		if !cr.Circulates {
+			fmt.Fprintf(&b, "no circulation — %s\n", cr.Reason)
+			continue
+		}
+		fmt.Fprintf(&b, "mass flow %s, saturation %s (%s, %s)\n", units.Format(cr.MassFlow, uGs),
+			units.Format(cr.SatTemperature, uDegC), units.Format(cr.SatPressure, uBar), cr.SatSource)
+		ms := append([]flow.Margin(nil), cr.Margins...)
+		sort.SliceStable(ms, func(i, j int) bool { return ms[i].Use > ms[j].Use })
+		if len(ms) > 0 {
+			w := ms[0]
+			at := ""
+			if w.Component != "" {
+				at = " at `" + w.Component + "`"
+			}
+			fmt.Fprintf(&b, "\nworst margin: **%s**%s — %s of %s, %.0f %% of the limit used (%s)\n", w.Margin, at, fmtNum(w.Value), fmtLimit(w.Limit, w.Unit), 100*w.Use, w.Status)
+		}
+	}
+	return b.String()
+}
+
+func estimatedSaturation(c *cursor, l *lang.Loop) (float64, bool) {
+	est := c.snapServer().estimatesFor(c.snap, c.a)
+	cr, ok := est.nominalCase(c.m, l.Name)
+	if !ok || cr.SatTemperature <= 0 {
+		return 0, false
+	}
+	return cr.SatTemperature, true
+}
+
+// componentHint is the inlay hint after a component: its mass flow and exit
+// quality in the nominal case.
+func componentHint(c *cursor, est *estimates, comp *lang.Component) string {
+	cr, ok := est.nominalCase(c.m, comp.Loop.Name)
+	if !ok || !cr.Circulates {
+		return ""
+	}
+	st, ok := componentState(cr, comp.Name)
+	if !ok {
+		return ""
+	}
+	return fmt.Sprintf("ṁ %s, x_out %.2f", units.Format(st.MassFlow, uGs), st.XOut)
+}
+
+// ruleText explains a rule by its registry entry.
+func ruleText(id string) (string, bool) {
+	r, ok := check.Lookup(id)
+	if !ok {
+		return "", false
+	}
+	var b strings.Builder
+	fmt.Fprintf(&b, "**%s** (%s, %s): %s\n", r.ID, r.Category, r.Severity, r.Summary)
+	if r.Rationale != "" {
+		fmt.Fprintf(&b, "\n%s\n", r.Rationale)
+	}
+	if r.Example != "" {
+		fmt.Fprintf(&b, "\nExample:\n```\n%s\n```\n", r.Example)
+	}
+	if r.Fix != "" {
+		fmt.Fprintf(&b, "\nFix: %s\n", r.Fix)
+	}
+	return b.String(), true
+}

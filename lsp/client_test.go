@@ -226,6 +226,9 @@ func (c *testClient) initialize(caps any) json.RawMessage {
 // settle waits until the server has finished analysing its current snapshot
 // and every notification before that point has been read.
 func (c *testClient) settle() {
+	// Notifications are handled in order before the next request, so after
+	// this round trip the snapshot of the last change exists.
+	c.mustCall("workspace/symbol", map[string]any{"query": "\x00none"})
 	c.srv.mu.Lock()
 	id := c.srv.snap.id
 	c.srv.mu.Unlock()

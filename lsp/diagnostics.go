@@ -124,7 +124,9 @@ func fileDiags(snap *snapshot, full bool) map[string][]lang.Diagnostic {
 		if owner[file] != a {
 			return
 		}
-		k := fmt.Sprintf("%s|%s|%d|%d|%s", file, d.Rule, d.Loc.Span.Start, d.Loc.Span.End, d.Message())
+		// One finding per rule and place: a part's field is resolved once
+		// per component that uses it, and would be reported as often.
+		k := fmt.Sprintf("%s|%s|%d|%d", file, d.Rule, d.Loc.Span.Start, d.Loc.Span.End)
 		if seen[k] {
 			return
 		}

@@ -25,6 +25,8 @@ type cursor struct {
 	f    *lang.File
 }
 
+func (c *cursor) snapServer() *Server { return c.snap.srv }
+
 func (sn *snapshot) cursorAt(u protocol.TextDocumentPositionParams) (*cursor, bool) {
 	path := pathOf(u.TextDocument.URI)
 	a := sn.analysisFor(path)

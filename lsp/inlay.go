@@ -2,7 +2,6 @@ package lsp
 
 import (
 	"context"
-	"fmt"
 
 	"go.lsp.dev/protocol"
 
@@ -40,6 +39,7 @@ func inlayHintRequest(ctx context.Context, s *Server, sn *snapshot, params []byt
 		})
 	}
 	est := s.estimatesFor(sn, a)
+	cur := &cursor{snap: sn, path: path, a: a, m: m}
 	for _, l := range m.Loops {
 		if l.File != path {
 			continue
@@ -48,7 +48,7 @@ func inlayHintRequest(ctx context.Context, s *Server, sn *snapshot, params []byt
 			if c.File != path {
 				continue
 			}
-			if label := componentHint(est, c); label != "" {
+			if label := componentHint(cur, est, c); label != "" {
 				hint(mp.LineEnd(mp.OffsetLine(c.Span.Start)), label)
 			}
 		}
@@ -91,5 +91,3 @@ func riseClosure(l *lang.Loop) (float64, bool) {
 	}
 	return sum, true
 }
-
-func fmtQuality(x float64) string { return fmt.Sprintf("x %.2f", x) }

@@ -104,8 +104,9 @@ func initializedNotification(ctx context.Context, s *Server, _ []byte) error {
 	}}}
 	// A call back to the client must not wait on the read loop that runs
 	// this notification.
+	cctx := jsonrpc2.DetachContext(ctx)
 	go func() {
-		if _, err := s.conn.Call(jsonrpc2.DetachContext(ctx), "client/registerCapability", params, nil); err != nil {
+		if _, err := s.conn.Call(cctx, "client/registerCapability", params, nil); err != nil {
 			s.logf("registering the file watcher: %v", err)
 		}
 	}()

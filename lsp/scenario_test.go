@@ -40,6 +40,8 @@ import (
 //	null | count N | error CODE | want JSON
 //	apply                         apply the last reply's edits to the files
 //	want-file FILE SECTION        FILE's text now equals SECTION
+//	file~ FILE "TEXT"... / file!~ the file's current text holds (or lacks) each TEXT
+//	sync FILE                     send the file's current text as a whole-document change
 //
 // POS is LINE:COL (zero-based, in the negotiated encoding) or "NEEDLE" or
 // "NEEDLE"+N: the start of NEEDLE's first occurrence, plus N bytes.
@@ -346,6 +348,23 @@ func (sc *scenario) run(n int, line string) {
 		}
 	case "apply":
 		sc.applyReply(n)
+	case "file~", "file!~":
+		for _, a := range args[1:] {
+			want, err := strconv.Unquote(a)
+			if err != nil {
+				t.Fatalf("line %d: %v", n, err)
+			}
+			if strings.Contains(sc.texts[arg(0)], want) != (cmd == "file~") {
+				t.Errorf("line %d: %s %s %q:\n%s", n, arg(0), map[bool]string{true: "lacks", false: "holds"}[cmd == "file~"], want, sc.texts[arg(0)])
+			}
+		}
+	case "sync":
+		name := arg(0)
+		sc.versions[name]++
+		sc.c.notify("textDocument/didChange", map[string]any{
+			"textDocument":   map[string]any{"uri": sc.uri(name), "version": sc.versions[name]},
+			"contentChanges": []any{map[string]any{"text": sc.texts[name]}},
+		})
 	case "want-file":
 		got, want := sc.texts[arg(0)], sc.sections[arg(1)]
 		if got != want {

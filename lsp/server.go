@@ -113,7 +113,7 @@ func (s *Server) run(ctx context.Context, rwc io.ReadWriteCloser) int {
 	stream := newGuardedStream(rwc, s.logf)
 	s.conn = jsonrpc2.NewConn(stream, jsonrpc2.WithCodec(codec{}))
 	s.mu.Lock()
-	s.snap = &snapshot{ctx: ctx, docs: map[string]*document{}, roots: map[string]*analysis{}, settings: s.settings}
+	s.snap = &snapshot{ctx: ctx, docs: map[string]*document{}, roots: map[string]*analysis{}, settings: s.settings, srv: s}
 	s.mu.Unlock()
 	go s.worker(ctx)
 	s.conn.Go(ctx, s.handle)

@@ -39,6 +39,7 @@ type snapshot struct {
 	settings Settings
 	roots    map[string]*analysis
 	disk     *diskCache
+	srv      *Server
 }
 
 // analysis is what one root file and its includes resolve to. The model is
@@ -180,7 +181,7 @@ func (s *Server) changeLocked(docs map[string]*document, changed []string, setti
 	s.nextID++
 	n := &snapshot{
 		id: s.nextID, ctx: ctx, cancel: cancel, docs: docs, enc: s.enc,
-		settings: s.settings, roots: map[string]*analysis{}, disk: &s.disk,
+		settings: s.settings, roots: map[string]*analysis{}, disk: &s.disk, srv: s,
 	}
 	fs := overlay{docs: docs, disk: &s.disk}
 	for path := range docs {
