@@ -1,0 +1,194 @@
+package lang
+
+import (
+	"errors"
+	"fmt"
+	"io/fs"
+	"path/filepath"
+	"regexp"
+	"sort"
+	"strconv"
+	"strings"
+	"testing"
+
+	"golang.org/x/tools/txtar"
+)
+
+// A marker "#@diag(RULE, "TEXT")" in a comment expects one finding of
+// RULE on the marker's line whose message contains TEXT.
+var markerRE = regexp.MustCompile(`@diag\(([a-z-]+), ("(?:[^"\\]|\\.)*")\)`)
+
+type expectation struct {
+	file string
+	line int // zero-based
+	rule string
+	text string
+}
+
+func (e expectation) String() string {
+	return fmt.Sprintf("%s:%d: %s %q", e.file, e.line+1, e.rule, e.text)
+}
+
+// archiveFS serves the files of a txtar archive.
+func archiveFS(ar *txtar.Archive) memFS {
+	m := memFS{}
+	for _, f := range ar.Files {
+		m[filepath.FromSlash(f.Name)] = f.Data
+	}
+	return m
+}
+
+func markers(t *testing.T, fsys memFS) []expectation {
+	t.Helper()
+	var out []expectation
+	for name, data := range fsys {
+		f := Parse(name, data)
+		for _, c := range f.Comments {
+			for _, m := range markerRE.FindAllStringSubmatch(c.Text, -1) {
+				text, err := strconv.Unquote(m[2])
+				if err != nil {
+					t.Fatalf("%s: bad marker %s", name, m[0])
+				}
+				out = append(out, expectation{name, f.Mapper.OffsetLine(c.Span.Start), m[1], text})
+			}
+		}
+	}
+	return out
+}
+
+// match pairs findings with expectations one to one; it returns the
+// findings nobody expected and the expectations nothing met.
+func match(m *Model, want []expectation) (extra []string, missing []expectation) {
+	used := make([]bool, len(want))
+	for _, d := range m.Diags {
+		f := m.Files[d.Loc.File]
+		line := -1
+		if f != nil {
+			line = f.Mapper.OffsetLine(d.Loc.Span.Start)
+		}
+		hit := false
+		for i, w := range want {
+			if !used[i] && w.file == d.Loc.File && w.line == line && w.rule == d.Rule && strings.Contains(d.Message(), w.text) {
+				used[i], hit = true, true
+				break
+			}
+		}
+		if !hit {
+			extra = append(extra, fmt.Sprintf("%s:%d: %s %q", d.Loc.File, line+1, d.Rule, d.Message()))
+		}
+	}
+	for i, w := range want {
+		if !used[i] {
+			missing = append(missing, w)
+		}
+	}
+	return extra, missing
+}
+
+// TestResolveArchives loads main.loop of each testdata/resolve/*.txtar
+// (other files of the archive are what it includes) and matches the
+// findings with the markers one to one.
+func TestResolveArchives(t *testing.T) {
+	files, err := filepath.Glob(filepath.Join("testdata", "resolve", "*.txtar"))
+	if err != nil || len(files) == 0 {
+		t.Fatalf("no archives: %v", err)
+	}
+	for _, file := range files {
+		t.Run(filepath.Base(file), func(t *testing.T) {
+			ar, err := txtar.ParseFile(file)
+			if err != nil {
+				t.Fatal(err)
+			}
+			fsys := archiveFS(ar)
+			m := Load("main.loop", fsys)
+			extra, missing := match(m, markers(t, fsys))
+			for _, e := range extra {
+				t.Errorf("unexpected finding %s", e)
+			}
+			for _, w := range missing {
+				t.Errorf("missing finding %s", w)
+			}
+			checkFixes(t, fsys, m)
+		})
+	}
+}
+
+// checkFixes applies each suggested fix and loads again. The first (best)
+// fix must clear every finding of its rule from the line; any other fix,
+// an alternative, must at least make the finding's message go away.
+func checkFixes(t *testing.T, fsys memFS, m *Model) {
+	t.Helper()
+	for _, d := range m.Diags {
+		for k, fix := range d.Fixes {
+			patched := memFS{}
+			for k, v := range fsys {
+				patched[k] = v
+			}
+			edits := append([]Edit(nil), fix.Edits...)
+			sort.Slice(edits, func(i, j int) bool { return edits[i].Loc.Span.Start > edits[j].Loc.Span.Start })
+			for _, e := range edits {
+				src := patched[e.Loc.File]
+				sp := e.Loc.Span
+				if sp.Start < 0 || sp.End > len(src) || sp.Start > sp.End {
+					t.Fatalf("fix %q: edit %v outside %s", fix.Title, sp, e.Loc.File)
+				}
+				patched[e.Loc.File] = []byte(string(src[:sp.Start]) + e.NewText + string(src[sp.End:]))
+			}
+			line := m.Files[d.Loc.File].Mapper.OffsetLine(d.Loc.Span.Start)
+			again := Load("main.loop", patched)
+			for _, d2 := range again.Diags {
+				if d2.Rule == d.Rule && d2.Loc.File == d.Loc.File && again.Files[d2.Loc.File].Mapper.OffsetLine(d2.Loc.Span.Start) == line &&
+					(k == 0 || d2.Message() == d.Message()) {
+					t.Errorf("fix %q of %q leaves %q", fix.Title, d.Message(), d2.Message())
+				}
+			}
+		}
+	}
+}
+
+func TestResolveFixesOffered(t *testing.T) {
+	ar, err := txtar.ParseFile(filepath.Join("testdata", "resolve", "names.txtar"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	m := Load("main.loop", archiveFS(ar))
+	n := 0
+	for _, d := range m.Diags {
+		n += len(d.Fixes)
+	}
+	// lfit, bse, evv: three "did you mean" fixes.
+	if n < 3 {
+		t.Errorf("%d fixes offered, want at least 3", n)
+	}
+}
+
+func TestLoadUnreadableRoot(t *testing.T) {
+	m := Load("nowhere.loop", memFS{})
+	if len(m.Diags) != 1 || m.Diags[0].Rule != "file-unreadable" || !strings.Contains(m.Diags[0].Message(), "nowhere.loop") {
+		t.Fatalf("diags %v", m.Diags)
+	}
+	m = Load("nowhere.loop", errFS{})
+	if len(m.Diags) != 1 || !strings.Contains(m.Diags[0].Message(), "file does not exist") {
+		t.Fatalf("diags %v", m.Diags)
+	}
+}
+
+// errFS fails like the operating system does, with a wrapped error.
+type errFS struct{}
+
+func (errFS) ReadFile(p string) ([]byte, error) {
+	return nil, &fs.PathError{Op: "open", Path: p, Err: errors.New("file does not exist")}
+}
+
+func TestLoadSourceSyntaxAndModel(t *testing.T) {
+	src := []byte("param d = 12 mm\nloop r {\n  fluid water\n  node a\n  node b\n  pipe p from a to b {\n    bore d\n    length 2 ft\n  }\n}\n")
+	m := LoadSource("m.loop", src, memFS{})
+	if len(m.Diags) != 0 {
+		t.Fatalf("diags %v", m.Diags)
+	}
+	c := m.Component("p")
+	// 1 ft = 0.3048 m exactly (international foot, 1959 agreement).
+	if c == nil || c.Bore.SI != 0.012 || c.Length.SI != 2*0.3048 {
+		t.Fatalf("component %+v", c)
+	}
+}
