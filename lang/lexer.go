@@ -72,8 +72,8 @@ func (l *sliceLexer) Next() (lexer.Token, error) {
 func scan(src []byte) ([]lexer.Token, []Comment) {
 	s := scanner{src: src, str: string(src), line: 1, lineStart: 0}
 	// A rough guess keeps reallocation rare: one token (blanks included) per
-	// three bytes.
-	s.toks = make([]lexer.Token, 0, len(src)/3+4)
+	// two bytes.
+	s.toks = make([]lexer.Token, 0, len(src)/2+4)
 	s.run()
 	return s.toks, s.comments
 }
@@ -122,8 +122,8 @@ func (s *scanner) run() {
 		c := src[s.pos]
 		start := s.pos
 		switch {
-		case c == ' ' || c == '\t' || c == '\r' || c == '\f' || c == '\v':
-			for s.pos < len(src) && (src[s.pos] == ' ' || src[s.pos] == '\t' || src[s.pos] == '\r' || src[s.pos] == '\f' || src[s.pos] == '\v') {
+		case isBlank(c):
+			for s.pos < len(src) && isBlank(src[s.pos]) {
 				s.pos++
 			}
 			s.emit(TokSpace, start)
@@ -185,7 +185,7 @@ func (s *scanner) signStartsNumber() bool {
 	if !s.prevEndsValue() {
 		return true
 	}
-	if s.pos > 0 && (s.src[s.pos-1] == ' ' || s.src[s.pos-1] == '\t') {
+	if s.pos > 0 && isBlank(s.src[s.pos-1]) {
 		// "a -2": the previous token ended before a space.
 		return true
 	}
@@ -227,7 +227,7 @@ func (s *scanner) scanNumber(start int) {
 func (s *scanner) maybeUnit() {
 	src := s.src
 	p := s.pos
-	for p < len(src) && (src[p] == ' ' || src[p] == '\t') {
+	for p < len(src) && isBlank(src[p]) {
 		p++
 	}
 	if p >= len(src) || !s.unitStart(p) {
@@ -244,7 +244,7 @@ func (s *scanner) maybeUnit() {
 		if c == '\n' || c == '#' || c == ',' || c == ';' || c == '{' || c == '}' || c == '=' || c == '"' {
 			break
 		}
-		if c == ' ' || c == '\t' || c == '\r' {
+		if isBlank(c) {
 			if depth == 0 {
 				break
 			}
@@ -267,7 +267,7 @@ func (s *scanner) maybeUnit() {
 		p++
 	}
 	// Unbalanced: stop at the last balanced point by trimming trailing blanks.
-	for p > start && (src[p-1] == ' ' || src[p-1] == '\t') {
+	for p > start && isBlank(src[p-1]) {
 		p--
 	}
 	if p == start {
@@ -354,7 +354,13 @@ func (s *scanner) scanString() {
 	s.emit(TokBad, start)
 }
 
-func isDigit(c byte) bool      { return c >= '0' && c <= '9' }
+func isDigit(c byte) bool { return c >= '0' && c <= '9' }
+
+// isBlank reports the characters a Space token holds; every kind of blank
+// separates the same way.
+func isBlank(c byte) bool {
+	return c == ' ' || c == '\t' || c == '\r' || c == '\f' || c == '\v'
+}
 func isIdentStart(c byte) bool { return c == '_' || (c|0x20 >= 'a' && c|0x20 <= 'z') }
 func isPunct(c byte) bool {
 	switch c {

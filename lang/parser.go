@@ -53,6 +53,7 @@ type parser struct {
 	errLine int
 	// deepBlocks is set once nesting too deep has been reported
 	deepBlocks bool
+	nodes      nodes // the fast path's node chunks
 }
 
 func (p *parser) errorf(span Span, format string, args ...any) {
@@ -179,7 +180,7 @@ func (p *parser) statement() {
 		return
 	}
 	if !participleOnly {
-		q := fastParser{toks: p.toks, i: start}
+		q := fastParser{toks: p.toks, i: start, nodes: &p.nodes}
 		if stmt, ok := q.stmt(); ok {
 			p.cur = q.i
 			p.add(stmt)
@@ -434,6 +435,35 @@ var participleOnly = false
 type fastParser struct {
 	toks []lexer.Token
 	i    int // raw index of the next token, elided ones included
+	*nodes
+}
+
+// nodes hands out tree nodes from chunks, so a large file costs a few
+// hundred allocations instead of one per node.
+type nodes struct {
+	stmts   slab[Stmt]
+	idents  slab[Ident]
+	args    slab[Arg]
+	exprs   slab[Expr]
+	exprOps slab[ExprOp]
+	terms   slab[Term]
+	termOps slab[TermOp]
+	factors slab[Factor]
+	powers  slab[Power]
+	atoms   slab[Atom]
+	strs    slab[Str]
+	unitsT  slab[UnitTok]
+}
+
+type slab[T any] struct{ buf []T }
+
+// alloc returns a zeroed T from the current chunk.
+func (s *slab[T]) alloc() *T {
+	if len(s.buf) == cap(s.buf) {
+		s.buf = make([]T, 0, 128)
+	}
+	s.buf = s.buf[:len(s.buf)+1]
+	return &s.buf[len(s.buf)-1]
 }
 
 // peek returns the next token that is not elided.
@@ -471,15 +501,18 @@ func (q *fastParser) stmt() (*Stmt, bool) {
 	if t.Type != TokIdent {
 		return nil, false
 	}
-	s := &Stmt{Pos: t.Pos}
+	s := q.stmts.alloc()
+	s.Pos = t.Pos
 	q.next()
-	s.Word = &Ident{Pos: t.Pos, EndPos: q.end(), Name: t.Value}
+	s.Word = q.idents.alloc()
+	*s.Word = Ident{Pos: t.Pos, EndPos: q.end(), Name: t.Value}
 	for {
 		t := q.peek()
 		if endsStatement(t) {
 			break
 		}
-		a := &Arg{Pos: t.Pos}
+		a := q.args.alloc()
+		a.Pos = t.Pos
 		switch t.Value {
 		case "from", "to", "at", "=":
 			q.next()
@@ -499,7 +532,8 @@ func (q *fastParser) stmt() (*Stmt, bool) {
 }
 
 func (q *fastParser) expr() (*Expr, bool) {
-	e := &Expr{Pos: q.peek().Pos}
+	e := q.exprs.alloc()
+	e.Pos = q.peek().Pos
 	var ok bool
 	if e.Left, ok = q.term(); !ok {
 		return nil, false
@@ -514,14 +548,17 @@ func (q *fastParser) expr() (*Expr, bool) {
 		if !ok {
 			return nil, false
 		}
-		e.Ops = append(e.Ops, &ExprOp{Op: t.Value, Term: tm})
+		op := q.exprOps.alloc()
+		*op = ExprOp{Op: t.Value, Term: tm}
+		e.Ops = append(e.Ops, op)
 	}
 	e.EndPos = q.end()
 	return e, true
 }
 
 func (q *fastParser) term() (*Term, bool) {
-	tm := &Term{Pos: q.peek().Pos}
+	tm := q.terms.alloc()
+	tm.Pos = q.peek().Pos
 	var ok bool
 	if tm.Left, ok = q.factor(); !ok {
 		return nil, false
@@ -536,7 +573,9 @@ func (q *fastParser) term() (*Term, bool) {
 		if !ok {
 			return nil, false
 		}
-		tm.Ops = append(tm.Ops, &TermOp{Op: t.Value, Factor: f})
+		op := q.termOps.alloc()
+		*op = TermOp{Op: t.Value, Factor: f}
+		tm.Ops = append(tm.Ops, op)
 	}
 	tm.EndPos = q.end()
 	return tm, true
@@ -544,7 +583,8 @@ func (q *fastParser) term() (*Term, bool) {
 
 func (q *fastParser) factor() (*Factor, bool) {
 	t := q.peek()
-	f := &Factor{Pos: t.Pos}
+	f := q.factors.alloc()
+	f.Pos = t.Pos
 	if t.Value == "-" || t.Value == "+" {
 		q.next()
 		f.Sign = t.Value
@@ -556,7 +596,8 @@ func (q *fastParser) factor() (*Factor, bool) {
 	if q.peek().Value == "^" {
 		q.next()
 		t := q.peek()
-		pw := &Power{Pos: t.Pos}
+		pw := q.powers.alloc()
+		pw.Pos = t.Pos
 		if t.Value == "-" || t.Value == "+" {
 			q.next()
 			pw.Sign = t.Value
@@ -576,17 +617,20 @@ func (q *fastParser) factor() (*Factor, bool) {
 
 func (q *fastParser) atom() (*Atom, bool) {
 	t := q.peek()
-	a := &Atom{Pos: t.Pos}
+	a := q.atoms.alloc()
+	a.Pos = t.Pos
 	switch {
 	case t.Type == TokNumber:
 		q.next()
 		a.Number = t.Value
 	case t.Type == TokIdent && t.Value != "from" && t.Value != "to" && t.Value != "at":
 		q.next()
-		a.Ref = &Ident{Pos: t.Pos, EndPos: q.end(), Name: t.Value}
+		a.Ref = q.idents.alloc()
+		*a.Ref = Ident{Pos: t.Pos, EndPos: q.end(), Name: t.Value}
 	case t.Type == TokString:
 		q.next()
-		a.Str = &Str{Pos: t.Pos, EndPos: q.end(), Quoted: t.Value}
+		a.Str = q.strs.alloc()
+		*a.Str = Str{Pos: t.Pos, EndPos: q.end(), Quoted: t.Value}
 	case t.Value == "(":
 		q.next()
 		for {
@@ -611,7 +655,8 @@ func (q *fastParser) atom() (*Atom, bool) {
 	}
 	if t := q.peek(); t.Type == TokUnit {
 		q.next()
-		a.Unit = &UnitTok{Pos: t.Pos, EndPos: q.end(), Text: t.Value}
+		a.Unit = q.unitsT.alloc()
+		*a.Unit = UnitTok{Pos: t.Pos, EndPos: q.end(), Text: t.Value}
 	}
 	a.EndPos = q.end()
 	return a, true
