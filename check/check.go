@@ -222,7 +222,8 @@ func Lookup(id string) (*Rule, bool) {
 // Run returns the model's own findings and every rule's, silenced by the
 // "# allow:" comments, followed by findings for silencers that silenced
 // nothing, sorted by file and offset. It never panics: a rule that fails is
-// reported as an "internal" finding.
+// reported as an "internal" finding. Run marks the model's silencers as
+// used, so one model must not be checked by two goroutines at once.
 func Run(m *lang.Model, opts Options) []lang.Diagnostic {
 	return RunReport(m, opts).Diagnostics
 }

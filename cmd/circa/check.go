@@ -220,9 +220,10 @@ func collectFindings(runs []checkedFile) []checkFinding {
 	return out
 }
 
-// useColour reports whether w is a terminal and NO_COLOR is unset.
+// useColour reports whether w is a terminal and NO_COLOR is unset (or
+// empty, as the NO_COLOR convention has it).
 func useColour(w io.Writer) bool {
-	if _, set := os.LookupEnv("NO_COLOR"); set {
+	if os.Getenv("NO_COLOR") != "" {
 		return false
 	}
 	f, ok := w.(*os.File)
@@ -628,7 +629,7 @@ func writeSARIF(w io.Writer, fs []checkFinding) error {
 		results = append(results, res)
 	}
 	doc := map[string]any{
-		"$schema": "https://json.schemastore.org/sarif-2.1.0.json",
+		"$schema": "https://docs.oasis-open.org/sarif/sarif/v2.1.0/errata01/os/schemas/sarif-schema-2.1.0.json",
 		"version": "2.1.0",
 		"runs": []any{map[string]any{
 			"tool": map[string]any{"driver": map[string]any{

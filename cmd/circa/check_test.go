@@ -10,6 +10,9 @@ import (
 	"testing"
 
 	"github.com/santhosh-tekuri/jsonschema/v6"
+
+	"circa/check"
+	"circa/lang"
 )
 
 func circa(t *testing.T, stdin string, args ...string) (int, string, string) {
@@ -116,6 +119,13 @@ func TestCheckColour(t *testing.T) {
 	_ = writeText(&b, nil, nil, true)
 	if !strings.HasPrefix(b.String(), "0 files checked") {
 		t.Errorf("%q", b.String())
+	}
+	m := lang.LoadSource("c.loop", []byte(bad), nil)
+	runs := []checkedFile{{"c.loop", m, check.RunReport(m, check.Options{SkipEstimates: true})}}
+	b.Reset()
+	_ = writeText(&b, runs, collectFindings(runs), true)
+	if !strings.Contains(b.String(), "\x1b[1;31merror\x1b[0m: evaporator e rises") {
+		t.Errorf("no colour:\n%q", b.String())
 	}
 	t.Setenv("NO_COLOR", "1")
 	if useColour(os.Stdout) {
