@@ -49,9 +49,7 @@ func FuzzParse(f *testing.F) {
 // checks that the tree, positions included, and the errors are the same.
 func checkSameAsGrammar(t *testing.T, file *File) {
 	t.Helper()
-	participleOnly = true
-	slow := Parse(file.Path, file.Src)
-	participleOnly = false
+	slow := parse(file.Path, file.Src, true)
 	if !reflect.DeepEqual(file.Stmts, slow.Stmts) {
 		t.Fatalf("the fast path built another tree than the grammar\nfast:\n%s\ngrammar:\n%s", dumpTree(file), dumpTree(slow))
 	}

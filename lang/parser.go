@@ -31,11 +31,15 @@ const MaxNesting = 100
 // Parse parses one .loop text. It never fails: syntax errors are collected
 // in File.Errors (at most one per line) and every statement that parsed is
 // kept, so a half-typed line leaves the rest of the file usable.
-func Parse(path string, src []byte) *File {
+func Parse(path string, src []byte) *File { return parse(path, src, false) }
+
+// parse is Parse; grammarOnly turns the fast path off, so tests can compare
+// its trees with the grammar's.
+func parse(path string, src []byte, grammarOnly bool) *File {
 	f := &File{Path: path, Src: src, Mapper: NewMapper(src)}
 	toks, comments := scan(src)
 	f.Comments = comments
-	p := &parser{f: f, toks: toks}
+	p := &parser{f: f, toks: toks, grammarOnly: grammarOnly}
 	p.run()
 	return f
 }
@@ -52,8 +56,9 @@ type parser struct {
 	// line of the last error, to keep one error per line
 	errLine int
 	// deepBlocks is set once nesting too deep has been reported
-	deepBlocks bool
-	nodes      nodes // the fast path's node chunks
+	deepBlocks  bool
+	nodes       nodes // the fast path's node chunks
+	grammarOnly bool  // parse every statement with the grammar
 }
 
 func (p *parser) errorf(span Span, format string, args ...any) {
@@ -179,7 +184,7 @@ func (p *parser) statement() {
 		p.skipBad(first)
 		return
 	}
-	if !participleOnly {
+	if !p.grammarOnly {
 		q := fastParser{toks: p.toks, i: start, nodes: &p.nodes}
 		if stmt, ok := q.stmt(); ok {
 			p.cur = q.i
@@ -421,10 +426,6 @@ func unexpected(t *lexer.Token, where string) string {
 	}
 	return "unexpected " + what
 }
-
-// participleOnly turns the fast path off, so tests can compare its trees
-// with the grammar's.
-var participleOnly = false
 
 // fastParser parses one well-formed statement directly from the tokens,
 // building exactly the tree the participle grammar builds (the same
