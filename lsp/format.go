@@ -187,7 +187,14 @@ func lineDiff(a, b []string) []hunk {
 	var out []hunk
 	ax, by := 0, 0
 	flush := func(toX, toY int) {
-		if toX > ax || toY > by {
+		switch {
+		case toX-ax == toY-by:
+			// As many lines out as in: one hunk per line, so a range
+			// formatting keeps only the lines it touches.
+			for i := 0; i < toX-ax; i++ {
+				out = append(out, hunk{pre + ax + i, pre + ax + i + 1, bm[by+i]})
+			}
+		case toX > ax || toY > by:
 			out = append(out, hunk{pre + ax, pre + toX, join(bm[by:toY])})
 		}
 	}

@@ -37,6 +37,8 @@ import (
 //	format FILE | symbols FILE | tokens FILE | folds FILE | hints FILE | actions FILE POS-POS
 //	call METHOD JSON              any request ($FILE names are replaced by URIs)
 //	~ "TEXT"... / !~ "TEXT"       the last reply's strings hold (or lack) each TEXT
+//	has "LABEL"... / lacks "LABEL"... the completion list has (or lacks) each label
+//	tok FILE POS TYPE             after tokens: a semantic token of TYPE starts at POS
 //	null | count N | error CODE | want JSON
 //	apply                         apply the last reply's edits to the files
 //	want-file FILE SECTION        FILE's text now equals SECTION
@@ -162,43 +164,38 @@ func (sc *scenario) rng(name, arg string) map[string]any {
 	return map[string]any{"start": sc.pos(name, a), "end": sc.pos(name, b)}
 }
 
-// fields splits a command line, keeping quoted strings whole.
+// fields splits a command line at blanks outside double quotes; a
+// trailing JSON argument is kept whole.
 func fields(line string) []string {
 	var out []string
-	for len(line) > 0 {
+	for {
 		line = strings.TrimLeft(line, " \t")
 		if line == "" {
-			break
-		}
-		if line[0] == '"' {
-			end := 1
-			for end < len(line) && (line[end] != '"' || line[end-1] == '\\') {
-				end++
-			}
-			end++
-			for end < len(line) && line[end] != ' ' {
-				end++
-			}
-			if end > len(line) {
-				end = len(line)
-			}
-			out = append(out, line[:end])
-			line = line[end:]
-			continue
+			return out
 		}
 		if line[0] == '{' || line[0] == '[' {
-			out = append(out, line)
-			break
+			return append(out, line)
 		}
-		i := strings.IndexAny(line, " \t")
-		if i < 0 {
-			out = append(out, line)
-			break
+		in, i := false, 0
+		for ; i < len(line); i++ {
+			ch := line[i]
+			if ch == '\\' && in {
+				i++
+				continue
+			}
+			if ch == '"' {
+				in = !in
+			}
+			if !in && (ch == ' ' || ch == '\t') {
+				break
+			}
+		}
+		if i > len(line) {
+			i = len(line)
 		}
 		out = append(out, line[:i])
 		line = line[i:]
 	}
-	return out
 }
 
 func (sc *scenario) doc(name string) map[string]any {
@@ -320,6 +317,43 @@ func (sc *scenario) run(n int, line string) {
 				t.Errorf("line %d: reply %s %q:\n%s", n, map[bool]string{true: "lacks", false: "holds"}[cmd == "~"], want, text)
 			}
 		}
+	case "has", "lacks":
+		var list struct {
+			Items []struct{ Label string } `json:"items"`
+		}
+		json.Unmarshal(sc.last, &list)
+		labels := map[string]bool{}
+		for _, it := range list.Items {
+			labels[it.Label] = true
+		}
+		for _, a := range args {
+			want, err := strconv.Unquote(a)
+			if err != nil {
+				t.Fatalf("line %d: %v", n, err)
+			}
+			if labels[want] != (cmd == "has") {
+				t.Errorf("line %d: completion %s %q: %v", n, map[bool]string{true: "lacks", false: "has"}[cmd == "has"], want, labels)
+			}
+		}
+	case "tok":
+		// tok FILE "NEEDLE" TYPE: a semantic token of TYPE starts at NEEDLE.
+		var st struct{ Data []int }
+		json.Unmarshal(sc.last, &st)
+		p := sc.pos(arg(0), arg(1))
+		line, col, found := 0, 0, ""
+		for i := 0; i+4 < len(st.Data); i += 5 {
+			if st.Data[i] > 0 {
+				line, col = line+st.Data[i], st.Data[i+1]
+			} else {
+				col += st.Data[i+1]
+			}
+			if line == p["line"] && col == p["character"] {
+				found = tokenTypes[st.Data[i+3]]
+			}
+		}
+		if found != arg(2) {
+			t.Errorf("line %d: token at %s is %q, want %q", n, arg(1), found, arg(2))
+		}
 	case "null":
 		if sc.lastErr != nil || string(sc.last) != "null" && len(sc.last) != 0 {
 			t.Errorf("line %d: want null, got %s %v", n, sc.last, sc.lastErr)
@@ -327,7 +361,13 @@ func (sc *scenario) run(n int, line string) {
 	case "count":
 		want, _ := strconv.Atoi(arg(0))
 		var list []json.RawMessage
-		if err := json.Unmarshal(sc.last, &list); err != nil || len(list) != want {
+		var cl struct{ Items []json.RawMessage }
+		if json.Unmarshal(sc.last, &cl) == nil && cl.Items != nil {
+			list = cl.Items
+		} else if err := json.Unmarshal(sc.last, &list); err != nil {
+			t.Errorf("line %d: not a list: %s", n, sc.last)
+		}
+		if len(list) != want {
 			t.Errorf("line %d: want %d items, got %s", n, want, sc.last)
 		}
 	case "error":
