@@ -13,13 +13,13 @@ import (
 func TestPositionEncodings(t *testing.T) {
 	const line = `include "𝜃µ°².loop"; param bad = 1 m + 1 s`
 	cases := []struct {
-		name       string
-		encodings  []string
-		wantEnc    string
-		strEnd     int // end of the include string
-		exprStart  int // start of "1 m + 1 s"
-		exprEnd    int
-		hoverCol   int // on the "1 m"
+		name      string
+		encodings []string
+		wantEnc   string
+		strEnd    int // end of the include string
+		exprStart int // start of "1 m + 1 s"
+		exprEnd   int
+		hoverCol  int // on the "1 m"
 	}{
 		// UTF-16: `include ` 8, `"` 1, 𝜃 2, µ°² 3, `.loop"` 6 → 20; `; param bad = ` 14 → 34; expression 9 → 43.
 		{"utf-16 by default", nil, "utf-16", 20, 34, 43, 34},
@@ -64,7 +64,7 @@ func TestPositionEncodings(t *testing.T) {
 			r := c.mustCall("textDocument/hover", map[string]any{"textDocument": map[string]any{"uri": uri}, "position": map[string]any{"line": 1, "character": tc.hoverCol + 1}})
 			var h struct {
 				Contents struct{ Value string } `json:"contents"`
-				Range    wireRange            `json:"range"`
+				Range    wireRange              `json:"range"`
 			}
 			json.Unmarshal(r, &h)
 			if h.Range.Start.Character != tc.hoverCol || h.Range.End.Character != tc.hoverCol+3 {
