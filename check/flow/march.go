@@ -117,7 +117,11 @@ func (s *state) march(ci int, dir float64, m, xin float64, rec func(cellRec)) (f
 	var q parts
 	bd := s.bDisp[ci] * dir // b·(displacement along the flow)
 	cosInc := s.cosInc[ci]
-	pf := s.fric.Prepare(G, cp.D, cp.rr, s.p, s.bmag)
+	var pf correlate.PreparedFriction
+	if xin > 0 || xout > 0 {
+		// Two-phase or vapour somewhere: the liquid-only cells do not use it.
+		pf = s.fric.Prepare(G, cp.D, cp.rr, s.p, s.bmag)
+	}
 	if xout == xin || cp.L == 0 {
 		// One state along the whole component.
 		dpdz, alpha, rhoM, rhoH := s.cell(&pf, cp, G, xin, cosInc)

@@ -288,10 +288,108 @@ func (s *state) solveNetwork(ev *eval, start []float64) ([]float64, int, error) 
 			return f, it, nil
 		}
 	}
+	f := s.networkStart(ev)
+	f2, it, err := s.newton(ev, append([]float64(nil), f...))
+	if err == nil || len(s.net.cycles) > 12 {
+		return f2, it, err
+	}
+	s.cycleSweeps(ev, f)
+	return s.newton(ev, f)
+}
+
+// networkStart is the single-loop estimate of a network: the flow is split
+// among the heated branches in proportion to their heat (the least-squares
+// circulation with that split), and its size is the stable root of the
+// circulation's net driving power Σ f_k E_k, a single loop's excess head
+// weighted by the flow pattern.
+func (s *state) networkStart(ev *eval) []float64 {
 	n := s.net
 	nc := len(n.cycles)
+	var qTot float64
+	for _, h := range s.heat {
+		qTot += h
+	}
+	// Heat carried by each branch.
+	qb := make([]float64, len(n.branches))
+	for bi, b := range n.branches {
+		for _, lg := range b.legs {
+			qb[bi] += s.heat[lg.ci]
+		}
+	}
+	// Normal equations (CᵀWC + εI) f = CᵀW q, W = 1 on heated branches and
+	// a small weight elsewhere so the split is defined everywhere.
+	A := mat.NewSymDense(nc, nil)
+	rhs := mat.NewVecDense(nc, nil)
+	for bi := range n.branches {
+		w := 1e-3
+		q := 0.0
+		if qb[bi] > 0 && qTot > 0 {
+			w, q = 1, qb[bi]/qTot
+		}
+		for k := 0; k < nc; k++ {
+			ck := n.cycles[k][bi]
+			if ck == 0 {
+				continue
+			}
+			rhs.SetVec(k, rhs.AtVec(k)+w*ck*q)
+			for l := k; l < nc; l++ {
+				if cl := n.cycles[l][bi]; cl != 0 {
+					A.SetSym(k, l, A.At(k, l)+w*ck*cl)
+				}
+			}
+		}
+	}
+	for k := 0; k < nc; k++ {
+		A.SetSym(k, k, A.At(k, k)+1e-9)
+	}
+	var dir mat.VecDense
+	var ch mat.Cholesky
+	unit := make([]float64, nc)
+	if ch.Factorize(A) && ch.SolveVecTo(&dir, rhs) == nil {
+		for k := range unit {
+			unit[k] = dir.AtVec(k)
+		}
+	} else {
+		for k := range unit {
+			unit[k] = 1 / float64(nc)
+		}
+	}
 	f := make([]float64, nc)
-	// Start: each cycle alone, the others held, on a signed grid.
+	power := func(m float64) float64 {
+		for k := range f {
+			f[k] = m * unit[k]
+		}
+		s.evaluate(f, ev)
+		var p float64
+		for k, e := range ev.e {
+			p += unit[k] * e
+		}
+		return p
+	}
+	// From the top of the grid down: the first sign change is the balance
+	// of highest flow.
+	best := 0.0
+	hi := len(grid) - 1
+	pm, pp := grid[hi], power(grid[hi])
+	for i := hi - 1; i >= 0; i-- {
+		m := grid[i]
+		p := power(m)
+		if p > 0 && pp <= 0 {
+			best = brent(power, m, pm, p, pp, 1e-9*m)
+			break
+		}
+		pm, pp = m, p
+	}
+	for k := range f {
+		f[k] = best * unit[k]
+	}
+	return f
+}
+
+// cycleSweeps improves f one cycle at a time, the others held, on a signed
+// grid: a slower start for networks the single-loop start does not suit.
+func (s *state) cycleSweeps(ev *eval, f []float64) {
+	nc := len(s.net.cycles)
 	for pass := 0; pass < 2; pass++ {
 		for k := 0; k < nc; k++ {
 			E := func(v float64) float64 {
@@ -299,7 +397,7 @@ func (s *state) solveNetwork(ev *eval, start []float64) ([]float64, int, error) 
 				s.evaluate(f, ev)
 				return ev.e[k]
 			}
-			best, bestAbs := 0.0, math.Inf(1)
+			best, bestAbs := f[k], math.Inf(1)
 			signed := make([]float64, 0, 2*len(grid))
 			for i := len(grid) - 1; i >= 0; i -= 2 {
 				signed = append(signed, -grid[i])
@@ -311,7 +409,7 @@ func (s *state) solveNetwork(ev *eval, start []float64) ([]float64, int, error) 
 			found := false
 			for _, v := range signed[1:] {
 				e := E(v)
-				if (e > 0) != (pe > 0) && pe > 0 == (v > pv) {
+				if (e > 0) != (pe > 0) && pe > 0 {
 					r := brent(E, pv, v, pe, e, 1e-9*math.Max(math.Abs(v), 1e-9))
 					if !found || math.Abs(r) > bestAbs {
 						best, bestAbs = r, math.Abs(r)
@@ -320,13 +418,111 @@ func (s *state) solveNetwork(ev *eval, start []float64) ([]float64, int, error) 
 				}
 				pv, pe = v, e
 			}
-			if !found {
-				best = 0
-			}
 			f[k] = best
 		}
 	}
-	return s.newton(ev, f)
+}
+
+// sensitivity holds the work arrays of the Jacobian.
+type sensitivity struct {
+	S, T, U, V []float64 // per branch: ∂dp/∂m, ∂dp/∂x_in, ∂(|m|X)/∂m, |m|∂X/∂x_in
+	up         []int     // upstream junction per branch
+	K          *mat.Dense
+	B          *mat.Dense
+	G          mat.Dense
+}
+
+func newSensitivity(nb, nj, nc int) *sensitivity {
+	return &sensitivity{S: make([]float64, nb), T: make([]float64, nb), U: make([]float64, nb), V: make([]float64, nb),
+		up: make([]int, nb), K: mat.NewDense(nj, nj, nil), B: mat.NewDense(nj, nc, nil)}
+}
+
+// jacobian sets J = −∂E/∂f at ev. Each branch's pressure drop depends on
+// its own flow and on its upstream junction's quality; junction qualities
+// depend on the flows through the mixing balance D_j x_j = Σ |m_b| X_b,
+// which is linearised and solved for dx/df.
+func (s *state) jacobian(ev *eval, J *mat.Dense, w *sensitivity) {
+	n := s.net
+	nc := len(n.cycles)
+	for bi, b := range n.branches {
+		m := ev.mb[bi]
+		up := b.from
+		if m < 0 {
+			up = b.to
+		}
+		w.up[bi] = up
+		x := ev.xj[up]
+		h := 1e-6 * math.Max(math.Abs(m), 1e-5)
+		if m < 0 {
+			h = -h
+		}
+		w.S[bi] = (s.branchDP(bi, m+h, x, nil) - ev.dp[bi]) / h
+		hx := 1e-6 * math.Max(math.Abs(x), 1e-3)
+		w.T[bi] = (s.branchDP(bi, m, x+hx, nil) - ev.dp[bi]) / hx
+		am := math.Abs(m)
+		X := s.branchOutX(bi, m, x)
+		w.U[bi] = (math.Abs(m+h)*s.branchOutX(bi, m+h, x) - am*X) / h
+		w.V[bi] = am * (s.branchOutX(bi, m, x+hx) - X) / hx
+	}
+	// Mixing: D_j dx_j − Σ_in v_b dx_up(b) = Σ_in (u_b − x_j sgn m_b) dm_b.
+	w.K.Zero()
+	w.B.Zero()
+	den := make([]float64, n.nj)
+	for bi, b := range n.branches {
+		down := b.to
+		if ev.mb[bi] < 0 {
+			down = b.from
+		}
+		den[down] += math.Abs(ev.mb[bi])
+	}
+	for bi, b := range n.branches {
+		m := ev.mb[bi]
+		down := b.to
+		if m < 0 {
+			down = b.from
+		}
+		if den[down] == 0 {
+			continue
+		}
+		w.K.Set(down, w.up[bi], w.K.At(down, w.up[bi])-w.V[bi])
+		coef := w.U[bi] - ev.xj[down]*math.Copysign(1, m)
+		for k := 0; k < nc; k++ {
+			if c := n.cycles[k][bi]; c != 0 {
+				w.B.Set(down, k, w.B.At(down, k)+coef*c)
+			}
+		}
+	}
+	for j := 0; j < n.nj; j++ {
+		if den[j] == 0 {
+			w.K.Set(j, j, 1)
+			for k := 0; k < nc; k++ {
+				w.B.Set(j, k, 0)
+			}
+			continue
+		}
+		w.K.Set(j, j, w.K.At(j, j)+den[j])
+	}
+	if err := w.G.Solve(w.K, w.B); err != nil {
+		w.G.Reset()
+		w.G.ReuseAs(n.nj, nc)
+	}
+	// d dp_b/df_l = S_b C_bl + T_b G_{up(b), l};  J_kl = Σ_b C_bk d dp_b/df_l.
+	J.Zero()
+	row := make([]float64, nc)
+	for bi := range n.branches {
+		for l := 0; l < nc; l++ {
+			row[l] = w.S[bi]*n.cycles[l][bi] + w.T[bi]*w.G.At(w.up[bi], l)
+		}
+		for k := 0; k < nc; k++ {
+			c := n.cycles[k][bi]
+			if c == 0 {
+				continue
+			}
+			for l := 0; l < nc; l++ {
+				J.Set(k, l, J.At(k, l)+c*row[l])
+			}
+		}
+	}
 }
 
 // newton drives the cycle momentum balances to zero from f.
@@ -349,7 +545,7 @@ func (s *state) newton(ev *eval, f []float64) ([]float64, int, error) {
 		}
 		return s
 	}
-	slopes := make([]float64, len(n.branches))
+	sens := newSensitivity(len(n.branches), n.nj, nc)
 	for it := 0; it < 60; it++ {
 		s.evaluate(f, ev)
 		r0 := norm(ev.e)
@@ -360,31 +556,9 @@ func (s *state) newton(ev *eval, f []float64) ([]float64, int, error) {
 		if worst <= tol {
 			return f, it, nil
 		}
-		// Branch slopes d(p_from − p_to)/dm at the present inlet states.
-		for bi, b := range n.branches {
-			m := ev.mb[bi]
-			up := b.from
-			if m < 0 {
-				up = b.to
-			}
-			h := 1e-6 * math.Max(math.Abs(m), 1e-5)
-			if m < 0 {
-				h = -h
-			}
-			slopes[bi] = (s.branchDP(bi, m+h, ev.xj[up], nil) - ev.dp[bi]) / h
-		}
+		s.jacobian(ev, J, sens)
 		for k := 0; k < nc; k++ {
 			rhs.SetVec(k, ev.e[k])
-			for l := 0; l < nc; l++ {
-				var v float64
-				for bi := range n.branches {
-					ck, cl := n.cycles[k][bi], n.cycles[l][bi]
-					if ck != 0 && cl != 0 {
-						v += ck * cl * slopes[bi]
-					}
-				}
-				J.Set(k, l, v) // −dE_k/df_l
-			}
 		}
 		if err := dx.SolveVec(J, rhs); err != nil {
 			return f, it, errNoConverge

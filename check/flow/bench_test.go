@@ -1,0 +1,101 @@
+package flow
+
+import (
+	"math"
+	"testing"
+
+	"circa/lang"
+	"circa/lang/loopgen"
+)
+
+func benchModel(b *testing.B, components, cycles int) *lang.Model {
+	b.Helper()
+	m := lang.LoadSource("bench.loop", loopgen.Network(components, cycles), lang.OSFS{})
+	for _, d := range m.Diags {
+		if d.Severity == lang.Error {
+			b.Fatal(d.Message())
+		}
+	}
+	return m
+}
+
+func benchOnce(b *testing.B, m *lang.Model, opts Options) *Result {
+	r, err := Estimate(m, opts)
+	if err != nil {
+		b.Fatal(err)
+	}
+	return r
+}
+
+// BenchmarkSingleCase is one case of a 20-component single loop (target
+// < 1 ms).
+func BenchmarkSingleCase(b *testing.B) {
+	m := benchModel(b, 20, 1)
+	opts := Options{Case: m.Cases[0].Name, NoTilt: true, Workers: 1}
+	if r := benchOnce(b, m, opts); !r.Loops[0].Cases[0].Circulates {
+		b.Fatal("benchmark loop does not circulate")
+	}
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		benchOnce(b, m, opts)
+	}
+}
+
+// BenchmarkEnvelope is a 1,000-point envelope of the same loop: both of its
+// cases over 10 pitches × 10 rolls × 5 accelerations, on every core
+// (target < 0.5 s).
+func BenchmarkEnvelope(b *testing.B) {
+	m := benchModel(b, 20, 1)
+	sw := &Sweep{}
+	for i := 0; i < 10; i++ {
+		a := (-20 + 40*float64(i)/9) * math.Pi / 180
+		sw.Pitch = append(sw.Pitch, a)
+		sw.Roll = append(sw.Roll, a)
+	}
+	for i := 0; i < 5; i++ {
+		sw.Accel = append(sw.Accel, [3]float64{0.1 * float64(i) * gn, 0, 0})
+	}
+	opts := Options{NoTilt: true, Sweep: sw}
+	r := benchOnce(b, m, opts)
+	if n := len(r.Loops[0].Cases); n < 1000 {
+		b.Fatalf("%d points", n)
+	}
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		benchOnce(b, m, opts)
+	}
+}
+
+// unequalB gives the evaporators of m loads of 4–12 W in a repeating
+// pattern, so that parallel branches differ and Newton has work to do.
+func unequalB(m *lang.Model) {
+	i := 0
+	for _, c := range m.Loops[0].Components {
+		if c.Kind == lang.Evaporator {
+			c.Heat.SI = 4 + 2*float64(i%5)
+			i++
+		}
+	}
+	for _, cs := range m.Cases {
+		cs.Heat = nil
+	}
+}
+
+// BenchmarkNetwork200 is one case of a network of 200 branches (199
+// parallel evaporator branches with unequal loads, and the return)
+// (target < 50 ms).
+func BenchmarkNetwork200(b *testing.B) {
+	m := benchModel(b, 600, 199)
+	unequalB(m)
+	opts := Options{Case: m.Cases[0].Name, NoTilt: true, Workers: 1}
+	r := benchOnce(b, m, opts)
+	c := r.Loops[0].Cases[0]
+	if !c.Circulates {
+		b.Fatalf("network does not circulate: %s", c.Reason)
+	}
+	b.ReportMetric(float64(c.Iterations), "newton-steps")
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		benchOnce(b, m, opts)
+	}
+}
