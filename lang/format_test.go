@@ -69,8 +69,10 @@ func TestFormatExamples(t *testing.T) {
 }
 
 func TestFormatFuzzSeeds(t *testing.T) {
-	for _, seed := range fuzzSeeds(t, "FuzzFormat") {
-		checkFormat(t, "seed.loop", seed)
+	for _, target := range []string{"FuzzFormat", "FuzzParse", "FuzzLoadSource"} {
+		for _, seed := range fuzzSeeds(t, target) {
+			checkFormat(t, "seed.loop", seed)
+		}
 	}
 }
 
