@@ -202,31 +202,46 @@ func abs(x int) int {
 	return x
 }
 
-// Lines returns a realistic file of about n lines (within a few lines of
-// n for n ≥ 60; never fewer than one small loop): a header comment, shared
-// parameters and parts, limits and methods, then loops of a few dozen
-// components each with their cases until the size is reached.
+// Lines returns a realistic file of n lines (more when n is too small for
+// one loop): a header comment, shared parameters and parts, limits and
+// methods, loops of up to 40 components each with their cases, and spare
+// parameters to make up the count.
 func Lines(n int) []byte {
 	var b strings.Builder
 	b.WriteString("# Generated plant: several independent thermosiphon loops.\n")
 	b.WriteString("param bore_main = 10 mm\nparam lift = 1.2 m\nparam margin = lift / 4 + 5 cm\n\n")
 	b.WriteString("limits {\n  exit_quality 0.5\n  chf_ratio 2\n}\n\n")
 	b.WriteString("methods {\n  friction friedel\n  cells 20\n}\n\n")
-	lines := func() int { return strings.Count(b.String(), "\n") }
 	for k := 0; ; k++ {
-		left := n - lines()
+		have := strings.Count(b.String(), "\n")
 		prefix := fmt.Sprintf("l%d_", k)
-		// A loop of c components and y cycles takes about 6c + y + 25 lines
-		// with its part and cases; choose c to fill what is left, up to 40.
-		comps := min(40, (left-30)/6)
-		if k > 0 && comps < MinComponents(1) {
+		loop := fmt.Sprintf("loop%d", k)
+		cycles := 1 + k%3
+		// A loop of c components takes about 6c + 25 lines with its part
+		// and cases; shrink it until it fits what is left.
+		comps := max(min(40, (n-have-25)/6), MinComponents(cycles))
+		var text string
+		for ; comps >= MinComponents(cycles); comps-- {
+			var lb strings.Builder
+			writeParts(&lb, prefix)
+			writeNetwork(&lb, loop, prefix, comps, cycles)
+			writeCases(&lb, loop, prefix, cycles, k == 0)
+			text = lb.String()
+			if have+strings.Count(strings.TrimRight(text, "\n"), "\n")+1 <= n {
+				break
+			}
+		}
+		if comps < MinComponents(cycles) && k > 0 {
 			break
 		}
-		cycles := 1 + k%3
-		comps = max(comps, MinComponents(cycles))
-		writeParts(&b, prefix)
-		writeNetwork(&b, fmt.Sprintf("loop%d", k), prefix, comps, cycles)
-		writeCases(&b, fmt.Sprintf("loop%d", k), prefix, cycles, k == 0)
+		b.WriteString(text)
 	}
-	return []byte(strings.TrimRight(b.String(), "\n") + "\n")
+	// Top up with spare parameters to exactly n lines.
+	out := strings.TrimRight(b.String(), "\n") + "\n"
+	have := strings.Count(out, "\n")
+	var pad strings.Builder
+	for k := 0; have+k < n; k++ {
+		fmt.Fprintf(&pad, "param spare%d = %d mm\n", k, k+1)
+	}
+	return []byte(out + pad.String())
 }
