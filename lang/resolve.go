@@ -1260,23 +1260,38 @@ func (r *resolver) allows() {
 				continue
 			}
 			off := c.Span.Start + strings.Index(c.Text, "allow:") + len("allow:")
-			list := c.Text[off-c.Span.Start:]
-			pos := off
-			for _, item := range strings.Split(list, ",") {
-				name := strings.TrimSpace(item)
-				lead := strings.Index(item, name)
-				if name != "" {
-					// Text after the rule name (a reason) is allowed: "# allow: rule-x because …".
-					if sp := strings.IndexAny(name, " \t"); sp > 0 {
-						name = name[:sp]
-					}
-					st := pos + lead
-					r.m.Allows = append(r.m.Allows, &Allow{File: path, Line: f.Mapper.OffsetLine(c.Span.Start), Rule: name, Span: Span{st, st + len(name)}})
+			line := f.Mapper.OffsetLine(c.Span.Start)
+			// A list of rule names separated by commas; anything after the
+			// list (a reason) is free text: "# allow: rule-a, rule-b because …".
+			text := f.Src[:c.Span.End]
+			p := off
+			for {
+				for p < len(text) && (text[p] == ' ' || text[p] == '\t') {
+					p++
 				}
-				pos += len(item) + 1
+				st := p
+				for p < len(text) && isRuleChar(text[p]) {
+					p++
+				}
+				if p == st {
+					break
+				}
+				r.m.Allows = append(r.m.Allows, &Allow{File: path, Line: line, Rule: string(text[st:p]), Span: Span{st, p}})
+				q := p
+				for q < len(text) && (text[q] == ' ' || text[q] == '\t') {
+					q++
+				}
+				if q >= len(text) || text[q] != ',' {
+					break
+				}
+				p = q + 1
 			}
 		}
 	}
+}
+
+func isRuleChar(c byte) bool {
+	return c == '-' || c == '_' || (c >= '0' && c <= '9') || (c >= 'a' && c <= 'z') || (c >= 'A' && c <= 'Z')
 }
 
 // Closest returns the candidate nearest to s by edit distance, or "" when
