@@ -80,6 +80,12 @@ var marginRules = []marginRule{
 		"Without the fluid's properties there is no estimate.", "fluid R999", "Name a built-in fluid or a valid CSV table."},
 	{flow.RuleEnergyClosure, lang.Warning, "the estimate's energy balance does not close",
 		"A sign of a numerical problem in the estimate: the heat added and the heat rejected differ by more than 1e-9 of the load.", "(no known trigger)", "Report the file."},
+	{flow.RuleSuperheatCells, lang.Warning, "a tube carries dry vapour after an evaporator dried out",
+		"Past quality 1 the vapour superheats; the estimate keeps saturated-vapour properties there, so its numbers are rough.",
+		"heat plate 20 kW", "Lower the load or increase the circulation so that the evaporator does not dry out."},
+	{flow.RuleNonFinite, lang.Warning, "the estimate produced non-finite numbers",
+		"A sign of a numerical problem: the numbers were replaced by 0 or the largest float and should not be trusted.",
+		"(no known trigger)", "Report the file."},
 	{flow.RuleMethod, lang.Error, "an unknown estimate method",
 		"The estimate can only use the methods it knows.", "methods { void_fraction slip }", "Use one of the listed methods."},
 }

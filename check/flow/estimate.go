@@ -148,6 +148,7 @@ func estimateLoop(m *lang.Model, l *lang.Loop, methods MethodsUsed, points []poi
 		}
 	}
 	lr.Worst = worst(lr.Cases)
+	finishLoop(&lr)
 	return lr
 }
 

@@ -33,10 +33,24 @@ type state struct {
 	cosInc []float64 // by comps index: cos of the angle between tube and body force
 	bDisp  []float64 // by comps index: b·disp, J/kg
 	// Subcooled liquid: density and viscosity at T_sat − k·dT.
-	liqDT        float64
-	liqRho       [liquidPoints]float64
-	liqMu        [liquidPoints]float64
-	subcoolLimit float64 // lowest x the table covers
+	liqDT  float64
+	liqRho [liquidPoints]float64
+	liqMu  [liquidPoints]float64
+	// One-entry cache of the liquid friction gradient: consecutive tubes of
+	// one bore at one flow share it.
+	lqKey [5]float64
+	lqVal float64
+}
+
+// liquidGradient is the single-phase liquid friction gradient, Pa/m.
+func (s *state) liquidGradient(G, D, rr, rho, mu float64) float64 {
+	k := [5]float64{G, D, rr, rho, mu}
+	if k == s.lqKey {
+		return s.lqVal
+	}
+	v := correlate.SinglePhaseGradient(s.sp, G, D, rr, rho, mu)
+	s.lqKey, s.lqVal = k, v
+	return v
 }
 
 // parts are the pressure changes of a component, Pa, as losses: positive
@@ -44,6 +58,9 @@ type state struct {
 // pressure gain ∫ρ_m b·ŝ ds.
 type parts struct {
 	fric, local, acc, grav float64
+	// Momentum flux at the inlet and outlet, Pa (acc is their difference
+	// unless the caller adds the step from the previous component).
+	mIn, mOut float64
 }
 
 func (q parts) loss() float64 { return q.fric + q.local + q.acc - q.grav }
@@ -97,7 +114,7 @@ func (s *state) cell(pf *correlate.PreparedFriction, cp *comp, G, x, cosInc floa
 	switch {
 	case x <= 0:
 		rho, mu := s.liquid(x)
-		return correlate.SinglePhaseGradient(s.sp, G, cp.D, cp.rr, rho, mu), 0, rho, rho
+		return s.liquidGradient(G, cp.D, cp.rr, rho, mu), 0, rho, rho
 	case x >= 1:
 		return pf.Gradient(1), 1, s.p.RhoV, s.p.RhoV
 	}
@@ -132,8 +149,13 @@ func (s *state) march(ci int, dir float64, m, xin float64, rec func(cellRec)) (f
 			// A zero-length heated component: the step change's
 			// acceleration and the outlet velocity head.
 			aOut := s.voidAt(xout, G, cosInc)
-			q.acc = correlate.AccelerationTerm(G, xout, aOut, s.p) - correlate.AccelerationTerm(G, xin, alpha, s.p)
+			q.mIn, q.mOut = s.mom(G, xin, alpha), s.mom(G, xout, aOut)
+			q.acc = q.mOut - q.mIn
 			q.local = cp.K * G * G / (2 * s.homog(xout))
+		}
+		if xout == xin {
+			q.mIn = s.mom(G, xin, alpha)
+			q.mOut = q.mIn
 		}
 		if rec != nil {
 			rec(cellRec{x: xin, alpha: alpha, rhoM: rhoM, rhoH: rhoH, ds: cp.L})
@@ -193,9 +215,20 @@ func (s *state) march(ci int, dir float64, m, xin float64, rec func(cellRec)) (f
 		xa = xb
 	}
 	aIn, aOut := s.voidAt(xin, G, cosInc), s.voidAt(xout, G, cosInc)
-	q.acc = correlate.AccelerationTerm(G, xout, aOut, s.p) - correlate.AccelerationTerm(G, xin, aIn, s.p)
+	q.mIn, q.mOut = s.mom(G, xin, aIn), s.mom(G, xout, aOut)
+	q.acc = q.mOut - q.mIn
 	q.local = cp.K * G * G / (2 * s.homog(xout))
 	return xout, q
+}
+
+// mom is the momentum flux at mass flux G, quality x and void alpha:
+// G²/ρ for (subcooled) liquid, the separated-flow form otherwise.
+func (s *state) mom(G, x, alpha float64) float64 {
+	if x <= 0 {
+		rho, _ := s.liquid(x)
+		return G * G / rho
+	}
+	return correlate.AccelerationTerm(G, x, alpha, s.p)
 }
 
 func (s *state) voidAt(x, G, cosInc float64) float64 {

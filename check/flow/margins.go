@@ -128,6 +128,10 @@ func (p *prepared) margins(s *state, cr *CaseResult) {
 				}
 			}
 		}
+		if cp.kind != lang.Evaporator && (cs.XIn > 1 || cs.XOut > 1) {
+			cr.Findings = append(cr.Findings, p.finding(RuleSuperheatCells, "warning", cr.Case, cp.name, math.Max(cs.XIn, cs.XOut), 1, "", "",
+				"%s %s carries dry vapour (quality %.2f above 1) in case %s; its properties are taken as saturated vapour", cp.kind, cp.name, math.Max(cs.XIn, cs.XOut), cr.Case))
+		}
 		// Flooding where vapour and liquid flow counter-current: two-phase
 		// flow running along the body force whose vapour drift against it
 		// (Rouhani–Axelsson drift velocity) exceeds the mixture's flux.

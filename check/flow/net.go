@@ -3,7 +3,6 @@ package flow
 import (
 	"fmt"
 	"math"
-	"sort"
 
 	"circa/check/geom"
 	"circa/lang"
@@ -332,16 +331,6 @@ func treeSign(bs []branch, bi, u int) float64 {
 		return 1
 	}
 	return -1
-}
-
-// sortedNames is used for deterministic output order.
-func sortedNames(m map[string]bool) []string {
-	out := make([]string, 0, len(m))
-	for k := range m {
-		out = append(out, k)
-	}
-	sort.Strings(out)
-	return out
 }
 
 func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }

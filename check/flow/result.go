@@ -184,6 +184,7 @@ const (
 	RuleFluidUnknown   = "estimate-fluid"
 	RuleNoCondenser    = "estimate-no-condenser"
 	RuleSuperheatCells = "margin-superheat"
+	RuleNonFinite      = "estimate-non-finite"
 )
 
 // Cautions printed with every estimate.

@@ -64,7 +64,7 @@ func (p *prepared) run(pt point, tilt bool) CaseResult {
 		return cr
 	}
 	s.evaluate(f, ev)
-	p.record(s, ev, &cr)
+	p.record(s, ev, f, &cr)
 	if !p.net.ring {
 		// Circulation means a positive flow through every heated branch.
 		for _, c := range cr.Components {
@@ -93,7 +93,7 @@ func (p *prepared) noFlowReason(s *state, ev *eval, heat, e0 float64) string {
 	if heat == 0 {
 		return "no heat input"
 	}
-	head := s.headAtVanishingFlow(ev)
+	head := s.headAtVanishingFlow(nil, 0)
 	if head <= 0 {
 		return fmt.Sprintf("the gravity head is %.3g Pa even with the riser full of vapour: the condenser is not above the evaporator along the body force", head)
 	}
@@ -103,31 +103,54 @@ func (p *prepared) noFlowReason(s *state, ev *eval, heat, e0 float64) string {
 	return fmt.Sprintf("the losses exceed the gravity head (at most %.3g Pa) at every flow", head)
 }
 
-// headAtVanishingFlow is the net gravity head with the flow at the bottom
-// of the grid (the heated side as dry as the heat makes it).
-func (s *state) headAtVanishingFlow(ev *eval) float64 {
-	f := make([]float64, len(s.net.cycles))
-	for k := range f {
-		f[k] = flowMin
+// headAtVanishingFlow is the net gravity head with the flow pattern f (of
+// loop flow mf) scaled down to the bottom of the grid: the heated side as
+// dry as the heat makes it. Each component counts with its share of the
+// loop flow. A nil f is the single loop's own flow.
+func (s *state) headAtVanishingFlow(f []float64, mf float64) float64 {
+	ev := s.newEval()
+	nc := len(s.net.cycles)
+	g := make([]float64, nc)
+	scale := 1.0
+	if f != nil && mf > 0 {
+		scale = flowMin / mf
 	}
-	s.evaluate(f, ev)
-	var g float64
+	for k := range g {
+		if f != nil {
+			g[k] = f[k] * scale
+		} else {
+			g[k] = flowMin
+		}
+	}
+	s.evaluate(g, ev)
+	ref := flowMin
+	if f == nil || mf <= 0 {
+		ref = 0
+		for _, m := range ev.mb {
+			ref = math.Max(ref, math.Abs(m))
+		}
+	}
+	var head float64
 	for bi, b := range s.net.branches {
 		up := b.from
-		if ev.mb[bi] < 0 {
+		m := ev.mb[bi]
+		if m < 0 {
 			up = b.to
 		}
-		m := ev.mb[bi]
-		if m == 0 {
+		if m == 0 || ref == 0 {
 			continue
 		}
-		s.branchDP(bi, m, ev.xj[up], func(ci int, dir, m, xin, xout float64, q parts) { g += q.grav })
+		w := math.Abs(m) / ref
+		if s.net.ring {
+			w = 1
+		}
+		s.branchDP(bi, m, ev.xj[up], func(ci int, dir, m, xin, xout float64, q parts) { head += w * q.grav })
 	}
-	return g
+	return head
 }
 
 // record fills the component states and totals at the solution.
-func (p *prepared) record(s *state, ev *eval, cr *CaseResult) {
+func (p *prepared) record(s *state, ev *eval, f []float64, cr *CaseResult) {
 	n := s.net
 	states := make([]ComponentState, len(n.comps))
 	for bi, b := range n.branches {
@@ -168,6 +191,19 @@ func (p *prepared) record(s *state, ev *eval, cr *CaseResult) {
 		})
 	}
 	cr.Components = states
+	// The loop flow: through the condensers.
+	var mf float64
+	for _, c := range states {
+		if c.Kind == "condenser" {
+			mf += math.Abs(c.MassFlow)
+		}
+	}
+	if n.ring {
+		mf = math.Abs(ev.mb[0])
+	}
+	// Totals weight each component by its share of the loop flow, so that
+	// parallel branches add like one loop (for a single loop every weight
+	// is 1).
 	var t Totals
 	for _, c := range states {
 		if c.Heat > 0 {
@@ -175,10 +211,14 @@ func (p *prepared) record(s *state, ev *eval, cr *CaseResult) {
 		} else {
 			t.Rejected -= c.Heat
 		}
-		t.Friction += c.DpFriction
-		t.Local += c.DpLocal
-		t.Accel += c.DpAccel
-		t.Gravity += c.DpGravity
+		w := 1.0
+		if !n.ring && mf > 0 {
+			w = math.Abs(c.MassFlow) / mf
+		}
+		t.Friction += w * c.DpFriction
+		t.Local += w * c.DpLocal
+		t.Accel += w * c.DpAccel
+		t.Gravity += w * c.DpGravity
 		t.Inventory += c.Mass
 	}
 	for _, r := range n.res {
@@ -202,18 +242,8 @@ func (p *prepared) record(s *state, ev *eval, cr *CaseResult) {
 			t.MassGap = math.Max(t.MassGap, math.Abs(v)/tot)
 		}
 	}
-	t.HeadMax = s.headAtVanishingFlow(s.newEval())
+	t.HeadMax = s.headAtVanishingFlow(f, mf)
 	cr.Totals = t
-	// The loop flow: through the condensers.
-	var mf float64
-	for _, c := range states {
-		if c.Kind == "condenser" {
-			mf += math.Abs(c.MassFlow)
-		}
-	}
-	if n.ring {
-		mf = math.Abs(ev.mb[0])
-	}
 	cr.MassFlow = mf
 	if t.EnergyGap > 1e-9 {
 		cr.Findings = append(cr.Findings, p.finding(RuleEnergyClosure, "warning", cr.Case, "", t.EnergyGap, 1e-9, "", "",

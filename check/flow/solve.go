@@ -6,6 +6,8 @@ import (
 
 	"gonum.org/v1/gonum/mat"
 
+	"circa/check/correlate"
+
 	"circa/lang"
 )
 
@@ -118,8 +120,25 @@ func (s *state) branchDP(bi int, m, xin float64, visit func(ci int, dir, m, xin,
 	b := &s.net.branches[bi]
 	x := xin
 	var loss float64
+	// Momentum flux leaving the previous component: the step to the next
+	// component's inlet (an area change) counts as its acceleration, so
+	// the acceleration terms telescope along the branch. A single loop
+	// closes on itself: its first component steps from the last one's
+	// outlet, which is at the starting quality.
+	prev, havePrev := 0.0, false
+	if s.net.ring && len(b.legs) > 0 {
+		last := b.legs[len(b.legs)-1].ci
+		if m < 0 {
+			last = b.legs[0].ci
+		}
+		prev, havePrev = s.momentum(last, m, xin), true
+	}
 	step := func(lg leg, dir float64) {
 		xo, q := s.march(lg.ci, dir, m, x, nil)
+		if havePrev {
+			q.acc = q.mOut - prev
+		}
+		prev, havePrev = q.mOut, true
 		if visit != nil {
 			visit(lg.ci, dir, m*lg.sign, x, xo, q)
 		}
@@ -136,6 +155,17 @@ func (s *state) branchDP(bi int, m, xin float64, visit func(ci int, dir, m, xin,
 		step(b.legs[i], -b.legs[i].sign)
 	}
 	return -loss
+}
+
+// momentum is the momentum flux G²[x²/(ρv α) + (1−x)²/(ρl (1−α))] of
+// component ci at flow m and quality x, Pa.
+func (s *state) momentum(ci int, m, x float64) float64 {
+	G := math.Abs(m) / s.net.comps[ci].A
+	if x <= 0 {
+		rho, _ := s.liquid(x)
+		return G * G / rho
+	}
+	return correlate.AccelerationTerm(G, x, s.voidAt(x, G, s.cosInc[ci]), s.p)
 }
 
 // evaluate fills ev for cycle flows f.

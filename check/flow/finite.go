@@ -1,0 +1,59 @@
+package flow
+
+import (
+	"math"
+	"reflect"
+)
+
+// sanitize replaces any NaN by 0 and ±Inf by ±MaxFloat64 in v (a pointer
+// to a result struct) and returns how many it replaced, so that no
+// non-finite number leaves the package whatever the input.
+func sanitize(v any) int {
+	return walk(reflect.ValueOf(v))
+}
+
+func walk(v reflect.Value) int {
+	switch v.Kind() {
+	case reflect.Pointer, reflect.Interface:
+		if v.IsNil() {
+			return 0
+		}
+		return walk(v.Elem())
+	case reflect.Struct:
+		n := 0
+		for i := 0; i < v.NumField(); i++ {
+			if v.Type().Field(i).IsExported() {
+				n += walk(v.Field(i))
+			}
+		}
+		return n
+	case reflect.Slice, reflect.Array:
+		n := 0
+		for i := 0; i < v.Len(); i++ {
+			n += walk(v.Index(i))
+		}
+		return n
+	case reflect.Float64:
+		f := v.Float()
+		switch {
+		case math.IsNaN(f):
+			v.SetFloat(0)
+			return 1
+		case math.IsInf(f, 1):
+			v.SetFloat(math.MaxFloat64)
+			return 1
+		case math.IsInf(f, -1):
+			v.SetFloat(-math.MaxFloat64)
+			return 1
+		}
+	}
+	return 0
+}
+
+// finishLoop sanitizes a loop result and records any replacement.
+func finishLoop(lr *LoopResult) {
+	if n := sanitize(lr); n > 0 {
+		lr.Findings = append(lr.Findings, Finding{Rule: RuleNonFinite, Severity: "warning", Loop: lr.Loop,
+			Value: float64(n), Message: "the estimate produced non-finite numbers, shown as 0 or the largest float; treat this loop's numbers with suspicion"})
+	}
+}
