@@ -239,14 +239,20 @@ func (s *scanner) maybeUnit() {
 	}
 	start := p
 	depth := 0
+	blankInParen := -1 // the first blank inside parentheses
 	for p < len(src) {
 		c := src[p]
 		if c == '\n' || c == '#' || c == ',' || c == ';' || c == '{' || c == '}' || c == '=' || c == '"' {
 			break
 		}
 		if isBlank(c) {
-			if depth == 0 {
+			// Inside parentheses a space or tab belongs to the unit, as in
+			// "W/(m² K)"; any other blank ends it.
+			if depth == 0 || (c != ' ' && c != '\t') {
 				break
+			}
+			if blankInParen < 0 {
+				blankInParen = p
 			}
 			p++
 			continue
@@ -266,7 +272,11 @@ func (s *scanner) maybeUnit() {
 		}
 		p++
 	}
-	// Unbalanced: stop at the last balanced point by trimming trailing blanks.
+	// A parenthesis left open does not swallow the rest of the line: the
+	// unit ends at the first blank after it, as if it had none.
+	if depth > 0 && blankInParen >= 0 {
+		p = blankInParen
+	}
 	for p > start && isBlank(src[p-1]) {
 		p--
 	}

@@ -223,3 +223,33 @@ func TestFastPathMatchesGrammar(t *testing.T) {
 		checkSameAsGrammar(t, Parse("same.loop", src))
 	}
 }
+
+func TestLexUnits(t *testing.T) {
+	for _, tc := range []struct{ src, want string }{
+		{"q 4 W/(m² K)", "q E[T[F[num(4) unit(W/(m² K))]]]\n"},
+		{"q 4W/(m2·K)", "q E[T[F[num(4) unit(W/(m2·K))]]]\n"},
+		{"q 2 m*h", "q E[T[F[num(2) unit(m*h)]]]\n"},
+		{"q 2 m * h", "q E[T[F[num(2) unit(m)] * F[ref(h)]]]\n"},
+		{"q 6 bar(g)", "q E[T[F[num(6) unit(bar(g))]]]\n"},
+		{"q (1, 2, 3) mm", "q E[T[F[group(E[T[F[num(1)]]], E[T[F[num(2)]]], E[T[F[num(3)]]]) unit(mm)]]]\n"},
+		// Every blank separates alike.
+		{"q 0\fA0", "q E[T[F[num(0) unit(A0)]]]\n"},
+		{"q a\f-2", "q E[T[F[ref(a)]]] E[T[F[num(-2)]]]\n"},
+		// An unclosed parenthesis does not swallow what follows it.
+		{"q 0 A( 0", "q E[T[F[num(0) unit(A()]]] E[T[F[num(0)]]]\n"},
+		{"q 0 A(\r0", "q E[T[F[num(0) unit(A()]]] E[T[F[num(0)]]]\n"},
+		{"node a at (0, 0, 1) m", "node E[T[F[ref(a)]]] key(at) E[T[F[group(E[T[F[num(0)]]], E[T[F[num(0)]]], E[T[F[num(1)]]]) unit(m)]]]\n"},
+		{"pipe p from a to b", "pipe E[T[F[ref(p)]]] key(from) E[T[F[ref(a)]]] key(to) E[T[F[ref(b)]]]\n"},
+		{"case c nominal", "case E[T[F[ref(c)]]] E[T[F[ref(nominal)]]]\n"},
+		{"x 2 nominal", "x E[T[F[num(2)]]] E[T[F[ref(nominal)]]]\n"},
+	} {
+		f := Parse("u.loop", []byte(tc.src))
+		if len(f.Errors) > 0 {
+			t.Errorf("%q: %s", tc.src, f.Errors[0].Message())
+			continue
+		}
+		if got := dumpTree(f); got != tc.want {
+			t.Errorf("%q:\n got %s\nwant %s", tc.src, got, tc.want)
+		}
+	}
+}
