@@ -1,0 +1,254 @@
+package picture
+
+import (
+	"fmt"
+	"math"
+
+	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/plotter"
+	"gonum.org/v1/plot/vg"
+	"gonum.org/v1/plot/vg/draw"
+
+	"circa/check/flow"
+	"circa/lang"
+)
+
+// Tilt is the tilt envelope of a loop around one case: the estimate with
+// the pitch swept (roll kept at the case's) and with the roll swept (pitch
+// kept), and the critical angles where circulation stops. Angles are in
+// radians.
+type Tilt struct {
+	Loop        string
+	Case        string
+	Pitch, Roll float64 // the case's own attitude
+	PitchSweep  []TiltPoint
+	RollSweep   []TiltPoint
+	// Critical attitudes found by the estimator's search from the case (nil:
+	// none within ±90° of it).
+	PitchUp, PitchDown, RollLeft, RollRight *float64
+}
+
+// TiltPoint is the estimate at one angle.
+type TiltPoint struct {
+	Angle      float64 // rad
+	Circulates bool
+	MassFlow   float64 // kg/s
+	// WorstUse is the largest fraction of a design limit used (1: at the
+	// limit) at this attitude, over the margins that depend on the
+	// circulation (AttitudeMargins); the charge, pressure and condenser
+	// margins do not change with attitude and are left out.
+	WorstUse float64
+}
+
+// AttitudeMargins are the margins TiltPoint.WorstUse takes into account.
+var AttitudeMargins = []string{flow.MarginExitQuality, flow.MarginCHF, flow.MarginFlooding, flow.MarginWall, flow.MarginHead}
+
+func attitudeMargin(name string) bool {
+	for _, m := range AttitudeMargins {
+		if m == name {
+			return true
+		}
+	}
+	return false
+}
+
+// TiltOf estimates the tilt envelope of loop l around the named case (""
+// for the nominal one), every step radians from −90° to 90°.
+func TiltOf(m *lang.Model, l *lang.Loop, caseName string, step float64) (*Tilt, error) {
+	if l == nil {
+		return nil, fmt.Errorf("no loop")
+	}
+	c, err := caseOf(m, caseName)
+	if err != nil {
+		return nil, err
+	}
+	if !(step > 0) || step > math.Pi/4 {
+		step = 2.5 * math.Pi / 180
+	}
+	var angles []float64
+	n := int(math.Round(math.Pi / step))
+	for i := 0; i <= n; i++ {
+		angles = append(angles, -math.Pi/2+float64(i)*math.Pi/float64(n))
+	}
+	t := &Tilt{Loop: l.Name, Case: c.Name, Pitch: finite(c.Pitch.SI), Roll: finite(c.Roll.SI)}
+	sweep := func(sw *flow.Sweep) ([]TiltPoint, *flow.CaseResult, error) {
+		lr := flow.EstimateLoop(m, l, flow.Options{Case: c.Name, Sweep: sw})
+		if len(lr.Cases) != len(angles)+1 {
+			return nil, nil, fmt.Errorf("loop %s cannot be estimated: %s", l.Name, findingText(lr.Findings))
+		}
+		var pts []TiltPoint
+		for i, cr := range lr.Cases[1:] {
+			tp := TiltPoint{Angle: angles[i], Circulates: cr.Circulates}
+			if cr.Circulates {
+				tp.MassFlow = finite(cr.MassFlow)
+			}
+			for _, mg := range cr.Margins {
+				if !attitudeMargin(mg.Margin) {
+					continue
+				}
+				tp.WorstUse = math.Max(tp.WorstUse, finite(mg.Use))
+			}
+			pts = append(pts, tp)
+		}
+		return pts, &lr.Cases[0], nil
+	}
+	var base *flow.CaseResult
+	if t.PitchSweep, base, err = sweep(&flow.Sweep{Pitch: angles}); err != nil {
+		return nil, err
+	}
+	if t.RollSweep, _, err = sweep(&flow.Sweep{Roll: angles}); err != nil {
+		return nil, err
+	}
+	if tl := base.Tilt; tl != nil {
+		t.PitchUp, t.PitchDown, t.RollLeft, t.RollRight = finitePtr(tl.PitchUp), finitePtr(tl.PitchDown), finitePtr(tl.RollLeft), finitePtr(tl.RollRight)
+	}
+	return t, nil
+}
+
+func finitePtr(p *float64) *float64 {
+	if p == nil || math.IsNaN(*p) || math.IsInf(*p, 0) {
+		return nil
+	}
+	v := *p
+	return &v
+}
+
+// Figure draws the envelope: mass flow (top) and the worst margin use
+// (bottom) against pitch and roll, with the critical angles as vertical
+// dashed lines and the case's attitude marked.
+func (t *Tilt) Figure() (*Figure, error) {
+	if t == nil || len(t.PitchSweep) == 0 {
+		return nil, fmt.Errorf("no tilt data")
+	}
+	top := newPanel(fmt.Sprintf("around case %s (pitch %.1f°, roll %.1f°)", t.Case, deg(t.Pitch), deg(t.Roll)),
+		"angle (°)", "mass flow ṁ (g/s)")
+	bottom := newPanel("", "angle (°)", "worst margin use (–)")
+	bottom.Title.Text = "exit quality, CHF, flooding, wall temperature and head margins"
+	bottom.Title.TextStyle.Font.Size = vg.Points(9)
+	maxFlow, maxUse := 0.0, 1.0
+	for k, sw := range []struct {
+		name string
+		pts  []TiltPoint
+	}{{"pitch", t.PitchSweep}, {"roll", t.RollSweep}} {
+		var fl, use plotter.XYs
+		for _, p := range sw.pts {
+			fl = append(fl, plotter.XY{X: deg(p.Angle), Y: p.MassFlow * 1e3})
+			if p.Circulates {
+				use = append(use, plotter.XY{X: deg(p.Angle), Y: p.WorstUse})
+				maxUse = math.Max(maxUse, p.WorstUse)
+			}
+			maxFlow = math.Max(maxFlow, p.MassFlow*1e3)
+		}
+		lf, err := plotter.NewLine(fl)
+		if err != nil {
+			return nil, err
+		}
+		lf.Color, lf.Width = style(k), vg.Points(1.8)
+		top.Add(lf)
+		top.Legend.Add(sw.name+" swept", lf)
+		if len(use) > 0 {
+			su, err := plotter.NewScatter(use)
+			if err != nil {
+				return nil, err
+			}
+			su.Color, su.Radius = style(k), vg.Points(1.8)
+			if k == 1 {
+				su.Shape = draw.RingGlyph{}
+			}
+			bottom.Add(su)
+			bottom.Legend.Add(sw.name+" swept", su)
+		}
+	}
+	if maxFlow <= 0 {
+		maxFlow = 1
+	}
+	if maxUse > 5 {
+		maxUse = 5 // keep the limit line readable; larger uses are off the chart
+	}
+	// Critical angles.
+	for k, crit := range [][2]*float64{{t.PitchUp, t.PitchDown}, {t.RollLeft, t.RollRight}} {
+		for _, a := range crit {
+			if a == nil {
+				continue
+			}
+			v, err := plotter.NewLine(plotter.XYs{{X: deg(*a), Y: 0}, {X: deg(*a), Y: maxFlow * 1.08}})
+			if err != nil {
+				return nil, err
+			}
+			v.Color, v.Dashes, v.Width = style(k), dashed, vg.Points(1)
+			lb, err := plotter.NewLabels(plotter.XYLabels{XYs: plotter.XYs{{X: deg(*a), Y: maxFlow * 1.08}},
+				Labels: []string{fmt.Sprintf("%.1f°", deg(*a))}})
+			if err != nil {
+				return nil, err
+			}
+			lb.TextStyle[0].Font.Size = vg.Points(8)
+			// Keep labels near the ±90° edges inside the panel.
+			switch {
+			case deg(*a) > 75:
+				lb.TextStyle[0].XAlign = draw.XRight
+				lb.Offset = vg.Point{X: vg.Points(-3), Y: vg.Points(2)}
+			case deg(*a) < -75:
+				lb.TextStyle[0].XAlign = draw.XLeft
+				lb.Offset = vg.Point{X: vg.Points(3), Y: vg.Points(2)}
+			default:
+				lb.TextStyle[0].XAlign = draw.XCenter
+				lb.Offset = vg.Point{Y: vg.Points(2)}
+			}
+			top.Add(v, lb)
+		}
+	}
+	// The case's attitude.
+	if cp, err := plotter.NewScatter(plotter.XYs{{X: deg(t.Pitch), Y: flowAt(t.PitchSweep, t.Pitch) * 1e3},
+		{X: deg(t.Roll), Y: flowAt(t.RollSweep, t.Roll) * 1e3}}); err == nil {
+		cp.Shape, cp.Radius, cp.Color = draw.BoxGlyph{}, vg.Points(3), style(2)
+		top.Add(cp)
+		top.Legend.Add("case "+t.Case, cp)
+	}
+	limit, err := plotter.NewLine(plotter.XYs{{X: -90, Y: 1}, {X: 90, Y: 1}})
+	if err != nil {
+		return nil, err
+	}
+	limit.Dashes, limit.Width = dashed, vg.Points(1)
+	bottom.Add(limit)
+	bottom.Legend.Add("limit reached", limit)
+	for _, p := range []*plot.Plot{top, bottom} {
+		p.X.Min, p.X.Max = -90, 90
+		p.X.Tick.Marker = angleTicks{}
+		p.Y.Min = 0
+	}
+	top.Y.Max = maxFlow * 1.45 // room for the legend and the angle labels
+	top.Legend.Top, top.Legend.Left = true, false
+	top.Legend.XOffs = -vg.Points(60)
+	bottom.Y.Max = maxUse * 1.1
+	return &Figure{Name: "tilt", Title: fmt.Sprintf("Tilt envelope of loop %s", t.Loop),
+		rows: [][]*plot.Plot{{top}, {bottom}}, width: 18 * vg.Centimeter, height: 18 * vg.Centimeter}, nil
+}
+
+// flowAt returns the swept mass flow at the angle nearest a.
+func flowAt(pts []TiltPoint, a float64) float64 {
+	best, d := 0.0, math.Inf(1)
+	for _, p := range pts {
+		if e := math.Abs(p.Angle - a); e < d {
+			best, d = p.MassFlow, e
+		}
+	}
+	return best
+}
+
+// angleTicks marks every 30° with a label and every 10° without.
+type angleTicks struct{}
+
+func (angleTicks) Ticks(min, max float64) []plot.Tick {
+	var ts []plot.Tick
+	for a := -90.0; a <= 90; a += 10 {
+		if a < min-1e-9 || a > max+1e-9 {
+			continue
+		}
+		t := plot.Tick{Value: a}
+		if int(a)%30 == 0 {
+			t.Label = fmt.Sprintf("%.0f", a)
+		}
+		ts = append(ts, t)
+	}
+	return ts
+}
