@@ -368,14 +368,16 @@ func (p *prepared) chargeMargin(s *state, cr *CaseResult) {
 	}
 }
 
-// circulatesUnder reports whether the loop circulates under body force b.
-func (p *prepared) circulatesUnder(s *state, b geom.Vec3, start []float64) bool {
+// circulatesUnder reports whether the loop circulates under body force b;
+// a network's Newton iteration starts from start, which is updated to the
+// solution found (continuation along an attitude scan).
+func (p *prepared) circulatesUnder(s *state, b geom.Vec3, start *[]float64) bool {
 	t := s.withBody(b)
 	ev := t.newEval()
 	if p.net.ring {
 		return t.circulates(ev)
 	}
-	f, _, err := t.solveNetwork(ev, start)
+	f, _, err := t.solveNetwork(ev, *start)
 	if err != nil {
 		return false
 	}
@@ -387,6 +389,7 @@ func (p *prepared) circulatesUnder(s *state, b geom.Vec3, start []float64) bool 
 			}
 		}
 	}
+	*start = f
 	return true
 }
 
@@ -395,6 +398,7 @@ func (p *prepared) circulatesUnder(s *state, b geom.Vec3, start []float64) bool 
 func (p *prepared) tilt(s *state, pt point, cr *CaseResult, start []float64) {
 	tl := &TiltLimits{Margin: math.Pi / 2}
 	search := func(axis int, sign float64) *float64 {
+		warm := start
 		at := func(d float64) bool {
 			pitch, roll := pt.pitch, pt.roll
 			if axis == 0 {
@@ -402,7 +406,7 @@ func (p *prepared) tilt(s *state, pt point, cr *CaseResult, start []float64) {
 			} else {
 				roll += sign * d
 			}
-			return p.circulatesUnder(s, geom.BodyForceAt(pt.yaw, pitch, roll, pt.accel), start)
+			return p.circulatesUnder(s, geom.BodyForceAt(pt.yaw, pitch, roll, pt.accel), &warm)
 		}
 		step := 5 * math.Pi / 180
 		lo := 0.0

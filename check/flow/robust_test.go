@@ -131,3 +131,23 @@ func TestSweepWorst(t *testing.T) {
 		}
 	}
 }
+
+// Three balances, as an excess head falling, rising and falling again
+// with flow (a Ledinegg S-curve): all are found, the middle one is
+// unstable (dE/dṁ > 0), and Brent's method finds each to 1e-12.
+func TestFindRoots(t *testing.T) {
+	a, b, c := 0.003, 0.01, 0.04
+	E := func(m float64) float64 { return -(m - a) * (m - b) * (m - c) * 1e8 }
+	roots, _ := findRoots(E, grid)
+	if len(roots) != 3 {
+		t.Fatalf("roots %+v, want 3", roots)
+	}
+	for i, want := range []float64{a, b, c} {
+		if math.Abs(roots[i].m-want) > 1e-12 {
+			t.Errorf("root %d at %g, want %g", i, roots[i].m, want)
+		}
+	}
+	if !(roots[0].slope < 0 && roots[1].slope > 0 && roots[2].slope < 0) {
+		t.Errorf("slopes %+v: want stable, unstable, stable", roots)
+	}
+}

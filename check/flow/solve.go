@@ -270,7 +270,8 @@ func flowGrid() []float64 {
 var grid = flowGrid()
 
 // ringRoots brackets and refines every root of the single loop's excess
-// head on the flow grid.
+// head on the flow grid; it also returns the excess head at the bottom of
+// the grid.
 func (s *state) ringRoots(ev *eval) ([]root, float64) {
 	f := []float64{0}
 	E := func(m float64) float64 {
@@ -278,10 +279,17 @@ func (s *state) ringRoots(ev *eval) ([]root, float64) {
 		s.evaluate(f, ev)
 		return ev.e[0]
 	}
+	return findRoots(E, grid)
+}
+
+// findRoots brackets the roots of E between consecutive points of the
+// ascending grid g, refines each by Brent's method and takes its slope by
+// central differences.
+func findRoots(E func(float64) float64, g []float64) ([]root, float64) {
 	var roots []root
-	prevM, prevE := grid[0], E(grid[0])
+	prevM, prevE := g[0], E(g[0])
 	e0 := prevE
-	for _, m := range grid[1:] {
+	for _, m := range g[1:] {
 		e := E(m)
 		if (e > 0) != (prevE > 0) {
 			r := brent(E, prevM, m, prevE, e, 1e-12*m)
