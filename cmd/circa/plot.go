@@ -1,0 +1,131 @@
+package main
+
+import (
+	"bytes"
+	"errors"
+	"flag"
+	"fmt"
+	"io"
+	"os"
+	"path/filepath"
+	"strings"
+
+	"circa/check/picture"
+	"circa/lang"
+)
+
+func init() {
+	register(&command{name: "plot", summary: "draw circulation, pressure budget, tilt and geometry figures", run: runPlot})
+}
+
+const plotUsage = `Usage: circa plot FILE [--case NAME] [--out DIR] [--format svg,png]
+
+Draws, for each loop in FILE:
+  LOOP-circulation  mass flow and exit quality against heat load (the case's
+                    loads from 5 % to 150 %), the cases' operating points,
+                    statically unstable balances dashed
+  LOOP-budget       the case's pressure budget per component: gravity gain
+                    against friction, local and acceleration losses
+  LOOP-tilt         mass flow and worst margin against pitch and roll around
+                    the case, with the critical angles
+  LOOP-geometry     side and front views of the loop
+The case is the nominal one unless --case names another. Figures are written
+to DIR (default: the current directory) in each format given, and their
+paths printed. Exit status 1 when the file has errors or a figure cannot be
+drawn, 2 for usage errors.
+
+Options:
+`
+
+func runPlot(args []string, _ io.Reader, stdout, stderr io.Writer) int {
+	fl := flag.NewFlagSet("plot", flag.ContinueOnError)
+	fl.SetOutput(stderr)
+	var opts picture.Options
+	var out, formats string
+	fl.StringVar(&opts.Case, "case", "", "case to sweep, budget and tilt (default: the nominal case)")
+	fl.StringVar(&out, "out", ".", "directory to write the figures to")
+	fl.StringVar(&formats, "format", "svg", "comma-separated formats: svg, png")
+	fl.Usage = func() {
+		fmt.Fprint(stderr, plotUsage)
+		fl.PrintDefaults()
+	}
+	var files []string
+	for {
+		if err := fl.Parse(args); err != nil {
+			if errors.Is(err, flag.ErrHelp) {
+				return exitOK
+			}
+			return exitUsage
+		}
+		if fl.NArg() == 0 {
+			break
+		}
+		files = append(files, fl.Arg(0))
+		args = fl.Args()[1:]
+	}
+	if len(files) != 1 {
+		fmt.Fprintln(stderr, "circa plot: give exactly one .loop file")
+		fl.Usage()
+		return exitUsage
+	}
+	var exts []string
+	for _, f := range strings.Split(formats, ",") {
+		f = strings.ToLower(strings.TrimSpace(f))
+		ok := false
+		for _, k := range picture.Formats {
+			ok = ok || f == k
+		}
+		if !ok {
+			fmt.Fprintf(stderr, "circa plot: unknown format %q (want %s)\n", f, strings.Join(picture.Formats, ", "))
+			return exitUsage
+		}
+		exts = append(exts, f)
+	}
+	m := lang.Load(files[0], lang.OSFS{})
+	bad := false
+	for _, d := range m.Diags {
+		if d.Severity == lang.Error {
+			fmt.Fprintf(stderr, "%s: %s: %s\n", position(m, d.Loc), d.Severity, d.Message())
+			bad = true
+		}
+	}
+	if bad {
+		fmt.Fprintln(stderr, "circa plot: the file has errors; no figures")
+		return exitFindings
+	}
+	if opts.Case != "" && m.Case(opts.Case) == nil {
+		var names []string
+		for _, c := range m.Cases {
+			names = append(names, c.Name)
+		}
+		fmt.Fprintf(stderr, "circa plot: no case %q (cases: %s)\n", opts.Case, strings.Join(names, ", "))
+		return exitUsage
+	}
+	if err := os.MkdirAll(out, 0o755); err != nil {
+		fmt.Fprintf(stderr, "circa plot: %v\n", err)
+		return exitUsage
+	}
+	figs, errs := picture.Figures(m, opts)
+	status := exitOK
+	for _, err := range errs {
+		fmt.Fprintf(stderr, "circa plot: %v\n", err)
+		status = exitFindings
+	}
+	for _, f := range figs {
+		for _, ext := range exts {
+			var buf bytes.Buffer
+			path := filepath.Join(out, f.Name+"."+ext)
+			err := f.Render(&buf, ext)
+			if err == nil {
+				err = os.WriteFile(path, buf.Bytes(), 0o644)
+			}
+			if err != nil {
+				fmt.Fprintf(stderr, "circa plot: %s: %v\n", path, err)
+				status = exitFindings
+				continue
+			}
+			fmt.Fprintln(stdout, path)
+		}
+	}
+	return status
+}
