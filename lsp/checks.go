@@ -2,9 +2,11 @@ package lsp
 
 import (
 	"context"
+	"encoding/json"
 	"fmt"
 	"sort"
 	"strings"
+	"time"
 
 	"circa/check"
 	"circa/check/flow"
@@ -18,23 +20,48 @@ type estimates struct {
 	report  *check.Report
 	flow    *flow.Result
 	flowErr error
+	took    time.Duration // the estimate's run time, to judge the margin checks' cost
 }
 
-// checkModel runs the same checks as the command line (check.RunReport,
-// margins included) and the circulation estimate that hover and inlay hints
-// show. The hover estimate skips the tilt-limit search, which takes far
-// longer than typing allows.
+// checkModel runs the quick part of the command line's checks (every rule
+// but the margins, which need the estimate's tilt-limit search) and the
+// circulation estimate that hover and inlay hints show, without that search.
+// The search takes seconds on large networks, far longer than typing allows;
+// fullCheck runs it afterwards.
 func checkModel(ctx context.Context, m *lang.Model) ([]lang.Diagnostic, *estimates) {
 	if ctx.Err() != nil {
 		return nil, nil
 	}
 	est := &estimates{}
-	est.report = check.RunReport(m, check.Options{})
+	est.report = check.RunReport(m, check.Options{SkipEstimates: true})
 	if ctx.Err() != nil {
 		return nil, nil
 	}
+	t0 := time.Now()
 	est.flow, est.flowErr = flow.Estimate(m, flow.Options{NoTilt: true})
+	est.took = time.Since(t0)
 	return est.report.Diagnostics, est
+}
+
+// autoMarginBudget is the longest single estimate for which "auto" runs the
+// margin checks: their tilt search repeats the estimate hundreds of times.
+const autoMarginBudget = 10 * time.Millisecond
+
+// wantMarginChecks reports whether the margin rules should run for an
+// analysis under the settings.
+func wantMarginChecks(st Settings, est *estimates) bool {
+	switch st.MarginChecks {
+	case "always":
+		return true
+	case "never":
+		return false
+	}
+	return est != nil && est.took < autoMarginBudget
+}
+
+// fullCheck runs the command line's checks, margins included.
+func fullCheck(m *lang.Model) []lang.Diagnostic {
+	return check.RunReport(m, check.Options{}).Diagnostics
 }
 
 // estimatesFor returns the finished estimates of an analysis, else the
@@ -45,11 +72,7 @@ func (s *Server) estimatesFor(sn *snapshot, a *analysis) *estimates {
 	}
 	s.mu.Lock()
 	defer s.mu.Unlock()
-	if prev := s.lastEst[a.root]; prev != nil {
-		_, est, _ := prev.checks()
-		return est
-	}
-	return nil
+	return s.lastEst[a.root]
 }
 
 // nominalCase returns the estimate of a loop in the nominal case.
@@ -220,4 +243,28 @@ func ruleText(id string) (string, bool) {
 		fmt.Fprintf(&b, "\nFix: %s\n", r.Fix)
 	}
 	return b.String(), true
+}
+
+func (est *estimates) tookOrZero() time.Duration {
+	if est == nil {
+		return 0
+	}
+	return est.took
+}
+
+// detached copies the estimate without references into its model: the
+// result's documented JSON form holds names and numbers only.
+func (est *estimates) detached() *estimates {
+	if est == nil || est.flow == nil {
+		return nil
+	}
+	b, err := json.Marshal(est.flow)
+	if err != nil {
+		return nil
+	}
+	var r flow.Result
+	if json.Unmarshal(b, &r) != nil {
+		return nil
+	}
+	return &estimates{flow: &r, flowErr: est.flowErr, took: est.took}
 }

@@ -29,8 +29,9 @@ type testClient struct {
 	pending  map[string]chan rpcReply
 	diags    map[string]publishedDiags
 	notes    []rpcMessage
-	calls    []rpcMessage // requests from the server
-	analysed map[uint64]bool
+	calls    []rpcMessage    // requests from the server
+	analysed map[uint64]bool // complete checks published
+	quick    map[uint64]bool // quick checks and estimates published
 	anCond   *sync.Cond
 }
 
@@ -70,9 +71,15 @@ func newTestClient(t testing.TB, opts Options) *testClient {
 	a, b := net.Pipe()
 	srv := newServer(opts)
 	c := &testClient{t: t, conn: a, srv: srv, exitCh: make(chan int, 1), pending: map[string]chan rpcReply{},
-		diags: map[string]publishedDiags{}, analysed: map[uint64]bool{}}
+		diags: map[string]publishedDiags{}, analysed: map[uint64]bool{}, quick: map[uint64]bool{}}
 	c.anCond = sync.NewCond(&c.mu)
 	srv.onAnalysed = func(id uint64) {
+		c.mu.Lock()
+		c.quick[id] = true
+		c.anCond.Broadcast()
+		c.mu.Unlock()
+	}
+	srv.onComplete = func(id uint64) {
 		c.mu.Lock()
 		c.analysed[id] = true
 		c.anCond.Broadcast()
@@ -223,9 +230,14 @@ func (c *testClient) initialize(caps any) json.RawMessage {
 	return r
 }
 
-// settle waits until the server has finished analysing its current snapshot
-// and every notification before that point has been read.
-func (c *testClient) settle() {
+// settle waits until the server has published the complete checks of its
+// current snapshot and every notification before that point has been read.
+func (c *testClient) settle() { c.wait(c.analysed) }
+
+// settleQuick waits for the quick checks and the estimate only.
+func (c *testClient) settleQuick() { c.wait(c.quick) }
+
+func (c *testClient) wait(done map[uint64]bool) {
 	// Notifications are handled in order before the next request, so after
 	// this round trip the snapshot of the last change exists.
 	c.mustCall("workspace/symbol", map[string]any{"query": "\x00none"})
@@ -234,7 +246,7 @@ func (c *testClient) settle() {
 	c.srv.mu.Unlock()
 	deadline := time.Now().Add(20 * time.Second)
 	c.mu.Lock()
-	for !c.analysed[id] && id != 0 {
+	for !done[id] && id != 0 {
 		if time.Now().After(deadline) {
 			c.mu.Unlock()
 			c.t.Fatalf("snapshot %d never finished", id)

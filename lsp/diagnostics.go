@@ -60,17 +60,81 @@ func (s *Server) analyse(snap *snapshot) {
 	if snap.ctx.Err() != nil {
 		return
 	}
-	s.mu.Lock()
-	for _, a := range roots {
-		if _, _, ok := a.checks(); ok {
-			s.lastEst[a.root] = a
-		}
-	}
-	s.mu.Unlock()
 	s.publish(snap, true)
 	if s.onAnalysed != nil {
 		s.onAnalysed(snap.id)
 	}
+	for _, a := range roots {
+		if _, est, ok := a.checks(); ok {
+			if d := est.detached(); d != nil {
+				s.mu.Lock()
+				s.lastEst[a.root] = d
+				s.mu.Unlock()
+			}
+		}
+	}
+	s.mu.Lock()
+	s.slowPending = snap
+	s.mu.Unlock()
+	select {
+	case s.slowWork <- struct{}{}:
+	default:
+	}
+}
+
+// slowWorker runs the complete checks (the margins that need the tilt-limit
+// search) for the latest analysed snapshot, one run at a time, so a burst
+// of edits costs at most one such run beyond the last edit. A run cannot be
+// interrupted; its results are published only if no edit came since.
+func (s *Server) slowWorker(ctx context.Context) {
+	for {
+		select {
+		case <-ctx.Done():
+			return
+		case <-s.slowWork:
+		}
+		s.mu.Lock()
+		snap := s.slowPending
+		s.slowPending = nil
+		s.mu.Unlock()
+		if snap == nil || snap.ctx.Err() != nil {
+			continue
+		}
+		done := true
+		for _, a := range snap.sortedRoots() {
+			if snap.ctx.Err() != nil {
+				done = false
+				break
+			}
+			s.runFullChecks(snap.ctx, a)
+		}
+		if !done || snap.ctx.Err() != nil {
+			continue
+		}
+		s.publish(snap, true)
+		if s.onComplete != nil {
+			s.onComplete(snap.id)
+		}
+	}
+}
+
+func (s *Server) runFullChecks(ctx context.Context, a *analysis) {
+	if a.fullyChecked() {
+		return
+	}
+	if _, est, _ := a.checks(); !wantMarginChecks(a.settings, est) {
+		if !a.skipLogged.Swap(true) {
+			s.logf("%s: margin checks skipped (one estimate took %v; setting marginChecks %q)", a.root, est.tookOrZero(), a.settings.MarginChecks)
+		}
+		return
+	}
+	diags := fullCheck(a.Model())
+	if ctx.Err() != nil {
+		return
+	}
+	a.checkMu.Lock()
+	a.fullDiag, a.full = diags, true
+	a.checkMu.Unlock()
 }
 
 // runChecks runs the checker and the estimates for one analysis, unless a

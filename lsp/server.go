@@ -47,7 +47,9 @@ type Server struct {
 	snap        *snapshot
 	nextID      uint64
 	inflight    map[jsonrpc2.ID]context.CancelFunc
-	lastEst     map[string]*analysis // last analysis with finished checks, by root
+	// lastEst holds, by root, the last finished estimate, detached from its
+	// model so an old model is not kept alive while a new one is built.
+	lastEst map[string]*estimates
 
 	disk diskCache
 
@@ -56,13 +58,17 @@ type Server struct {
 
 	work    chan struct{}
 	pending *snapshot // latest snapshot waiting for the worker (under mu)
-	exit    chan int
-	done    chan struct{}
+
+	slowWork    chan struct{}
+	slowPending *snapshot // latest snapshot waiting for the complete checks (under mu)
+	exit        chan int
+	done        chan struct{}
 
 	// testing hooks
 	beforeReply func(ctx context.Context, method string)
 	onPublish   func(path string, version int32, full bool, n int)
-	onAnalysed  func(snapID uint64)
+	onAnalysed  func(snapID uint64) // quick checks and estimates published
+	onComplete  func(snapID uint64) // complete checks published
 }
 
 type clientCaps struct {
@@ -98,10 +104,11 @@ func newServer(opts Options) *Server {
 		logw:      logw,
 		docs:      map[string]*document{},
 		inflight:  map[jsonrpc2.ID]context.CancelFunc{},
-		lastEst:   map[string]*analysis{},
+		lastEst:   map[string]*estimates{},
 		published: map[string]pubState{},
 		settings:  DefaultSettings(),
 		work:      make(chan struct{}, 1),
+		slowWork:  make(chan struct{}, 1),
 		exit:      make(chan int, 1),
 		done:      make(chan struct{}),
 	}
@@ -116,6 +123,7 @@ func (s *Server) run(ctx context.Context, rwc io.ReadWriteCloser) int {
 	s.snap = &snapshot{ctx: ctx, docs: map[string]*document{}, roots: map[string]*analysis{}, settings: s.settings, srv: s}
 	s.mu.Unlock()
 	go s.worker(ctx)
+	go s.slowWorker(ctx)
 	s.conn.Go(ctx, s.handle)
 	code := 1
 	select {

@@ -23,10 +23,14 @@ type Settings struct {
 	Limits map[string]string `json:"limits"`
 	// InlayHints shows computed mass flow, exit quality and rise closure.
 	InlayHints bool `json:"inlayHints"`
+	// MarginChecks says when to run the margin rules, whose tilt-limit
+	// search costs hundreds of estimates: "auto" (when one estimate took
+	// less than 10 ms), "always" or "never".
+	MarginChecks string `json:"marginChecks"`
 }
 
 // DefaultSettings returns the settings before the client sends any.
-func DefaultSettings() Settings { return Settings{InlayHints: true} }
+func DefaultSettings() Settings { return Settings{InlayHints: true, MarginChecks: "auto"} }
 
 // parseSettings reads a JSON settings object over base.
 func parseSettings(raw []byte, base Settings) (Settings, error) {
@@ -46,6 +50,11 @@ func parseSettings(raw []byte, base Settings) (Settings, error) {
 	}
 	if out.Friction != "" && !validChoice("friction", out.Friction) {
 		return base, fmt.Errorf("friction %q is not one of %s", out.Friction, strings.Join(lang.MethodChoices["friction"], ", "))
+	}
+	switch out.MarginChecks {
+	case "auto", "always", "never":
+	default:
+		return base, fmt.Errorf("marginChecks %q is not one of auto, always, never", out.MarginChecks)
 	}
 	for k, v := range out.Limits {
 		if _, err := limitValue(k, v); err != nil {

@@ -53,10 +53,13 @@ type analysis struct {
 	model *lang.Model
 	ready atomic.Bool // the model is computed
 
-	checkMu   sync.Mutex
-	checked   bool
-	checkDiag []lang.Diagnostic
-	est       *estimates
+	checkMu    sync.Mutex
+	checked    bool              // the quick checks and the estimate are done
+	checkDiag  []lang.Diagnostic // findings of the quick checks
+	est        *estimates
+	full       bool              // the complete checks are done
+	fullDiag   []lang.Diagnostic // findings of the complete checks
+	skipLogged atomic.Bool
 }
 
 // Model returns the resolved model, computing it on first use.
@@ -76,11 +79,21 @@ func (a *analysis) Model() *lang.Model {
 }
 
 // checks returns the checker's findings and the estimates, if the worker has
-// finished them for this analysis.
+// finished them for this analysis: the complete findings when they are
+// done, else the quick ones.
 func (a *analysis) checks() ([]lang.Diagnostic, *estimates, bool) {
 	a.checkMu.Lock()
 	defer a.checkMu.Unlock()
+	if a.full {
+		return a.fullDiag, a.est, a.checked
+	}
 	return a.checkDiag, a.est, a.checked
+}
+
+func (a *analysis) fullyChecked() bool {
+	a.checkMu.Lock()
+	defer a.checkMu.Unlock()
+	return a.full
 }
 
 // dependsOn reports whether the analysis read path. An analysis whose model

@@ -1,0 +1,175 @@
+package lsp
+
+import (
+	"bytes"
+	"fmt"
+	"os"
+	"runtime"
+	"sort"
+	"strconv"
+	"strings"
+	"syscall"
+	"testing"
+	"time"
+
+	"circa/lang/loopgen"
+)
+
+// benchSession opens one generated document and returns the client, its URI
+// and the line and column of a value to edit (the first param's number).
+func benchSession(b testing.TB, text []byte, debounce time.Duration, complete bool) (*testClient, string, int, int) {
+	c := newTestClient(b, Options{Debounce: debounce})
+	c.initialize(nil)
+	uri := "file:///bench/gen.loop"
+	c.notify("textDocument/didOpen", map[string]any{"textDocument": map[string]any{"uri": uri, "languageId": "loop", "version": 1, "text": string(text)}})
+	if complete {
+		c.settle()
+	} else {
+		c.settleQuick()
+	}
+	for i, l := range strings.Split(string(text), "\n") {
+		if strings.HasPrefix(l, "param ") {
+			if j := strings.Index(l, "= "); j >= 0 {
+				return c, uri, i, j + 2
+			}
+		}
+	}
+	b.Fatal("no param line to edit")
+	return nil, "", 0, 0
+}
+
+// editAndWait changes one digit of a parameter and waits until the
+// diagnostics of that version are published: with the estimate and every
+// rule but the margins (quick), or with the margins too.
+func editAndWait(b testing.TB, c *testClient, uri string, version, line, col int, complete bool) {
+	digit := strconv.Itoa(1 + version%8)
+	c.notify("textDocument/didChange", map[string]any{"textDocument": map[string]any{"uri": uri, "version": version},
+		"contentChanges": []any{map[string]any{"range": map[string]any{"start": map[string]int{"line": line, "character": col}, "end": map[string]int{"line": line, "character": col + 1}}, "text": digit}}})
+	if complete {
+		c.settle()
+	} else {
+		c.settleQuick()
+	}
+}
+
+func median(ds []time.Duration) time.Duration {
+	sort.Slice(ds, func(i, j int) bool { return ds[i] < ds[j] })
+	return ds[len(ds)/2]
+}
+
+func benchEdit(b *testing.B, text []byte, complete bool) {
+	c, uri, line, col := benchSession(b, text, -1, complete)
+	var ds []time.Duration
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		t0 := time.Now()
+		editAndWait(b, c, uri, i+2, line, col, complete)
+		ds = append(ds, time.Since(t0))
+	}
+	b.StopTimer()
+	b.ReportMetric(float64(median(ds).Microseconds())/1000, "ms-median")
+	reportMemory(b)
+}
+
+// BenchmarkEditDiagnostics300 is edit → published diagnostics (debounce
+// off) on a generated 300-line file: "quick" with every rule but the
+// margins and with the estimate hover shows, "complete" with the margins
+// (and their tilt-limit search) too.
+func BenchmarkEditDiagnostics300(b *testing.B) {
+	b.Run("quick", func(b *testing.B) { benchEdit(b, loopgen.Lines(300), false) })
+	b.Run("complete", func(b *testing.B) { benchEdit(b, loopgen.Lines(300), true) })
+}
+
+// BenchmarkEditDiagnosticsNetwork5000 is the quick edit → diagnostics on
+// one loop of 5,000 components (the complete checks take tens of seconds
+// there and are not benchmarked).
+func BenchmarkEditDiagnosticsNetwork5000(b *testing.B) { benchEdit(b, loopgen.Network(5000, 8), false) }
+
+// BenchmarkHover300 hovers a quantity in a generated 300-line file.
+func BenchmarkHover300(b *testing.B) {
+	text := loopgen.Lines(300)
+	c, uri, line, col := benchSession(b, text, -1, true)
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		c.mustCall("textDocument/hover", map[string]any{"textDocument": map[string]any{"uri": uri}, "position": map[string]int{"line": line, "character": col}})
+	}
+}
+
+// BenchmarkCompletion300 completes the units after a number in a
+// component of a generated 300-line file.
+func BenchmarkCompletion300(b *testing.B) {
+	text := loopgen.Lines(300)
+	c, uri, _, _ := benchSession(b, text, -1, true)
+	line, col := -1, 0
+	for i, l := range strings.Split(string(text), "\n") {
+		if j := strings.Index(l, "length "); j >= 0 && line < 0 {
+			line, col = i, j+len("length 1 ")
+		}
+	}
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		c.mustCall("textDocument/completion", map[string]any{"textDocument": map[string]any{"uri": uri}, "position": map[string]int{"line": line, "character": col}})
+	}
+}
+
+// BenchmarkTyping types one edit every 50 ms with the normal debounce and
+// reports the CPU time the process spends per edit.
+func BenchmarkTyping(b *testing.B) {
+	for _, tc := range []struct {
+		name string
+		text []byte
+	}{{"300lines", loopgen.Lines(300)}, {"network5000", loopgen.Network(5000, 8)}} {
+		b.Run(tc.name, func(b *testing.B) {
+			c, uri, line, col := benchSession(b, tc.text, 0, false)
+			const edits = 20
+			b.ResetTimer()
+			var cpu time.Duration
+			for i := 0; i < b.N; i++ {
+				u0 := cpuTime()
+				for k := 0; k < edits; k++ {
+					v := i*edits + k + 2
+					digit := strconv.Itoa(1 + v%8)
+					c.notify("textDocument/didChange", map[string]any{"textDocument": map[string]any{"uri": uri, "version": v},
+						"contentChanges": []any{map[string]any{"range": map[string]any{"start": map[string]int{"line": line, "character": col}, "end": map[string]int{"line": line, "character": col + 1}}, "text": digit}}})
+					time.Sleep(50 * time.Millisecond)
+				}
+				c.settleQuick()
+				cpu += cpuTime() - u0
+			}
+			b.ReportMetric(float64(cpu.Microseconds())/1000/float64(b.N*edits), "cpu-ms/edit")
+		})
+	}
+}
+
+func cpuTime() time.Duration {
+	var ru syscall.Rusage
+	syscall.Getrusage(syscall.RUSAGE_SELF, &ru)
+	return time.Duration(ru.Utime.Nano() + ru.Stime.Nano())
+}
+
+// reportMemory reports the live heap after a collection and the resident
+// set size of the process.
+func reportMemory(b *testing.B) {
+	runtime.GC()
+	var ms runtime.MemStats
+	runtime.ReadMemStats(&ms)
+	b.ReportMetric(float64(ms.HeapAlloc)/(1<<20), "heap-MB")
+	if rss, ok := vmRSS(); ok {
+		b.ReportMetric(rss, "rss-MB")
+	}
+}
+
+func vmRSS() (float64, bool) {
+	data, err := os.ReadFile("/proc/self/status")
+	if err != nil {
+		return 0, false
+	}
+	for _, l := range bytes.Split(data, []byte("\n")) {
+		if rest, ok := bytes.CutPrefix(l, []byte("VmRSS:")); ok {
+			var kb float64
+			fmt.Sscanf(string(rest), "%f", &kb)
+			return kb / 1024, true
+		}
+	}
+	return 0, false
+}
