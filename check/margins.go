@@ -119,19 +119,41 @@ var marginRuleOf = map[string]string{
 	flow.MarginCharge: flow.RuleCharge, flow.MarginHead: flow.RuleHead, flow.MarginTilt: flow.RuleTilt,
 }
 
-// reportEstimate reports the estimate's findings of one rule.
+// lowerIsWorse lists the findings whose value falls below a minimum.
+var lowerIsWorse = map[string]bool{flow.RuleCHF: true, flow.RuleHead: true, flow.RuleTilt: true}
+
+// reportEstimate reports the estimate's findings of one rule: per
+// component, the worst case, naming the other cases with the same finding.
 func reportEstimate(c *Context, id string) {
 	lr := loopEstimate(c)
 	for _, f := range lr.Findings {
 		if f.Rule == id && !structural[f.Rule] {
-			c.Report(diagnostic(c, f))
+			c.Report(diagnostic(c, f, nil))
 		}
 	}
+	type group struct {
+		worst  flow.Finding
+		others []string
+	}
+	var order []string
+	groups := map[string]*group{}
 	for i := range lr.Cases {
 		cr := &lr.Cases[i]
 		for _, f := range cr.Findings {
-			if f.Rule == id && !structural[f.Rule] {
-				c.Report(diagnostic(c, f))
+			if f.Rule != id || structural[f.Rule] {
+				continue
+			}
+			g := groups[f.Component]
+			if g == nil {
+				groups[f.Component] = &group{worst: f}
+				order = append(order, f.Component)
+				continue
+			}
+			if worse(f, g.worst) {
+				g.others = append(g.others, g.worst.Case)
+				g.worst = f
+			} else {
+				g.others = append(g.others, f.Case)
 			}
 		}
 		for _, m := range cr.Margins {
@@ -143,6 +165,24 @@ func reportEstimate(c *Context, id string) {
 				Loc:     componentLoc(c.Loop, m.Component)})
 		}
 	}
+	for _, comp := range order {
+		g := groups[comp]
+		c.Report(diagnostic(c, g.worst, g.others))
+	}
+}
+
+// worse reports whether finding a is worse than b: more severe, else
+// further past its limit.
+func worse(a, b flow.Finding) bool {
+	sa, _ := lang.ParseSeverity(a.Severity)
+	sb, _ := lang.ParseSeverity(b.Severity)
+	if sa != sb {
+		return sa < sb
+	}
+	if lowerIsWorse[a.Rule] {
+		return a.Value < b.Value
+	}
+	return a.Value > b.Value
 }
 
 func componentLoc(l *lang.Loop, name string) lang.Location {
@@ -155,12 +195,19 @@ func componentLoc(l *lang.Loop, name string) lang.Location {
 }
 
 // diagnostic turns an estimate finding into a located finding.
-func diagnostic(c *Context, f flow.Finding) lang.Diagnostic {
+func diagnostic(c *Context, f flow.Finding, others []string) lang.Diagnostic {
 	sev, ok := lang.ParseSeverity(f.Severity)
 	if !ok {
 		sev = lang.Warning
 	}
 	msg := f.Message
+	if len(others) > 0 {
+		word := "case"
+		if len(others) > 1 {
+			word = "cases"
+		}
+		msg += fmt.Sprintf("; also in %s %s", word, strings.Join(others, ", "))
+	}
 	if strings.HasPrefix(f.Rule, "margin-") {
 		msg += " (early-design estimate)"
 	}
@@ -179,8 +226,8 @@ func diagnostic(c *Context, f flow.Finding) lang.Diagnostic {
 	default:
 		d.Loc = componentLoc(l, f.Component)
 	}
-	if f.Case != "" {
-		if cs := c.Model.Case(f.Case); cs != nil {
+	for _, name := range append([]string{f.Case}, others...) {
+		if cs := c.Model.Case(name); name != "" && cs != nil {
 			d.Related = append(d.Related, lang.Related{Loc: cs.NameLoc(), Message: "case " + cs.Name})
 		}
 	}

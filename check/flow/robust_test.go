@@ -1,7 +1,9 @@
 package flow
 
 import (
+	"encoding/json"
 	"math"
+	"math/rand"
 	"strings"
 	"testing"
 
@@ -149,5 +151,44 @@ func TestFindRoots(t *testing.T) {
 	}
 	if !(roots[0].slope < 0 && roots[1].slope > 0 && roots[2].slope < 0) {
 		t.Errorf("slopes %+v: want stable, unstable, stable", roots)
+	}
+}
+
+// Randomly damaged loop texts (lines dropped, units and signs changed,
+// components reconnected) never panic and always encode as JSON.
+func TestMutations(t *testing.T) {
+	rng := rand.New(rand.NewSource(1))
+	srcs := []string{string(loopgen.Network(12, 3)), string(loopgen.Network(20, 1)), strings.ReplaceAll(ring, "HEAT", "800 W")}
+	for it := 0; it < 200; it++ {
+		lines := strings.Split(srcs[it%len(srcs)], "\n")
+		for k := 0; k < 1+rng.Intn(3); k++ {
+			i := rng.Intn(len(lines))
+			switch rng.Intn(4) {
+			case 0:
+				lines = append(lines[:i], lines[i+1:]...)
+			case 1:
+				lines[i] = strings.Replace(lines[i], "mm", "m", 1)
+			case 2:
+				lines[i] = strings.Replace(lines[i], "0", "-", 1)
+			case 3:
+				lines[i] = strings.Replace(lines[i], "to ", "to split", 1)
+			}
+		}
+		src := strings.Join(lines, "\n")
+		m := lang.LoadSource("f.loop", []byte(src), lang.OSFS{})
+		func() {
+			defer func() {
+				if p := recover(); p != nil {
+					t.Fatalf("panic %v on\n%s", p, src)
+				}
+			}()
+			r, err := Estimate(m, Options{NoTilt: it%10 != 0})
+			if err != nil {
+				return
+			}
+			if _, err := json.Marshal(r); err != nil {
+				t.Fatalf("%v on\n%s", err, src)
+			}
+		}()
 	}
 }
