@@ -105,6 +105,15 @@ func (est *estimates) caseResult(loop, name string) (*flow.CaseResult, bool) {
 	return nil, false
 }
 
+func (est *estimates) methods(loop string) (flow.MethodsUsed, bool) {
+	for _, l := range est.flow.Loops {
+		if l.Loop == loop {
+			return l.Methods, true
+		}
+	}
+	return flow.MethodsUsed{}, false
+}
+
 func componentState(cr *flow.CaseResult, name string) (*flow.ComponentState, bool) {
 	for i := range cr.Components {
 		if cr.Components[i].Component == name {
@@ -142,6 +151,9 @@ func (s *Server) componentEstimate(c *cursor, comp *lang.Component) string {
 		return b.String()
 	}
 	fmt.Fprintf(&b, " (saturation %s, %s)\n\n", units.Format(cr.SatTemperature, uDegC), cr.SatSource)
+	if mu, ok := est.methods(comp.Loop.Name); ok {
+		fmt.Fprintf(&b, "void fraction %s, friction %s\n\n", mu.Void, mu.Friction)
+	}
 	b.WriteString("| | |\n|---|---|\n")
 	fmt.Fprintf(&b, "| mass flow | %s |\n", units.Format(st.MassFlow, uGs))
 	fmt.Fprintf(&b, "| quality in → out | %.3f → %.3f |\n", st.XIn, st.XOut)

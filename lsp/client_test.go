@@ -221,11 +221,16 @@ func (c *testClient) notify(method string, params any) {
 	c.write(b)
 }
 
-func (c *testClient) initialize(caps any) json.RawMessage {
+// initialize sends initialize with the given capabilities (or, when caps
+// holds "capabilities", with caps as the whole params) and initialized.
+func (c *testClient) initialize(caps map[string]any) json.RawMessage {
+	params := map[string]any{"processId": nil, "rootUri": nil, "capabilities": caps}
 	if caps == nil {
-		caps = map[string]any{}
+		params["capabilities"] = map[string]any{}
+	} else if _, whole := caps["capabilities"]; whole {
+		params = caps
 	}
-	r := c.mustCall("initialize", map[string]any{"processId": nil, "rootUri": nil, "capabilities": caps})
+	r := c.mustCall("initialize", params)
 	c.notify("initialized", map[string]any{})
 	return r
 }

@@ -227,3 +227,23 @@ func TestLargeDocument(t *testing.T) {
 	}
 	c.mustCall("textDocument/documentSymbol", map[string]any{"textDocument": map[string]any{"uri": uri}})
 }
+
+// TestWatcherRegistration: a client that can register capabilities
+// dynamically is asked to watch .loop files.
+func TestWatcherRegistration(t *testing.T) {
+	c := newTestClient(t, Options{Debounce: -1})
+	c.initialize(map[string]any{"workspace": map[string]any{"didChangeWatchedFiles": map[string]any{"dynamicRegistration": true}}})
+	deadline := time.Now().Add(5 * time.Second)
+	for time.Now().Before(deadline) {
+		c.mu.Lock()
+		for _, m := range c.calls {
+			if m.Method == "client/registerCapability" && strings.Contains(string(m.Params), "workspace/didChangeWatchedFiles") && strings.Contains(string(m.Params), "**/*.loop") {
+				c.mu.Unlock()
+				return
+			}
+		}
+		c.mu.Unlock()
+		time.Sleep(10 * time.Millisecond)
+	}
+	t.Error("no watcher registration for **/*.loop")
+}
