@@ -11,7 +11,8 @@ import {
 let client: LanguageClient | undefined;
 
 // serverSettings gathers the settings `circa serve` reads (see docs/lsp.md):
-// correlation choices, margin limits by field name and inlay hints.
+// correlation choices, margin limits by field name, inlay hints and when
+// to run the margin rules.
 export function serverSettings(): Record<string, unknown> {
   const c = vscode.workspace.getConfiguration("circa");
   const limits: Record<string, string> = {};
@@ -27,6 +28,7 @@ export function serverSettings(): Record<string, unknown> {
     friction: c.get<string>("methods.friction", ""),
     limits,
     inlayHints: c.get<boolean>("inlayHints.enabled", true),
+    marginChecks: c.get<string>("marginChecks", "auto"),
   };
 }
 

@@ -9,6 +9,7 @@
 --       friction = "friedel",
 --       limits = { exit_quality = "0.4", tilt_margin = "8 deg" },
 --       inlayHints = true,
+--       marginChecks = "auto",             -- or "always", "never"
 --     },
 --   }
 local M = {}
