@@ -260,6 +260,12 @@ func (c *testClient) wait(done map[uint64]bool) {
 		c.anCond.Wait()
 	}
 	c.mu.Unlock()
+	for !c.srv.out.idle() {
+		if time.Now().After(deadline) {
+			c.t.Fatal("diagnostics never sent")
+		}
+		time.Sleep(time.Millisecond)
+	}
 	// A round trip: its reply follows every notification sent before it.
 	c.mustCall("workspace/symbol", map[string]any{"query": "\x00none"})
 }

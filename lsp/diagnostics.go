@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"hash/fnv"
 	"sort"
+	"sync"
 	"time"
 
 	"go.lsp.dev/protocol"
@@ -261,10 +262,9 @@ func (s *Server) publish(snap *snapshot, full bool) {
 		items = append(items, item{path, p, st})
 	}
 	for _, it := range items {
-		if err := s.conn.Notify(context.Background(), "textDocument/publishDiagnostics", it.params); err != nil {
-			s.logf("publishing diagnostics: %v", err)
-			continue
-		}
+		// The outbox sends in order without holding this lock, so a client
+		// that is busy writing to us cannot stall the next edit.
+		s.out.push(it.params)
 		if len(it.params.Diagnostics) == 0 && it.state.version < 0 {
 			delete(s.published, it.path)
 		} else {
@@ -316,4 +316,60 @@ func (sn *snapshot) toProtocolDiag(path string, d lang.Diagnostic) protocol.Diag
 		})
 	}
 	return pd
+}
+
+// outbox sends notifications in order from its own goroutine.
+type outbox struct {
+	mu    sync.Mutex
+	cond  *sync.Cond
+	queue []any
+	busy  bool // a batch is being sent
+	done  bool
+}
+
+// idle reports whether everything queued has been sent.
+func (o *outbox) idle() bool {
+	o.mu.Lock()
+	defer o.mu.Unlock()
+	return len(o.queue) == 0 && !o.busy
+}
+
+func (o *outbox) push(params any) {
+	o.mu.Lock()
+	o.queue = append(o.queue, params)
+	o.mu.Unlock()
+	o.cond.Signal()
+}
+
+func (o *outbox) close() {
+	o.mu.Lock()
+	o.done = true
+	o.mu.Unlock()
+	o.cond.Broadcast()
+}
+
+// run sends queued diagnostics until closed.
+func (o *outbox) run(s *Server) {
+	for {
+		o.mu.Lock()
+		for len(o.queue) == 0 && !o.done {
+			o.cond.Wait()
+		}
+		if o.done {
+			o.mu.Unlock()
+			return
+		}
+		batch := o.queue
+		o.queue = nil
+		o.busy = true
+		o.mu.Unlock()
+		for _, p := range batch {
+			if err := s.conn.Notify(context.Background(), "textDocument/publishDiagnostics", p); err != nil {
+				s.logf("publishing diagnostics: %v", err)
+			}
+		}
+		o.mu.Lock()
+		o.busy = false
+		o.mu.Unlock()
+	}
 }

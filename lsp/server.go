@@ -55,6 +55,7 @@ type Server struct {
 
 	pubMu     sync.Mutex // orders publishing against snapshot switches
 	published map[string]pubState
+	out       outbox
 
 	work    chan struct{}
 	pending *snapshot // latest snapshot waiting for the worker (under mu)
@@ -99,7 +100,7 @@ func newServer(opts Options) *Server {
 	if logw == nil {
 		logw = os.Stderr
 	}
-	return &Server{
+	s := &Server{
 		opts:      opts,
 		logw:      logw,
 		docs:      map[string]*document{},
@@ -112,6 +113,8 @@ func newServer(opts Options) *Server {
 		exit:      make(chan int, 1),
 		done:      make(chan struct{}),
 	}
+	s.out.cond = sync.NewCond(&s.out.mu)
+	return s
 }
 
 func (s *Server) run(ctx context.Context, rwc io.ReadWriteCloser) int {
@@ -124,6 +127,8 @@ func (s *Server) run(ctx context.Context, rwc io.ReadWriteCloser) int {
 	s.mu.Unlock()
 	go s.worker(ctx)
 	go s.slowWorker(ctx)
+	go s.out.run(s)
+	defer s.out.close()
 	s.conn.Go(ctx, s.handle)
 	code := 1
 	select {
