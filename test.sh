@@ -4,8 +4,10 @@
 set -euo pipefail
 cd "$(dirname "$0")"
 go test -race -count=1 ./...
-for target in $(grep -rhoE '^func (Fuzz[A-Za-z0-9_]+)' --include='*_test.go' . | sed 's/func //' | sort -u); do
-  pkg=$(grep -rlE "^func $target\(" --include='*_test.go' . | head -1 | xargs dirname)
-  echo "fuzz $target in $pkg"
-  go test -run '^$' -fuzz "^$target\$" -fuzztime 10s "$pkg"
+for file in $(grep -rlE '^func Fuzz[A-Za-z0-9_]+\(' --include='*_test.go' . | sort); do
+  pkg=$(dirname "$file")
+  for target in $(grep -hoE '^func (Fuzz[A-Za-z0-9_]+)' "$file" | sed 's/func //'); do
+    echo "fuzz $target in $pkg"
+    go test -run '^$' -fuzz "^$target\$" -fuzztime 10s -fuzzminimizetime 5s "$pkg"
+  done
 done

@@ -303,34 +303,44 @@ func (p *prepared) condenserMargin(s *state, cr *CaseResult) {
 }
 
 // chargeMargin compares the fill charge with the inventory at the
-// operating point. The flow path in its computed state plus full reservoirs
-// is the most the loop holds without liquid backing up into the
-// condensers; the flow path with empty reservoirs is the least that keeps
-// the evaporators fed.
+// operating point. A loop adjusts to its charge: a deficit lowers the liquid
+// level in the liquid lines (downcomers and subcooled pipes) and takes away
+// driving head; a surplus first fills the reservoirs, then backs up into the
+// condensers and takes away condensing area. The estimate warns when the
+// deficit empties more than ChargeLevelWarn of the liquid lines or the
+// surplus floods more than ChargeFloodWarn of the condensers, and reports an
+// error when the liquid lines would empty or the condensers fill (circa's
+// choices, documented in docs/estimate-json.md).
 func (p *prepared) chargeMargin(s *state, cr *CaseResult) {
 	ch := p.l.Charge
 	if !ch.Set || !(ch.SI > 0) {
 		return
 	}
-	most := cr.Totals.Inventory + cr.Totals.Reservoirs
 	least := cr.Totals.Inventory
-	var vCond float64
+	most := cr.Totals.Inventory + cr.Totals.Reservoirs
+	var vCond, vol float64
 	for _, cp := range s.net.comps {
+		vol += cp.A * cp.L
 		if cp.kind == lang.Condenser {
 			vCond += cp.A * cp.L
 		}
 	}
-	var vol float64
-	for _, cp := range s.net.comps {
-		vol += cp.A * cp.L
+	// Liquid lines: unheated components that carry liquid only.
+	var vLiquid float64
+	for i, st := range cr.Components {
+		if i < len(s.net.comps) && st.Kind != lang.Evaporator.String() && st.Kind != lang.Condenser.String() && st.XIn <= 0 && st.XOut <= 0 {
+			cp := s.net.comps[i]
+			vLiquid += cp.A * cp.L
+		}
 	}
 	for _, r := range s.net.res {
 		if r.Volume.SI > 0 {
 			vol += r.Volume.SI
 		}
 	}
+	drho := math.Max(s.p.RhoL-s.p.RhoV, 1e-9)
 	if full := vol * s.p.RhoL; ch.SI > full {
-		m := Margin{Margin: MarginCharge, Value: ch.SI, Limit: full, Unit: "kg", Use: ch.SI / math.Max(most, 1e-300), Status: "error"}
+		m := Margin{Margin: MarginCharge, Value: ch.SI, Limit: full, Unit: "kg", Use: ch.SI / math.Max(full, 1e-300), Status: "error"}
 		cr.add(m)
 		cr.Findings = append(cr.Findings, p.finding(RuleCharge, "error", cr.Case, "", ch.SI, full, "kg", "",
 			"charge %.3g kg is more than the %.3g kg of liquid that fills the whole loop (%.3g L) at %.1f °C in case %s: there is no room for vapour",
@@ -339,34 +349,50 @@ func (p *prepared) chargeMargin(s *state, cr *CaseResult) {
 	}
 	switch {
 	case ch.SI < least:
-		use := least / ch.SI
-		m := Margin{Margin: MarginCharge, Value: ch.SI, Limit: least, Unit: "kg", Use: use, Status: "warning"}
-		cr.add(m)
-		cr.Findings = append(cr.Findings, p.finding(RuleCharge, "warning", cr.Case, "", ch.SI, least, "kg", "",
-			"charge %.3g kg is below the %.3g kg the flow path holds at the operating point in case %s: the evaporator would be starved of liquid",
-			ch.SI, least, cr.Case))
-	case ch.SI > most:
-		flooded := 0.0
-		if vCond > 0 {
-			flooded = (ch.SI - most) / ((s.p.RhoL - s.p.RhoV) * vCond)
+		emptied := 1.0
+		if vLiquid > 0 {
+			emptied = (least - ch.SI) / drho / vLiquid
 		}
-		use := 1 + flooded
-		m := Margin{Margin: MarginCharge, Value: ch.SI, Limit: most, Unit: "kg", Use: use, Status: "warning"}
+		use := emptied / ChargeLevelWarn
+		m := Margin{Margin: MarginCharge, Value: ch.SI, Limit: least, Unit: "kg", Use: use, Status: status(use, 1/ChargeLevelWarn)}
+		if emptied >= 1 {
+			m.Status = "error"
+		}
+		cr.add(m)
+		if m.Status != "ok" {
+			cr.Findings = append(cr.Findings, p.finding(RuleCharge, m.Status, cr.Case, "", ch.SI, least, "kg", "",
+				"charge %.3g kg is below the %.3g kg the flow path holds at the operating point in case %s: the liquid level falls through about %.0f %% of the liquid lines and the evaporators risk being starved",
+				ch.SI, least, cr.Case, math.Min(emptied, 9.99)*100))
+		}
+	case ch.SI > most:
+		flooded := 1.0
+		if vCond > 0 {
+			flooded = (ch.SI - most) / drho / vCond
+		}
+		use := flooded / ChargeFloodWarn
+		m := Margin{Margin: MarginCharge, Value: ch.SI, Limit: most, Unit: "kg", Use: use, Status: status(use, 1/ChargeFloodWarn)}
 		if flooded >= 1 {
 			m.Status = "error"
 		}
 		cr.add(m)
-		cr.Findings = append(cr.Findings, p.finding(RuleCharge, m.Status, cr.Case, "", ch.SI, most, "kg", "",
-			"charge %.3g kg exceeds the %.3g kg the loop holds at the operating point in case %s: the excess liquid floods about %.0f %% of the condenser volume",
-			ch.SI, most, cr.Case, math.Min(flooded, 9.99)*100))
+		if m.Status != "ok" {
+			cr.Findings = append(cr.Findings, p.finding(RuleCharge, m.Status, cr.Case, "", ch.SI, most, "kg", "",
+				"charge %.3g kg exceeds the %.3g kg the loop holds at the operating point in case %s: the excess liquid floods about %.0f %% of the condenser volume",
+				ch.SI, most, cr.Case, math.Min(flooded, 9.99)*100))
+		}
 	default:
 		m := Margin{Margin: MarginCharge, Value: ch.SI, Limit: most, Unit: "kg", Status: "ok"}
-		if most > least {
-			m.Use = (ch.SI - least) / (most - least)
-		}
 		cr.add(m)
 	}
 }
+
+// Charge tolerances (circa's choices): the share of the liquid lines a
+// charge deficit may empty, and of the condensers a surplus may flood,
+// before a warning.
+const (
+	ChargeLevelWarn = 0.25
+	ChargeFloodWarn = 0.25
+)
 
 // circulatesUnder reports whether the loop circulates under body force b;
 // a network's Newton iteration starts from start, which is updated to the
