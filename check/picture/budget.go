@@ -16,10 +16,13 @@ import (
 // component, the pressure gained by gravity along the flow (negative where
 // the flow rises through a light mixture) and the friction, local and
 // acceleration losses, all in Pa; Total sums them over the loop, where the
-// net gravity gain is the driving head and balances the losses.
+// net gravity gain is the driving head and balances the losses. In a
+// network of parallel branches Total weights each component by its share of
+// the loop flow, so the branches add like one loop.
 type Budget struct {
 	Loop       string
 	Case       string
+	Network    bool
 	Circulates bool
 	MassFlow   float64 // kg/s
 	Reason     string  // why the loop does not circulate
@@ -52,13 +55,17 @@ func BudgetOf(m *lang.Model, l *lang.Loop, caseName string) (*Budget, error) {
 		return nil, fmt.Errorf("loop %s cannot be estimated: %s", l.Name, findingText(lr.Findings))
 	}
 	cr := lr.Cases[0]
-	b := &Budget{Loop: l.Name, Case: cr.Case, Circulates: cr.Circulates, MassFlow: finite(cr.MassFlow), Reason: cr.Reason}
+	b := &Budget{Loop: l.Name, Case: cr.Case, Network: lr.Network, Circulates: cr.Circulates, MassFlow: finite(cr.MassFlow), Reason: cr.Reason}
 	for _, cs := range cr.Components {
 		b.Items = append(b.Items, BudgetItem{Name: cs.Component, Kind: cs.Kind, Gravity: finite(cs.DpGravity),
 			Friction: finite(cs.DpFriction), Local: finite(cs.DpLocal), Accel: finite(cs.DpAccel)})
 	}
 	t := cr.Totals
-	b.Total = BudgetItem{Name: "whole loop", Gravity: finite(t.Gravity), Friction: finite(t.Friction),
+	name := "whole loop"
+	if lr.Network {
+		name = "whole loop\n(branches by flow)"
+	}
+	b.Total = BudgetItem{Name: name, Gravity: finite(t.Gravity), Friction: finite(t.Friction),
 		Local: finite(t.Local), Accel: finite(t.Accel)}
 	return b, nil
 }

@@ -96,6 +96,7 @@ func newPanel(title, xlabel, ylabel string) *plot.Plot {
 	p.Legend.Top = true
 	p.Legend.Left = false
 	p.Legend.TextStyle.Font.Size = vg.Points(9)
+	p.Legend.Padding = vg.Points(1.5)
 	return p
 }
 
