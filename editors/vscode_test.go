@@ -192,12 +192,14 @@ func TestVSCodeSnippets(t *testing.T) {
 }
 
 // TestVSCodeExtension installs the extension's locked dependencies, compiles
-// it, packages it into a .vsix and runs the grammar tests: the scope
+// it, runs its unit test (test/extension.test.js, the editor API faked),
+// packages it into a .vsix and runs the grammar tests: the scope
 // assertions in test/ and a scan of the shipped examples for text the
 // grammar leaves unscoped.
 func TestVSCodeExtension(t *testing.T) {
 	needTool(t, "npm")
 	needTool(t, "npx")
+	needTool(t, "node")
 	if testing.Short() {
 		t.Skip("installs npm packages")
 	}
@@ -213,6 +215,10 @@ func TestVSCodeExtension(t *testing.T) {
 	run(t, work, 5*time.Minute, env, "npx", "--no-install", "tsc", "-p", ".")
 	if _, err := os.Stat(filepath.Join(work, "out", "extension.js")); err != nil {
 		t.Fatalf("tsc wrote no out/extension.js: %v", err)
+	}
+	// The extension's logic against fakes of the editor API.
+	if out := run(t, work, time.Minute, env, "node", "test/extension.test.js"); !strings.Contains(out, "extension tests passed") {
+		t.Errorf("extension tests:\n%s", out)
 	}
 	start = time.Now()
 	vsix := filepath.Join(work, "circa-loop.vsix")
