@@ -5,10 +5,14 @@ import (
 	"fmt"
 	"runtime/debug"
 	"strings"
+	"time"
 
 	"go.lsp.dev/jsonrpc2"
 	"go.lsp.dev/protocol"
 )
+
+// slowRequest is the handling time past which a request is logged.
+const slowRequest = 100 * time.Millisecond
 
 // Error codes beyond JSON-RPC's own.
 const (
@@ -108,7 +112,11 @@ func (s *Server) handle(ctx context.Context, req *jsonrpc2.Request) (result any,
 	if s.beforeReply != nil {
 		s.beforeReply(rctx, method)
 	}
+	start := time.Now()
 	result, err = h(rctx, s, snap, params)
+	if d := time.Since(start); d > slowRequest {
+		s.logf("%s took %v", method, d.Round(time.Millisecond))
+	}
 	if rctx.Err() != nil {
 		// The reply goes out on the request's own context, which the
 		// cancellation did not touch.
