@@ -5,6 +5,7 @@ import (
 	"encoding/json"
 	"fmt"
 	"strings"
+	"sync"
 	"testing"
 	"time"
 )
@@ -246,4 +247,69 @@ func TestWatcherRegistration(t *testing.T) {
 		time.Sleep(10 * time.Millisecond)
 	}
 	t.Error("no watcher registration for **/*.loop")
+}
+
+// TestStaleNotPublished: an edit during the debounce cancels the older
+// snapshot's checks; only the newer version's complete results go out.
+func TestStaleNotPublished(t *testing.T) {
+	c := newTestClient(t, Options{Debounce: 300 * time.Millisecond})
+	var mu sync.Mutex
+	full := map[int32]bool{}
+	c.srv.onPublish = func(path string, version int32, isFull bool, n int) {
+		mu.Lock()
+		defer mu.Unlock()
+		if isFull {
+			full[version] = true
+		}
+	}
+	c.initialize(nil)
+	uri := "file:///tmp/stale.loop"
+	c.notify("textDocument/didOpen", map[string]any{"textDocument": map[string]any{"uri": uri, "languageId": "loop", "version": 1, "text": smallLoop}})
+	c.notify("textDocument/didChange", map[string]any{"textDocument": map[string]any{"uri": uri, "version": 2},
+		"contentChanges": []any{map[string]any{"text": smallLoop + "# two\n"}}})
+	c.settle()
+	mu.Lock()
+	defer mu.Unlock()
+	if full[1] {
+		t.Error("the checks of version 1 were published after version 2 arrived")
+	}
+	if !full[2] {
+		t.Error("the checks of version 2 were not published")
+	}
+}
+
+// TestRelatedInformation: a duplicate declaration points at the first one.
+func TestRelatedInformation(t *testing.T) {
+	c := newTestClient(t, Options{Debounce: -1})
+	c.initialize(nil)
+	uri := "file:///tmp/dup.loop"
+	c.notify("textDocument/didOpen", map[string]any{"textDocument": map[string]any{"uri": uri, "languageId": "loop", "version": 1,
+		"text": "param d = 1 m\nparam d = 2 m\n"}})
+	c.settle()
+	p, _ := c.published(uri)
+	for _, raw := range p.Diagnostics {
+		var d struct {
+			Code     string
+			Severity int
+			Related  []struct {
+				Location struct {
+					URI   string    `json:"uri"`
+					Range wireRange `json:"range"`
+				} `json:"location"`
+				Message string
+			} `json:"relatedInformation"`
+		}
+		json.Unmarshal(raw, &d)
+		if d.Code != "duplicate-name" {
+			continue
+		}
+		if d.Severity != 1 {
+			t.Errorf("severity %d, want 1 (error)", d.Severity)
+		}
+		if len(d.Related) != 1 || d.Related[0].Location.URI != uri || d.Related[0].Location.Range.Start.Line != 0 || d.Related[0].Location.Range.Start.Character != 6 {
+			t.Errorf("related information %+v, want line 0 col 6 of the same file", d.Related)
+		}
+		return
+	}
+	t.Errorf("no duplicate-name finding in %s", p.Diagnostics)
 }
