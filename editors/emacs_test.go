@@ -45,7 +45,7 @@ func TestEmacsByteCompile(t *testing.T) {
 func TestEmacsMode(t *testing.T) {
 	emacs := needTool(t, "emacs")
 	dir := filepath.Join(repoRoot(t), "editors", "emacs")
-	env := []string{"LOOP_EXAMPLE=" + filepath.Join(repoRoot(t), "testdata", "examples", "rack-door.loop"), "HOME=" + t.TempDir()}
+	env := []string{"LOOP_EXAMPLE=" + filepath.Join(repoRoot(t), "editors", "testdata", "highlight.loop"), "HOME=" + t.TempDir()}
 	args := append([]string{"--batch", "-Q"}, elpaDirs()...)
 	wantEglot := false
 	if serveReady(t) {

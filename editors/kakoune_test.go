@@ -38,7 +38,7 @@ func kakScript(t *testing.T, dir, body string) string {
 func TestKakouneFiletypeAndIndent(t *testing.T) {
 	bin := kak(t)
 	dir := t.TempDir()
-	example := filepath.Join(repoRoot(t), "testdata", "examples", "rack-door.loop")
+	example := filepath.Join(repoRoot(t), "editors", "testdata", "highlight.loop")
 	script := kakScript(t, dir, `edit `+example+`
 echo -to-file `+dir+`/ft.txt %opt{filetype} %opt{comment_line}
 edit -scratch typed.loop
@@ -79,7 +79,7 @@ func TestKakouneHighlight(t *testing.T) {
 		colour[c] = f
 		set.WriteString("set-face global " + f + " " + c + "\n")
 	}
-	example := filepath.Join(repoRoot(t), "testdata", "examples", "rack-door.loop")
+	example := filepath.Join(repoRoot(t), "editors", "testdata", "highlight.loop")
 	script := kakScript(t, dir, set.String()+"edit "+example+"\n")
 	cmd := exec.Command(bin, "-n", "-ui", "json", "-e", "try %{ source "+script+" } catch %{ echo -to-file "+dir+"/err.txt %val{error} }")
 	cmd.Dir = dir
@@ -140,7 +140,7 @@ func TestKakouneHighlight(t *testing.T) {
 		return "(not drawn)"
 	}
 	for _, c := range []struct{ line, word, face string }{
-		{"# server rack", "# server", "comment"},
+		{"# editors", "# editors", "comment"},
 		{"include", "include", "keyword"},
 		{"include", `"parts`, "string"},
 		{"param lift", "param", "keyword"},

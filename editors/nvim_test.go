@@ -37,7 +37,7 @@ case c {
   heat e 1 kW
 }`
 
-// highlightProbes are texts in the rack-door example (occurrence counted
+// highlightProbes are texts in testdata/highlight.loop (occurrence counted
 // from 1) and the standard highlight group expected at their first
 // character.
 var highlightProbes = []struct {
@@ -81,6 +81,14 @@ type nvimProbe struct {
 		Message string `json:"message"`
 		Code    string `json:"code"`
 	} `json:"diagnostics"`
+	Started *struct {
+		Name     string         `json:"name"`
+		Cmd      []string       `json:"cmd"`
+		Root     string         `json:"root"`
+		Init     map[string]any `json:"init"`
+		Settings map[string]any `json:"settings"`
+		Bufnr    int            `json:"bufnr"`
+	} `json:"started"`
 	Errors []string `json:"errors"`
 }
 
@@ -117,7 +125,7 @@ func runNvim(t *testing.T, file string, env []string) nvimProbe {
 // the runtimepath: filetype detection, highlight groups and brace
 // indentation.
 func TestNeovimPlugin(t *testing.T) {
-	file := filepath.Join(repoRoot(t), "testdata", "examples", "rack-door.loop")
+	file := filepath.Join(repoRoot(t), "editors", "testdata", "highlight.loop")
 	p := runNvim(t, file, []string{"PATH=/nonexistent"}) // no circa on PATH: the plugin must only warn
 	if p.Filetype != "loop" {
 		t.Errorf("filetype = %q, want loop", p.Filetype)
@@ -164,4 +172,53 @@ func TestNeovimLSP(t *testing.T) {
 	if !found {
 		t.Errorf("no diagnostic on line 4 (lenght): %+v", p.Diagnostics)
 	}
+}
+
+// TestNeovimStart checks the plugin's Neovim 0.8+ path (vim.lsp.start, faked
+// so it runs on 0.7 too): the server command and settings from vim.g.circa,
+// and the root directory, the one holding .git above the file.
+func TestNeovimStart(t *testing.T) {
+	root := t.TempDir()
+	if err := os.MkdirAll(filepath.Join(root, ".git"), 0o755); err != nil {
+		t.Fatal(err)
+	}
+	sub := filepath.Join(root, "designs", "rack")
+	if err := os.MkdirAll(sub, 0o755); err != nil {
+		t.Fatal(err)
+	}
+	file := filepath.Join(sub, "a.loop")
+	copyFile(t, filepath.Join(repoRoot(t), "editors", "testdata", "highlight.loop"), file)
+	p := runNvim(t, file, []string{"CIRCA_PROBE_FAKESTART=1"})
+	if p.Started == nil {
+		t.Fatal("vim.lsp.start was not called")
+	}
+	s := p.Started
+	if s.Name != "circa" || strings.Join(s.Cmd, " ") != "sh serve" || s.Bufnr <= 0 {
+		t.Errorf("started %+v", s)
+	}
+	if got, _ := filepath.EvalSymlinks(s.Root); got != mustEval(t, root) {
+		t.Errorf("root_dir = %q, want %q", s.Root, root)
+	}
+	if s.Init["voidFraction"] != "zivi" {
+		t.Errorf("init_options = %v", s.Init)
+	}
+	if c, _ := s.Settings["circa"].(map[string]any); c["voidFraction"] != "zivi" {
+		t.Errorf("settings = %v", s.Settings)
+	}
+	// Without .git above it, the file's own directory is the root.
+	lone := filepath.Join(t.TempDir(), "b.loop")
+	copyFile(t, file, lone)
+	p = runNvim(t, lone, []string{"CIRCA_PROBE_FAKESTART=1"})
+	if p.Started == nil || mustEval(t, p.Started.Root) != mustEval(t, filepath.Dir(lone)) {
+		t.Errorf("root without .git: %+v", p.Started)
+	}
+}
+
+func mustEval(t *testing.T, p string) string {
+	t.Helper()
+	q, err := filepath.EvalSymlinks(p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return q
 }

@@ -20,7 +20,7 @@ func runPlotCmd(t *testing.T, args ...string) (int, string, string) {
 
 func TestPlotWritesFigures(t *testing.T) {
 	dir := t.TempDir()
-	code, out, errs := runPlotCmd(t, "../../testdata/examples/rack-door.loop", "--out", dir, "--format", "svg,png", "--case", "overload")
+	code, out, errs := runPlotCmd(t, "../../testdata/plot/rack.loop", "--out", dir, "--format", "svg,png", "--case", "overload")
 	if code != exitOK {
 		t.Fatalf("plot = %d: %s", code, errs)
 	}
@@ -59,7 +59,7 @@ func TestPlotWritesFigures(t *testing.T) {
 }
 
 func TestPlotUsage(t *testing.T) {
-	const file = "../../testdata/examples/rack-door.loop"
+	const file = "../../testdata/plot/rack.loop"
 	for _, args := range [][]string{{}, {file, "--format", "gif"}, {file, "--case", "nope"}, {file, file}} {
 		if code, _, _ := runPlotCmd(t, append(args, "--out", t.TempDir())...); code != exitUsage {
 			t.Errorf("plot %v = %d, want %d", args, code, exitUsage)
