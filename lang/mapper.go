@@ -157,9 +157,9 @@ func (m *Mapper) PositionOffset(p Position, enc Encoding) int {
 	return end
 }
 
-// SpanRange converts a span to start and end positions, clipping the end to
-// the line of the start when the span runs past its line's end (some editors
-// underline the wrong text otherwise).
+// SpanRange converts a span to start and end positions; a reversed span
+// becomes an empty range at its start. Multi-line spans stay multi-line
+// (edits need them); callers that underline text clip to one line.
 func (m *Mapper) SpanRange(s Span, enc Encoding) (Position, Position) {
 	start := m.OffsetPosition(s.Start, enc)
 	end := m.OffsetPosition(s.End, enc)

@@ -66,7 +66,28 @@ func resolveRoot(m *Model, root string, src []byte, fsys FS) *Model {
 	r.declare()
 	r.fill()
 	r.allows()
+	m.Diags = dedupe(m.Diags)
 	return m
+}
+
+// dedupe drops findings of the same rule at the same place: a part's bad
+// field is read once for every component that uses it.
+func dedupe(ds []Diagnostic) []Diagnostic {
+	type key struct {
+		rule string
+		loc  Location
+	}
+	seen := make(map[key]bool, len(ds))
+	out := ds[:0]
+	for _, d := range ds {
+		k := key{d.Rule, d.Loc}
+		if seen[k] {
+			continue
+		}
+		seen[k] = true
+		out = append(out, d)
+	}
+	return out
 }
 
 type paramState struct {
