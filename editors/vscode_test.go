@@ -77,6 +77,37 @@ func TestVSCodeManifest(t *testing.T) {
 		var v any
 		loadJSON(t, filepath.Join(dir, p), &v)
 	}
+	// Language configuration: '#' comments, brace pairs, folding by braces.
+	var lc struct {
+		Comments struct {
+			LineComment string `json:"lineComment"`
+		} `json:"comments"`
+		Brackets         [][2]string `json:"brackets"`
+		AutoClosingPairs []struct {
+			Open, Close string
+		} `json:"autoClosingPairs"`
+		Folding struct {
+			Markers struct{ Start, End string } `json:"markers"`
+		} `json:"folding"`
+	}
+	loadJSON(t, filepath.Join(dir, m.Contributes.Languages[0].Configuration), &lc)
+	if lc.Comments.LineComment != "#" || len(lc.Brackets) != 2 || len(lc.AutoClosingPairs) != 3 {
+		t.Errorf("language configuration %+v", lc)
+	}
+	start := regexp.MustCompile(lc.Folding.Markers.Start)
+	end := regexp.MustCompile(lc.Folding.Markers.End)
+	for line, want := range map[string][2]bool{
+		"loop rack {":                         {true, false},
+		"  pipe p from a to b {   # comment":  {true, false},
+		"  }":                                 {false, true},
+		"}":                                   {false, true},
+		"  pipe p from a to b { length 1 m }": {false, false},
+		"  length 1 m":                        {false, false},
+	} {
+		if got := [2]bool{start.MatchString(line), end.MatchString(line)}; got != want {
+			t.Errorf("folding markers on %q: start, end = %v, want %v", line, got, want)
+		}
+	}
 	if g := m.Contributes.Grammars[0]; g.ScopeName != "source.loop" || g.Language != "loop" {
 		t.Errorf("grammar = %+v", g)
 	}
