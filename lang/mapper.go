@@ -1,6 +1,7 @@
 package lang
 
 import (
+	"bytes"
 	"sort"
 	"unicode/utf8"
 )
@@ -181,4 +182,21 @@ func (m *Mapper) RangeOffsets(a, b Position, enc Encoding) Span {
 // LineText returns the text of a zero-based line without its newline.
 func (m *Mapper) LineText(line int) string {
 	return string(m.text[m.LineStart(line):m.LineEnd(line)])
+}
+
+// SplitLines cuts text into lines that keep their "\n"; a last line without
+// one is kept as it is. Line diffs (circa fmt -d, editor formatting) work on
+// these.
+func SplitLines(b []byte) []string {
+	var out []string
+	for len(b) > 0 {
+		i := bytes.IndexByte(b, '\n')
+		if i < 0 {
+			out = append(out, string(b))
+			break
+		}
+		out = append(out, string(b[:i+1]))
+		b = b[i+1:]
+	}
+	return out
 }

@@ -55,7 +55,7 @@ func formatHunks(d *document) ([]hunk, error) {
 	if bytes.Equal(out, d.text) {
 		return nil, nil
 	}
-	return lineDiff(splitLines(d.text), splitLines(out)), nil
+	return lineDiff(lang.SplitLines(d.text), lang.SplitLines(out)), nil
 }
 
 // hunkEdits turns hunks into text edits; with first >= 0 only hunks that
@@ -81,21 +81,6 @@ func hunkEdits(d *document, enc lang.Encoding, hunks []hunk, first, last int) []
 		edits = append(edits, protocol.TextEdit{Range: protocol.Range{Start: fromPos(a), End: fromPos(b)}, NewText: h.text})
 	}
 	return edits
-}
-
-// splitLines splits text into lines that keep their newline.
-func splitLines(b []byte) []string {
-	var out []string
-	for len(b) > 0 {
-		i := bytes.IndexByte(b, '\n')
-		if i < 0 {
-			out = append(out, string(b))
-			break
-		}
-		out = append(out, string(b[:i+1]))
-		b = b[i+1:]
-	}
-	return out
 }
 
 // hunk replaces old lines [oldStart, oldEnd) with text.

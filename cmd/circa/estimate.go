@@ -3,7 +3,6 @@ package main
 import (
 	"encoding/csv"
 	"encoding/json"
-	"errors"
 	"flag"
 	"fmt"
 	"io"
@@ -50,19 +49,9 @@ func runEstimate(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 		fl.PrintDefaults()
 	}
 	// Flags may come before or after the file.
-	var files []string
-	for {
-		if err := fl.Parse(args); err != nil {
-			if errors.Is(err, flag.ErrHelp) {
-				return exitOK
-			}
-			return exitUsage
-		}
-		if fl.NArg() == 0 {
-			break
-		}
-		files = append(files, fl.Arg(0))
-		args = fl.Args()[1:]
+	files, rc, ok := parseInterleaved(fl, args)
+	if !ok {
+		return rc
 	}
 	if len(files) != 1 {
 		fmt.Fprintln(stderr, "circa estimate: give exactly one .loop file")

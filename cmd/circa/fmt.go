@@ -186,22 +186,6 @@ func writeKeepingMode(path string, data []byte, mode os.FileMode) error {
 	return nil
 }
 
-// splitLines cuts text into lines that keep their "\n"; a last line without
-// one is kept as it is.
-func splitLines(b []byte) []string {
-	var out []string
-	for len(b) > 0 {
-		i := bytes.IndexByte(b, '\n')
-		if i < 0 {
-			out = append(out, string(b))
-			break
-		}
-		out = append(out, string(b[:i+1]))
-		b = b[i+1:]
-	}
-	return out
-}
-
 // maxDiffCells bounds the table of the longest-common-subsequence search;
 // beyond it the changed middle is shown as one replacement.
 const maxDiffCells = 16 << 20
@@ -278,7 +262,7 @@ func unifiedDiff(nameA, nameB string, a, b []byte) string {
 	if bytes.Equal(a, b) {
 		return ""
 	}
-	ops := editScript(splitLines(a), splitLines(b))
+	ops := editScript(lang.SplitLines(a), lang.SplitLines(b))
 	const ctx = 3
 	var out strings.Builder
 	fmt.Fprintf(&out, "--- %s\n+++ %s\n", nameA, nameB)

@@ -2,6 +2,7 @@ package main
 
 import (
 	"bytes"
+	"circa/lang"
 	"fmt"
 	"math/rand"
 	"os"
@@ -131,7 +132,7 @@ func TestFmtExamplesAreFormatted(t *testing.T) {
 // removed line, so a wrong diff cannot pass.
 func applyUnified(t *testing.T, a, diff string) string {
 	t.Helper()
-	src := splitLines([]byte(a))
+	src := lang.SplitLines([]byte(a))
 	lines := strings.SplitAfter(diff, "\n")
 	var out []string
 	pos := 0 // next unread line of src

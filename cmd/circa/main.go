@@ -3,6 +3,8 @@
 package main
 
 import (
+	"errors"
+	"flag"
 	"fmt"
 	"io"
 	"os"
@@ -71,4 +73,23 @@ func usage(w io.Writer) {
 Estimates are for early design only. Pressure equipment, flammable or toxic
 working fluids and hot surfaces must follow local codes and licensed
 engineering practice.`))
+}
+
+// parseInterleaved parses flags that may stand before or after the
+// positional arguments and returns the positional ones. ok is false when
+// parsing failed; rc is then the exit status (0 after -h).
+func parseInterleaved(fl *flag.FlagSet, args []string) (pos []string, rc int, ok bool) {
+	for {
+		if err := fl.Parse(args); err != nil {
+			if errors.Is(err, flag.ErrHelp) {
+				return nil, exitOK, false
+			}
+			return nil, exitUsage, false
+		}
+		if fl.NArg() == 0 {
+			return pos, 0, true
+		}
+		pos = append(pos, fl.Arg(0))
+		args = fl.Args()[1:]
+	}
 }

@@ -2,7 +2,6 @@ package main
 
 import (
 	"bytes"
-	"errors"
 	"flag"
 	"fmt"
 	"io"
@@ -49,19 +48,9 @@ func runPlot(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 		fmt.Fprint(stderr, plotUsage)
 		fl.PrintDefaults()
 	}
-	var files []string
-	for {
-		if err := fl.Parse(args); err != nil {
-			if errors.Is(err, flag.ErrHelp) {
-				return exitOK
-			}
-			return exitUsage
-		}
-		if fl.NArg() == 0 {
-			break
-		}
-		files = append(files, fl.Arg(0))
-		args = fl.Args()[1:]
+	files, rc, ok := parseInterleaved(fl, args)
+	if !ok {
+		return rc
 	}
 	if len(files) != 1 {
 		fmt.Fprintln(stderr, "circa plot: give exactly one .loop file")
