@@ -346,7 +346,7 @@ func (s *scanner) scanString() {
 	s.pos++
 	for s.pos < len(src) {
 		c := src[s.pos]
-		if c == '\\' && s.pos+1 < len(src) && src[s.pos+1] != '\n' {
+		if c == '\\' && s.pos+1 < len(src) && src[s.pos+1] != '\n' && src[s.pos+1] != '\r' {
 			s.pos += 2
 			continue
 		}
@@ -355,7 +355,9 @@ func (s *scanner) scanString() {
 			s.emit(TokString, start)
 			return
 		}
-		if c == '\n' {
+		if c == '\n' || c == '\r' {
+			// A string ends on its line; a raw carriage return cannot be kept
+			// in a canonical layout, so it ends the string too.
 			break
 		}
 		s.pos++
