@@ -1,10 +1,11 @@
 package lang
 
-import (
-	"strings"
+import "strings"
 
-	"github.com/alecthomas/participle/v2/lexer"
-)
+// Pos is a byte offset into a file's text. Tree nodes keep only offsets
+// (lines and columns come from the file's Mapper), which keeps a large
+// file's tree small.
+type Pos struct{ Offset int }
 
 // File is the syntax tree of one .loop text: its statements in blocks, its
 // comments, and the syntax errors found. A file with errors still holds every
@@ -21,10 +22,10 @@ type File struct {
 // Stmt is one statement: a word followed by its parts, and an optional
 // block. Bad statements (syntax errors) keep their span and word, if any.
 type Stmt struct {
-	Pos    lexer.Position
-	EndPos lexer.Position
-	Word   *Ident `parser:"@@"`
-	Args   []*Arg `parser:"@@*"`
+	Pos    Pos
+	EndPos Pos
+	Word   *Ident
+	Args   []*Arg
 
 	Block *Block // nil when the statement has no block
 	Bad   bool   // the statement did not parse; Word may still be set
@@ -51,9 +52,9 @@ type Block struct {
 
 // Ident is a name with its span.
 type Ident struct {
-	Pos    lexer.Position
-	EndPos lexer.Position
-	Name   string `parser:"@Ident"`
+	Pos    Pos
+	EndPos Pos
+	Name   string
 }
 
 // Span returns the name's span.
@@ -62,10 +63,10 @@ func (i *Ident) Span() Span { return Span{i.Pos.Offset, i.EndPos.Offset} }
 // Arg is one piece of a statement after its word: a connective keyword
 // (from, to, at, =) or an expression.
 type Arg struct {
-	Pos    lexer.Position
-	EndPos lexer.Position
-	Key    string `parser:"  @(\"from\" | \"to\" | \"at\" | \"=\")"`
-	Expr   *Expr  `parser:"| @@"`
+	Pos    Pos
+	EndPos Pos
+	Key    string
+	Expr   *Expr
 }
 
 // Span returns the part's span.
@@ -73,10 +74,10 @@ func (p *Arg) Span() Span { return Span{p.Pos.Offset, p.EndPos.Offset} }
 
 // Expr is a sum of terms.
 type Expr struct {
-	Pos    lexer.Position
-	EndPos lexer.Position
-	Left   *Term     `parser:"@@"`
-	Ops    []*ExprOp `parser:"@@*"`
+	Pos    Pos
+	EndPos Pos
+	Left   *Term
+	Ops    []*ExprOp
 }
 
 // Span returns the expression's span.
@@ -84,51 +85,51 @@ func (e *Expr) Span() Span { return Span{e.Pos.Offset, e.EndPos.Offset} }
 
 // ExprOp is "+ term" or "- term".
 type ExprOp struct {
-	Op   string `parser:"@(\"+\" | \"-\")"`
-	Term *Term  `parser:"@@"`
+	Op   string
+	Term *Term
 }
 
 // Term is a product of factors.
 type Term struct {
-	Pos    lexer.Position
-	EndPos lexer.Position
-	Left   *Factor   `parser:"@@"`
-	Ops    []*TermOp `parser:"@@*"`
+	Pos    Pos
+	EndPos Pos
+	Left   *Factor
+	Ops    []*TermOp
 }
 
 // TermOp is "* factor" or "/ factor".
 type TermOp struct {
-	Op     string  `parser:"@(\"*\" | \"/\")"`
-	Factor *Factor `parser:"@@"`
+	Op     string
+	Factor *Factor
 }
 
 // Factor is an optionally signed atom with an optional integer power.
 type Factor struct {
-	Pos    lexer.Position
-	EndPos lexer.Position
-	Sign   string `parser:"@(\"-\" | \"+\")?"`
-	Atom   *Atom  `parser:"@@"`
-	Power  *Power `parser:"( \"^\" @@ )?"`
+	Pos    Pos
+	EndPos Pos
+	Sign   string
+	Atom   *Atom
+	Power  *Power
 }
 
 // Power is the exponent after '^'.
 type Power struct {
-	Pos    lexer.Position
-	EndPos lexer.Position
-	Sign   string `parser:"@(\"-\" | \"+\")?"`
-	Digits string `parser:"@Number"`
+	Pos    Pos
+	EndPos Pos
+	Sign   string
+	Digits string
 }
 
 // Atom is a number with an optional unit, a name, a string, or a
 // parenthesised expression or vector with an optional unit.
 type Atom struct {
-	Pos    lexer.Position
-	EndPos lexer.Position
-	Number string   `parser:"(  @Number"`
-	Ref    *Ident   `parser:" | (?! \"from\" | \"to\" | \"at\") @@"`
-	Str    *Str     `parser:" | @@"`
-	Group  []*Expr  `parser:" | \"(\" @@ ( \",\" @@ )* \")\" )"`
-	Unit   *UnitTok `parser:"@@?"`
+	Pos    Pos
+	EndPos Pos
+	Number string
+	Ref    *Ident
+	Str    *Str
+	Group  []*Expr
+	Unit   *UnitTok
 }
 
 // Span returns the atom's span.
@@ -136,9 +137,9 @@ func (a *Atom) Span() Span { return Span{a.Pos.Offset, a.EndPos.Offset} }
 
 // Str is a string literal with its quotes.
 type Str struct {
-	Pos    lexer.Position
-	EndPos lexer.Position
-	Quoted string `parser:"@String"`
+	Pos    Pos
+	EndPos Pos
+	Quoted string
 }
 
 // Value returns the string without quotes and escapes.
@@ -149,9 +150,9 @@ func (s *Str) Span() Span { return Span{s.Pos.Offset, s.EndPos.Offset} }
 
 // UnitTok is the unit word after a number or a closing parenthesis.
 type UnitTok struct {
-	Pos    lexer.Position
-	EndPos lexer.Position
-	Text   string `parser:"@Unit"`
+	Pos    Pos
+	EndPos Pos
+	Text   string
 }
 
 // Span returns the unit's span.

@@ -23,12 +23,6 @@ const (
 	TokComment // '#' to the end of the line (elided)
 )
 
-var symbols = map[string]lexer.TokenType{
-	"EOF": TokEOF, "Ident": TokIdent, "Number": TokNumber, "Unit": TokUnit,
-	"String": TokString, "Punct": TokPunct, "Newline": TokNewline, "Bad": TokBad,
-	"Space": TokSpace, "Comment": TokComment,
-}
-
 // Comment is a '#' comment; its text includes the '#'.
 type Comment struct {
 	Span Span
@@ -38,7 +32,16 @@ type Comment struct {
 // lexDef is the participle lexer definition for .loop text.
 type lexDef struct{}
 
-func (lexDef) Symbols() map[string]lexer.TokenType { return symbols }
+// Symbols names the token types. It builds its map on each call (the parser
+// asks once, at start-up) so that it does not depend on the order package
+// variables are initialised in.
+func (lexDef) Symbols() map[string]lexer.TokenType {
+	return map[string]lexer.TokenType{
+		"EOF": TokEOF, "Ident": TokIdent, "Number": TokNumber, "Unit": TokUnit,
+		"String": TokString, "Punct": TokPunct, "Newline": TokNewline, "Bad": TokBad,
+		"Space": TokSpace, "Comment": TokComment,
+	}
+}
 
 func (lexDef) Lex(filename string, r io.Reader) (lexer.Lexer, error) {
 	b, err := io.ReadAll(r)

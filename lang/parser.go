@@ -9,20 +9,6 @@ import (
 	"github.com/alecthomas/participle/v2/lexer"
 )
 
-var stmtParser = participle.MustBuild[Stmt](
-	participle.Lexer(lexDef{}),
-	participle.Elide("Space", "Comment"),
-	participle.UseLookahead(2),
-)
-
-// argParser parses one part of a statement; it is used only to explain why
-// the statement parser stopped before the end of a line.
-var argParser = participle.MustBuild[Arg](
-	participle.Lexer(lexDef{}),
-	participle.Elide("Space", "Comment"),
-	participle.UseLookahead(2),
-)
-
 // MaxNesting bounds how deeply parentheses may nest in one statement. The
 // grammar is parsed recursively; the bound keeps hostile text from using
 // unbounded stack, and no real expression comes near it.
@@ -240,9 +226,9 @@ func (p *parser) tooDeep(i int) *lexer.Token {
 // the end of its line, opening a block if the line opens one so later
 // lines nest right.
 func (p *parser) skipBad(first lexer.Token) {
-	bad := &Stmt{Pos: first.Pos, Bad: true}
+	bad := &Stmt{Pos: at(first.Pos), Bad: true}
 	if first.Type == TokIdent {
-		bad.Word = &Ident{Pos: first.Pos, EndPos: lexer.Position{Offset: first.Pos.Offset + len(first.Value)}, Name: first.Value}
+		bad.Word = &Ident{Pos: at(first.Pos), EndPos: Pos{Offset: first.Pos.Offset + len(first.Value)}, Name: first.Value}
 	}
 	end := first.Pos.Offset + len(first.Value)
 	for {
@@ -253,14 +239,14 @@ func (p *parser) skipBad(first lexer.Token) {
 		p.next()
 		end = t.Pos.Offset + len(t.Value)
 		if isPunctTok(t, "{") {
-			bad.EndPos = lexer.Position{Offset: t.Pos.Offset}
+			bad.EndPos = Pos{Offset: t.Pos.Offset}
 			bad.Block = &Block{Open: t.Pos.Offset, Close: -1}
 			p.add(bad)
 			p.push(bad)
 			return
 		}
 	}
-	bad.EndPos = lexer.Position{Offset: end}
+	bad.EndPos = Pos{Offset: end}
 	p.add(bad)
 }
 
@@ -323,26 +309,6 @@ func (p *parser) explainStop(t *lexer.Token) {
 	p.errorf(tokSpan(t), "%s", unexpected(t, "at the end of the statement"))
 }
 
-func parseArg(lex *lexer.PeekingLexer) (a *Arg, err error) {
-	defer func() {
-		if r := recover(); r != nil {
-			a, err = nil, fmt.Errorf("cannot parse this part (%v)", r)
-		}
-	}()
-	return argParser.ParseFromLexer(lex, participle.AllowTrailing(true))
-}
-
-// parseStmt runs the participle grammar for one statement, turning any
-// panic inside the parser into an error.
-func parseStmt(lex *lexer.PeekingLexer) (s *Stmt, err error) {
-	defer func() {
-		if r := recover(); r != nil {
-			s, err = nil, fmt.Errorf("cannot parse this statement (%v)", r)
-		}
-	}()
-	return stmtParser.ParseFromLexer(lex, participle.AllowTrailing(true))
-}
-
 func (p *parser) reportParseError(err error, first lexer.Token) {
 	var perr participle.Error
 	if errors.As(err, &perr) {
@@ -388,6 +354,11 @@ func (p *parser) tokenAt(off int) *lexer.Token {
 func friendlyExpected(s string) string {
 	s = strings.TrimPrefix(s, "(")
 	s = strings.TrimSuffix(s, ")")
+	// The grammar's mirror types are named gAtom, gExpr, …; participle
+	// capitalises them in its messages.
+	for _, g := range []string{"GAtom", "GExpr", "GFactor", "GTerm", "GIdent", "GStr", "GUnitTok", "GArg", "GPower"} {
+		s = strings.ReplaceAll(s, g, strings.TrimPrefix(g, "G"))
+	}
 	s = strings.ReplaceAll(s, "<ident>", "a name")
 	s = strings.ReplaceAll(s, "<number>", "a number")
 	s = strings.ReplaceAll(s, "<string>", "a string")
@@ -488,7 +459,7 @@ func (q *fastParser) next() *lexer.Token {
 
 // end is the position right after the last token consumed, which is what
 // participle stores in EndPos.
-func (q *fastParser) end() lexer.Position { return q.toks[q.i].Pos }
+func (q *fastParser) end() Pos { return at(q.toks[q.i].Pos) }
 
 func endsStatement(t *lexer.Token) bool {
 	if t.Type == TokEOF || t.Type == TokNewline {
@@ -503,17 +474,17 @@ func (q *fastParser) stmt() (*Stmt, bool) {
 		return nil, false
 	}
 	s := q.stmts.alloc()
-	s.Pos = t.Pos
+	s.Pos = at(t.Pos)
 	q.next()
 	s.Word = q.idents.alloc()
-	*s.Word = Ident{Pos: t.Pos, EndPos: q.end(), Name: t.Value}
+	*s.Word = Ident{Pos: at(t.Pos), EndPos: q.end(), Name: t.Value}
 	for {
 		t := q.peek()
 		if endsStatement(t) {
 			break
 		}
 		a := q.args.alloc()
-		a.Pos = t.Pos
+		a.Pos = at(t.Pos)
 		switch t.Value {
 		case "from", "to", "at", "=":
 			q.next()
@@ -534,7 +505,7 @@ func (q *fastParser) stmt() (*Stmt, bool) {
 
 func (q *fastParser) expr() (*Expr, bool) {
 	e := q.exprs.alloc()
-	e.Pos = q.peek().Pos
+	e.Pos = at(q.peek().Pos)
 	var ok bool
 	if e.Left, ok = q.term(); !ok {
 		return nil, false
@@ -559,7 +530,7 @@ func (q *fastParser) expr() (*Expr, bool) {
 
 func (q *fastParser) term() (*Term, bool) {
 	tm := q.terms.alloc()
-	tm.Pos = q.peek().Pos
+	tm.Pos = at(q.peek().Pos)
 	var ok bool
 	if tm.Left, ok = q.factor(); !ok {
 		return nil, false
@@ -585,7 +556,7 @@ func (q *fastParser) term() (*Term, bool) {
 func (q *fastParser) factor() (*Factor, bool) {
 	t := q.peek()
 	f := q.factors.alloc()
-	f.Pos = t.Pos
+	f.Pos = at(t.Pos)
 	if t.Value == "-" || t.Value == "+" {
 		q.next()
 		f.Sign = t.Value
@@ -598,7 +569,7 @@ func (q *fastParser) factor() (*Factor, bool) {
 		q.next()
 		t := q.peek()
 		pw := q.powers.alloc()
-		pw.Pos = t.Pos
+		pw.Pos = at(t.Pos)
 		if t.Value == "-" || t.Value == "+" {
 			q.next()
 			pw.Sign = t.Value
@@ -619,7 +590,7 @@ func (q *fastParser) factor() (*Factor, bool) {
 func (q *fastParser) atom() (*Atom, bool) {
 	t := q.peek()
 	a := q.atoms.alloc()
-	a.Pos = t.Pos
+	a.Pos = at(t.Pos)
 	switch {
 	case t.Type == TokNumber:
 		q.next()
@@ -627,11 +598,11 @@ func (q *fastParser) atom() (*Atom, bool) {
 	case t.Type == TokIdent && t.Value != "from" && t.Value != "to" && t.Value != "at":
 		q.next()
 		a.Ref = q.idents.alloc()
-		*a.Ref = Ident{Pos: t.Pos, EndPos: q.end(), Name: t.Value}
+		*a.Ref = Ident{Pos: at(t.Pos), EndPos: q.end(), Name: t.Value}
 	case t.Type == TokString:
 		q.next()
 		a.Str = q.strs.alloc()
-		*a.Str = Str{Pos: t.Pos, EndPos: q.end(), Quoted: t.Value}
+		*a.Str = Str{Pos: at(t.Pos), EndPos: q.end(), Quoted: t.Value}
 	case t.Value == "(":
 		q.next()
 		for {
@@ -657,7 +628,7 @@ func (q *fastParser) atom() (*Atom, bool) {
 	if t := q.peek(); t.Type == TokUnit {
 		q.next()
 		a.Unit = q.unitsT.alloc()
-		*a.Unit = UnitTok{Pos: t.Pos, EndPos: q.end(), Text: t.Value}
+		*a.Unit = UnitTok{Pos: at(t.Pos), EndPos: q.end(), Text: t.Value}
 	}
 	a.EndPos = q.end()
 	return a, true

@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"os"
 	"runtime"
+	"runtime/debug"
 	"sort"
 	"strconv"
 	"strings"
@@ -58,6 +59,8 @@ func median(ds []time.Duration) time.Duration {
 }
 
 func benchEdit(b *testing.B, text []byte, complete bool) {
+	// As circa serve runs.
+	defer debug.SetMemoryLimit(debug.SetMemoryLimit(MemoryLimit))
 	c, uri, line, col := benchSession(b, text, -1, complete)
 	var ds []time.Duration
 	b.ResetTimer()
