@@ -250,16 +250,12 @@ case nominal { heat heater 30 W }
 	}
 	// Properties at the loop's mean temperature, from the estimator's own
 	// fluid (water, IAPWS): β from the liquid density slope.
-	var sub, cool float64
+	var sub float64
 	for _, cs := range c.Components {
 		if cs.Component == "heater" {
 			sub = cs.XIn
 		}
-		if cs.Component == "cooler" {
-			cool = cs.XIn
-		}
 	}
-	_ = cool
 	fl, _ := lookupForTest("water")
 	sat, _ := fl.AtT(373.15)
 	tMean := 373.15 + 0.5*(sub+c.Components[0].XOut)*sat.Hlv/sat.CpL
@@ -268,9 +264,8 @@ case nominal { heat heater 30 W }
 	sm, _ := fl.AtT(tMean)
 	rho, mu, cp := sm.RhoL, sm.MuL, sm.CpL
 	beta := -(s2.RhoL - s1.RhoL) / 2 / rho
-	D, Lt, dz, Q := 0.01, 5.0, 1.25, 30.0 // Δz: heater centre 0.25 m to cooler 2 m... centre-to-centre
-	_ = dz
-	dz = 2 - 0.25
+	// Δz: heater centre (0.25 m) to cooler centre (2 m).
+	D, Lt, dz, Q := 0.01, 5.0, 2-0.25, 30.0
 	A := math.Pi / 4 * D * D
 	grm := D * D * D * rho * rho * beta * gn * Q * dz / (A * mu * mu * mu * cp)
 	ng := Lt / D
