@@ -111,6 +111,9 @@ type resolver struct {
 	caseStmts map[*Case]*Stmt
 	limStmts  []fileStmt
 	methStmts []fileStmt
+	// unitHint is the dimension the quantity being evaluated must have,
+	// when it is a lone quantity.
+	unitHint *units.Need
 }
 
 type fileStmt struct {
@@ -995,6 +998,12 @@ func needNoun(n units.Need) string {
 
 // expr evaluates an expression and checks it against need.
 func (r *resolver) expr(file string, e *Expr, need units.Need) Value {
+	if singleAtom(e) != nil {
+		// A lone quantity: a misspelt unit's suggestions can be narrowed to
+		// the dimension the field needs.
+		r.unitHint = &need
+		defer func() { r.unitHint = nil }()
+	}
 	q, unitText, ok := r.eval(file, e)
 	if !ok {
 		return Value{}
@@ -1088,7 +1097,7 @@ func (r *resolver) unit(file string, t *UnitTok) (units.Unit, bool) {
 				sp = t.Span()
 			}
 			d := r.errorf("unit", file, sp, "%s", ue.Msg)
-			for _, sg := range ue.Suggestions {
+			for _, sg := range r.fitting(ue.Suggestions) {
 				d.Fixes = append(d.Fixes, Fix{Title: fmt.Sprintf("Change to %q", sg), Edits: []Edit{{Loc: Location{File: file, Span: t.Span()}, NewText: sg}}})
 			}
 		} else {
@@ -1097,6 +1106,24 @@ func (r *resolver) unit(file string, t *UnitTok) (units.Unit, bool) {
 		return units.Unit{}, false
 	}
 	return u, true
+}
+
+// fitting keeps the suggested units of the dimension the field needs, when
+// it is known and any suggestion has it.
+func (r *resolver) fitting(sugg []string) []string {
+	if r.unitHint == nil {
+		return sugg
+	}
+	var keep []string
+	for _, sg := range sugg {
+		if u, err := units.Parse(sg); err == nil && u.Dim == r.unitHint.Dim {
+			keep = append(keep, sg)
+		}
+	}
+	if len(keep) == 0 {
+		return sugg
+	}
+	return keep
 }
 
 // eval computes an expression's quantity. It returns the unit text when the
