@@ -66,6 +66,10 @@ type Options struct {
 	SkipEstimates bool
 	// Severity overrides the severity of a rule's findings.
 	Severity map[string]lang.Severity
+	// NoTilt skips the estimate's search for the attitudes at which
+	// circulation stops: the other margins are still checked, the tilt
+	// margin is not. The search repeats the estimate many times.
+	NoTilt bool
 }
 
 // Fails reports whether any finding is at least as severe as FailOn.

@@ -107,7 +107,7 @@ func init() {
 // once per loop.
 func loopEstimate(c *Context) *flow.LoopResult {
 	v := c.Memo("flow-estimate", func() any {
-		lr := flow.EstimateLoop(c.Model, c.Loop, flow.Options{})
+		lr := flow.EstimateLoop(c.Model, c.Loop, flow.Options{NoTilt: c.Options.NoTilt})
 		return &lr
 	})
 	return v.(*flow.LoopResult)

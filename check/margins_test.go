@@ -59,3 +59,43 @@ case overload { heat plate 3 kW }
 		}
 	}
 }
+
+// NoTilt keeps every margin but the tilt margin: a case pitched close to
+// the loop's critical angle warns only when the search runs.
+func TestMarginsNoTilt(t *testing.T) {
+	src := `
+loop r {
+  fluid R134a
+  node a at (0, 0, 0) m
+  node b at (0, 0, 0.3) m
+  node c at (-1, 0, 0.5) m
+  node d at (-1.2, 0, 0.4) m
+  evaporator plate from a to b { length 0.3 m; bore 10 mm; wetted_area 0.01 m2 }
+  pipe riser from b to c { length 1.2 m; bore 12 mm }
+  condenser coil from c to d { length 0.3 m; bore 10 mm; conductance 150 W/K; sink 25 degC }
+  pipe down from d to a { length 1.5 m; bore 10 mm }
+}
+limits { exit_quality 0.01; tilt_margin 30 deg }
+case climb { heat plate 500 W; pitch -10 deg }
+`
+	m := lang.LoadSource("t.loop", []byte(src), lang.OSFS{})
+	rules := func(ds []lang.Diagnostic) map[string]bool {
+		out := map[string]bool{}
+		for _, d := range ds {
+			out[d.Rule] = true
+		}
+		return out
+	}
+	full := rules(Run(m, Options{}))
+	if !full["margin-tilt"] || !full["margin-exit-quality"] {
+		t.Fatalf("full run lacks the tilt or exit-quality margin: %v", full)
+	}
+	m = lang.LoadSource("t.loop", []byte(src), lang.OSFS{})
+	quick := rules(Run(m, Options{NoTilt: true}))
+	if quick["margin-tilt"] {
+		t.Error("tilt margin reported with NoTilt")
+	}
+	if !quick["margin-exit-quality"] {
+		t.Error("exit-quality margin lost with NoTilt")
+	}
+}

@@ -47,21 +47,35 @@ func checkModel(ctx context.Context, m *lang.Model) ([]lang.Diagnostic, *estimat
 // margin checks: their tilt search repeats the estimate hundreds of times.
 const autoMarginBudget = 10 * time.Millisecond
 
-// wantMarginChecks reports whether the margin rules should run for an
-// analysis under the settings.
-func wantMarginChecks(st Settings, est *estimates) bool {
+// marginMode says how the margin rules run for an analysis under the
+// settings: not at all, without the tilt-limit search, or in full.
+type marginMode int
+
+const (
+	marginsOff marginMode = iota
+	marginsNoTilt
+	marginsFull
+)
+
+// wantMarginChecks decides how the margin rules run. "auto" runs them in
+// full when one estimate is quick, else without the tilt-limit search
+// (which repeats the estimate hundreds of times).
+func wantMarginChecks(st Settings, est *estimates) marginMode {
 	switch st.MarginChecks {
 	case "always":
-		return true
+		return marginsFull
 	case "never":
-		return false
+		return marginsOff
 	}
-	return est != nil && est.took < autoMarginBudget
+	if est != nil && est.took < autoMarginBudget {
+		return marginsFull
+	}
+	return marginsNoTilt
 }
 
 // fullCheck runs the command line's checks, margins included.
-func fullCheck(m *lang.Model) []lang.Diagnostic {
-	return check.RunReport(m, check.Options{}).Diagnostics
+func fullCheck(m *lang.Model, mode marginMode) []lang.Diagnostic {
+	return check.RunReport(m, check.Options{NoTilt: mode == marginsNoTilt}).Diagnostics
 }
 
 // estimatesFor returns the finished estimates of an analysis, else the

@@ -123,13 +123,16 @@ func (s *Server) runFullChecks(ctx context.Context, a *analysis) {
 	if a.fullyChecked() {
 		return
 	}
-	if _, est, _ := a.checks(); !wantMarginChecks(a.settings, est) {
-		if !a.skipLogged.Swap(true) {
-			s.logf("%s: margin checks skipped (one estimate took %v; setting marginChecks %q)", a.root, est.tookOrZero(), a.settings.MarginChecks)
-		}
+	_, est, _ := a.checks()
+	mode := wantMarginChecks(a.settings, est)
+	if mode != marginsFull && !a.skipLogged.Swap(true) {
+		what := map[marginMode]string{marginsOff: "margin checks skipped", marginsNoTilt: "tilt margin skipped"}[mode]
+		s.logf("%s: %s (one estimate took %v; setting marginChecks %q)", a.root, what, est.tookOrZero(), a.settings.MarginChecks)
+	}
+	if mode == marginsOff {
 		return
 	}
-	diags := fullCheck(a.Model())
+	diags := fullCheck(a.Model(), mode)
 	if ctx.Err() != nil {
 		return
 	}
