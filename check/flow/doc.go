@@ -34,8 +34,10 @@
 //     component's local loss K·G²/(2ρ_h) on its outlet state. Components
 //     without heat keep one state along their length and are evaluated once.
 //   - A single loop has one unknown mass flow. Its excess head
-//     E(ṁ) = −Σ(p_in − p_out) is bracketed on a logarithmic grid and refined
-//     by Brent's method; a root with dE/dṁ < 0 is stable, one with
+//     E(ṁ) = −Σ(p_in − p_out) is bracketed on a logarithmic grid, finer
+//     over the boiling band (between the flows at which the heat just dries
+//     out and just saturates a subcooled return, where E need not be
+//     monotone), and refined by Brent's method; a root with dE/dṁ < 0 is stable, one with
 //     dE/dṁ > 0 statically unstable (Ledinegg) and flagged. The stable root
 //     of highest flow is the estimate.
 //   - A network (parallel branches between junctions) is solved for its

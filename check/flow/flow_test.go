@@ -364,3 +364,108 @@ func TestTiltLimits(t *testing.T) {
 		}
 	}
 }
+
+// TestLedineggLoop checks testdata/flow/ledinegg.loop, a loop with three
+// balances, against this arithmetic (constant properties ρl = 1000,
+// ρv = 10 kg/m³, h_lv = 1 MJ/kg, c_p,l = 4 kJ/(kg K); homogeneous void
+// and friction; heater and cooler level, so only the 1 m riser gives head;
+// friction in 40 mm tube is below 0.2 % of the orifice loss):
+//
+//	Subcooling 50 K: heater inlet x_in = −4000·50/1e6 = −0.2; 10 kW gives
+//	x = 0.01/ṁ − 0.2, so the heater outlet is just saturated at
+//	ṁ* = 0.05 kg/s. A = π/4·0.04² = 1.2566e-3 m², v_h = 0.001 + 0.099·x.
+//	E(ṁ) = g·H·(ρl − 1/v_h) − K·G²·v_h/2, K = 2800 at the riser outlet:
+//	  ṁ = 0.010: x = 0.8,    ρh = 12.47,  head 9684.4, loss 7110.2, E = +2574
+//	  ṁ = 0.025: x = 0.2,    ρh = 48.08,  head 9335.2, loss 11525.5, E = −2190
+//	  ṁ = 0.045: x = 0.0222, ρh = 312.5,  head 6742.1, loss 5744.9, E = +997
+//	  ṁ = 0.050: x = 0,      liquid,      head 0,      loss 2216.4, E = −2216
+//	Three sign changes: a root in each of (10, 25), (25, 45) and
+//	(45, 50) g/s. Solving E = 0 in closed form numerically
+//	gives 15.47, 40.98 and 48.86 g/s with dE/dṁ ≈ −3.82e5, +2.87e5 and
+//	−1.156e6 Pa/(kg/s).
+//
+// Why E rises: the orifice loss ∝ ṁ²·v_h = ṁ²(v_l + v_lv·(q/ṁ − s))
+// falls with flow above ṁ = q·v_lv/(2(v_lv·s − v_l)) = 26 g/s while the
+// two-phase head stays near g·H·ρl until x is within a few per cent of
+// zero. With y = x·v_lv/v_l the ratio head/loss ∝ y(y+S)²/(1+y)², S =
+// s·v_lv/v_l, which turns back (and E can rise with ṁ) only when S > 9:
+// here S = 19.8. That is the static (Ledinegg) excursion of a boiling
+// channel with subcooled inlet (Ledinegg, Die Wärme 61 (1938) 891, from
+// memory): the middle balance has dE/dṁ > 0 and is unstable.
+//
+// The two upper balances lie within one step of the coarse 5-per-decade
+// grid (39.8 to 63.1 g/s), which alone finds only the lowest one; the
+// estimate finds all three only through the refined boiling band.
+func TestLedineggLoop(t *testing.T) {
+	m := lang.Load("../../testdata/flow/ledinegg.loop", lang.OSFS{})
+	for _, d := range m.Diags {
+		t.Fatalf("ledinegg.loop: %s", d.Message())
+	}
+	r := estimate(t, m, Options{NoTilt: true})
+	c := only(t, r)
+	want := []struct{ m, slope float64 }{{0.01547, -3.82e5}, {0.04098, 2.87e5}, {0.04886, -1.156e6}} // the arithmetic above
+	if len(c.Roots) != len(want) {
+		t.Fatalf("roots %+v, want 3", c.Roots)
+	}
+	for i, w := range want {
+		got := c.Roots[i]
+		if math.Abs(got.MassFlow-w.m) > 0.005*w.m {
+			t.Errorf("root %d at %g kg/s, want %g within 0.5 %%", i, got.MassFlow, w.m)
+		}
+		if math.Abs(got.Slope-w.slope) > 0.02*math.Abs(w.slope) {
+			t.Errorf("root %d slope %g Pa/(kg/s), want %g within 2 %%", i, got.Slope, w.slope)
+		}
+		if got.Stable != (w.slope < 0) {
+			t.Errorf("root %d stable=%v with slope %g", i, got.Stable, got.Slope)
+		}
+	}
+	// The estimate is the stable balance of highest flow.
+	if !c.Circulates || math.Abs(c.MassFlow-c.Roots[2].MassFlow) > 1e-12 {
+		t.Errorf("estimate %g kg/s (circulates %v), want the upper stable root %g", c.MassFlow, c.Circulates, c.Roots[2].MassFlow)
+	}
+	if x := c.Components[0].XOut; math.Abs(x-(0.01/c.MassFlow-0.2)) > 1e-6 {
+		t.Errorf("heater exit quality %g, want %g", x, 0.01/c.MassFlow-0.2)
+	}
+	var unstable []Finding
+	for _, f := range c.Findings {
+		if f.Rule == RuleUnstable {
+			unstable = append(unstable, f)
+		}
+	}
+	if len(unstable) != 1 || unstable[0].Severity != "warning" || unstable[0].Loop != "throttled" ||
+		math.Abs(unstable[0].Value-c.Roots[1].MassFlow) > 1e-12 {
+		t.Errorf("unstable findings %+v, want one warning at %g kg/s", unstable, c.Roots[1].MassFlow)
+	}
+
+	// The coarse grid alone misses the upper pair; the refined one does not.
+	mu, _ := chooseMethods(m.Methods, Options{})
+	p := prepare(m, m.Loops[0], mu)
+	var cr CaseResult
+	s, _ := p.newState(point{c: m.Cases[0]}, &cr)
+	ev := s.newEval()
+	E := func(mf float64) float64 {
+		s.evaluate([]float64{mf}, ev)
+		return ev.e[0]
+	}
+	if coarse, _ := findRoots(E, grid); len(coarse) != 1 {
+		t.Errorf("coarse grid finds %d roots; the test no longer shows why the band is refined", len(coarse))
+	}
+	for _, h := range []struct{ m, e float64 }{{0.010, 2574.2}, {0.025, -2190.3}, {0.045, 997.2}, {0.050, -2216.4}} { // the arithmetic above
+		if got := E(h.m); math.Abs(got-h.e) > 0.01*math.Abs(h.e) {
+			t.Errorf("E(%g kg/s) = %g Pa, want %g within 1 %% (friction)", h.m, got, h.e)
+		}
+	}
+}
+
+func TestMergeGrid(t *testing.T) {
+	g := mergeGrid([]float64{1, 2, 4, 8}, []float64{6, 4 * (1 + 1e-12), 3})
+	want := []float64{1, 2, 3, 4, 6, 8}
+	if len(g) != len(want) {
+		t.Fatalf("merged %v, want %v", g, want)
+	}
+	for i := range want {
+		if math.Abs(g[i]-want[i]) > 1e-9 {
+			t.Fatalf("merged %v, want %v", g, want)
+		}
+	}
+}

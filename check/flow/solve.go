@@ -279,7 +279,66 @@ func (s *state) ringRoots(ev *eval) ([]root, float64) {
 		s.evaluate(f, ev)
 		return ev.e[0]
 	}
-	return findRoots(E, grid)
+	return findRoots(E, s.ringGrid())
+}
+
+// refinePerDecade is the density of the bracketing grid over the boiling
+// band of a loop with a subcooled return.
+const refinePerDecade = 20
+
+// ringGrid is the bracketing grid of a single loop. With a subcooled return
+// the excess head is not monotone between the flow at which the heat just
+// dries the fluid out (x = 1) and the flow at which the heated side stays
+// liquid (x = 0): the two-phase losses, ∝ ṁ²·(v_l + x·v_lv), fall as the
+// quality drops while the head collapses only near x = 0. Two balances can
+// then lie within one step of the coarse grid, so that band gets a finer
+// grid ending exactly at the saturation flow, where E has a kink. The band
+// is taken from the total heat and the coldest condenser outlet.
+func (s *state) ringGrid() []float64 {
+	var q float64
+	for _, h := range s.heat {
+		q += h
+	}
+	sub := -s.coldest()
+	if !(q > 0) || !(sub > 0) || !(s.p.Hlv > 0) {
+		return grid
+	}
+	hi := q / (s.p.Hlv * sub)       // heated side just saturated
+	lo := q / (s.p.Hlv * (1 + sub)) // heated side just dry
+	hi = math.Min(hi, flowMax)
+	lo = math.Max(lo/2, flowMin)
+	if !(hi > lo) || !finite(hi) {
+		return grid
+	}
+	n := int(math.Ceil(math.Log10(hi/lo) * refinePerDecade))
+	n = min(n, 4*refinePerDecade)
+	extra := make([]float64, 0, n+1)
+	for k := 0; k <= n; k++ {
+		extra = append(extra, hi*math.Pow(lo/hi, float64(k)/float64(max(n, 1))))
+	}
+	return mergeGrid(grid, extra)
+}
+
+// mergeGrid merges the ascending grid g with the descending points extra,
+// dropping points closer than a part in 10⁹ to one already taken.
+func mergeGrid(g, extra []float64) []float64 {
+	out := make([]float64, 0, len(g)+len(extra))
+	i, j := 0, len(extra)-1
+	for i < len(g) || j >= 0 {
+		var v float64
+		if j < 0 || i < len(g) && g[i] <= extra[j] {
+			v = g[i]
+			i++
+		} else {
+			v = extra[j]
+			j--
+		}
+		if n := len(out); n > 0 && v <= out[n-1]*(1+1e-9) {
+			continue
+		}
+		out = append(out, v)
+	}
+	return out
 }
 
 // findRoots brackets the roots of E between consecutive points of the
