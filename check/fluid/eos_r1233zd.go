@@ -18,7 +18,7 @@ var r1233zd = (&helmholtz{
 		Tmin:   233.15, // −40 °C; triple point 165.75 K
 		Tmax:   438.86 - 3,
 		Safety: "A1", // ASHRAE 34 safety group (from memory)
-		Source: "EOS: Akasaka and Lemmon, J. Phys. Chem. Ref. Data 51 (2022) 023101; viscosity: extended corresponding states (Huber et al., Ind. Eng. Chem. Res. 42 (2003) 3163) with R134a as reference; thermal conductivity: extended corresponding states with R134a as reference; surface tension: Kondou et al., Int. J. Refrig. 53 (2015) 80",
+		Source: "EOS: Akasaka and Lemmon, J. Phys. Chem. Ref. Data 51 (2022) 023101; viscosity: extended corresponding states (Huber et al., Ind. Eng. Chem. Res. 42 (2003) 3163) with R134a as reference; thermal conductivity: Perkins and Huber, J. Chem. Eng. Data 62 (2017) 2659; surface tension: Kondou et al., Int. J. Refrig. 53 (2015) 80",
 	},
 	R: 8.314462618, M: 130.4962 / 1000,
 	Tr: 438.86, rhoR: 3704.0 * 130.4962 / 1000,
@@ -29,18 +29,29 @@ var r1233zd = (&helmholtz{
 	// Surface tension: C. Kondou, R. Nagata, N. Nii, S. Koyama, Y. Higashi,
 	// "Surface tension of low GWP refrigerants R1243zf, R1234ze(Z), and
 	// R1233zd(E)", Int. J. Refrig. 53 (2015) 80–89, in the Mulero form.
+	// Unverified: no published check values are held here.
 	sigma: mulero{Tc: 438.75, a: []float64{0.06195}, n: []float64{1.277}},
 	trans: pair{
 		// Viscosity: extended corresponding states with R134a as reference
 		// fluid (Huber et al. 2003), no fitted shape factor, Chung dilute gas.
+		// Unverified for this fluid: no published check values are held
+		// here. The same method is 6–13 % high for R1234yf and within 6 %
+		// of the R1234ze(E) check values (transport_test.go).
 		visc: &ecsViscosity{ref: r134aViscosity, refEOS: r134a, dilute: chungDilute{}},
-		// Thermal conductivity: the same corresponding-states method with
-		// the R134a correlation as reference and a generic critical term
-		// (checked against the reference correlations of R1234yf and
-		// R1234ze(E) in transport_test.go).
-		cond: &ecsConductivity{ref: r134aConductivity, refEOS: r134a,
-			crit: olchowy{R0: 1.03, gamma: 1.239, nu: 0.63, Gamma: 0.0496, xi0: 1.94e-10, qD: 2e9,
-				Tref: 1.5 * 438.86, pc: 3582800, rhoc: 483.36}},
+		// Thermal conductivity: R.A. Perkins, M.L. Huber, "Measurement and
+		// correlation of the thermal conductivity of trans-1-chloro-3,3,3-
+		// trifluoropropene (R1233zd(E))", J. Chem. Eng. Data 62 (2017)
+		// 2659–2665, with its own reducing constants (439.6 K, 480.219
+		// kg/m³) and critical-enhancement constants (qD = 1/0.598 nm).
+		// Coefficients as given in the public property library of J.J.
+		// Gómez Romera (pychemqt), which cites that paper; checked against
+		// the paper's Table 2 in transport_test.go.
+		cond: &refConductivity{Tr: 439.6, rhoR: 480.219,
+			a:  []float64{-0.0140033, 0.0378160, -0.00245832},
+			b1: []float64{0.00862816, -0.0208988, 0.0511968, -0.0349076, 0.00975727, -0.000926484},
+			b2: []float64{0.000914709, -0.00407914, 0.00845668, -0.0108985, 0.00538262, -0.000806009},
+			crit: olchowy{R0: 1.02, gamma: 1.239, nu: 0.63, Gamma: 0.059, xi0: 2.13e-10, qD: 1 / 0.598e-9,
+				Tref: 1.5 * 439.6, pc: 3582800, rhoc: 483.36}},
 	},
 	refT: 273.15, refH: 200e3,
 	liq: ancillary{form: ancLinear, overT: false, Tr: 438.86, red: 3704.0 * 130.4962 / 1000,

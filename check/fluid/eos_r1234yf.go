@@ -18,7 +18,7 @@ var r1234yf = (&helmholtz{
 		Tmin:   233.15, // −40 °C; triple point 121.6 K
 		Tmax:   367.85 - 3,
 		Safety: "A2L", // ASHRAE 34 safety group (from memory)
-		Source: "EOS: Lemmon and Akasaka, Int. J. Thermophys. 43 (2022) 119; viscosity: extended corresponding states (Huber et al., Ind. Eng. Chem. Res. 42 (2003) 3163) with R134a as reference; thermal conductivity: Perkins and Huber, J. Chem. Eng. Data 56 (2011) 4868; surface tension: Mulero et al., J. Phys. Chem. Ref. Data 41 (2012) 043105",
+		Source: "EOS: Lemmon and Akasaka, Int. J. Thermophys. 43 (2022) 119; viscosity: Huber and Assael, Int. J. Refrig. 71 (2016) 39; thermal conductivity: Perkins and Huber, J. Chem. Eng. Data 56 (2011) 4868; surface tension: Mulero et al., J. Phys. Chem. Ref. Data 41 (2012) 043105",
 	},
 	R: 8.314462618, M: 114.0416 / 1000,
 	Tr: 367.85, rhoR: 4180.0 * 114.0416 / 1000,
@@ -27,9 +27,7 @@ var r1234yf = (&helmholtz{
 	// dipole moment: Tanaka and Higashi, Int. J. Refrig. 33 (2010) 474 (from memory).
 	chung: chung{M: 114.0416, Tc: 367.85, Vc: 114.0416 / 476.69 * 1000, mu: 2.48, kappa: 0},
 	trans: pair{
-		// Viscosity: extended corresponding states with R134a as reference
-		// fluid (Huber et al. 2003), no fitted shape factor, Chung dilute gas.
-		visc: &ecsViscosity{ref: r134aViscosity, refEOS: r134a, dilute: chungDilute{}},
+		visc: r1234yfViscosity,
 		// Thermal conductivity: R.A. Perkins, M.L. Huber, "Measurement and
 		// correlation of the thermal conductivity of 2,3,3,3-tetrafluoroprop-1-ene
 		// (R1234yf) and trans-1,3,3,3-tetrafluoropropene (R1234ze(E))",
@@ -50,6 +48,28 @@ var r1234yf = (&helmholtz{
 		t: []float64{0.426, 2.0, 2.4, 2.7, 7.5, 15.0}},
 	sigma: mulero{Tc: 367.85, a: []float64{0.06274}, n: []float64{1.394}},
 }).prepare()
+
+// r1234yfViscosity: M.L. Huber, M.J. Assael, "Correlations for the viscosity
+// of 2,3,3,3-tetrafluoroprop-1-ene (R1234yf) and trans-1,3,3,3-
+// tetrafluoropropene (R1234ze(E))", Int. J. Refrig. 71 (2016) 39–45: dilute
+// gas as a ratio of polynomials in T, the Rainwater–Friend initial-density
+// term (ε/k = 275 K, σ = 0.531 nm) and a residual in δ = ρ/(4.17 mol/L),
+// τ = 367.85 K/T. Coefficients as given in the public property library of
+// J.J. Gómez Romera (pychemqt), which cites that paper; checked against the
+// paper's verification values in transport_test.go.
+var r1234yfViscosity = &refViscosity{
+	M: 114.0416, sigma: 0.531, epsK: 275,
+	diluteNum: []float64{-836950, 6336.28, -2.3547, 0.0395563},
+	diluteDen: []float64{39509.1, 121.018, 1},
+	rfB:       []float64{-19.572881, 219.73999, -1015.3226, 2471.01251, -3375.1717, 2491.6597, -787.26086, 14.085455, -0.34664158},
+	rfT:       []float64{0, -0.25, -0.5, -0.75, -1.0, -1.25, -1.5, -2.5, -5.5},
+	Tr:        367.85, rhoR: 4170,
+	hoA:    []float64{-0.19425910e-6, -2.079577245e-6},
+	hoD:    []float64{2.0 / 3, 5.0 / 3},
+	hoT:    []float64{-0.5, -0.5},
+	hoRatN: -43.47027288e-6, hoRatT: -0.5, hoRatD: 5.0 / 3,
+	hoRatC: []float64{-3.53682791, 1}, hoRatCT: []float64{-1, -1}, hoRatCD: []float64{0, 1},
+}
 
 // Residual part αʳ of the equation of state cited at the top of this file.
 var r1234yfResidual = residual{

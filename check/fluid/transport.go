@@ -186,6 +186,9 @@ type refViscosity struct {
 	rfB, rfT []float64
 	// Dilute gas as Σ dilutePoly_i T^i Pa·s instead, when set.
 	dilutePoly []float64
+	// Dilute gas as Σ diluteNum_i T^i / Σ diluteDen_i T^i µPa·s instead,
+	// when set (T in K).
+	diluteNum, diluteDen []float64
 	// Residual (Pa·s): Σ a_i δ^d_i τ^t_i + f δ^fd (1/(δ0−δ) − 1/δ0),
 	// δ0 = Σ g_i τ^h_i / Σ p_i τ^q_i, δ = ρ/rhoR (molar), τ = Tr/T.
 	Tr, rhoR      float64 // K, mol/m³
@@ -193,12 +196,29 @@ type refViscosity struct {
 	hoF, hoFD     float64
 	hoG, hoH      []float64
 	hoP, hoQ      []float64
+	// Rational residual term (Pa·s), added when hoRatN is set:
+	// hoRatN τ^hoRatT δ^hoRatD / Σ hoRatC_i τ^hoRatCT_i δ^hoRatCD_i.
+	hoRatN, hoRatT, hoRatD   float64
+	hoRatC, hoRatCT, hoRatCD []float64
 }
 
 const avogadro = 6.02214076e23
 
 // dilute is η0(T) in Pa·s.
 func (r *refViscosity) dilute(T float64) float64 {
+	if r.diluteNum != nil {
+		num, den, pw := 0.0, 0.0, 1.0
+		for i := 0; i < len(r.diluteNum) || i < len(r.diluteDen); i++ {
+			if i < len(r.diluteNum) {
+				num += r.diluteNum[i] * pw
+			}
+			if i < len(r.diluteDen) {
+				den += r.diluteDen[i] * pw
+			}
+			pw *= T
+		}
+		return num / den * 1e-6
+	}
 	if r.dilutePoly != nil {
 		v, pw := 0.0, 1.0
 		for _, c := range r.dilutePoly {
@@ -246,6 +266,13 @@ func (r *refViscosity) at(T, rho float64) float64 {
 		}
 		d0 := num / den
 		s += r.hoF * math.Pow(delta, r.hoFD) * (1/(d0-delta) - 1/d0)
+	}
+	if r.hoRatN != 0 {
+		den := 0.0
+		for i, c := range r.hoRatC {
+			den += c * math.Pow(tau, r.hoRatCT[i]) * math.Pow(delta, r.hoRatCD[i])
+		}
+		s += r.hoRatN * math.Pow(tau, r.hoRatT) * math.Pow(delta, r.hoRatD) / den
 	}
 	return eta0 + eta1 + s
 }

@@ -161,13 +161,131 @@ func TestHalocarbonLiquids(t *testing.T) {
 	}
 }
 
+// transportCheck is one published verification value of a fluid-specific
+// correlation at (T, ρ), compared with this package's model of that fluid.
+type transportCheck struct {
+	h      *helmholtz
+	T, rho float64 // K, kg/m³ (0: dilute-gas limit)
+	prop   string  // "mu" (µPa·s) or "k" (W/(m·K))
+	want   float64
+	tol    float64 // relative
+}
+
+// transportChecks are the papers' own sample values for computer
+// verification. Where this package uses that correlation the tolerance is
+// the printed precision (plus a small critical-term difference); where it
+// uses corresponding states instead, the tolerance sits just above the
+// measured deviation, stated beside it.
+var transportChecks = []transportCheck{
+	// R1234yf viscosity: M.L. Huber, M.J. Assael, Int. J. Refrig. 71 (2016)
+	// 39, section 2.4 (300 K; 0, 0.044 and 10.522 mol/L). Measured < 0.01 %
+	// (the extended corresponding-states model used before was +8.6 %,
+	// +8.6 %, +12.0 %).
+	{r1234yf, 300, 0, "mu", 11.579, 1e-4},                 // Huber and Assael 2016, sec. 2.4
+	{r1234yf, 300, 0.044 * 114.0416, "mu", 11.549, 1e-4},  // Huber and Assael 2016, sec. 2.4
+	{r1234yf, 300, 10.522 * 114.0416, "mu", 217.97, 1e-4}, // Huber and Assael 2016, sec. 2.4
+	// R1234ze(E) viscosity: same paper and states; the model here is
+	// extended corresponding states without shape factors (the paper's
+	// coefficients were not available): measured −3.0 %, −5.5 %, +4.2 %.
+	{r1234ze, 300, 0, "mu", 11.777, 0.06},                 // Huber and Assael 2016, sec. 2.4
+	{r1234ze, 300, 0.044 * 114.0416, "mu", 12.041, 0.06},  // Huber and Assael 2016, sec. 2.4
+	{r1234ze, 300, 10.522 * 114.0416, "mu", 217.89, 0.06}, // Huber and Assael 2016, sec. 2.4
+	// R245fa viscosity: R.A. Perkins, M.L. Huber, M.J. Assael, J. Chem. Eng.
+	// Data 61 (2016) 3286, Table 8; the model here is the corresponding-
+	// states model of Huber et al. (2003) with its published shape factor:
+	// measured +0.5 %, +6.4 %, +2.5 %. The table's fourth point (430 K,
+	// 530 kg/m³, 30.632 µPa·s), above Tc and near the critical density, is
+	// missed by +27 % and is outside the saturation range claimed.
+	{r245fa, 250, 0, "mu", 8.6291, 0.07},      // Perkins et al. 2016, Table 8
+	{r245fa, 250, 1500, "mu", 1085.562, 0.07}, // Perkins et al. 2016, Table 8
+	{r245fa, 430, 0, "mu", 14.630, 0.07},      // Perkins et al. 2016, Table 8
+	// R1234yf and R1234ze(E) conductivity: R.A. Perkins, M.L. Huber, J.
+	// Chem. Eng. Data 56 (2011) 4868, Table 2 (densities as printed there).
+	// Measured within 0.25 % (the liquid points carry the critical term,
+	// which depends on the viscosity model).
+	{r1234yf, 250, 2.80006, "k", 0.0098482, 3e-3}, // Perkins and Huber 2011, Table 2
+	{r1234yf, 300, 4.671553, "k", 0.013996, 3e-3}, // Perkins and Huber 2011, Table 2
+	{r1234yf, 250, 1299.50, "k", 0.088580, 3e-3},  // Perkins and Huber 2011, Table 2
+	{r1234yf, 300, 1182.05, "k", 0.075254, 3e-3},  // Perkins and Huber 2011, Table 2
+	{r1234ze, 250, 2.80451, "k", 0.0098506, 3e-3}, // Perkins and Huber 2011, Table 2
+	{r1234ze, 300, 4.67948, "k", 0.013934, 3e-3},  // Perkins and Huber 2011, Table 2
+	{r1234ze, 250, 1349.37, "k", 0.10068, 3e-3},   // Perkins and Huber 2011, Table 2
+	{r1234ze, 300, 1233.82, "k", 0.085574, 3e-3},  // Perkins and Huber 2011, Table 2
+	// R1233zd(E) conductivity: R.A. Perkins, M.L. Huber, J. Chem. Eng. Data
+	// 62 (2017) 2659, Table 2. Measured within 0.02 %, except +0.4 % at
+	// 445 K (critical term; the paper's viscosity model differs). The
+	// corresponding-states model used before was −3.2 %, −3.8 %, −4.7 %,
+	// −8.8 %, −4.3 %.
+	{r1233zd, 300, 0, "k", 0.010659, 2e-3},      // Perkins and Huber 2017, Table 2
+	{r1233zd, 300, 5.4411, "k", 0.010766, 2e-3}, // Perkins and Huber 2017, Table 2
+	{r1233zd, 300, 1308.8, "k", 0.091409, 2e-3}, // Perkins and Huber 2017, Table 2
+	{r1233zd, 445, 0, "k", 0.021758, 2e-3},      // Perkins and Huber 2017, Table 2
+	{r1233zd, 445, 168.52, "k", 0.026044, 5e-3}, // Perkins and Huber 2017, Table 2
+}
+
+// TestTransportCheckValues compares the models with the published
+// verification values above.
+func TestTransportCheckValues(t *testing.T) {
+	for _, c := range transportChecks {
+		rho := c.rho
+		if rho == 0 {
+			rho = 1e-9 // the dilute-gas limit
+		}
+		p := c.h.phaseAt(c.T, rho)
+		st := state{T: c.T, rho: rho, cp: p.cp, cv: p.cv, cv0: c.h.cv0(c.T), liquid: rho > c.h.info.RhoC, h: c.h}
+		mu, k := c.h.trans.transport(st)
+		got := k
+		if c.prop == "mu" {
+			got = mu * 1e6
+		}
+		if !within(got, c.want, 0, c.tol) {
+			t.Errorf("%s %s at %v K, %v kg/m³: %.6g, published %.6g (%+.2f %%, limit %.2f %%)",
+				c.h.info.Name, c.prop, c.T, c.rho, got, c.want, 100*(got/c.want-1), 100*c.tol)
+		}
+	}
+}
+
+// TestCorrespondingStatesViscosity measures the corresponding-states
+// viscosity (R134a reference, no shape factor, Chung dilute gas) used for
+// R1234ze(E) and R1233zd(E) against the correlation of Huber and Assael,
+// Int. J. Refrig. 71 (2016) 39 for R1234yf on the saturation line, −20 °C
+// to 0.85 Tc. Measured: liquid +6.2 % to +10.8 %, vapour +7.7 % to +13.2 %
+// (largest at −20 °C), so the method alone does not meet 5 % for R1234yf.
+func TestCorrespondingStatesViscosity(t *testing.T) {
+	h := r1234yf
+	e := &ecsViscosity{ref: r134aViscosity, refEOS: r134a, dilute: chungDilute{}}
+	for i := 0; i <= 6; i++ {
+		T := 253.15 + float64(i)/6*(0.85*h.info.Tc-253.15)
+		dl, dv, err := h.saturate(T)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, ph := range []struct {
+			rho    float64
+			liquid bool
+			lo, hi float64 // measured range of got/want − 1, widened slightly
+		}{{dl * h.rhoR, true, 0.05, 0.115}, {dv * h.rhoR, false, 0.07, 0.14}} {
+			p := h.phaseAt(T, ph.rho)
+			st := state{T: T, rho: ph.rho, cp: p.cp, cv: p.cv, cv0: h.cv0(T), liquid: ph.liquid, h: h}
+			got, want := e.viscosity(st), r1234yfViscosity.viscosity(st)
+			if d := got/want - 1; d < ph.lo || d > ph.hi {
+				t.Errorf("R1234yf at %.2f K (liquid %v): corresponding states %.5g, Huber and Assael %.5g (%+.1f %%)",
+					T, ph.liquid, got, want, 100*d)
+			}
+		}
+	}
+}
+
 // TestCorrespondingStatesConductivity checks the corresponding-states
-// conductivity used for R245fa and R1233zd(E) where a reference correlation
-// exists: against R.A. Perkins and M.L. Huber, J. Chem. Eng. Data 56 (2011)
-// 4868 for R1234yf and R1234ze(E) on the saturation line, 233 K to 0.9 Tc.
-// Measured: liquid within 5.3 %, vapour within 10.4 % (R1234yf at 233 K).
+// conductivity used for R245fa where a reference correlation exists: against
+// R.A. Perkins and M.L. Huber, J. Chem. Eng. Data 56 (2011) 4868 for R1234yf
+// and R1234ze(E), and Perkins and Huber, J. Chem. Eng. Data 62 (2017) 2659
+// for R1233zd(E), on the saturation line, 233 K to 0.9 Tc.
+// Measured: liquid within 5.3 % (all three); vapour within 10.4 % for
+// R1234yf and R1234ze(E) (R1234yf at 233 K), and for R1233zd(E) −8.5 % to
+// +17.4 % (the dilute-gas terms part at 233 K, +8.5 % at 249 K).
 func TestCorrespondingStatesConductivity(t *testing.T) {
-	for _, h := range []*helmholtz{r1234yf, r1234ze} {
+	for _, h := range []*helmholtz{r1234yf, r1234ze, r1233zd} {
 		e := &ecsConductivity{ref: r134aConductivity, refEOS: r134a,
 			crit: olchowy{R0: 1.03, gamma: 1.239, nu: 0.63, Gamma: 0.0496, xi0: 1.94e-10, qD: 2e9,
 				Tref: 1.5 * h.info.Tc, pc: h.info.Pc, rhoc: h.info.RhoC}}
@@ -185,8 +303,13 @@ func TestCorrespondingStatesConductivity(t *testing.T) {
 				p := h.phaseAt(T, ph.rho)
 				st := state{T: T, rho: ph.rho, cp: p.cp, cv: p.cv, cv0: h.cv0(T), liquid: ph.liquid, h: h}
 				mu, want := h.trans.transport(st)
-				if got := e.conductivity(st, mu); !within(got, want, 0, ph.tol) {
-					t.Errorf("%s at %.2f K (liquid %v): corresponding states %.5g, Perkins and Huber %.5g", h.info.Name, T, ph.liquid, got, want)
+				tol := ph.tol
+				if h == r1233zd && !ph.liquid {
+					tol = 0.18
+				}
+				if got := e.conductivity(st, mu); !within(got, want, 0, tol) {
+					t.Errorf("%s at %.2f K (liquid %v): corresponding states %.5g, Perkins and Huber %.5g (%+.1f %%)",
+						h.info.Name, T, ph.liquid, got, want, 100*(got/want-1))
 				}
 			}
 		}
