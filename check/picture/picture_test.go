@@ -451,3 +451,58 @@ func TestErrors(t *testing.T) {
 		t.Errorf("broken loop: %d figures and %d errors, want 4 in all", len(figs), len(errs))
 	}
 }
+
+// TestLedineggCurveDashed sweeps the heat of testdata/flow/ledinegg.loop,
+// whose excess head has three roots at its nominal 10 kW (hand-worked in
+// check/flow's TestLedineggLoop). With the orifice loss the only loss, E > 0
+// exactly where y(y+S)²/(1+y)² exceeds a threshold ∝ Q² (y = x·v_lv/v_l,
+// S = 19.8); that function has a local minimum 70.9 and maximum 109.4, and
+// the threshold is 88.6 at 10 kW, so an unstable middle balance exists for
+// loads of 89 % to 111 % of nominal and none at 50 % or 150 % (the same
+// arithmetic). The plotted curve must carry that branch as a dashed line.
+func TestLedineggCurveDashed(t *testing.T) {
+	m := lang.Load(filepath.Join("..", "..", "testdata", "flow", "ledinegg.loop"), nil)
+	for _, d := range m.Diags {
+		if d.Severity == lang.Error {
+			t.Fatalf("ledinegg.loop: %s", d.Message())
+		}
+	}
+	render := func(scales []float64) (*Circulation, string) {
+		c, err := CirculationOf(m, m.Loops[0], Options{Scales: scales})
+		if err != nil {
+			t.Fatal(err)
+		}
+		f, err := c.Figure()
+		if err != nil {
+			t.Fatal(err)
+		}
+		var b bytes.Buffer
+		f.Render(&b, "svg")
+		svgTexts(t, b.Bytes())
+		return c, b.String()
+	}
+	c, svg := render(nil)
+	for _, p := range c.Sweep {
+		inBand := p.Scale > 0.91 && p.Scale < 1.09 // inside 89 % to 111 %, the arithmetic above
+		outBand := p.Scale < 0.88 || p.Scale > 1.12
+		if outBand && len(p.Unstable) != 0 {
+			t.Errorf("at %.0f %%: unstable balances %v, want none", 100*p.Scale, p.Unstable)
+		}
+		if !inBand {
+			continue
+		}
+		if len(p.Unstable) != 1 || len(p.Stable) != 2 {
+			t.Errorf("at %.0f %%: %d stable, %d unstable balances, want 2 and 1", 100*p.Scale, len(p.Stable), len(p.Unstable))
+			continue
+		}
+		if !(p.Unstable[0] > p.Stable[0] && p.Unstable[0] < p.Stable[1] && p.MassFlow == p.Stable[1]) {
+			t.Errorf("at %.0f %%: stable %v, unstable %v, estimate %g: want the unstable one between and the upper one as the estimate", 100*p.Scale, p.Stable, p.Unstable, p.MassFlow)
+		}
+	}
+	if !strings.Contains(svg, "stroke-dasharray") || !strings.Contains(svg, "unstable balance") {
+		t.Error("the unstable branch is not drawn dashed with its legend entry")
+	}
+	if _, svg := render([]float64{0.5, 0.75, 1.25, 1.5}); strings.Contains(svg, "stroke-dasharray") {
+		t.Error("a dashed line where no balance is unstable")
+	}
+}
