@@ -185,6 +185,13 @@ func Check(q Quantity, u string, need Need) error {
 		}
 		return errors.New(msg)
 	}
+	if !need.Difference && need.Dim == Temperature && !q.AbsTemp {
+		// A value written in a difference-only unit cannot be an absolute
+		// temperature: "sink 20 delta_degC" means nothing.
+		if uu, err := Parse(u); err == nil && (uu.Text == "delta_degC" || uu.Text == "delta_degF") {
+			return fmt.Errorf("expected an absolute temperature, found a temperature difference (%s); write K, degC or degF", u)
+		}
+	}
 	if need.Difference && need.Dim == Temperature && q.AbsTemp {
 		alt := "delta_degC"
 		if uu, err := Parse(u); err == nil && uu.Text == "degF" {
