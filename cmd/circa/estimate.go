@@ -12,6 +12,7 @@ import (
 	"text/tabwriter"
 
 	"circa/check/flow"
+	"circa/check/geom"
 	"circa/lang"
 )
 
@@ -20,6 +21,7 @@ func init() {
 }
 
 const estimateUsage = `Usage: circa estimate FILE [--case NAME] [--format text|json|csv] [--void M] [--friction M]
+       [--sweep-pitch DEG,…] [--sweep-roll DEG,…] [--sweep-accel AX,AY,AZ;…]
 
 Estimates the steady circulation of each loop in FILE in every operating case:
 mass flow, qualities, void fractions, pressure changes, the saturation state,
@@ -35,7 +37,7 @@ func runEstimate(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 	fl := flag.NewFlagSet("estimate", flag.ContinueOnError)
 	fl.SetOutput(stderr)
 	var opts flow.Options
-	var format, pitch, roll string
+	var format, pitch, roll, accel string
 	fl.StringVar(&opts.Case, "case", "", "estimate only this case")
 	fl.StringVar(&format, "format", "text", "output format: text, json or csv")
 	fl.StringVar(&opts.Void, "void", "", "void-fraction method (overrides the methods block)")
@@ -44,6 +46,7 @@ func runEstimate(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 	fl.BoolVar(&opts.NoTilt, "no-tilt", false, "skip the search for the attitudes where circulation stops")
 	fl.StringVar(&pitch, "sweep-pitch", "", "comma-separated pitch angles in degrees to sweep for every case")
 	fl.StringVar(&roll, "sweep-roll", "", "comma-separated roll angles in degrees to sweep for every case")
+	fl.StringVar(&accel, "sweep-accel", "", "semicolon-separated accelerations AX,AY,AZ in standard gravities to sweep for every case, e.g. \"0.5,0,0;-0.5,0,0\"")
 	fl.Usage = func() {
 		fmt.Fprint(stderr, estimateUsage)
 		fl.PrintDefaults()
@@ -64,11 +67,13 @@ func runEstimate(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 		fmt.Fprintf(stderr, "circa estimate: unknown format %q (want text, json or csv)\n", format)
 		return exitUsage
 	}
-	if pitch != "" || roll != "" {
+	if pitch != "" || roll != "" || accel != "" {
 		var sw flow.Sweep
 		var err error
 		if sw.Pitch, err = degrees(pitch); err == nil {
-			sw.Roll, err = degrees(roll)
+			if sw.Roll, err = degrees(roll); err == nil {
+				sw.Accel, err = accelerations(accel)
+			}
 		}
 		if err != nil {
 			fmt.Fprintf(stderr, "circa estimate: %v\n", err)
@@ -148,6 +153,31 @@ func degrees(s string) ([]float64, error) {
 	return out, nil
 }
 
+// accelerations reads "AX,AY,AZ;…" in standard gravities (9.80665 m/s²)
+// and returns them in m/s².
+func accelerations(s string) ([][3]float64, error) {
+	if strings.TrimSpace(s) == "" {
+		return nil, nil
+	}
+	var out [][3]float64
+	for _, vec := range strings.Split(s, ";") {
+		parts := strings.Split(vec, ",")
+		if len(parts) != 3 {
+			return nil, fmt.Errorf("bad acceleration %q in a sweep (want AX,AY,AZ in standard gravities)", vec)
+		}
+		var a [3]float64
+		for i, f := range parts {
+			v, err := strconv.ParseFloat(strings.TrimSpace(f), 64)
+			if err != nil || math.IsNaN(v) || math.IsInf(v, 0) || math.Abs(v) > 100 {
+				return nil, fmt.Errorf("bad acceleration %q in a sweep (want AX,AY,AZ in standard gravities)", vec)
+			}
+			a[i] = v * geom.Gn
+		}
+		out = append(out, a)
+	}
+	return out, nil
+}
+
 func celsius(k float64) float64 { return k - 273.15 }
 
 func deg(r float64) float64 { return r * 180 / math.Pi }
@@ -206,8 +236,12 @@ func marginValue(v float64, unit string) string {
 
 func writeCaseText(w io.Writer, c *flow.CaseResult) {
 	fmt.Fprintf(w, "\ncase %s", c.Case)
-	if c.Grid || c.Pitch != 0 || c.Roll != 0 || c.Yaw != 0 {
-		fmt.Fprintf(w, " (pitch %.1f°, roll %.1f°, yaw %.1f°)", deg(c.Pitch), deg(c.Roll), deg(c.Yaw))
+	if c.Grid || c.Pitch != 0 || c.Roll != 0 || c.Yaw != 0 || c.Accel != [3]float64{} {
+		fmt.Fprintf(w, " (pitch %.1f°, roll %.1f°, yaw %.1f°", deg(c.Pitch), deg(c.Roll), deg(c.Yaw))
+		if a := c.Accel; a != [3]float64{} {
+			fmt.Fprintf(w, ", acceleration (%.3g, %.3g, %.3g) gn", a[0]/geom.Gn, a[1]/geom.Gn, a[2]/geom.Gn)
+		}
+		fmt.Fprint(w, ")")
 	}
 	fmt.Fprintf(w, ": heat %.0f W", c.Heat)
 	if c.SatSource != "" {

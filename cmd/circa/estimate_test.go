@@ -59,3 +59,42 @@ func TestEstimateUsage(t *testing.T) {
 		}
 	}
 }
+
+// A sweep of accelerations adds grid points with the acceleration in m/s²
+// (one standard gravity is 9.80665 m/s² exactly, CGPM 1901), and the flow
+// follows the body force b = g − a.
+func TestEstimateSweepAccel(t *testing.T) {
+	const file = "../../testdata/examples/forestry-inverter.loop"
+	code, out, errs := runEstimateCmd(t, file, "--case", "level_work", "--no-tilt", "--format", "json", "--sweep-accel", "0.5,0,0;-0.5,0,0")
+	if code != exitOK {
+		t.Fatalf("exit %d: %s", code, errs)
+	}
+	var res struct {
+		Loops []struct {
+			Cases []struct {
+				Grid     bool       `json:"grid"`
+				Accel    [3]float64 `json:"accel"`
+				MassFlow float64    `json:"mass_flow"`
+			} `json:"cases"`
+		} `json:"loops"`
+	}
+	if err := json.Unmarshal([]byte(out), &res); err != nil {
+		t.Fatal(err)
+	}
+	cs := res.Loops[0].Cases
+	if len(cs) != 3 || cs[0].Grid || !cs[1].Grid || !cs[2].Grid {
+		t.Fatalf("want the case and two grid points, got %+v", cs)
+	}
+	if got, want := cs[1].Accel[0], 0.5*9.80665; got != want {
+		t.Errorf("grid acceleration %g m/s², want %g", got, want)
+	}
+	// The roof condenser sits behind the plate (−x). Accelerating forward
+	// (+x) tilts the body force backward, as a nose-up pitch does, which
+	// lowers the condenser along it: less flow. Braking does the opposite.
+	if !(cs[1].MassFlow < cs[0].MassFlow && cs[2].MassFlow > cs[0].MassFlow) {
+		t.Errorf("mass flow accelerating %g, steady %g, braking %g: want accelerating < steady < braking", cs[1].MassFlow, cs[0].MassFlow, cs[2].MassFlow)
+	}
+	if code, _, errs := runEstimateCmd(t, file, "--sweep-accel", "1,2"); code != exitUsage || !strings.Contains(errs, "AX,AY,AZ") {
+		t.Errorf("bad --sweep-accel: exit %d, %q", code, errs)
+	}
+}
