@@ -51,15 +51,9 @@ func runEstimate(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 		fmt.Fprint(stderr, estimateUsage)
 		fl.PrintDefaults()
 	}
-	// Flags may come before or after the file.
-	files, rc, ok := parseInterleaved(fl, args)
+	file, rc, ok := oneFile(fl, args, stderr)
 	if !ok {
 		return rc
-	}
-	if len(files) != 1 {
-		fmt.Fprintln(stderr, "circa estimate: give exactly one .loop file")
-		fl.Usage()
-		return exitUsage
 	}
 	switch format {
 	case "text", "json", "csv":
@@ -81,7 +75,7 @@ func runEstimate(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 		}
 		opts.Sweep = &sw
 	}
-	m := lang.Load(files[0], lang.OSFS{})
+	m := lang.Load(file, lang.OSFS{})
 	bad := false
 	for _, d := range m.Diags {
 		if d.Severity == lang.Error {

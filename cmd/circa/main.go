@@ -93,3 +93,18 @@ func parseInterleaved(fl *flag.FlagSet, args []string) (pos []string, rc int, ok
 		args = fl.Args()[1:]
 	}
 }
+
+// oneFile parses flags around exactly one file argument, printing the usage
+// when there is not exactly one. ok false means: return rc.
+func oneFile(fl *flag.FlagSet, args []string, stderr io.Writer) (file string, rc int, ok bool) {
+	files, rc, ok := parseInterleaved(fl, args)
+	if !ok {
+		return "", rc, false
+	}
+	if len(files) != 1 {
+		fmt.Fprintf(stderr, "circa %s: give exactly one .loop file\n", fl.Name())
+		fl.Usage()
+		return "", exitUsage, false
+	}
+	return files[0], 0, true
+}

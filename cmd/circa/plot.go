@@ -48,14 +48,9 @@ func runPlot(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 		fmt.Fprint(stderr, plotUsage)
 		fl.PrintDefaults()
 	}
-	files, rc, ok := parseInterleaved(fl, args)
+	file, rc, ok := oneFile(fl, args, stderr)
 	if !ok {
 		return rc
-	}
-	if len(files) != 1 {
-		fmt.Fprintln(stderr, "circa plot: give exactly one .loop file")
-		fl.Usage()
-		return exitUsage
 	}
 	var exts []string
 	for _, f := range strings.Split(formats, ",") {
@@ -70,7 +65,7 @@ func runPlot(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 		}
 		exts = append(exts, f)
 	}
-	m := lang.Load(files[0], lang.OSFS{})
+	m := lang.Load(file, lang.OSFS{})
 	bad := false
 	for _, d := range m.Diags {
 		if d.Severity == lang.Error {
