@@ -96,9 +96,18 @@ func danglingEnds(c *Context) {
 }
 
 func unusedNodes(c *Context) {
-	g := c.Graph
+	// A component whose other end did not resolve still uses this one (its
+	// unknown name is reported by itself).
+	named := make([]bool, len(c.Loop.Nodes))
+	for _, comp := range c.Loop.Components {
+		for _, n := range []*lang.Node{comp.From, comp.To} {
+			if n != nil && n.Index < len(named) && c.Loop.Nodes[n.Index] == n {
+				named[n.Index] = true
+			}
+		}
+	}
 	for _, n := range c.Loop.Nodes {
-		if g.Ends[n.Index] == 0 && len(g.Reservoirs[n.Index]) == 0 {
+		if !named[n.Index] {
 			c.Reportf(n.NameLoc(), "node %s is not used by any component", n.Name)
 		}
 	}
