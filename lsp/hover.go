@@ -78,6 +78,11 @@ func (s *Server) hoverText(c *cursor) (string, lang.Span, bool) {
 			return ruleHover(al.Rule), al.Span, true
 		}
 	}
+	for _, l := range c.m.Loops {
+		if l.File == c.path && contains(l.NameSpan, c.off) {
+			return loopHover(c, l), l.NameSpan, true
+		}
+	}
 	if r, ok := c.refAt(); ok {
 		if t := s.refHover(c, r); t != "" {
 			return t, r.Span, true
@@ -294,7 +299,27 @@ func (s *Server) caseHover(c *cursor, cs *lang.Case) string {
 	if cs.Saturation.Set {
 		fmt.Fprintf(&b, "- saturation: %s\n", units.Format(cs.Saturation.SI, units.MustParse("degC")))
 	}
+	diags, _, _ := c.a.checks()
+	b.WriteString(caseTiltHover(diags, c.m, cs))
 	b.WriteString(s.caseEstimate(c, cs))
+	return b.String()
+}
+
+// loopHover shows a loop's fluid, its size and its critical tilt angles,
+// which the tilt-limits rule finds from the thermal centres alone.
+func loopHover(c *cursor, l *lang.Loop) string {
+	var b strings.Builder
+	fmt.Fprintf(&b, "loop `%s`", l.Name)
+	if l.Fluid.Name != "" {
+		fmt.Fprintf(&b, ", fluid %s", l.Fluid.Name)
+	}
+	fmt.Fprintf(&b, ": %d nodes, %d components\n\n", len(l.Nodes), len(l.Components))
+	diags, _, checked := c.a.checks()
+	if !checked {
+		b.WriteString("_Tilt limits after the checks run._\n")
+		return b.String()
+	}
+	b.WriteString(loopTiltHover(diags, l))
 	return b.String()
 }
 
