@@ -30,6 +30,7 @@ import (
 //	open FILE | close FILE
 //	change FILE POS-POS TEXT      incremental edit; TEXT is a Go string
 //	write FILE SECTION            put SECTION's text on disk as FILE and say so
+//	disk FILE SECTION             put SECTION's text on disk as FILE silently
 //	settle                        wait until the analysis of the last change is published
 //	diags FILE                    compare published diagnostics with the markers
 //	hover|complete|def|refs|prepare FILE POS
@@ -263,6 +264,12 @@ func (sc *scenario) run(n int, line string) {
 		sc.texts[name] = sc.sections[arg(1)]
 		os.WriteFile(filepath.Join(sc.dir, filepath.FromSlash(name)), []byte(sc.texts[name]), 0o644)
 		sc.c.notify("workspace/didChangeWatchedFiles", map[string]any{"changes": []any{map[string]any{"uri": sc.uri(name), "type": 2}}})
+	case "disk":
+		name := arg(0)
+		sc.texts[name] = sc.sections[arg(1)]
+		if err := os.WriteFile(filepath.Join(sc.dir, filepath.FromSlash(name)), []byte(sc.texts[name]), 0o644); err != nil {
+			sc.t.Fatal(err)
+		}
 	case "settle":
 		sc.c.settle()
 	case "diags":

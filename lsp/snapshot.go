@@ -7,6 +7,7 @@ import (
 	"sort"
 	"sync"
 	"sync/atomic"
+	"time"
 
 	"go.lsp.dev/uri"
 
@@ -119,8 +120,10 @@ func (o overlay) ReadFile(path string) ([]byte, error) {
 	return o.disk.read(path)
 }
 
-// diskCache holds files read from disk until a watched-file event or a
-// close of their buffer says they changed.
+// diskCache holds files read from disk until a watched-file event, a close
+// of their buffer, or a change of their modification time or size says they
+// changed. The last lets a client that does not watch files still see an
+// included file edited by another program.
 type diskCache struct {
 	mu    sync.Mutex
 	files map[string]diskFile
@@ -129,6 +132,22 @@ type diskCache struct {
 type diskFile struct {
 	data []byte
 	err  error
+	stat fileStat // when it was read
+}
+
+// fileStat is what tells a file changed without reading it.
+type fileStat struct {
+	exists bool
+	mod    time.Time
+	size   int64
+}
+
+func statOf(path string) fileStat {
+	st, err := os.Stat(path)
+	if err != nil {
+		return fileStat{}
+	}
+	return fileStat{exists: true, mod: st.ModTime(), size: st.Size()}
 }
 
 func (c *diskCache) read(path string) ([]byte, error) {
@@ -138,12 +157,12 @@ func (c *diskCache) read(path string) ([]byte, error) {
 	if ok {
 		return f.data, f.err
 	}
-	data, err := readLimited(path)
+	data, st, err := readLimited(path)
 	c.mu.Lock()
 	if c.files == nil {
 		c.files = map[string]diskFile{}
 	}
-	c.files[path] = diskFile{data, err}
+	c.files[path] = diskFile{data, err, st}
 	c.mu.Unlock()
 	return data, err
 }
@@ -154,15 +173,50 @@ func (c *diskCache) forget(path string) {
 	c.mu.Unlock()
 }
 
-func readLimited(path string) ([]byte, error) {
+// stale stats every cached file that is not open (one stat each), forgets
+// those whose modification time, size or existence changed since they were
+// read, and returns their paths in order.
+func (c *diskCache) stale(open map[string]*document) []string {
+	c.mu.Lock()
+	seen := make(map[string]fileStat, len(c.files))
+	for path, f := range c.files {
+		if _, ok := open[path]; !ok {
+			seen[path] = f.stat
+		}
+	}
+	c.mu.Unlock()
+	var changed []string
+	for path, was := range seen {
+		if now := statOf(path); now.exists != was.exists || now.size != was.size || !now.mod.Equal(was.mod) {
+			changed = append(changed, path)
+		}
+	}
+	if len(changed) == 0 {
+		return nil
+	}
+	sort.Strings(changed)
+	c.mu.Lock()
+	for _, path := range changed {
+		// Leave an entry read again meanwhile alone.
+		if f, ok := c.files[path]; ok && f.stat == seen[path] {
+			delete(c.files, path)
+		}
+	}
+	c.mu.Unlock()
+	return changed
+}
+
+func readLimited(path string) ([]byte, fileStat, error) {
 	st, err := os.Stat(path)
 	if err != nil {
-		return nil, err
+		return nil, fileStat{}, err
 	}
+	fs := fileStat{exists: true, mod: st.ModTime(), size: st.Size()}
 	if st.Size() > lang.MaxFileSize {
-		return nil, &os.PathError{Op: "read", Path: path, Err: errTooLarge}
+		return nil, fs, &os.PathError{Op: "read", Path: path, Err: errTooLarge}
 	}
-	return os.ReadFile(path)
+	data, err := os.ReadFile(path)
+	return data, fs, err
 }
 
 type constErr string
@@ -190,6 +244,9 @@ func uriOf(path string) uri.URI {
 // analyses that did not read them are kept. The caller holds s.mu.
 func (s *Server) changeLocked(docs map[string]*document, changed []string, settingsChanged bool) *snapshot {
 	old := s.snap
+	// Included files edited by another program, which a client without
+	// file watching would not report.
+	changed = append(changed, s.disk.stale(docs)...)
 	ctx, cancel := context.WithCancel(context.Background())
 	s.nextID++
 	n := &snapshot{
