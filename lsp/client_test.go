@@ -29,9 +29,10 @@ type testClient struct {
 	pending  map[string]chan rpcReply
 	diags    map[string]publishedDiags
 	notes    []rpcMessage
-	calls    []rpcMessage    // requests from the server
-	analysed map[uint64]bool // complete checks published
-	quick    map[uint64]bool // quick checks and estimates published
+	calls    []rpcMessage      // requests from the server
+	answers  map[string]string // results to reply to the server's requests, by method; else null
+	analysed map[uint64]bool   // complete checks published
+	quick    map[uint64]bool   // quick checks and estimates published
 	anCond   *sync.Cond
 }
 
@@ -123,7 +124,11 @@ func (c *testClient) read() {
 		switch {
 		case m.Method != "" && len(m.ID) > 0:
 			c.calls = append(c.calls, m)
-			go c.write(fmt.Appendf(nil, `{"jsonrpc":"2.0","id":%s,"result":null}`, m.ID))
+			result := "null"
+			if a, ok := c.answers[m.Method]; ok {
+				result = a
+			}
+			go c.write(fmt.Appendf(nil, `{"jsonrpc":"2.0","id":%s,"result":%s}`, m.ID, result))
 		case m.Method != "":
 			c.notes = append(c.notes, m)
 			if m.Method == "textDocument/publishDiagnostics" {
@@ -148,6 +153,30 @@ func (c *testClient) read() {
 		}
 		c.mu.Unlock()
 	}
+}
+
+// answer sets the result the client replies to the server's requests of
+// one method, as JSON.
+func (c *testClient) answer(method, result string) {
+	c.mu.Lock()
+	defer c.mu.Unlock()
+	if c.answers == nil {
+		c.answers = map[string]string{}
+	}
+	c.answers[method] = result
+}
+
+// serverCalls returns the server's requests of one method so far.
+func (c *testClient) serverCalls(method string) []rpcMessage {
+	c.mu.Lock()
+	defer c.mu.Unlock()
+	var out []rpcMessage
+	for _, m := range c.calls {
+		if m.Method == method {
+			out = append(out, m)
+		}
+	}
+	return out
 }
 
 func (c *testClient) fail(err error) {

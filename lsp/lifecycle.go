@@ -33,6 +33,9 @@ func (s *Server) initialize(params []byte) (any, error) {
 		if w.DidChangeWatchedFiles != nil && w.DidChangeWatchedFiles.DynamicRegistration != nil {
 			s.caps.watchDynamic = *w.DidChangeWatchedFiles.DynamicRegistration
 		}
+		if w.Configuration != nil {
+			s.caps.configPull = *w.Configuration
+		}
 	}
 	if t := p.Capabilities.TextDocument; t != nil && t.DocumentSymbol != nil && t.DocumentSymbol.HierarchicalDocumentSymbolSupport != nil {
 		s.caps.hierarchicalDS = *t.DocumentSymbol.HierarchicalDocumentSymbolSupport
@@ -84,9 +87,11 @@ func capabilities(enc protocol.PositionEncodingKind) protocol.ServerCapabilities
 	}
 }
 
-// initializedNotification registers the file watcher for included files
-// when the client can take a dynamic registration.
+// initializedNotification asks for the settings when the client answers
+// workspace/configuration, and registers the file watcher for included
+// files when the client can take a dynamic registration.
 func initializedNotification(ctx context.Context, s *Server, _ []byte) error {
+	s.pullSettings(ctx)
 	s.mu.Lock()
 	dyn := s.caps.watchDynamic
 	s.mu.Unlock()

@@ -49,6 +49,7 @@ type Server struct {
 	enc         lang.Encoding
 	caps        clientCaps
 	settings    Settings
+	pullSeq     uint64               // numbers the settings pulls; only the latest applies
 	docs        map[string]*document // open documents by path
 	snap        *snapshot
 	nextID      uint64
@@ -81,6 +82,7 @@ type Server struct {
 type clientCaps struct {
 	watchDynamic   bool
 	configDynamic  bool
+	configPull     bool // answers workspace/configuration
 	relatedInfo    bool
 	hierarchicalDS bool
 }

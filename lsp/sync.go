@@ -108,16 +108,20 @@ func didChangeWatchedFiles(_ context.Context, s *Server, params []byte) error {
 	return nil
 }
 
-func didChangeConfiguration(_ context.Context, s *Server, params []byte) error {
+func didChangeConfiguration(ctx context.Context, s *Server, params []byte) error {
 	p, err := decode[protocol.DidChangeConfigurationParams](params)
 	if err != nil {
 		return err
 	}
-	s.mu.Lock()
-	defer s.mu.Unlock()
-	if len(p.Settings) == 0 || string(p.Settings) == "null" {
+	if emptySettings(p.Settings) {
+		// A client that answers workspace/configuration often sends no
+		// settings with the notification: ask for them.
+		s.pullSettings(ctx)
 		return nil
 	}
+	s.mu.Lock()
+	defer s.mu.Unlock()
+	s.pullSeq++ // an answer to an earlier pull is older than these settings
 	set, err := parseSettings(p.Settings, s.settings)
 	s.settings = set
 	s.changeLocked(s.snap.docs, nil, true)
