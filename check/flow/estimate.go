@@ -484,6 +484,21 @@ func (s *state) setBody(b geom.Vec3) {
 }
 
 // withBody returns a copy of s under another body force.
+// withLossScale returns a copy of s whose friction and local losses are k
+// times the estimate's.
+func (s *state) withLossScale(k float64) *state {
+	c := *s
+	c.lossScale = k
+	// Only exit qualities to three digits are read from this solve: a
+	// residual of 1e-6 of the head, and half the cells (halving them changes
+	// the flow by about 1e-4), are ample.
+	c.looseTol = 1e-6
+	if c.cells >= 16 {
+		c.cells /= 2
+	}
+	return &c
+}
+
 func (s *state) withBody(b geom.Vec3) *state {
 	c := *s
 	c.bDisp, c.cosInc = nil, nil

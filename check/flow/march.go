@@ -40,6 +40,22 @@ type state struct {
 	// one bore at one flow share it.
 	lqKey [5]float64
 	lqVal float64
+	// lossScale multiplies every component's friction and local losses
+	// (0 or 1: as estimated); the loss-reserve margin solves with it.
+	lossScale float64
+	// looseTol, when set, replaces the network Newton iteration's relative
+	// tolerance (1e-9 of the largest hydrostatic head) for solves whose
+	// result only feeds a margin.
+	looseTol float64
+}
+
+// scaled applies the loss scale to a component's pressure-change parts.
+func (s *state) scaled(q parts) parts {
+	if k := s.lossScale; k > 0 && k != 1 {
+		q.fric *= k
+		q.local *= k
+	}
+	return q
 }
 
 // liquidGradient is the single-phase liquid friction gradient, Pa/m.
@@ -163,7 +179,7 @@ func (s *state) march(ci int, dir float64, m, xin float64, rec func(cellRec)) (f
 				rec(cellRec{x: xout, alpha: s.voidAt(xout, G, cosInc), rhoM: s.mixture(xout, G, cosInc), rhoH: s.homog(xout), ds: 0})
 			}
 		}
-		return xout, q
+		return xout, s.scaled(q)
 	}
 	n := s.cells
 	ds := cp.L / float64(n)
@@ -218,7 +234,7 @@ func (s *state) march(ci int, dir float64, m, xin float64, rec func(cellRec)) (f
 	q.mIn, q.mOut = s.mom(G, xin, aIn), s.mom(G, xout, aOut)
 	q.acc = q.mOut - q.mIn
 	q.local = cp.K * G * G / (2 * s.homog(xout))
-	return xout, q
+	return xout, s.scaled(q)
 }
 
 // mom is the momentum flux at mass flux G, quality x and void alpha:

@@ -19,7 +19,7 @@ const (
 	MarginPressure    = "design_pressure"
 	MarginCondenser   = "condenser"
 	MarginCharge      = "charge"
-	MarginHead        = "head_ratio"
+	MarginHead        = "loss_reserve"
 	MarginTilt        = "tilt"
 )
 
@@ -63,7 +63,7 @@ func wallFlux(c *lang.Component, q, D, L float64) float64 {
 }
 
 // margins evaluates every margin of a circulating case.
-func (p *prepared) margins(s *state, cr *CaseResult) {
+func (p *prepared) margins(s *state, cr *CaseResult, f []float64) {
 	lim := p.limits
 	n := s.net
 	for ci, cs := range cr.Components {
@@ -157,20 +157,107 @@ func (p *prepared) margins(s *state, cr *CaseResult) {
 	p.pressureMargin(s, cr)
 	p.condenserMargin(s, cr)
 	p.chargeMargin(s, cr)
-	// Head ratio.
-	losses := cr.Totals.Friction + cr.Totals.Local + cr.Totals.Accel
-	if losses > 0 {
-		ratio := cr.Totals.HeadMax / losses
-		hl := lim.HeadRatio.SI
-		m := Margin{Margin: MarginHead, Value: ratio, Limit: hl, Use: hl / math.Max(ratio, 1e-300)}
-		m.Status = status(m.Use, hl)
-		cr.add(m)
-		if ratio < hl {
-			cr.Findings = append(cr.Findings, p.finding(RuleHead, "warning", cr.Case, "", ratio, hl, "", "head_ratio",
-				"head ratio %.2f in case %s is below the limit %.2f: the available gravity head (%.0f Pa) is not well above the losses at the operating point (%.0f Pa)",
-				ratio, cr.Case, hl, cr.Totals.HeadMax, losses))
+	p.lossReserve(s, cr, f)
+}
+
+// lossReserve solves the case again with the friction and local losses
+// limits.head_ratio times the estimate (default 1.5: available head at
+// least 1.5–2 times the predicted losses, common practice) and reports how
+// the evaporators fare: a design whose losses were underestimated by that
+// factor should still circulate, stay wet and, if it meets the exit-quality
+// limit now, still meet it. Sweep points are not re-solved.
+func (p *prepared) lossReserve(s *state, cr *CaseResult, f []float64) {
+	k := p.limits.HeadRatio.SI
+	if !(k > 1) || cr.Grid {
+		return
+	}
+	xl := p.limits.ExitQuality.SI
+	x0 := math.Inf(-1)
+	for ci, cs := range cr.Components {
+		if s.net.comps[ci].kind == lang.Evaporator && s.heat[ci] > 0 {
+			x0 = math.Max(x0, cs.XOut)
 		}
 	}
+	if math.IsInf(x0, -1) {
+		return
+	}
+	xk, where, ok := p.underLosses(s, k, f)
+	m := Margin{Margin: MarginHead, Component: where, Value: xk, Limit: xl, Use: xk / xl, Status: "ok"}
+	switch {
+	case !ok:
+		m.Value, m.Use, m.Status = 1, math.Inf(1), "warning"
+		cr.Findings = append(cr.Findings, p.finding(RuleHead, "warning", cr.Case, "", k, k, "", "head_ratio",
+			"with friction and local losses %.2g times the estimate, the loop no longer circulates in case %s: the gravity head has little reserve over the losses", k, cr.Case))
+	case xk >= 1:
+		m.Status = "warning"
+		cr.Findings = append(cr.Findings, p.finding(RuleHead, "warning", cr.Case, where, xk, xl, "", "head_ratio",
+			"with friction and local losses %.2g times the estimate, evaporator %s dries out (exit quality %.2f) in case %s: the gravity head has little reserve over the losses", k, where, xk, cr.Case))
+	case xk > xl:
+		m.Status = "warning"
+		// Already above the limit as estimated: the exit-quality margin
+		// says so; this one reports only a design that loses the limit.
+		if x0 <= xl {
+			cr.Findings = append(cr.Findings, p.finding(RuleHead, "warning", cr.Case, where, xk, xl, "", "head_ratio",
+				"with friction and local losses %.2g times the estimate, the exit quality of evaporator %s rises from %.2f to %.2f, above the limit %.2f, in case %s", k, where, x0, xk, xl, cr.Case))
+		}
+	}
+	if m.Use > 1e300 {
+		m.Use = 1e300
+	}
+	cr.add(m)
+}
+
+// underLosses solves the case with friction and local losses scaled by k
+// and returns the highest evaporator exit quality and where it is; ok is
+// false when the loop then does not circulate (or an evaporator runs
+// backwards). A network's Newton iteration starts from the estimate's
+// cycle flows start.
+func (p *prepared) underLosses(s *state, k float64, start []float64) (x float64, where string, ok bool) {
+	t := s.withLossScale(k)
+	ev := t.newEval()
+	var f []float64
+	if p.net.ring {
+		roots, _ := t.ringRoots(ev)
+		best := -1
+		for i, r := range roots {
+			if r.slope < 0 {
+				best = i
+			}
+		}
+		if best < 0 {
+			return 0, "", false
+		}
+		f = []float64{roots[best].m}
+	} else {
+		var err error
+		if f, _, err = t.solveNetwork(ev, start); err != nil {
+			return 0, "", false
+		}
+	}
+	t.evaluate(f, ev)
+	x, ok = math.Inf(-1), true
+	for bi, br := range t.net.branches {
+		up := br.from
+		if ev.mb[bi] < 0 {
+			up = br.to
+		}
+		t.branchDP(bi, ev.mb[bi], ev.xj[up], func(ci int, _, m, _, xout float64, _ parts) {
+			cp := &t.net.comps[ci]
+			if cp.kind != lang.Evaporator || !(t.heat[ci] > 0) {
+				return
+			}
+			if !(m > 0) { // visit gets the flow along the component's direction
+				ok = false
+			}
+			if xout > x {
+				x, where = xout, cp.name
+			}
+		})
+	}
+	if math.IsInf(x, -1) || math.IsNaN(x) {
+		return 0, "", false
+	}
+	return x, where, ok
 }
 
 // drift is the Rouhani–Axelsson drift velocity of the vapour, m/s.

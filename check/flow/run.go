@@ -75,7 +75,7 @@ func (p *prepared) run(pt point, tilt bool) CaseResult {
 		}
 	}
 	cr.Circulates = cr.MassFlow > 0
-	p.margins(s, &cr)
+	p.margins(s, &cr, f)
 	if tilt {
 		p.tilt(s, pt, &cr, f)
 	}

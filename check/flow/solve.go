@@ -630,7 +630,11 @@ func (s *state) newton(ev *eval, f []float64) ([]float64, int, error) {
 	for ci := range n.comps {
 		scale = math.Max(scale, math.Abs(s.bDisp[ci])*s.p.RhoL)
 	}
-	tol := 1e-9 * scale
+	rel := 1e-9
+	if s.looseTol > 0 {
+		rel = s.looseTol
+	}
+	tol := rel * scale
 	J := mat.NewDense(nc, nc, nil)
 	rhs := mat.NewVecDense(nc, nil)
 	var dx mat.VecDense

@@ -36,12 +36,13 @@ type TiltPoint struct {
 	// WorstUse is the largest fraction of a design limit used (1: at the
 	// limit) at this attitude, over the margins that depend on the
 	// circulation (AttitudeMargins); the charge, pressure and condenser
-	// margins do not change with attitude and are left out.
+	// margins do not change with attitude and are left out, and the loss
+	// reserve (a second solve per point) is not evaluated on sweeps.
 	WorstUse float64
 }
 
 // AttitudeMargins are the margins TiltPoint.WorstUse takes into account.
-var AttitudeMargins = []string{flow.MarginExitQuality, flow.MarginCHF, flow.MarginFlooding, flow.MarginWall, flow.MarginHead}
+var AttitudeMargins = []string{flow.MarginExitQuality, flow.MarginCHF, flow.MarginFlooding, flow.MarginWall}
 
 func attitudeMargin(name string) bool {
 	for _, m := range AttitudeMargins {
@@ -123,7 +124,7 @@ func (t *Tilt) Figure() (*Figure, error) {
 	top := newPanel(fmt.Sprintf("around case %s (pitch %.1f°, roll %.1f°)", t.Case, deg(t.Pitch), deg(t.Roll)),
 		"angle (°)", "mass flow ṁ (g/s)")
 	bottom := newPanel("", "angle (°)", "worst margin use (–)")
-	bottom.Title.Text = "exit quality, CHF, flooding, wall temperature and head margins"
+	bottom.Title.Text = "exit quality, CHF, flooding and wall temperature margins"
 	bottom.Title.TextStyle.Font.Size = vg.Points(9)
 	maxFlow, maxUse := 0.0, 1.0
 	for k, sw := range []struct {
