@@ -161,7 +161,7 @@ func reportEstimate(c *Context, id string) {
 				continue
 			}
 			c.NoteMargin(Margin{Rule: id, Case: m.Case, Component: m.Component, Used: m.Use,
-				Message: fmt.Sprintf("%s %.3g of %.3g", strings.ReplaceAll(m.Margin, "_", " "), m.Value, m.Limit),
+				Message: fmt.Sprintf("%s %.3g of %.3g", marginLabel(m.Margin, c.Model.Limits.HeadRatio.SI), m.Value, m.Limit),
 				Loc:     componentLoc(c.Loop, m.Component)})
 		}
 	}
@@ -169,6 +169,15 @@ func reportEstimate(c *Context, id string) {
 		g := groups[comp]
 		c.Report(diagnostic(c, g.worst, g.others))
 	}
+}
+
+// marginLabel names a margin for the summary line; the loss reserve's value
+// is an exit quality, so it says which.
+func marginLabel(name string, headRatio float64) string {
+	if name == flow.MarginHead {
+		return fmt.Sprintf("exit quality with losses ×%.3g:", headRatio)
+	}
+	return strings.ReplaceAll(name, "_", " ")
 }
 
 // worse reports whether finding a is worse than b: more severe, else
