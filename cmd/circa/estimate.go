@@ -75,16 +75,8 @@ func runEstimate(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 		}
 		opts.Sweep = &sw
 	}
-	m := lang.Load(file, lang.OSFS{})
-	bad := false
-	for _, d := range m.Diags {
-		if d.Severity == lang.Error {
-			fmt.Fprintf(stderr, "%s: %s: %s\n", position(m, d.Loc), d.Severity, d.Message())
-			bad = true
-		}
-	}
-	if bad {
-		fmt.Fprintln(stderr, "circa estimate: the file has errors; no estimate")
+	m, ok := loadClean(file, "estimate", "no estimate", stderr)
+	if !ok {
 		return exitFindings
 	}
 	res, err := flow.Estimate(m, opts)

@@ -10,6 +10,8 @@ import (
 	"os"
 	"sort"
 	"strings"
+
+	"circa/lang"
 )
 
 // Exit statuses shared by every subcommand.
@@ -107,4 +109,21 @@ func oneFile(fl *flag.FlagSet, args []string, stderr io.Writer) (file string, rc
 		return "", exitUsage, false
 	}
 	return files[0], 0, true
+}
+
+// loadClean loads a .loop file for a command that needs it free of errors
+// (estimate, plot): the errors are printed and ok is false when there are any.
+func loadClean(file, cmd, nothing string, stderr io.Writer) (*lang.Model, bool) {
+	m := lang.Load(file, lang.OSFS{})
+	bad := false
+	for _, d := range m.Diags {
+		if d.Severity == lang.Error {
+			fmt.Fprintf(stderr, "%s: %s: %s\n", position(m, d.Loc), d.Severity, d.Message())
+			bad = true
+		}
+	}
+	if bad {
+		fmt.Fprintf(stderr, "circa %s: the file has errors; %s\n", cmd, nothing)
+	}
+	return m, !bad
 }

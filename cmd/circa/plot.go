@@ -10,7 +10,6 @@ import (
 	"strings"
 
 	"circa/check/picture"
-	"circa/lang"
 )
 
 func init() {
@@ -65,16 +64,8 @@ func runPlot(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 		}
 		exts = append(exts, f)
 	}
-	m := lang.Load(file, lang.OSFS{})
-	bad := false
-	for _, d := range m.Diags {
-		if d.Severity == lang.Error {
-			fmt.Fprintf(stderr, "%s: %s: %s\n", position(m, d.Loc), d.Severity, d.Message())
-			bad = true
-		}
-	}
-	if bad {
-		fmt.Fprintln(stderr, "circa plot: the file has errors; no figures")
+	m, ok := loadClean(file, "plot", "no figures", stderr)
+	if !ok {
 		return exitFindings
 	}
 	if opts.Case != "" && m.Case(opts.Case) == nil {
