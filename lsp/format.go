@@ -6,6 +6,7 @@ import (
 
 	"go.lsp.dev/jsonrpc2"
 	"go.lsp.dev/protocol"
+	"go.lsp.dev/uri"
 
 	"circa/lang"
 )
@@ -15,15 +16,7 @@ func formattingRequest(ctx context.Context, s *Server, sn *snapshot, params []by
 	if err != nil {
 		return nil, err
 	}
-	d, ok := sn.docs[pathOf(p.TextDocument.URI)]
-	if !ok {
-		return nil, nil
-	}
-	hunks, err := formatHunks(d)
-	if err != nil {
-		return nil, err
-	}
-	return hunkEdits(d, sn.enc, hunks, -1, -1), nil
+	return formatEdits(sn, p.TextDocument.URI, nil)
 }
 
 func rangeFormattingRequest(ctx context.Context, s *Server, sn *snapshot, params []byte) (any, error) {
@@ -31,7 +24,13 @@ func rangeFormattingRequest(ctx context.Context, s *Server, sn *snapshot, params
 	if err != nil {
 		return nil, err
 	}
-	d, ok := sn.docs[pathOf(p.TextDocument.URI)]
+	return formatEdits(sn, p.TextDocument.URI, &p.Range)
+}
+
+// formatEdits returns the edits that give a document its canonical layout;
+// with a range, only those touching the range's lines.
+func formatEdits(sn *snapshot, u uri.URI, rg *protocol.Range) (any, error) {
+	d, ok := sn.docs[pathOf(u)]
 	if !ok {
 		return nil, nil
 	}
@@ -39,8 +38,11 @@ func rangeFormattingRequest(ctx context.Context, s *Server, sn *snapshot, params
 	if err != nil {
 		return nil, err
 	}
-	sp := d.mapper.RangeOffsets(toPos(p.Range.Start), toPos(p.Range.End), sn.enc)
-	first, last := d.mapper.OffsetLine(sp.Start), d.mapper.OffsetLine(sp.End)
+	first, last := -1, -1
+	if rg != nil {
+		sp := d.mapper.RangeOffsets(toPos(rg.Start), toPos(rg.End), sn.enc)
+		first, last = d.mapper.OffsetLine(sp.Start), d.mapper.OffsetLine(sp.End)
+	}
 	return hunkEdits(d, sn.enc, hunks, first, last), nil
 }
 
