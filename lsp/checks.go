@@ -2,7 +2,6 @@ package lsp
 
 import (
 	"context"
-	"encoding/json"
 	"fmt"
 	"sort"
 	"strings"
@@ -278,19 +277,12 @@ func (est *estimates) tookOrZero() time.Duration {
 	return est.took
 }
 
-// detached copies the estimate without references into its model: the
-// result's documented JSON form holds names and numbers only.
+// detached keeps only the estimate of an analysis: the flow result holds
+// names and numbers, no references into its model, so keeping it does not
+// keep the model (or the checker's report) alive.
 func (est *estimates) detached() *estimates {
 	if est == nil || est.flow == nil {
 		return nil
 	}
-	b, err := json.Marshal(est.flow)
-	if err != nil {
-		return nil
-	}
-	var r flow.Result
-	if json.Unmarshal(b, &r) != nil {
-		return nil
-	}
-	return &estimates{flow: &r, flowErr: est.flowErr, took: est.took}
+	return &estimates{flow: est.flow, flowErr: est.flowErr, took: est.took}
 }

@@ -50,8 +50,13 @@ func walk(v reflect.Value) int {
 	return 0
 }
 
-// finishLoop sanitizes a loop result and records any replacement.
+// finishLoop sanitizes a loop result and records any replacement. It also
+// drops each case's reference to the model, so a kept result holds names
+// and numbers only and does not keep a whole model alive.
 func finishLoop(lr *LoopResult) {
+	for i := range lr.Cases {
+		lr.Cases[i].pointCase = nil
+	}
 	if n := sanitize(lr); n > 0 {
 		lr.Findings = append(lr.Findings, Finding{Rule: RuleNonFinite, Severity: "warning", Loop: lr.Loop,
 			Value: float64(n), Message: "the estimate produced non-finite numbers, shown as 0 or the largest float; treat this loop's numbers with suspicion"})
