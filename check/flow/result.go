@@ -174,7 +174,7 @@ const (
 	RulePressure       = "margin-design-pressure"
 	RuleCondenser      = "margin-condenser"
 	RuleCharge         = "margin-charge"
-	RuleHead           = "margin-head"
+	RuleHead           = "margin-loss-reserve"
 	RuleTilt           = "margin-tilt"
 	RuleFluidSafety    = "fluid-safety"
 	RuleEnergyClosure  = "estimate-energy-closure"
