@@ -3,6 +3,7 @@ package lsp
 import (
 	"go.lsp.dev/protocol"
 
+	"circa/check/output"
 	"circa/lang"
 )
 
@@ -32,10 +33,7 @@ func (sn *snapshot) rangeIn(path string, sp lang.Span, clip bool) protocol.Range
 }
 
 func toRange(m *lang.Mapper, sp lang.Span, enc lang.Encoding, clip bool) protocol.Range {
-	a, b := m.SpanRange(sp, enc)
-	if clip && b.Line > a.Line {
-		b = m.OffsetPosition(m.LineEnd(a.Line), enc)
-	}
+	a, b := output.Range(m, sp, enc, clip)
 	return protocol.Range{Start: fromPos(a), End: fromPos(b)}
 }
 

@@ -10,9 +10,6 @@ import (
 	"testing"
 
 	"github.com/santhosh-tekuri/jsonschema/v6"
-
-	"circa/check"
-	"circa/lang"
 )
 
 func circa(t *testing.T, stdin string, args ...string) (int, string, string) {
@@ -116,17 +113,6 @@ func TestCheckText(t *testing.T) {
 
 func TestCheckColour(t *testing.T) {
 	var b strings.Builder
-	_ = writeText(&b, nil, nil, true)
-	if !strings.HasPrefix(b.String(), "0 files checked") {
-		t.Errorf("%q", b.String())
-	}
-	m := lang.LoadSource("c.loop", []byte(bad), nil)
-	runs := []checkedFile{{"c.loop", m, check.RunReport(m, check.Options{SkipEstimates: true})}}
-	b.Reset()
-	_ = writeText(&b, runs, collectFindings(runs), true)
-	if !strings.Contains(b.String(), "\x1b[1;31merror\x1b[0m: evaporator e rises") {
-		t.Errorf("no colour:\n%q", b.String())
-	}
 	t.Setenv("NO_COLOR", "1")
 	if useColour(os.Stdout) {
 		t.Error("colour with NO_COLOR set")
@@ -283,13 +269,6 @@ func TestCheckGitHub(t *testing.T) {
 	}
 	if !strings.Contains(out, "::warning file=<stdin>,line=11,") || !strings.Contains(out, "%0Anote: <stdin>:") {
 		t.Errorf("warning or note missing:\n%s", out)
-	}
-	// Workflow-command escaping: data escapes %, CR and LF; properties also : and ,.
-	if got := ghData("50% a\r\nb"); got != "50%25 a%0D%0Ab" {
-		t.Errorf("ghData = %q", got)
-	}
-	if got := ghProp("a:b,c%"); got != "a%3Ab%2Cc%25" {
-		t.Errorf("ghProp = %q", got)
 	}
 }
 

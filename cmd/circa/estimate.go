@@ -13,7 +13,6 @@ import (
 
 	"circa/check/flow"
 	"circa/check/geom"
-	"circa/lang"
 )
 
 func init() {
@@ -112,16 +111,6 @@ func runEstimate(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 		}
 	}
 	return exitOK
-}
-
-// position renders a location as FILE:LINE:COL (one-based).
-func position(m *lang.Model, loc lang.Location) string {
-	f := m.Files[loc.File]
-	if f == nil || f.Mapper == nil {
-		return loc.File
-	}
-	p := f.Mapper.OffsetPosition(loc.Span.Start, lang.UTF8)
-	return fmt.Sprintf("%s:%d:%d", loc.File, p.Line+1, p.Col+1)
 }
 
 func degrees(s string) ([]float64, error) {

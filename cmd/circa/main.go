@@ -11,6 +11,7 @@ import (
 	"sort"
 	"strings"
 
+	"circa/check/output"
 	"circa/lang"
 )
 
@@ -118,7 +119,7 @@ func loadClean(file, cmd, nothing string, stderr io.Writer) (*lang.Model, bool) 
 	bad := false
 	for _, d := range m.Diags {
 		if d.Severity == lang.Error {
-			fmt.Fprintf(stderr, "%s: %s: %s\n", position(m, d.Loc), d.Severity, d.Message())
+			fmt.Fprintf(stderr, "%s: %s: %s\n", output.Where(m, d.Loc), d.Severity, d.Message())
 			bad = true
 		}
 	}

@@ -1,0 +1,94 @@
+package output
+
+import (
+	"fmt"
+	"io"
+	"strings"
+
+	"circa/lang"
+)
+
+const (
+	ansiReset = "\x1b[0m"
+	ansiBold  = "\x1b[1m"
+	ansiRed   = "\x1b[1;31m"
+	ansiYel   = "\x1b[1;33m"
+	ansiCyan  = "\x1b[1;36m"
+	ansiGreen = "\x1b[1;32m"
+)
+
+// Text writes findings as a compiler does: FILE:LINE:COL: severity: message
+// [rule], the source line with a caret under the span, related locations
+// as notes, fixes by title, and a summary line. With colour, severities
+// and locations are painted with ANSI escapes.
+func Text(w io.Writer, files []File, fs []Finding, colour bool) error {
+	paint := func(code, s string) string {
+		if !colour {
+			return s
+		}
+		return code + s + ansiReset
+	}
+	var b strings.Builder
+	counts := map[lang.Severity]int{}
+	for _, f := range fs {
+		d := f.Diagnostic
+		counts[d.Severity]++
+		s, e, ok := Span(f.Model, d.Loc)
+		code := ansiCyan
+		switch d.Severity {
+		case lang.Error:
+			code = ansiRed
+		case lang.Warning:
+			code = ansiYel
+		}
+		if ok {
+			fmt.Fprintf(&b, "%s: %s: %s [%s]\n", paint(ansiBold, fmt.Sprintf("%s:%d:%d", d.Loc.File, s.Line, s.Char)), paint(code, d.Severity.String()), d.Message(), d.Rule)
+			caret(&b, f.Model, d.Loc, s, e, func(x string) string { return paint(ansiGreen, x) })
+		} else {
+			fmt.Fprintf(&b, "%s: %s: %s [%s]\n", paint(ansiBold, d.Loc.File), paint(code, d.Severity.String()), d.Message(), d.Rule)
+		}
+		for _, r := range d.Related {
+			rs, _, rok := Span(f.Model, r.Loc)
+			if rok {
+				fmt.Fprintf(&b, "    %s %s:%d:%d: %s\n", paint(ansiCyan, "note:"), r.Loc.File, rs.Line, rs.Char, r.Message)
+			} else {
+				fmt.Fprintf(&b, "    %s %s\n", paint(ansiCyan, "note:"), r.Message)
+			}
+		}
+		for _, fx := range d.Fixes {
+			fmt.Fprintf(&b, "    %s %s\n", paint(ansiGreen, "fix:"), fx.Title)
+		}
+	}
+	fmt.Fprintln(&b, Summary(files, counts))
+	_, err := io.WriteString(w, b.String())
+	return err
+}
+
+// caret prints the source line and a caret line under the span; tabs
+// before the span are kept so the caret lines up.
+func caret(b *strings.Builder, m *lang.Model, loc lang.Location, s, e Pos, paint func(string) string) {
+	f := m.Files[loc.File]
+	if f == nil || f.Mapper == nil {
+		return
+	}
+	text := f.Mapper.LineText(s.Line - 1)
+	fmt.Fprintf(b, "  %s\n", text)
+	var pad strings.Builder
+	i := 0
+	for _, r := range text {
+		if i >= s.Char-1 {
+			break
+		}
+		if r == '\t' {
+			pad.WriteByte('\t')
+		} else {
+			pad.WriteByte(' ')
+		}
+		i++
+	}
+	n := 1
+	if e.Line == s.Line && e.Char > s.Char {
+		n = e.Char - s.Char
+	}
+	fmt.Fprintf(b, "  %s%s\n", pad.String(), paint("^"+strings.Repeat("~", n-1)))
+}
