@@ -1,0 +1,298 @@
+// Declaring: the first pass records every named thing (parameters, parts,
+// loops with their nodes and components, cases) so later passes may refer to
+// names declared anywhere, in any file.
+
+package lang
+
+import (
+	"fmt"
+
+	"circa/units"
+)
+
+var topKeywords = []string{"include", "param", "part", "loop", "case", "limits", "methods"}
+
+var loopKeywords = []string{"fluid", "charge", "design_pressure", "saturation", "node", "junction", "pipe", "evaporator", "condenser", "bend", "fitting", "reservoir"}
+
+func kindOf(word string) (Kind, bool) {
+	for i, n := range kindNames {
+		if n == word {
+			return Kind(i), true
+		}
+	}
+	return 0, false
+}
+
+// declare walks every file's top level and records the named things.
+func (r *resolver) declare() {
+	r.loopStmts = map[*Loop]*Stmt{}
+	r.compStmts = map[*Component]*Stmt{}
+	r.caseStmts = map[*Case]*Stmt{}
+	for _, path := range r.m.Order {
+		f := r.m.Files[path]
+		for _, st := range f.Stmts {
+			if st.Bad {
+				continue
+			}
+			switch kw := st.Keyword(); kw {
+			case "include":
+			case "param":
+				r.declareParam(path, st)
+			case "part":
+				name, ok := r.head(path, st, true)
+				if !ok {
+					continue
+				}
+				p := &Part{Decl: r.decl(path, st, name)}
+				if st.Block != nil {
+					p.Stmts = st.Block.Stmts
+				}
+				if prev, dup := r.parts[name.Name]; dup {
+					r.duplicate(path, name, "part", prev.Decl)
+					continue
+				}
+				r.parts[name.Name] = p
+				r.m.Parts = append(r.m.Parts, p)
+				r.ref(RefPart, name.Name, nil, path, name.Span(), true)
+			case "loop":
+				r.declareLoop(path, st)
+			case "case":
+				r.declareCase(path, st)
+			case "limits":
+				r.limStmts = append(r.limStmts, fileStmt{path, st})
+				r.needBlock(path, st)
+			case "methods":
+				r.methStmts = append(r.methStmts, fileStmt{path, st})
+				r.needBlock(path, st)
+			default:
+				r.unknownWord(path, st, topKeywords, "at the top level")
+			}
+		}
+	}
+	// The nominal case: the one marked, else the first.
+	for _, c := range r.m.Cases {
+		if c.Nominal {
+			if r.m.Nominal != nil {
+				d := r.errorf("duplicate-nominal", c.File, c.NameSpan, "case %s is marked nominal, but %s already is", c.Name, r.m.Nominal.Name)
+				d.Related = append(d.Related, Related{Loc: r.m.Nominal.NameLoc(), Message: "the first nominal case"})
+				c.Nominal = false
+				continue
+			}
+			r.m.Nominal = c
+		}
+	}
+	if r.m.Nominal == nil && len(r.m.Cases) > 0 {
+		r.m.Nominal = r.m.Cases[0]
+	}
+}
+
+func (r *resolver) decl(file string, st *Stmt, name *Ident) Decl {
+	d := Decl{Name: name.Name, File: file, NameSpan: name.Span(), Span: st.Span(), BlockClose: -1}
+	if st.Block != nil {
+		d.BlockClose = st.Block.Close
+	}
+	return d
+}
+
+func (r *resolver) needBlock(file string, st *Stmt) {
+	if st.Block == nil {
+		r.errorf("syntax", file, st.Span(), "%s needs a block: %s { … }", st.Keyword(), st.Keyword())
+	}
+}
+
+// head reads "WORD NAME" and returns the name.
+func (r *resolver) head(file string, st *Stmt, block bool) (*Ident, bool) {
+	if len(st.Args) == 0 || st.Args[0].Expr == nil || nameOf(st.Args[0].Expr) == nil {
+		r.errorf("syntax", file, st.Span(), "%s needs a name: %s NAME%s", st.Keyword(), st.Keyword(), map[bool]string{true: " { … }", false: ""}[block])
+		return nil, false
+	}
+	if block {
+		r.needBlock(file, st)
+	}
+	return nameOf(st.Args[0].Expr), true
+}
+
+func (r *resolver) duplicate(file string, name *Ident, what string, prev Decl) {
+	d := r.errorf("duplicate-name", file, name.Span(), "%s %s is declared twice", what, name.Name)
+	d.Related = append(d.Related, Related{Loc: prev.NameLoc(), Message: "first declared here"})
+}
+
+func (r *resolver) ref(kind RefKind, name string, loop *Loop, file string, span Span, decl bool) {
+	r.m.Refs = append(r.m.Refs, Ref{Kind: kind, Name: name, Loop: loop, File: file, Span: span, IsDecl: decl})
+}
+
+func (r *resolver) unknownWord(file string, st *Stmt, known []string, where string) {
+	w := st.Word
+	d := r.errorf("unknown-field", file, w.Span(), "unknown statement %q %s", w.Name, where)
+	if best := Closest(w.Name, known); best != "" {
+		d.Format = "unknown statement %q %s; did you mean %q?"
+		d.Args = append(d.Args, best)
+		d.Fixes = append(d.Fixes, Fix{Title: fmt.Sprintf("Change to %q", best), Edits: []Edit{{Loc: Location{File: file, Span: w.Span()}, NewText: best}}})
+	}
+}
+
+func (r *resolver) declareParam(file string, st *Stmt) {
+	if len(st.Args) != 3 || st.Args[0].Expr == nil || nameOf(st.Args[0].Expr) == nil || st.Args[1].Key != "=" || st.Args[2].Expr == nil {
+		r.errorf("syntax", file, st.Span(), "param needs a name and a value: param NAME = VALUE")
+		return
+	}
+	name := nameOf(st.Args[0].Expr)
+	p := &Param{Decl: r.decl(file, st, name), Expr: st.Args[2].Expr}
+	if prev, dup := r.params[name.Name]; dup {
+		r.duplicate(file, name, "parameter", prev.p.Decl)
+		return
+	}
+	r.params[name.Name] = &paramState{p: p}
+	r.m.Params = append(r.m.Params, p)
+	r.ref(RefParam, name.Name, nil, file, name.Span(), true)
+}
+
+func (r *resolver) declareLoop(file string, st *Stmt) {
+	name, ok := r.head(file, st, true)
+	if !ok {
+		return
+	}
+	l := &Loop{Decl: r.decl(file, st, name)}
+	if prev, dup := r.loops[name.Name]; dup {
+		r.duplicate(file, name, "loop", prev.Decl)
+		return
+	}
+	r.loops[name.Name] = l
+	r.m.Loops = append(r.m.Loops, l)
+	r.loopStmts[l] = st
+	if st.Block == nil {
+		return
+	}
+	nodes := map[string]*Node{}
+	// Nodes first, so components may name nodes declared after them.
+	for _, s := range st.Block.Stmts {
+		if s.Bad || (s.Keyword() != "node" && s.Keyword() != "junction") {
+			continue
+		}
+		if len(s.Args) == 0 || nameOf(s.Args[0].Expr) == nil {
+			r.errorf("syntax", file, s.Span(), "%s needs a name: %s NAME [at (X, Y, Z) UNIT]", s.Keyword(), s.Keyword())
+			continue
+		}
+		nm := nameOf(s.Args[0].Expr)
+		if prev, dup := nodes[nm.Name]; dup {
+			r.duplicate(file, nm, "node", prev.Decl)
+			continue
+		}
+		n := &Node{Decl: r.decl(file, s, nm), Loop: l, Junction: s.Keyword() == "junction", Index: len(l.Nodes)}
+		nodes[nm.Name] = n
+		l.Nodes = append(l.Nodes, n)
+		r.ref(RefNode, nm.Name, l, file, nm.Span(), true)
+		rest := s.Args[1:]
+		if len(rest) > 0 {
+			if rest[0].Key != "at" || len(rest) != 2 || rest[1].Expr == nil {
+				r.errorf("syntax", file, s.Span(), "a node's coordinates are written: %s %s at (X, Y, Z) UNIT", s.Keyword(), nm.Name)
+				continue
+			}
+			n.At = r.vector(file, rest[1].Expr, units.Need{Dim: units.Length})
+		}
+		if s.Block != nil {
+			r.errorf("syntax", file, Span{s.Block.Open, s.Block.Open + 1}, "a node takes no block")
+		}
+	}
+	for _, s := range st.Block.Stmts {
+		if s.Bad {
+			continue
+		}
+		kw := s.Keyword()
+		k, isComp := kindOf(kw)
+		if !isComp {
+			continue
+		}
+		r.declareComponent(file, s, l, k, nodes)
+	}
+}
+
+func (r *resolver) declareComponent(file string, s *Stmt, l *Loop, k Kind, nodes map[string]*Node) {
+	parts := s.Args
+	if len(parts) == 0 || nameOf(parts[0].Expr) == nil {
+		if k == Reservoir {
+			r.errorf("syntax", file, s.Span(), "reservoir needs a name and a node: reservoir NAME at NODE")
+		} else {
+			r.errorf("syntax", file, s.Span(), "%s needs a name and its ends: %s NAME from NODE to NODE", k, k)
+		}
+		return
+	}
+	nm := nameOf(parts[0].Expr)
+	c := &Component{Decl: r.decl(file, s, nm), Kind: k, Loop: l, Index: len(l.Components)}
+	c.Roughness = Value{SI: 1.5e-6}
+	c.BoilRoughness = Value{SI: 1e-6}
+	node := func(p *Arg) (*Node, Span) {
+		id := nameOf(p.Expr)
+		if id == nil {
+			r.errorf("syntax", file, p.Span(), "expected a node name")
+			return nil, p.Span()
+		}
+		n, ok := nodes[id.Name]
+		if !ok {
+			cands := make([]string, 0, len(l.Nodes))
+			for _, n := range l.Nodes {
+				cands = append(cands, n.Name)
+			}
+			r.unknownName(file, id, "node", cands, fmt.Sprintf(" in loop %s", l.Name))
+			return nil, id.Span()
+		}
+		r.ref(RefNode, id.Name, l, file, id.Span(), false)
+		return n, id.Span()
+	}
+	rest := parts[1:]
+	if k == Reservoir {
+		if len(rest) != 2 || rest[0].Key != "at" || rest[1].Expr == nil {
+			r.errorf("syntax", file, s.Span(), "reservoir needs the node it hangs from: reservoir %s at NODE", nm.Name)
+		} else {
+			c.From, c.FromSpan = node(rest[1])
+		}
+	} else {
+		if len(rest) != 4 || rest[0].Key != "from" || rest[2].Key != "to" || rest[1].Expr == nil || rest[3].Expr == nil {
+			r.errorf("syntax", file, s.Span(), "%s needs its ends: %s %s from NODE to NODE", k, k, nm.Name)
+		} else {
+			c.From, c.FromSpan = node(rest[1])
+			c.To, c.ToSpan = node(rest[3])
+		}
+	}
+	if prev, dup := r.comps[nm.Name]; dup {
+		r.duplicate(file, nm, "component", prev.Decl)
+		return
+	}
+	r.comps[nm.Name] = c
+	l.Components = append(l.Components, c)
+	r.compStmts[c] = s
+	r.ref(RefComponent, nm.Name, l, file, nm.Span(), true)
+}
+
+func (r *resolver) declareCase(file string, st *Stmt) {
+	name, ok := r.head(file, st, true)
+	if !ok {
+		return
+	}
+	c := &Case{Decl: r.decl(file, st, name)}
+	for _, p := range st.Args[1:] {
+		if id := nameOf(p.Expr); id != nil && id.Name == "nominal" {
+			c.Nominal = true
+			continue
+		}
+		d := r.errorf("syntax", file, p.Span(), "unexpected %q after the case name; only \"nominal\" may follow it", src(r.m.Files[file], p.Span()))
+		_ = d
+	}
+	if prev, dup := r.cases[name.Name]; dup {
+		r.duplicate(file, name, "case", prev.Decl)
+		return
+	}
+	r.cases[name.Name] = c
+	r.m.Cases = append(r.m.Cases, c)
+	r.caseStmts[c] = st
+	r.ref(RefCase, name.Name, nil, file, name.Span(), true)
+}
+
+func (r *resolver) unknownName(file string, id *Ident, what string, cands []string, where string) {
+	d := r.errorf("unknown-name", file, id.Span(), "unknown %s %q%s", what, id.Name, where)
+	if best := Closest(id.Name, cands); best != "" {
+		d.Format += "; did you mean %q?"
+		d.Args = append(d.Args, best)
+		d.Fixes = append(d.Fixes, Fix{Title: fmt.Sprintf("Change to %q", best), Edits: []Edit{{Loc: Location{File: file, Span: id.Span()}, NewText: best}}})
+	}
+}

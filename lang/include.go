@@ -1,0 +1,93 @@
+// Reading: the root file and, depth first, the files it includes.
+
+package lang
+
+import (
+	"errors"
+	"os"
+	"path/filepath"
+	"strings"
+)
+
+// FS reads the files a model includes. The language server supplies one that
+// prefers open editor buffers to the disk.
+type FS interface {
+	ReadFile(path string) ([]byte, error)
+}
+
+// OSFS reads from the operating system.
+type OSFS struct{}
+
+// ReadFile reads a file from disk.
+func (OSFS) ReadFile(path string) ([]byte, error) { return os.ReadFile(path) }
+
+// MaxFileSize bounds what the loader reads, so a wrong include cannot make
+// the checker swallow a disk image.
+const MaxFileSize = 64 << 20
+
+// read parses one file and, depth first, the files it includes.
+func (r *resolver) read(path string, src []byte, stack []string, from Location) {
+	if len(src) > MaxFileSize {
+		r.errorf("file-unreadable", from.File, from.Span, "%s is larger than %d MiB", path, MaxFileSize>>20)
+		return
+	}
+	f := Parse(path, src)
+	r.m.Files[path] = f
+	r.m.Order = append(r.m.Order, path)
+	r.m.Diags = append(r.m.Diags, f.Errors...)
+	stack = append(stack, path)
+	for _, st := range f.Stmts {
+		if st.Keyword() != "include" || st.Bad {
+			continue
+		}
+		s, ok := r.stringArg(path, st)
+		if !ok {
+			continue
+		}
+		inc := s.Value()
+		target := inc
+		if !filepath.IsAbs(target) {
+			target = filepath.Join(filepath.Dir(path), filepath.FromSlash(inc))
+		}
+		loc := Location{File: path, Span: s.Span()}
+		if i := indexOf(stack, target); i >= 0 {
+			d := r.errorf("include-cycle", path, s.Span(), "include cycle: %s", strings.Join(append(append([]string(nil), stack[i:]...), target), " → "))
+			d.Related = append(d.Related, Related{Loc: Location{File: target}, Message: "the cycle starts here"})
+			continue
+		}
+		if _, done := r.m.Files[target]; done {
+			continue // diamond includes are read once
+		}
+		data, err := r.fs.ReadFile(target)
+		if err != nil {
+			msg := err.Error()
+			var pe *os.PathError
+			if errors.As(err, &pe) {
+				msg = pe.Err.Error()
+			}
+			r.errorf("include-unreadable", path, s.Span(), "cannot read included file %s: %s", inc, msg)
+			continue
+		}
+		r.read(target, data, stack, loc)
+	}
+}
+
+func indexOf(list []string, s string) int {
+	for i, x := range list {
+		if x == s {
+			return i
+		}
+	}
+	return -1
+}
+
+// stringArg returns the single string part of st.
+func (r *resolver) stringArg(file string, st *Stmt) (*Str, bool) {
+	if len(st.Args) == 1 && st.Args[0].Expr != nil {
+		if a := singleAtom(st.Args[0].Expr); a != nil && a.Str != nil {
+			return a.Str, true
+		}
+	}
+	r.errorf("syntax", file, st.Span(), "%s needs one quoted path, e.g. %s \"parts.loop\"", st.Keyword(), st.Keyword())
+	return nil, false
+}
