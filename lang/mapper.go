@@ -137,7 +137,7 @@ func (m *Mapper) PositionOffset(p Position, enc Encoding) int {
 		if off > end {
 			off = end
 		}
-		for off > start && !utf8.RuneStart(m.text[off]) {
+		for off > start && off < end && !utf8.RuneStart(m.text[off]) {
 			off--
 		}
 		return off

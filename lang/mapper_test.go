@@ -145,4 +145,15 @@ func TestMapperEmptyAndNoFinalNewline(t *testing.T) {
 	if got := m.OffsetPosition(5, UTF16); got != (Position{1, 2}) {
 		t.Errorf("OffsetPosition(5) = %v, want {1 2}", got)
 	}
+	// The end of a last line without a newline, in bytes: the column equals
+	// the line's length and names the end of the text.
+	for _, col := range []int{2, 3} {
+		if got := m.PositionOffset(Position{1, col}, UTF8); got != 5 {
+			t.Errorf("PositionOffset({1 %d}, UTF8) at the end of the text = %d, want 5", col, got)
+		}
+	}
+	m = NewMapper([]byte("a µ"))
+	if got := m.PositionOffset(Position{0, 4}, UTF8); got != 4 {
+		t.Errorf("PositionOffset after a last 'µ' = %d, want 4", got)
+	}
 }
