@@ -185,7 +185,7 @@ func TestRangeErrorMessage(t *testing.T) {
 		t.Fatal(err)
 	}
 	_, err = f.AtT(700)
-	want := "water: saturation temperature 700 K outside the range 273.16 to 623.15 K"
+	want := "water: saturation temperature 700 K outside the range 273.16 to 646 K"
 	if err == nil || err.Error() != want {
 		t.Errorf("AtT(700) error %q, want %q", err, want)
 	}

@@ -7,15 +7,18 @@ import (
 
 // Water is answered from the IAPWS industrial formulation IF97 for the
 // saturation line (region 4) and the saturated phases (region 1 for the
-// liquid, region 2 for the vapour), with the IAPWS 2008 viscosity and 2011
-// thermal conductivity correlations evaluated at the IF97 saturated densities,
-// and the IAPWS 2014 surface tension.
+// liquid and region 2 for the vapour up to 623.15 K, region 3 for both above),
+// with the IAPWS 2008 viscosity and 2011 thermal conductivity correlations
+// evaluated at the IF97 saturated densities, and the IAPWS 2014 surface
+// tension.
 //
-// The viscosity omits its critical enhancement (μ₂ = 1) and the thermal
-// conductivity its critical term (λ₂ = 0), the industrial simplification both
-// releases allow away from the critical point. The range ends at 623.15 K,
-// where IF97 regions 1 and 2 stop meeting the saturation line (region 3 takes
-// over up to the critical point).
+// The viscosity omits its critical enhancement (μ₂ = 1), which the 2008
+// release allows outside a small region around the critical point; the
+// thermal conductivity includes its critical enhancement λ₂ in the release's
+// industrial form (IF97 derivatives, the tabulated reference compressibility).
+// The range ends at waterTmax, 1.096 K below the critical point: closer to it
+// the saturated phases' properties change faster than a quick estimate can
+// use, and the omitted viscosity enhancement starts to matter.
 type water struct{}
 
 func init() { register(water{}) }
@@ -26,7 +29,8 @@ const (
 	waterPc   = 22.064e6
 	waterRhoc = 322.0
 	waterTmin = 273.16 // triple point, K
-	waterTmax = 623.15 // boundary of IF97 regions 1/2 with region 3, K
+	waterTmax = 646.0  // highest saturation temperature answered, K (region 3)
+	waterT13  = 623.15 // boundary of IF97 regions 1 and 2 with region 3, K
 )
 
 func (water) Info() Info {
@@ -40,8 +44,9 @@ func (water) Info() Info {
 		Tmin:      waterTmin,
 		Tmax:      waterTmax,
 		Safety:    "A1",
-		Source: "IAPWS R7-97(2012) IF97 regions 1, 2 and 4; IAPWS R12-08 viscosity without critical enhancement; " +
-			"IAPWS R15-11 thermal conductivity without critical enhancement; IAPWS R1-76(2014) surface tension",
+		Source: "IAPWS R7-97(2012) IF97 regions 1, 2, 3 and 4; IAPWS R12-08 viscosity without critical enhancement; " +
+			"IAPWS R15-11 thermal conductivity with its critical enhancement (industrial form); " +
+			"IAPWS R1-76(2014) surface tension",
 	}
 }
 
@@ -50,22 +55,59 @@ func (w water) Direct(T float64) (Sat, error) {
 		return Sat{}, &RangeError{Fluid: "water", Quantity: "temperature", Value: T, Min: waterTmin, Max: waterTmax, Unit: "K"}
 	}
 	p := if97Psat(T)
-	vl, hl, cpl := if97Region1(T, p)
-	vv, hv, cpv := if97Region2(T, p)
-	rl, rv := 1/vl, 1/vv
+	l, v, err := waterSatPhases(T, p)
+	if err != nil {
+		return Sat{}, err
+	}
+	rl, rv := 1/l.v, 1/v.v
+	mul, muv := waterViscosity(rl, T), waterViscosity(rv, T)
 	s := Sat{
 		T: T, P: p,
 		RhoL: rl, RhoV: rv,
-		HL: hl, HV: hv, Hlv: hv - hl,
-		CpL: cpl, CpV: cpv,
-		MuL: waterViscosity(rl, T), MuV: waterViscosity(rv, T),
-		KL: waterConductivity(rl, T), KV: waterConductivity(rv, T),
+		HL: l.h, HV: v.h, Hlv: v.h - l.h,
+		CpL: l.cp, CpV: v.cp,
+		MuL: mul, MuV: muv,
+		KL:    waterConductivity(rl, T) + waterConductivityCritical(rl, T, l, mul),
+		KV:    waterConductivity(rv, T) + waterConductivityCritical(rv, T, v, muv),
 		Sigma: waterSurfaceTension(T),
 	}
 	if !finiteSat(s) {
 		return Sat{}, fmt.Errorf("water: no finite saturated state at %g K", T)
 	}
 	return s, nil
+}
+
+// waterBlend is the half-width (K) of the band about 623.15 K over which the
+// saturated phases pass from regions 1 and 2 to region 3. The two sets differ
+// there by up to 0.01 % in density (IF97's consistency at the boundary), a
+// step the cached table cannot follow; a smooth blend over the band keeps
+// every property continuous with a continuous slope.
+const waterBlend = 1.0
+
+// waterSatPhases returns the saturated liquid and vapour at T (K) and the
+// saturation pressure p (Pa).
+func waterSatPhases(T, p float64) (l, v if97State, err error) {
+	lo, hi := waterT13-waterBlend, waterT13+waterBlend
+	if T <= lo {
+		return if97Region1(T, p), if97Region2(T, p), nil
+	}
+	l3, v3, err := if97Region3Sat(T, p)
+	if err != nil || T >= hi {
+		return l3, v3, err
+	}
+	u := (T - lo) / (hi - lo)
+	w := u * u * (3 - 2*u)
+	return if97Mix(if97Region1(T, p), l3, w), if97Mix(if97Region2(T, p), v3, w), nil
+}
+
+// if97Mix is (1−w)·a + w·b field by field, density blended as density.
+func if97Mix(a, b if97State, w float64) if97State {
+	m := func(x, y float64) float64 { return (1-w)*x + w*y }
+	return if97State{
+		v: 1 / m(1/a.v, 1/b.v),
+		h: m(a.h, b.h), cp: m(a.cp, b.cp), cv: m(a.cv, b.cv),
+		drhodp: m(a.drhodp, b.drhodp),
+	}
 }
 
 // Region 4 coefficients, IF97 Table 34.
@@ -112,26 +154,43 @@ var (
 		0.18228094581404e-23, -0.93537087292458e-25}
 )
 
-// if97Region1 returns specific volume (m³/kg), enthalpy (J/kg) and isobaric
-// heat capacity (J/(kg·K)) of the liquid at T (K), p (Pa), IF97 Eq. 7 and Table 3.
-func if97Region1(T, p float64) (v, h, cp float64) {
+// if97State is one IF97 state: specific volume (m³/kg), enthalpy (J/kg),
+// isobaric and isochoric heat capacities (J/(kg·K)) and the isothermal
+// derivative of density with pressure (kg/(m³·Pa)), which the conductivity's
+// critical enhancement needs.
+type if97State struct {
+	v, h, cp, cv, drhodp float64
+}
+
+// if97Region1 returns the liquid's state at T (K), p (Pa), IF97 Eq. 7 and Table 3.
+func if97Region1(T, p float64) if97State {
 	pi, tau := p/16.53e6, 1386.0/T
 	a, b := 7.1-pi, tau-1.222
-	var gp, gt, gtt float64
+	var gp, gpp, gpt, gt, gtt float64
 	for k := range if97n1 {
 		I, J, n := if97I1[k], if97J1[k], if97n1[k]
 		aI := ipow(a, I)
 		bJ := ipow(b, J)
 		if I > 0 {
 			gp -= n * float64(I) * aI / a * bJ
+			gpt -= n * float64(I*J) * aI / a * bJ / b
+		}
+		if I > 1 {
+			gpp += n * float64(I*(I-1)) * aI / (a * a) * bJ
 		}
 		gt += n * float64(J) * aI * bJ / b
 		gtt += n * float64(J*(J-1)) * aI * bJ / (b * b)
 	}
-	v = pi * gp * waterR * T / p
-	h = tau * gt * waterR * T
-	cp = -tau * tau * gtt * waterR
-	return v, h, cp
+	v := pi * gp * waterR * T / p
+	dvdp := waterR * T / (16.53e6 * 16.53e6) * gpp
+	q := gp - tau*gpt
+	return if97State{
+		v:      v,
+		h:      tau * gt * waterR * T,
+		cp:     -tau * tau * gtt * waterR,
+		cv:     waterR * (-tau*tau*gtt + q*q/gpp),
+		drhodp: -dvdp / (v * v),
+	}
 }
 
 // Region 2 ideal-gas (Table 10) and residual (Table 11) terms.
@@ -155,9 +214,8 @@ var (
 		0.73087610595061e-28, 0.55414715350778e-16, -0.94369707241210e-6}
 )
 
-// if97Region2 returns specific volume (m³/kg), enthalpy (J/kg) and isobaric
-// heat capacity (J/(kg·K)) of the vapour at T (K), p (Pa), IF97 Eq. 15 and Table 12.
-func if97Region2(T, p float64) (v, h, cp float64) {
+// if97Region2 returns the vapour's state at T (K), p (Pa), IF97 Eq. 15 and Table 12.
+func if97Region2(T, p float64) if97State {
 	pi, tau := p/1e6, 540.0/T
 	var g0t, g0tt float64
 	for k := range if97n0 {
@@ -167,21 +225,122 @@ func if97Region2(T, p float64) (v, h, cp float64) {
 		g0tt += n * float64(J*(J-1)) * tJ / (tau * tau)
 	}
 	b := tau - 0.5
-	var grp, grt, grtt float64
+	var grp, grpp, grpt, grt, grtt float64
 	for k := range if97n2 {
 		I, J, n := if97I2[k], if97J2[k], if97n2[k]
 		pI := ipow(pi, I)
 		bJ := ipow(b, J)
 		grp += n * float64(I) * pI / pi * bJ
+		grpp += n * float64(I*(I-1)) * pI / (pi * pi) * bJ
 		if J > 0 {
 			grt += n * pI * float64(J) * bJ / b
 			grtt += n * pI * float64(J*(J-1)) * bJ / (b * b)
+			grpt += n * float64(I*J) * pI / pi * bJ / b
 		}
 	}
-	v = pi * (1/pi + grp) * waterR * T / p
-	h = tau * (g0t + grt) * waterR * T
-	cp = -tau * tau * (g0tt + grtt) * waterR
-	return v, h, cp
+	v := pi * (1/pi + grp) * waterR * T / p
+	dvdp := waterR * T / 1e12 * (-1/(pi*pi) + grpp)
+	q := 1 + pi*grp - tau*pi*grpt
+	return if97State{
+		v:      v,
+		h:      tau * (g0t + grt) * waterR * T,
+		cp:     -tau * tau * (g0tt + grtt) * waterR,
+		cv:     waterR * (-tau*tau*(g0tt+grtt) - q*q/(1-pi*pi*grpp)),
+		drhodp: -dvdp / (v * v),
+	}
+}
+
+// Region 3 Helmholtz-function terms, IF97 Table 30 (the first term, n₁ ln δ,
+// is written out in if97Region3).
+var (
+	if97I3 = [39]int{0, 0, 0, 0, 0, 0, 0, 1, 1, 1, 1, 2, 2, 2, 2, 2, 2, 3, 3, 3, 3, 3, 4, 4, 4, 4, 5, 5, 5, 6, 6, 6, 7, 8, 9, 9, 10, 10, 11}
+	if97J3 = [39]int{0, 1, 2, 7, 10, 12, 23, 2, 6, 15, 17, 0, 2, 6, 7, 22, 26, 0, 2, 4, 16, 26, 0, 2, 4, 26, 1, 3, 26, 0, 2, 26, 2, 26, 2, 26, 0, 1, 26}
+	if97n3 = [39]float64{-0.15732845290239e2, 0.20944396974307e2, -0.76867707878716e1,
+		0.26185947787954e1, -0.28080781148620e1, 0.12053369696517e1, -0.84566812812502e-2,
+		-0.12654315477714e1, -0.11524407806681e1, 0.88521043984318, -0.64207765181607,
+		0.38493460186671, -0.85214708824206, 0.48972281541877e1, -0.30502617256965e1,
+		0.39420536879154e-1, 0.12558408424308, -0.27999329698710, 0.13899799569460e1,
+		-0.20189915023570e1, -0.82147637173963e-2, -0.47596035734923, 0.43984074473500e-1,
+		-0.44476435428739, 0.90572070719733, 0.70522450087967, 0.10770512626332,
+		-0.32913623258954, -0.50871062041158, -0.22175400873096e-1, 0.94260751665092e-1,
+		0.16436278447961, -0.13503372241348e-1, -0.14834345352472e-1, 0.57922953628084e-3,
+		0.32308904703711e-2, 0.80964802996215e-4, -0.16557679795037e-3, -0.44923899061815e-4}
+)
+
+const if97n3ln = 0.10658070028513e1 // n₁ of IF97 Table 30, the coefficient of ln δ
+
+// if97Region3 returns the pressure (Pa) and the state at density rho (kg/m³)
+// and T (K), IF97 Eq. 28 and Table 31.
+func if97Region3(rho, T float64) (p float64, s if97State) {
+	d, tau := rho/waterRhoc, waterTc/T
+	fd, fdd := if97n3ln/d, -if97n3ln/(d*d)
+	var ft, ftt, fdt float64
+	for k := range if97n3 {
+		I, J, n := if97I3[k], if97J3[k], if97n3[k]
+		dI, tJ := ipow(d, I), ipow(tau, J)
+		fd += n * float64(I) * dI / d * tJ
+		fdd += n * float64(I*(I-1)) * dI / (d * d) * tJ
+		ft += n * float64(J) * dI * tJ / tau
+		ftt += n * float64(J*(J-1)) * dI * tJ / (tau * tau)
+		fdt += n * float64(I*J) * dI / d * tJ / tau
+	}
+	RT := waterR * T
+	p = rho * RT * d * fd
+	dpdrho := RT * (2*d*fd + d*d*fdd)
+	q := d*fd - d*tau*fdt
+	s = if97State{
+		v:      1 / rho,
+		h:      RT * (tau*ft + d*fd),
+		cv:     -waterR * tau * tau * ftt,
+		cp:     waterR * (-tau*tau*ftt + q*q/(2*d*fd+d*d*fdd)),
+		drhodp: 1 / dpdrho,
+	}
+	return p, s
+}
+
+// if97Region3Sat returns the saturated liquid and vapour of region 3 at T (K)
+// and the region 4 saturation pressure p (Pa): the outer roots of
+// p₃(ρ, T) = p, found by stepping in from either side of the two-phase loop of
+// the Helmholtz function and refining by bisection.
+func if97Region3Sat(T, p float64) (l, v if97State, err error) {
+	f := func(rho float64) float64 { q, _ := if97Region3(rho, T); return q - p }
+	// Liquid: down from a compressed-liquid density; vapour: up from a
+	// density below every saturated vapour of region 3.
+	rl, okl := if97Region3Root(f, 760, waterRhoc, -1)
+	rv, okv := if97Region3Root(f, 60, waterRhoc, 1)
+	if !okl || !okv || !(rl > rv) {
+		return l, v, fmt.Errorf("water: no region 3 saturated state at %g K", T)
+	}
+	_, l = if97Region3(rl, T)
+	_, v = if97Region3(rv, T)
+	return l, v, nil
+}
+
+// if97Region3Root steps from rho toward stop by 1 kg/m³ in direction dir until
+// f changes sign, then bisects that step to machine precision.
+func if97Region3Root(f func(float64) float64, rho, stop, dir float64) (float64, bool) {
+	const step = 1.0
+	f0 := f(rho)
+	for ; (stop-rho)*dir > 0; rho += dir * step {
+		f1 := f(rho + dir*step)
+		if (f0 > 0) != (f1 > 0) {
+			a, b, fa := rho, rho+dir*step, f0
+			for i := 0; i < 200 && a != b; i++ {
+				m := (a + b) / 2
+				if m == a || m == b {
+					break
+				}
+				if fm := f(m); (fm > 0) == (fa > 0) {
+					a, fa = m, fm
+				} else {
+					b = m
+				}
+			}
+			return (a + b) / 2, true
+		}
+		f0 = f1
+	}
+	return 0, false
 }
 
 // ipow is x to an integer power by repeated squaring.
@@ -267,6 +426,65 @@ func waterConductivity(rho, T float64) float64 {
 		xi *= x
 	}
 	return l0 * math.Exp(Dr*s1) * 1e-3
+}
+
+// Critical-enhancement constants of IAPWS R15-11 Table 3 and Eq. 18–25 (the
+// release's own gas constant, not IF97's).
+const (
+	tcLambda = 177.8514
+	tcQD     = 1 / 0.40 // inverse of q̄_D⁻¹ = 0.40 nm, per nm
+	tcNu     = 0.630
+	tcGamma  = 1.239
+	tcXi0    = 0.13 // nm
+	tcGamma0 = 0.06
+	tcTR     = 1.5
+	tcR      = 461.51805 // J/(kg·K)
+)
+
+// tcZetaRef are the coefficients A_ij of IAPWS R15-11 Table 6: the reduced
+// compressibility at the reference temperature T̄_R, ζ = 1/Σ A_i ρ̄^i, for the
+// reduced-density intervals ending at tcZetaBreaks.
+var (
+	tcZetaBreaks = [4]float64{0.310559006, 0.776397516, 1.242236025, 1.863354037}
+	tcZetaRef    = [5][6]float64{
+		{6.53786807199516, -5.61149954923348, 3.39624167361325, -2.27492629730878, 10.2631854662709, 1.97815050331519},
+		{6.52717759281799, -6.30816983387575, 8.08379285492595, -9.82240510197603, 12.1358413791395, -5.54349664571295},
+		{5.35500529896124, -3.96415689925446, 8.91990208918795, -12.0338729505790, 9.19494865194302, -2.16866274479712},
+		{1.55225959906681, 0.464621290821181, 8.93237374861479, -11.0321960061126, 6.16780999933360, -0.965458722086812},
+		{1.11999926419994, 0.595748562571649, 9.88952565078920, -10.3255051147040, 4.66861294457414, -0.503243546373828},
+	}
+)
+
+// waterConductivityCritical is the critical enhancement λ₂ (W/(m·K)) at
+// density rho (kg/m³) and T (K) of the state s whose viscosity is mu (Pa·s),
+// IAPWS R15-11 Eq. 18–22 with the industrial reference compressibility of
+// Eq. 25. It vanishes far from the critical point.
+func waterConductivityCritical(rho, T float64, s if97State, mu float64) float64 {
+	d, Tr := rho/waterRhoc, T/waterTc
+	row := len(tcZetaBreaks)
+	for i, b := range tcZetaBreaks {
+		if d <= b {
+			row = i
+			break
+		}
+	}
+	var den float64
+	for i, a := range tcZetaRef[row] {
+		den += a * ipow(d, i)
+	}
+	zeta := waterPc / waterRhoc * s.drhodp
+	dchi := d * (zeta - 1/den*tcTR/Tr)
+	if !(dchi > 0) {
+		return 0
+	}
+	xi := tcXi0 * math.Pow(dchi/tcGamma0, tcNu/tcGamma)
+	y := tcQD * xi
+	if y < 1.2e-7 {
+		return 0
+	}
+	kappa := s.cp / s.cv
+	Z := 2 / (math.Pi * y) * ((1-1/kappa)*math.Atan(y) + y/kappa - (1 - math.Exp(-1/(1/y+y*y/(3*d*d)))))
+	return tcLambda * d * s.cp / tcR * Tr / (mu * 1e6) * Z * 1e-3
 }
 
 // waterSurfaceTension is the vapour–liquid surface tension (N/m) at T (K),
