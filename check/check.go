@@ -12,6 +12,7 @@ import (
 	"sort"
 	"sync"
 
+	"circa/check/flow"
 	"circa/check/geom"
 	"circa/lang"
 )
@@ -70,6 +71,10 @@ type Options struct {
 	// circulation stops: the other margins are still checked, the tilt
 	// margin is not. The search repeats the estimate many times.
 	NoTilt bool
+	// Estimate, when set, is the flow estimate of this model (flow.Estimate
+	// with NoTilt as above) that the margin rules report instead of running
+	// their own, so a caller that also shows the estimate runs it once.
+	Estimate *flow.Result
 }
 
 // Fails reports whether any finding is at least as severe as FailOn.

@@ -103,10 +103,13 @@ func init() {
 	}
 }
 
-// loopEstimate returns the flow estimate of the context's loop, computed
-// once per loop.
+// loopEstimate returns the flow estimate of the context's loop: the
+// caller's, when it passed one, else computed once per loop.
 func loopEstimate(c *Context) *flow.LoopResult {
 	v := c.Memo("flow-estimate", func() any {
+		if lr := c.Options.Estimate.LoopOf(c.Model, c.Loop); lr != nil {
+			return lr
+		}
 		lr := flow.EstimateLoop(c.Model, c.Loop, flow.Options{NoTilt: c.Options.NoTilt})
 		return &lr
 	})

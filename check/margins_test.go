@@ -4,6 +4,7 @@ import (
 	"strings"
 	"testing"
 
+	"circa/check/flow"
 	"circa/lang"
 )
 
@@ -97,5 +98,38 @@ case climb { heat plate 500 W; pitch -10 deg }
 	}
 	if !quick["margin-exit-quality"] {
 		t.Error("exit-quality margin lost with NoTilt")
+	}
+}
+
+// A caller's estimate is what the margin rules report: the same findings
+// as the rules' own estimate, and nothing of their own when it differs.
+func TestMarginsSharedEstimate(t *testing.T) {
+	m := lang.Load("../testdata/examples/ferry-cabinet.loop", lang.OSFS{})
+	own := Run(m, Options{})
+	est, err := flow.Estimate(m, flow.Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	shared := Run(m, Options{Estimate: est})
+	if len(own) != len(shared) {
+		t.Fatalf("%d findings with the rules' estimate, %d with the caller's", len(own), len(shared))
+	}
+	for i := range own {
+		if own[i].Rule != shared[i].Rule || own[i].Message() != shared[i].Message() || own[i].Loc != shared[i].Loc {
+			t.Errorf("finding %d: %s %q, with the caller's estimate %s %q", i, own[i].Rule, own[i].Message(), shared[i].Rule, shared[i].Message())
+		}
+	}
+	// An estimate without findings silences the margin rules: they did not
+	// run their own.
+	for i := range est.Loops {
+		est.Loops[i].Findings = nil
+		for j := range est.Loops[i].Cases {
+			est.Loops[i].Cases[j].Findings = nil
+		}
+	}
+	for _, d := range Run(m, Options{Estimate: est}) {
+		if r, ok := Lookup(d.Rule); ok && r.Category == CategoryMargin {
+			t.Errorf("margin finding %s %q from an estimate that has none", d.Rule, d.Message())
+		}
 	}
 }

@@ -14,6 +14,20 @@ type Result struct {
 	Findings []Finding `json:"findings,omitempty"`
 }
 
+// LoopOf returns the estimate of loop l of m, the model r was computed for
+// (nil when r is nil or does not hold that loop).
+func (r *Result) LoopOf(m *lang.Model, l *lang.Loop) *LoopResult {
+	if r == nil || m == nil {
+		return nil
+	}
+	for i, ml := range m.Loops {
+		if ml == l && i < len(r.Loops) && r.Loops[i].Loop == l.Name {
+			return &r.Loops[i]
+		}
+	}
+	return nil
+}
+
 // LoopResult is the estimate for one loop in every case.
 type LoopResult struct {
 	Loop        string       `json:"loop"`
