@@ -14,37 +14,48 @@ import (
 )
 
 // estimates are the checker's and the circulation estimate's results for
-// one analysis, which hover and inlay hints show.
+// one analysis, which the diagnostics, hover and inlay hints share.
 type estimates struct {
 	report  *check.Report
 	flow    *flow.Result
 	flowErr error
+	tilt    bool          // the estimate searched the tilt limits
 	took    time.Duration // the estimate's run time, to judge the margin checks' cost
+	version int32         // the root document's version it was made from (-1: not open)
 }
 
-// checkModel runs the quick part of the command line's checks (every rule
-// but the margins, which need the estimate's tilt-limit search) and the
-// circulation estimate that hover and inlay hints show, without that search.
-// The search takes seconds on large networks, far longer than typing allows;
-// fullCheck runs it afterwards.
-func checkModel(ctx context.Context, m *lang.Model) ([]lang.Diagnostic, *estimates) {
+// checkModel runs the command line's checks and the circulation estimate
+// once: the margin rules report that estimate, which hover and inlay hints
+// show too. The mode says whether the margin rules run and whether the
+// estimate searches the tilt limits.
+func checkModel(ctx context.Context, m *lang.Model, mode marginMode) ([]lang.Diagnostic, *estimates) {
 	if ctx.Err() != nil {
 		return nil, nil
 	}
-	est := &estimates{}
-	est.report = check.RunReport(m, check.Options{SkipEstimates: true})
-	if ctx.Err() != nil {
-		return nil, nil
-	}
+	est := &estimates{tilt: mode == marginsFull}
 	t0 := time.Now()
-	est.flow, est.flowErr = flow.Estimate(m, flow.Options{NoTilt: true})
+	est.flow, est.flowErr = flow.Estimate(m, flow.Options{NoTilt: !est.tilt})
 	est.took = time.Since(t0)
+	if ctx.Err() != nil {
+		return nil, nil
+	}
+	opts := check.Options{SkipEstimates: mode == marginsOff, NoTilt: !est.tilt}
+	if est.flowErr == nil {
+		// Otherwise the rules report the request's error themselves.
+		opts.Estimate = est.flow
+	}
+	est.report = check.RunReport(m, opts)
 	return est.report.Diagnostics, est
 }
 
-// autoMarginBudget is the longest single estimate for which "auto" runs the
-// margin checks: their tilt search repeats the estimate hundreds of times.
+// autoMarginBudget is the longest single estimate (without the tilt-limit
+// search) for which "auto" runs the search: it repeats the estimate many
+// times.
 const autoMarginBudget = 10 * time.Millisecond
+
+// autoTiltBudget is the longest estimate with the tilt-limit search for
+// which "auto" keeps running the search with every check.
+const autoTiltBudget = 150 * time.Millisecond
 
 // marginMode says how the margin rules run for an analysis under the
 // settings: not at all, without the tilt-limit search, or in full.
@@ -56,25 +67,25 @@ const (
 	marginsFull
 )
 
-// wantMarginChecks decides how the margin rules run. "auto" runs them in
-// full when one estimate is quick, else without the tilt-limit search
-// (which repeats the estimate hundreds of times).
-func wantMarginChecks(st Settings, est *estimates) marginMode {
+// wantMarginChecks decides how the margin rules run, given the previous
+// estimate of the same root (nil: none yet). "auto" runs them in full
+// unless the previous estimate says that would be slow: then the checks
+// run without the tilt-limit search and the complete checks follow in the
+// background.
+func wantMarginChecks(st Settings, prev *estimates) marginMode {
 	switch st.MarginChecks {
 	case "always":
 		return marginsFull
 	case "never":
 		return marginsOff
 	}
-	if est != nil && est.took < autoMarginBudget {
+	switch {
+	case prev == nil:
+		return marginsFull
+	case prev.tilt && prev.took < autoTiltBudget, !prev.tilt && prev.took < autoMarginBudget:
 		return marginsFull
 	}
 	return marginsNoTilt
-}
-
-// fullCheck runs the command line's checks, margins included.
-func fullCheck(m *lang.Model, mode marginMode) []lang.Diagnostic {
-	return check.RunReport(m, check.Options{NoTilt: mode == marginsNoTilt}).Diagnostics
 }
 
 // estimatesFor returns the finished estimates of an analysis, else the
@@ -86,6 +97,18 @@ func (s *Server) estimatesFor(sn *snapshot, a *analysis) *estimates {
 	s.mu.Lock()
 	defer s.mu.Unlock()
 	return s.lastEst[a.root]
+}
+
+// staleNote marks an estimate made from an older version of the root
+// document than the snapshot's (shown while the new one is computed).
+func (est *estimates) staleNote(sn *snapshot, a *analysis) string {
+	if est == nil || sn == nil || a == nil {
+		return ""
+	}
+	if v := rootVersion(sn, a); v >= 0 && est.version >= 0 && est.version != v {
+		return fmt.Sprintf(" (from version %d; version %d is being checked)", est.version, v)
+	}
+	return ""
 }
 
 // nominalCase returns the estimate of a loop in the nominal case.
@@ -153,7 +176,7 @@ func (s *Server) componentEstimate(c *cursor, comp *lang.Component) string {
 		return "\n_No estimate yet._\n"
 	}
 	var b strings.Builder
-	fmt.Fprintf(&b, "\n**Estimate, case `%s`**", cr.Case)
+	fmt.Fprintf(&b, "\n**Estimate, case `%s`**%s", cr.Case, est.staleNote(c.snap, c.a))
 	if !cr.Circulates {
 		fmt.Fprintf(&b, ": no circulation — %s\n", cr.Reason)
 		return b.String()
@@ -201,6 +224,9 @@ func (s *Server) caseEstimate(c *cursor, cs *lang.Case) string {
 		return "\n_No estimate yet._\n"
 	}
 	var b strings.Builder
+	if n := est.staleNote(c.snap, c.a); n != "" {
+		fmt.Fprintf(&b, "\n_Estimate%s_\n", n)
+	}
 	for _, l := range est.flow.Loops {
 		cr, ok := est.caseResult(l.Loop, cs.Name)
 		if !ok {
@@ -284,5 +310,5 @@ func (est *estimates) detached() *estimates {
 	if est == nil || est.flow == nil {
 		return nil
 	}
-	return &estimates{flow: est.flow, flowErr: est.flowErr, took: est.took}
+	return &estimates{flow: est.flow, flowErr: est.flowErr, tilt: est.tilt, took: est.took, version: est.version}
 }

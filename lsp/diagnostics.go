@@ -56,15 +56,13 @@ func (s *Server) analyse(snap *snapshot) {
 		if snap.ctx.Err() != nil {
 			return
 		}
-		s.runChecks(snap.ctx, a)
+		s.runChecks(snap, a)
 	}
 	if snap.ctx.Err() != nil {
 		return
 	}
 	s.publish(snap, true)
-	if s.onAnalysed != nil {
-		s.onAnalysed(snap.id)
-	}
+	complete := true
 	for _, a := range roots {
 		if _, est, ok := a.checks(); ok {
 			if d := est.detached(); d != nil {
@@ -73,6 +71,16 @@ func (s *Server) analyse(snap *snapshot) {
 				s.mu.Unlock()
 			}
 		}
+		complete = complete && a.fullyChecked()
+	}
+	if s.onAnalysed != nil {
+		s.onAnalysed(snap.id)
+	}
+	if complete {
+		if s.onComplete != nil {
+			s.onComplete(snap.id)
+		}
+		return
 	}
 	s.mu.Lock()
 	s.slowPending = snap
@@ -83,10 +91,11 @@ func (s *Server) analyse(snap *snapshot) {
 	}
 }
 
-// slowWorker runs the complete checks (the margins that need the tilt-limit
-// search) for the latest analysed snapshot, one run at a time, so a burst
-// of edits costs at most one such run beyond the last edit. A run cannot be
-// interrupted; its results are published only if no edit came since.
+// slowWorker runs the complete checks (the margins with the tilt-limit
+// search, where "auto" judged it too slow to run with every check) for the
+// latest analysed snapshot, one run at a time, so a burst of edits costs at
+// most one such run beyond the last edit. A run cannot be interrupted; its
+// results are published only if no edit came since.
 func (s *Server) slowWorker(ctx context.Context) {
 	for {
 		select {
@@ -107,55 +116,82 @@ func (s *Server) slowWorker(ctx context.Context) {
 				done = false
 				break
 			}
-			s.runFullChecks(snap.ctx, a)
+			s.runFullChecks(snap, a)
 		}
 		if !done || snap.ctx.Err() != nil {
 			continue
 		}
 		s.publish(snap, true)
+		for _, a := range snap.sortedRoots() {
+			if _, est, ok := a.checks(); ok {
+				if d := est.detached(); d != nil {
+					s.mu.Lock()
+					s.lastEst[a.root] = d
+					s.mu.Unlock()
+				}
+			}
+		}
 		if s.onComplete != nil {
 			s.onComplete(snap.id)
 		}
 	}
 }
 
-func (s *Server) runFullChecks(ctx context.Context, a *analysis) {
+// runFullChecks runs the checks with the tilt-limit search for an analysis
+// whose checks ran without it, and replaces their findings and estimate.
+func (s *Server) runFullChecks(snap *snapshot, a *analysis) {
 	if a.fullyChecked() {
 		return
 	}
-	_, est, _ := a.checks()
-	mode := wantMarginChecks(a.settings, est)
-	if mode != marginsFull && !a.skipLogged.Swap(true) {
-		what := map[marginMode]string{marginsOff: "margin checks skipped", marginsNoTilt: "tilt margin skipped"}[mode]
-		s.logf("%s: %s (one estimate took %v; setting marginChecks %q)", a.root, what, est.tookOrZero(), a.settings.MarginChecks)
+	if s.onEstimate != nil {
+		s.onEstimate(a.root, true)
 	}
-	if mode == marginsOff {
+	diags, est := checkModel(snap.ctx, a.Model(), marginsFull)
+	if snap.ctx.Err() != nil || est == nil {
 		return
 	}
-	diags := fullCheck(a.Model(), mode)
-	if ctx.Err() != nil {
-		return
-	}
+	est.version = rootVersion(snap, a)
 	a.checkMu.Lock()
-	a.fullDiag, a.full = diags, true
+	a.checkDiag, a.est, a.checked, a.full = diags, est, true, true
 	a.checkMu.Unlock()
 }
 
-// runChecks runs the checker and the estimates for one analysis, unless a
-// finished result is already there (an analysis kept from an older
-// snapshot). A cancelled run leaves nothing behind.
-func (s *Server) runChecks(ctx context.Context, a *analysis) {
+// runChecks runs the checker and the estimate once for one analysis, unless
+// a finished result is already there (an analysis kept from an older
+// snapshot). The margin mode follows the settings and the cost of the
+// root's previous estimate. A cancelled run leaves nothing behind.
+func (s *Server) runChecks(snap *snapshot, a *analysis) {
 	if _, _, ok := a.checks(); ok {
 		return
 	}
-	m := a.Model()
-	diags, est := checkModel(ctx, m)
-	if ctx.Err() != nil {
+	s.mu.Lock()
+	prev := s.lastEst[a.root]
+	s.mu.Unlock()
+	mode := wantMarginChecks(a.settings, prev)
+	if mode == marginsNoTilt && !a.skipLogged.Swap(true) {
+		s.logf("%s: tilt margin after the other checks (the last estimate took %v; setting marginChecks %q)", a.root, prev.tookOrZero(), a.settings.MarginChecks)
+	}
+	if s.onEstimate != nil {
+		s.onEstimate(a.root, mode == marginsFull)
+	}
+	diags, est := checkModel(snap.ctx, a.Model(), mode)
+	if snap.ctx.Err() != nil || est == nil {
 		return
 	}
+	est.version = rootVersion(snap, a)
 	a.checkMu.Lock()
 	a.checkDiag, a.est, a.checked = diags, est, true
+	a.full = mode != marginsNoTilt
 	a.checkMu.Unlock()
+}
+
+// rootVersion is the version of the analysis's root document in the
+// snapshot, −1 when it is not open.
+func rootVersion(snap *snapshot, a *analysis) int32 {
+	if d, ok := snap.docs[a.root]; ok {
+		return d.version
+	}
+	return -1
 }
 
 // fileDiags gathers each file's findings from the snapshot's analyses. A

@@ -77,6 +77,7 @@ type Server struct {
 	onPublish   func(path string, version int32, full bool, n int)
 	onAnalysed  func(snapID uint64) // quick checks and estimates published
 	onComplete  func(snapID uint64) // complete checks published
+	onEstimate  func(root string, tilt bool)
 }
 
 type clientCaps struct {

@@ -55,11 +55,10 @@ type analysis struct {
 	ready atomic.Bool // the model is computed
 
 	checkMu    sync.Mutex
-	checked    bool              // the quick checks and the estimate are done
-	checkDiag  []lang.Diagnostic // findings of the quick checks
+	checked    bool              // the checks and the estimate are done
+	checkDiag  []lang.Diagnostic // their findings
 	est        *estimates
-	full       bool              // the complete checks are done
-	fullDiag   []lang.Diagnostic // findings of the complete checks
+	full       bool // they include the tilt-limit search (or the margins are off)
 	skipLogged atomic.Bool
 }
 
@@ -80,14 +79,10 @@ func (a *analysis) Model() *lang.Model {
 }
 
 // checks returns the checker's findings and the estimates, if the worker has
-// finished them for this analysis: the complete findings when they are
-// done, else the quick ones.
+// finished them for this analysis.
 func (a *analysis) checks() ([]lang.Diagnostic, *estimates, bool) {
 	a.checkMu.Lock()
 	defer a.checkMu.Unlock()
-	if a.full {
-		return a.fullDiag, a.est, a.checked
-	}
 	return a.checkDiag, a.est, a.checked
 }
 
