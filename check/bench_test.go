@@ -35,3 +35,23 @@ func BenchmarkStructural(b *testing.B) {
 		Run(m, Options{SkipEstimates: true})
 	}
 }
+
+// BenchmarkCheckExample runs every rule, margins and tilt limits included,
+// on each shipped example, as `circa check FILE` does.
+func BenchmarkCheckExample(b *testing.B) {
+	for _, name := range []string{"rack-door", "forestry-inverter", "ferry-cabinet"} {
+		b.Run(name, func(b *testing.B) {
+			path := "../testdata/examples/" + name + ".loop"
+			m := lang.Load(path, lang.OSFS{})
+			for _, d := range m.Diags {
+				if d.Severity == lang.Error {
+					b.Fatal(d.Message())
+				}
+			}
+			b.ReportAllocs()
+			for b.Loop() {
+				Run(m, Options{})
+			}
+		})
+	}
+}
