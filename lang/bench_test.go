@@ -49,3 +49,14 @@ func BenchmarkFormat5000(b *testing.B) {
 		}
 	}
 }
+
+// BenchmarkNewMapper indexes the line starts of the large file, which the
+// server does on every edit.
+func BenchmarkNewMapper(b *testing.B) {
+	src := loopgen.Network(5000, 50)
+	b.SetBytes(int64(len(src)))
+	b.ReportAllocs()
+	for b.Loop() {
+		lang.NewMapper(src)
+	}
+}

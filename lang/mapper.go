@@ -10,8 +10,9 @@ import (
 type Encoding int
 
 const (
-	UTF16 Encoding = iota // the editor protocol's default
+	UTF16 Encoding = iota // UTF-16 code units: the editor protocol's default
 	UTF8                  // bytes
+	UTF32                 // Unicode code points
 )
 
 // Position is a zero-based line and column.
@@ -21,6 +22,11 @@ type Position struct {
 
 // Mapper converts between byte offsets and line/column positions for one
 // version of a document. It is immutable and safe for concurrent use.
+//
+// Lines end at "\n", "\r\n" or a lone "\r", the line ends the editor protocol
+// names, so a client and the server split a text into the same lines.
+// Columns count characters as UTF-8 decoding steps through them: an
+// invalid byte is one character of its own.
 type Mapper struct {
 	text  []byte
 	lines []int // byte offset of the start of each line
@@ -29,8 +35,19 @@ type Mapper struct {
 // NewMapper indexes the line starts of text.
 func NewMapper(text []byte) *Mapper {
 	lines := make([]int, 1, len(text)/30+1)
+	if bytes.IndexByte(text, '\r') < 0 {
+		for i := 0; ; {
+			j := bytes.IndexByte(text[i:], '\n')
+			if j < 0 {
+				break
+			}
+			i += j + 1
+			lines = append(lines, i)
+		}
+		return &Mapper{text: text, lines: lines}
+	}
 	for i, c := range text {
-		if c == '\n' {
+		if c == '\n' || (c == '\r' && (i+1 == len(text) || text[i+1] != '\n')) {
 			lines = append(lines, i+1)
 		}
 	}
@@ -65,54 +82,77 @@ func (m *Mapper) LineStart(line int) int {
 	return m.lines[line]
 }
 
-// LineEnd returns the byte offset of a line's end, before its newline.
+// LineEnd returns the byte offset of a line's end, before its line ending.
 func (m *Mapper) LineEnd(line int) int {
 	if line < 0 {
 		line = 0
 	}
 	if line+1 >= len(m.lines) {
-		if line >= len(m.lines) {
-			return len(m.text)
-		}
-		e := len(m.text)
-		if e > m.lines[line] && m.text[e-1] == '\r' {
-			e--
-		}
-		return e
+		return len(m.text)
 	}
-	e := m.lines[line+1] - 1
-	if e > m.lines[line] && m.text[e-1] == '\r' {
+	e := m.lines[line+1] - 1 // the '\n' or lone '\r'
+	if m.text[e] == '\n' && e > m.lines[line] && m.text[e-1] == '\r' {
 		e--
 	}
 	return e
 }
 
-// OffsetLine returns the zero-based line holding a byte offset.
+// OffsetLine returns the zero-based line holding a byte offset; the bytes of
+// a line ending belong to the line they end.
 func (m *Mapper) OffsetLine(off int) int {
 	off = m.clampOffset(off)
 	return sort.Search(len(m.lines), func(i int) bool { return m.lines[i] > off }) - 1
 }
 
+// charStart returns the start of the character holding off, a byte offset
+// in the line starting at start.
+func (m *Mapper) charStart(off, start int) int {
+	if off >= len(m.text) || utf8.RuneStart(m.text[off]) {
+		return off
+	}
+	for p := off - 1; p >= start && p > off-utf8.UTFMax; p-- {
+		if utf8.RuneStart(m.text[p]) {
+			if _, n := utf8.DecodeRune(m.text[p:]); p+n > off {
+				return p
+			}
+			break
+		}
+	}
+	return off // a stray continuation byte is a character of its own
+}
+
+// width is a character's length in enc.
+func width(r rune, n int, enc Encoding) int {
+	switch enc {
+	case UTF8:
+		return n
+	case UTF32:
+		return 1
+	}
+	if r >= 0x10000 {
+		return 2
+	}
+	return 1
+}
+
 // OffsetPosition converts a byte offset to a line and a column counted in enc.
-// An offset inside a multi-byte character maps to that character's start.
+// An offset inside a multi-byte character maps to that character's start,
+// one inside a line ending to the end of the line.
 func (m *Mapper) OffsetPosition(off int, enc Encoding) Position {
 	off = m.clampOffset(off)
 	line := m.OffsetLine(off)
 	start := m.lines[line]
-	for off > start && off < len(m.text) && !utf8.RuneStart(m.text[off]) {
-		off--
+	if end := m.LineEnd(line); off > end {
+		off = end
 	}
+	off = m.charStart(off, start)
 	if enc == UTF8 {
 		return Position{line, off - start}
 	}
 	col := 0
 	for p := start; p < off; {
-		r, n := utf8.DecodeRune(m.text[p:])
-		if r >= 0x10000 {
-			col += 2
-		} else {
-			col++
-		}
+		r, n := utf8.DecodeRune(m.text[p:off])
+		col += width(r, n, enc)
 		p += n
 	}
 	return Position{line, col}
@@ -120,7 +160,8 @@ func (m *Mapper) OffsetPosition(off int, enc Encoding) Position {
 
 // PositionOffset converts a line and column in enc to a byte offset. Lines
 // and columns past the end are clamped to the end of the text or line; a
-// column inside a surrogate pair maps to the character's start.
+// column inside a character (a UTF-8 sequence or a surrogate pair) maps to
+// the character's start.
 func (m *Mapper) PositionOffset(p Position, enc Encoding) int {
 	if p.Line < 0 {
 		return 0
@@ -133,22 +174,15 @@ func (m *Mapper) PositionOffset(p Position, enc Encoding) int {
 		return start
 	}
 	if enc == UTF8 {
-		off := start + p.Col
-		if off > end {
-			off = end
+		if p.Col >= end-start {
+			return end
 		}
-		for off > start && off < end && !utf8.RuneStart(m.text[off]) {
-			off--
-		}
-		return off
+		return m.charStart(start+p.Col, start)
 	}
 	col := 0
 	for q := start; q < end; {
-		r, n := utf8.DecodeRune(m.text[q:])
-		w := 1
-		if r >= 0x10000 {
-			w = 2
-		}
+		r, n := utf8.DecodeRune(m.text[q:end])
+		w := width(r, n, enc)
 		if col+w > p.Col {
 			return q
 		}

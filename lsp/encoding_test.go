@@ -9,7 +9,7 @@ import (
 // and 4 bytes in UTF-8 (1 and 2 units in UTF-16) before the findings.
 // Widths from the Unicode Standard (ch. 3.9): U+00B5 µ, U+00B0 °, U+00B2 ²
 // are 2 UTF-8 bytes and 1 UTF-16 unit; U+1D703 𝜃 is 4 bytes and a
-// surrogate pair (2 units).
+// surrogate pair (2 units). In UTF-32 every one of them is one unit.
 func TestPositionEncodings(t *testing.T) {
 	const line = `include "𝜃µ°².loop"; param bad = 1 m + 1 s`
 	cases := []struct {
@@ -25,6 +25,9 @@ func TestPositionEncodings(t *testing.T) {
 		{"utf-16 by default", nil, "utf-16", 20, 34, 43, 34},
 		// UTF-8: 8 + 1 + 4 + 6 + 6 = 25; + 14 = 39; + 9 = 48.
 		{"utf-8 negotiated", []string{"utf-8", "utf-16"}, "utf-8", 25, 39, 48, 39},
+		// UTF-32 counts code points: 8 + 1 + 1 + 3 + 6 = 19; + 14 = 33; + 9 = 42.
+		{"utf-32 negotiated", []string{"utf-32", "utf-16"}, "utf-32", 19, 33, 42, 33},
+		{"utf-8 preferred to utf-32", []string{"utf-32", "utf-8"}, "utf-8", 25, 39, 48, 39},
 	}
 	for _, tc := range cases {
 		t.Run(tc.name, func(t *testing.T) {

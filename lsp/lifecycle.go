@@ -20,15 +20,12 @@ func (s *Server) initialize(params []byte) (any, error) {
 	if s.initialized {
 		return nil, jsonrpc2.NewError(jsonrpc2.InvalidRequest, "initialize was already sent")
 	}
-	enc := protocol.PositionEncodingKindUTF16
+	var offered []protocol.PositionEncodingKind
 	if g := p.Capabilities.General; g != nil {
-		for _, e := range g.PositionEncodings {
-			if e == protocol.PositionEncodingKindUTF8 {
-				enc = e
-				s.enc = lang.UTF8
-			}
-		}
+		offered = g.PositionEncodings
 	}
+	enc, kind := negotiateEncoding(offered)
+	s.enc = enc
 	if w := p.Capabilities.Workspace; w != nil {
 		if w.DidChangeWatchedFiles != nil && w.DidChangeWatchedFiles.DynamicRegistration != nil {
 			s.caps.watchDynamic = *w.DidChangeWatchedFiles.DynamicRegistration
@@ -50,7 +47,24 @@ func (s *Server) initialize(params []byte) (any, error) {
 	s.initialized = true
 	s.snap.settings = s.settings
 	s.snap.enc = s.enc
-	return &protocol.InitializeResult{Capabilities: capabilities(enc), ServerInfo: protocol.ServerInfo{Name: "circa", Version: protocol.NewOptional(version())}}, nil
+	return &protocol.InitializeResult{Capabilities: capabilities(kind), ServerInfo: protocol.ServerInfo{Name: "circa", Version: protocol.NewOptional(version())}}, nil
+}
+
+// negotiateEncoding picks the position encoding among those the client
+// offers: UTF-8 (the text's own), else UTF-32, else the protocol's default
+// UTF-16, which every client supports.
+func negotiateEncoding(offered []protocol.PositionEncodingKind) (lang.Encoding, protocol.PositionEncodingKind) {
+	for _, want := range []struct {
+		kind protocol.PositionEncodingKind
+		enc  lang.Encoding
+	}{{protocol.PositionEncodingKindUTF8, lang.UTF8}, {protocol.PositionEncodingKindUTF32, lang.UTF32}} {
+		for _, e := range offered {
+			if e == want.kind {
+				return want.enc, want.kind
+			}
+		}
+	}
+	return lang.UTF16, protocol.PositionEncodingKindUTF16
 }
 
 func version() string {
