@@ -7,6 +7,8 @@ import (
 	"os"
 	"path/filepath"
 	"strings"
+
+	"circa/textfile"
 )
 
 // FS reads the files a model includes. The language server supplies one that
@@ -18,12 +20,13 @@ type FS interface {
 // OSFS reads from the operating system.
 type OSFS struct{}
 
-// ReadFile reads a file from disk.
-func (OSFS) ReadFile(path string) ([]byte, error) { return os.ReadFile(path) }
+// ReadFile reads a regular file from disk, refusing devices, FIFOs and
+// files over MaxFileSize (see textfile.Read).
+func (OSFS) ReadFile(path string) ([]byte, error) { return textfile.Read(path) }
 
 // MaxFileSize bounds what the loader reads, so a wrong include cannot make
 // the checker swallow a disk image.
-const MaxFileSize = 64 << 20
+const MaxFileSize = textfile.MaxSize
 
 // read parses one file and, depth first, the files it includes.
 func (r *resolver) read(path string, src []byte, stack []string, from Location) {

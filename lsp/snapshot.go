@@ -12,6 +12,7 @@ import (
 	"go.lsp.dev/uri"
 
 	"circa/lang"
+	"circa/textfile"
 )
 
 // document is one version of an open editor buffer. It is never changed:
@@ -207,18 +208,9 @@ func readLimited(path string) ([]byte, fileStat, error) {
 		return nil, fileStat{}, err
 	}
 	fs := fileStat{exists: true, mod: st.ModTime(), size: st.Size()}
-	if st.Size() > lang.MaxFileSize {
-		return nil, fs, &os.PathError{Op: "read", Path: path, Err: errTooLarge}
-	}
-	data, err := os.ReadFile(path)
+	data, err := textfile.Read(path)
 	return data, fs, err
 }
-
-type constErr string
-
-func (e constErr) Error() string { return string(e) }
-
-const errTooLarge = constErr("file too large")
 
 // pathOf turns a document URI into the path the loader uses.
 func pathOf(u uri.URI) string {

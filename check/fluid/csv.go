@@ -2,15 +2,17 @@ package fluid
 
 import (
 	"bufio"
+	"bytes"
 	"errors"
 	"fmt"
 	"io"
+	"io/fs"
 	"math"
-	"os"
 	"path/filepath"
 	"strconv"
 	"strings"
 
+	"circa/textfile"
 	"circa/units"
 
 	"gonum.org/v1/gonum/interp"
@@ -110,13 +112,16 @@ const csvMinRows = 4
 // The fluid is named by a "# name:" line, or else by the file's base name
 // without its extension.
 func LoadCSV(path string) (Fluid, error) {
-	f, err := os.Open(path)
+	data, err := textfile.Read(path)
 	if err != nil {
-		return nil, err
+		var pe *fs.PathError
+		if errors.As(err, &pe) {
+			err = pe.Err
+		}
+		return nil, fmt.Errorf("cannot read %s: %w", path, err)
 	}
-	defer f.Close()
 	name := strings.TrimSuffix(filepath.Base(path), filepath.Ext(path))
-	fl, err := readCSV(f, name, false)
+	fl, err := readCSV(bytes.NewReader(data), name, false)
 	var te *TableError
 	if errors.As(err, &te) {
 		te.File = path
