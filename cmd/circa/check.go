@@ -5,9 +5,7 @@ import (
 	"flag"
 	"fmt"
 	"io"
-	"io/fs"
 	"os"
-	"path/filepath"
 	"slices"
 	"strings"
 
@@ -93,6 +91,10 @@ func runCheck(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	}
 	paths := fl.Args()
 	if len(paths) == 0 {
+		if isTerminal(stdin) {
+			fl.Usage()
+			return exitUsage
+		}
 		paths = []string{"-"}
 	}
 	status := exitOK
@@ -104,9 +106,8 @@ func runCheck(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 				continue
 			}
 			stdinRead = true
-			src, err := io.ReadAll(io.LimitReader(stdin, lang.MaxFileSize+1))
-			if err != nil {
-				fmt.Fprintf(stderr, "circa check: reading standard input: %v\n", err)
+			src, ok := readStdin("check", stdin, stderr)
+			if !ok {
 				status = exitUsage
 				continue
 			}
@@ -114,42 +115,17 @@ func runCheck(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 			runs = append(runs, output.File{Path: "<stdin>", Model: m, Report: check.RunReport(m, opts)})
 			continue
 		}
-		info, err := os.Stat(p)
-		if err != nil {
-			fmt.Fprintf(stderr, "circa check: %v\n", err)
+		files, ok := loopFiles("check", p, stderr)
+		if !ok {
 			status = exitUsage
-			continue
-		}
-		var files []string
-		if info.IsDir() {
-			err = filepath.WalkDir(p, func(path string, d fs.DirEntry, err error) error {
-				if err != nil {
-					fmt.Fprintf(stderr, "circa check: %v\n", err)
-					status = exitUsage
-					return nil
-				}
-				if d.IsDir() && path != p && strings.HasPrefix(d.Name(), ".") {
-					return filepath.SkipDir
-				}
-				if !d.IsDir() && strings.HasSuffix(d.Name(), ".loop") {
-					files = append(files, path)
-				}
-				return nil
-			})
-			if err != nil {
-				fmt.Fprintf(stderr, "circa check: %v\n", err)
-				status = exitUsage
-			}
-		} else {
-			files = []string{p}
 		}
 		for _, f := range files {
-			if _, err := os.ReadFile(f); err != nil {
-				fmt.Fprintf(stderr, "circa check: %v\n", err)
+			src, ok := readInput("check", f, stderr)
+			if !ok {
 				status = exitUsage
 				continue
 			}
-			m := lang.Load(f, nil)
+			m := lang.LoadSource(f, src, nil)
 			runs = append(runs, output.File{Path: f, Model: m, Report: check.RunReport(m, opts)})
 		}
 	}

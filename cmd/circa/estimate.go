@@ -74,9 +74,9 @@ func runEstimate(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 		}
 		opts.Sweep = &sw
 	}
-	m, ok := loadClean(file, "estimate", "no estimate", stderr)
+	m, rc, ok := loadClean(file, "estimate", "no estimate", stderr)
 	if !ok {
-		return exitFindings
+		return rc
 	}
 	res, err := flow.Estimate(m, opts)
 	if err != nil {

@@ -2,27 +2,32 @@ package main
 
 import (
 	"bytes"
-	"errors"
 	"flag"
 	"fmt"
 	"io"
-	"io/fs"
 	"os"
-	"path/filepath"
-	"strings"
+	"os/signal"
+	"syscall"
 
 	"circa/lang"
+	"circa/textfile"
 )
 
 func init() {
 	register(&command{name: "fmt", summary: "format .loop files in the canonical layout", run: runFmt})
 }
 
-const fmtUsage = `Usage: circa fmt [-w] [-d] [-l] [FILE|DIR|-]...
+const fmtUsage = `Usage: circa fmt [-w] [-d] [-l] [-check] [FILE|DIR|-]...
 
 Formats .loop files in the one canonical layout. Directories are searched
-recursively for *.loop files; with no arguments, or "-", the text is read
-from standard input and the result written to standard output.
+recursively for *.loop files, skipping hidden directories; "-", or no
+argument when standard input is not a terminal, reads standard input and
+writes the result to standard output.
+
+-w rewrites a file in place only when its formatting changes: through a
+symbolic link to its target, keeping its mode, owner and hard links; a
+read-only file is refused. -check makes the exit status 1 when some file is
+not formatted (listing it, as -l does, unless -d or -w is given), for CI.
 
 A file with syntax errors is left untouched; its errors are printed and the
 exit status is 1. Usage and I/O errors give status 2.
@@ -32,7 +37,7 @@ Options:
 
 // fmtOptions are the flags of circa fmt.
 type fmtOptions struct {
-	write, diff, list bool
+	write, diff, list, check bool
 }
 
 func runFmt(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
@@ -42,19 +47,28 @@ func runFmt(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	fl.BoolVar(&o.write, "w", false, "write the result back to the file (only when it changes)")
 	fl.BoolVar(&o.diff, "d", false, "print a unified diff instead of the formatted text")
 	fl.BoolVar(&o.list, "l", false, "list the files whose formatting differs")
+	fl.BoolVar(&o.check, "check", false, "exit with status 1 when a file's formatting differs")
 	fl.Usage = func() {
 		fmt.Fprint(stderr, fmtUsage)
 		fl.PrintDefaults()
 	}
-	if err := fl.Parse(args); err != nil {
-		if errors.Is(err, flag.ErrHelp) {
-			return exitOK
-		}
-		return exitUsage
+	paths, rc, ok := parseInterleaved(fl, args)
+	if !ok {
+		return rc
 	}
-	paths := fl.Args()
+	if o.check && !o.diff && !o.write {
+		o.list = true
+	}
 	if len(paths) == 0 {
+		if isTerminal(stdin) {
+			fl.Usage()
+			return exitUsage
+		}
 		paths = []string{"-"}
+	}
+	if o.write {
+		stop := removeTempsOnSignal()
+		defer stop()
 	}
 	status := exitOK
 	worse := func(s int) {
@@ -68,65 +82,33 @@ func runFmt(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 				fmt.Fprintln(stderr, "circa fmt: -w cannot write back to standard input")
 				return exitUsage
 			}
-			src, err := io.ReadAll(stdin)
-			if err != nil {
-				fmt.Fprintf(stderr, "circa fmt: reading standard input: %v\n", err)
+			src, ok := readStdin("fmt", stdin, stderr)
+			if !ok {
 				worse(exitUsage)
 				continue
 			}
-			worse(fmtOne("<standard input>", src, 0, o, stdout, stderr))
+			worse(fmtOne("<standard input>", src, false, o, stdout, stderr))
 			continue
 		}
-		info, err := os.Stat(p)
-		if err != nil {
-			fmt.Fprintf(stderr, "circa fmt: %v\n", err)
+		files, ok := loopFiles("fmt", p, stderr)
+		if !ok {
 			worse(exitUsage)
-			continue
 		}
-		if !info.IsDir() {
-			worse(fmtFile(p, o, stdout, stderr))
-			continue
-		}
-		err = filepath.WalkDir(p, func(path string, d fs.DirEntry, err error) error {
-			if err != nil {
-				fmt.Fprintf(stderr, "circa fmt: %v\n", err)
+		for _, f := range files {
+			src, ok := readInput("fmt", f, stderr)
+			if !ok {
 				worse(exitUsage)
-				return nil
+				continue
 			}
-			if !d.IsDir() && strings.HasSuffix(d.Name(), ".loop") {
-				worse(fmtFile(path, o, stdout, stderr))
-			}
-			return nil
-		})
-		if err != nil {
-			fmt.Fprintf(stderr, "circa fmt: %v\n", err)
-			worse(exitUsage)
+			worse(fmtOne(f, src, true, o, stdout, stderr))
 		}
 	}
 	return status
 }
 
-func fmtFile(path string, o fmtOptions, stdout, stderr io.Writer) int {
-	info, err := os.Stat(path)
-	if err != nil {
-		fmt.Fprintf(stderr, "circa fmt: %v\n", err)
-		return exitUsage
-	}
-	if info.Size() > lang.MaxFileSize {
-		fmt.Fprintf(stderr, "circa fmt: %s is larger than %d MiB\n", path, lang.MaxFileSize>>20)
-		return exitUsage
-	}
-	src, err := os.ReadFile(path)
-	if err != nil {
-		fmt.Fprintf(stderr, "circa fmt: %v\n", err)
-		return exitUsage
-	}
-	return fmtOne(path, src, info.Mode().Perm(), o, stdout, stderr)
-}
-
 // fmtOne formats one text and does what the options ask with the result.
-// mode is the file's permission bits, 0 for standard input.
-func fmtOne(name string, src []byte, mode os.FileMode, o fmtOptions, stdout, stderr io.Writer) int {
+// onDisk is false for standard input, which cannot be written back.
+func fmtOne(name string, src []byte, onDisk bool, o fmtOptions, stdout, stderr io.Writer) int {
 	f := lang.Parse(name, src)
 	if len(f.Errors) > 0 {
 		for _, d := range f.Errors {
@@ -145,182 +127,44 @@ func fmtOne(name string, src []byte, mode os.FileMode, o fmtOptions, stdout, std
 		fmt.Fprintln(stdout, name)
 	}
 	if o.diff && changed {
-		io.WriteString(stdout, unifiedDiff(name, name, src, out))
+		writeUnifiedDiff(stdout, name, name, src, out)
 	}
-	if o.write && changed && mode != 0 {
-		if err := writeKeepingMode(name, out, mode); err != nil {
-			fmt.Fprintf(stderr, "circa fmt: %v\n", err)
+	if o.write && changed && onDisk {
+		if err := textfile.Write(name, out); err != nil {
+			fmt.Fprintf(stderr, "circa fmt: cannot write %s: %v\n", name, plainError(err))
 			return exitUsage
 		}
 	}
 	if !o.list && !o.diff && !o.write {
 		stdout.Write(out)
 	}
+	if o.check && changed {
+		return exitFindings
+	}
 	return exitOK
 }
 
-// writeKeepingMode replaces a file's content through a temporary file in the
-// same directory, so a failed write never leaves half a file, and keeps the
-// file's permission bits.
-func writeKeepingMode(path string, data []byte, mode os.FileMode) error {
-	tmp, err := os.CreateTemp(filepath.Dir(path), "."+filepath.Base(path)+".fmt*")
-	if err != nil {
-		return err
-	}
-	name := tmp.Name()
-	_, werr := tmp.Write(data)
-	cerr := tmp.Close()
-	if werr == nil {
-		werr = cerr
-	}
-	if werr == nil {
-		werr = os.Chmod(name, mode)
-	}
-	if werr == nil {
-		werr = os.Rename(name, path)
-	}
-	if werr != nil {
-		os.Remove(name)
-		return fmt.Errorf("writing %s: %w", path, werr)
-	}
-	return nil
-}
-
-// maxDiffCells bounds the table of the longest-common-subsequence search;
-// beyond it the changed middle is shown as one replacement.
-const maxDiffCells = 16 << 20
-
-// diffOp is one line of an edit script: ' ' kept, '-' removed, '+' added.
-type diffOp struct {
-	kind byte
-	text string
-}
-
-// editScript returns the line edits that turn a into b: common prefix and
-// suffix first, then a longest common subsequence of the middle.
-func editScript(a, b []string) []diffOp {
-	pre := 0
-	for pre < len(a) && pre < len(b) && a[pre] == b[pre] {
-		pre++
-	}
-	suf := 0
-	for suf < len(a)-pre && suf < len(b)-pre && a[len(a)-1-suf] == b[len(b)-1-suf] {
-		suf++
-	}
-	ops := make([]diffOp, 0, len(a)+len(b))
-	for _, l := range a[:pre] {
-		ops = append(ops, diffOp{' ', l})
-	}
-	am, bm := a[pre:len(a)-suf], b[pre:len(b)-suf]
-	n, m := len(am), len(bm)
-	if n*m > maxDiffCells {
-		for _, l := range am {
-			ops = append(ops, diffOp{'-', l})
-		}
-		for _, l := range bm {
-			ops = append(ops, diffOp{'+', l})
-		}
-	} else {
-		// lcs[i][j] is the LCS length of am[i:] and bm[j:].
-		w := m + 1
-		lcs := make([]int32, (n+1)*w)
-		for i := n - 1; i >= 0; i-- {
-			for j := m - 1; j >= 0; j-- {
-				if am[i] == bm[j] {
-					lcs[i*w+j] = lcs[(i+1)*w+j+1] + 1
-				} else {
-					lcs[i*w+j] = max(lcs[(i+1)*w+j], lcs[i*w+j+1])
-				}
+// removeTempsOnSignal makes SIGINT and SIGTERM remove the temporary files of
+// writes in progress before the program ends with the usual status for the
+// signal. stop undoes it.
+func removeTempsOnSignal() (stop func()) {
+	sig := make(chan os.Signal, 1)
+	signal.Notify(sig, os.Interrupt, syscall.SIGTERM)
+	done := make(chan struct{})
+	go func() {
+		select {
+		case s := <-sig:
+			textfile.RemoveTemps()
+			code := 130 // 128 + SIGINT
+			if s == syscall.SIGTERM {
+				code = 143
 			}
+			os.Exit(code)
+		case <-done:
 		}
-		i, j := 0, 0
-		for i < n || j < m {
-			switch {
-			case i < n && j < m && am[i] == bm[j]:
-				ops = append(ops, diffOp{' ', am[i]})
-				i++
-				j++
-			case j == m || (i < n && lcs[(i+1)*w+j] >= lcs[i*w+j+1]):
-				// Removals come before additions within a change.
-				ops = append(ops, diffOp{'-', am[i]})
-				i++
-			default:
-				ops = append(ops, diffOp{'+', bm[j]})
-				j++
-			}
-		}
+	}()
+	return func() {
+		signal.Stop(sig)
+		close(done)
 	}
-	for _, l := range a[len(a)-suf:] {
-		ops = append(ops, diffOp{' ', l})
-	}
-	return ops
-}
-
-// unifiedDiff returns a unified diff with three lines of context from a to
-// b, or "" when they are equal.
-func unifiedDiff(nameA, nameB string, a, b []byte) string {
-	if bytes.Equal(a, b) {
-		return ""
-	}
-	ops := editScript(lang.SplitLines(a), lang.SplitLines(b))
-	const ctx = 3
-	var out strings.Builder
-	fmt.Fprintf(&out, "--- %s\n+++ %s\n", nameA, nameB)
-	// Line numbers (zero-based) in a and b at the start of each op.
-	ai := make([]int, len(ops)+1)
-	bi := make([]int, len(ops)+1)
-	for k, op := range ops {
-		ai[k+1], bi[k+1] = ai[k], bi[k]
-		if op.kind != '+' {
-			ai[k+1]++
-		}
-		if op.kind != '-' {
-			bi[k+1]++
-		}
-	}
-	k := 0
-	for k < len(ops) {
-		for k < len(ops) && ops[k].kind == ' ' {
-			k++
-		}
-		if k == len(ops) {
-			break
-		}
-		start := max(k-ctx, 0)
-		// Extend the hunk while the next change is within 2*ctx kept lines.
-		end := k
-		for {
-			for end < len(ops) && ops[end].kind != ' ' {
-				end++
-			}
-			next := end
-			for next < len(ops) && ops[next].kind == ' ' {
-				next++
-			}
-			if next < len(ops) && next-end <= 2*ctx {
-				end = next
-				continue
-			}
-			end = min(end+ctx, len(ops))
-			break
-		}
-		la, lb := ai[end]-ai[start], bi[end]-bi[start]
-		sa, sb := ai[start]+1, bi[start]+1
-		if la == 0 {
-			sa--
-		}
-		if lb == 0 {
-			sb--
-		}
-		fmt.Fprintf(&out, "@@ -%d,%d +%d,%d @@\n", sa, la, sb, lb)
-		for _, op := range ops[start:end] {
-			out.WriteByte(op.kind)
-			out.WriteString(op.text)
-			if !strings.HasSuffix(op.text, "\n") {
-				out.WriteString("\n\\ No newline at end of file\n")
-			}
-		}
-		k = end
-	}
-	return out.String()
 }

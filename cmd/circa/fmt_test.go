@@ -10,6 +10,7 @@ import (
 	"path/filepath"
 	"strconv"
 	"strings"
+	"syscall"
 	"testing"
 	"time"
 )
@@ -115,8 +116,8 @@ func TestFmtUsageErrors(t *testing.T) {
 	if code, _, _ := runCmd(t, "", "-x"); code != exitUsage {
 		t.Errorf("unknown flag: %d", code)
 	}
-	if code, _, errs := runCmd(t, "", "--help"); code != exitOK || !strings.Contains(errs, "Usage: circa fmt") {
-		t.Errorf("--help: %d %q", code, errs)
+	if code, out, _ := runCmd(t, "", "--help"); code != exitOK || !strings.Contains(out, "Usage: circa fmt") {
+		t.Errorf("--help: %d %q", code, out)
 	}
 }
 
@@ -261,6 +262,157 @@ func TestUnifiedDiffMatchesDiffU(t *testing.T) {
 		}
 		if out, _ := os.ReadFile(filepath.Join(dir, "out")); string(out) != b.String() {
 			t.Errorf("patch result %q", out)
+		}
+	}
+}
+
+// fmt -w rewrites what the user meant and nothing else: a symbolic link's
+// target (the link stays), every name of a hard-linked file, the mode; it
+// refuses a read-only file and leaves no temporary file.
+func TestFmtWriteKeepsTheFile(t *testing.T) {
+	dir := t.TempDir()
+	noTemps := func() {
+		t.Helper()
+		ents, _ := os.ReadDir(dir)
+		for _, e := range ents {
+			if strings.HasPrefix(e.Name(), ".") {
+				t.Errorf("temporary file %s left", e.Name())
+			}
+		}
+	}
+	write := func(name, text string, mode os.FileMode) string {
+		p := filepath.Join(dir, name)
+		if err := os.WriteFile(p, []byte(text), mode); err != nil {
+			t.Fatal(err)
+		}
+		os.Chmod(p, mode)
+		return p
+	}
+	read := func(p string) string {
+		b, _ := os.ReadFile(p)
+		return string(b)
+	}
+
+	target := write("target.loop", messy, 0o640)
+	link := filepath.Join(dir, "link.loop")
+	if err := os.Symlink("target.loop", link); err != nil {
+		t.Fatal(err)
+	}
+	if code, _, errs := runCmd(t, "", "-w", link); code != exitOK {
+		t.Fatalf("-w link: %d %q", code, errs)
+	}
+	if st, err := os.Lstat(link); err != nil || st.Mode()&os.ModeSymlink == 0 {
+		t.Error("the symbolic link was replaced by a file")
+	}
+	if read(target) != tidy {
+		t.Errorf("target not formatted: %q", read(target))
+	}
+	if st, _ := os.Stat(target); st.Mode().Perm() != 0o640 {
+		t.Errorf("mode %v", st.Mode().Perm())
+	}
+
+	ro := write("ro.loop", messy, 0o444)
+	code, _, errs := runCmd(t, "", "-w", ro)
+	if code != exitUsage || !strings.Contains(errs, "circa fmt: cannot write "+ro+": it is read-only") {
+		t.Errorf("-w read-only: %d %q", code, errs)
+	}
+	if read(ro) != messy {
+		t.Error("read-only file rewritten")
+	}
+
+	a := write("a.loop", messy, 0o644)
+	b := filepath.Join(dir, "b.loop")
+	if err := os.Link(a, b); err != nil {
+		t.Fatal(err)
+	}
+	if code, _, errs := runCmd(t, "", "-w", a); code != exitOK {
+		t.Fatalf("-w hard link: %d %q", code, errs)
+	}
+	sa, _ := os.Stat(a)
+	sb, _ := os.Stat(b)
+	if !os.SameFile(sa, sb) || read(b) != tidy {
+		t.Errorf("hard link broken or not formatted: %q", read(b))
+	}
+
+	if os.Geteuid() == 0 {
+		owned := write("owned.loop", messy, 0o644)
+		os.Chown(owned, 1234, 5678)
+		if code, _, errs := runCmd(t, "", "-w", owned); code != exitOK {
+			t.Fatalf("-w owned: %d %q", code, errs)
+		}
+		st, _ := os.Stat(owned)
+		if s := st.Sys().(*syscall.Stat_t); s.Uid != 1234 || s.Gid != 5678 {
+			t.Errorf("owner changed to %d:%d", s.Uid, s.Gid)
+		}
+	}
+	noTemps()
+}
+
+// -check fails CI when a file is not formatted, listing it; a formatted
+// file passes.
+func TestFmtCheck(t *testing.T) {
+	dir := t.TempDir()
+	m := filepath.Join(dir, "messy.loop")
+	ok := filepath.Join(dir, "tidy.loop")
+	os.WriteFile(m, []byte(messy), 0o644)
+	os.WriteFile(ok, []byte(tidy), 0o644)
+	if code, out, errs := runCmd(t, "", "-check", dir); code != exitFindings || out != m+"\n" || errs != "" {
+		t.Errorf("-check dir: %d %q %q", code, out, errs)
+	}
+	if code, out, _ := runCmd(t, "", "-check", ok); code != exitOK || out != "" {
+		t.Errorf("-check tidy: %d %q", code, out)
+	}
+	if code, out, _ := runCmd(t, "", "-check", "-d", m); code != exitFindings || !strings.HasPrefix(out, "--- "+m) {
+		t.Errorf("-check -d: %d %q", code, out)
+	}
+	if code, out, _ := runCmd(t, messy, "-check"); code != exitFindings || out != "<standard input>\n" {
+		t.Errorf("-check stdin: %d %q", code, out)
+	}
+	// Without -check, -l and -d report without failing.
+	if code, _, _ := runCmd(t, "", "-l", m); code != exitOK {
+		t.Errorf("-l: %d", code)
+	}
+}
+
+// Large texts take the anchored path of the diff; the result must still
+// apply exactly.
+func TestUnifiedDiffLarge(t *testing.T) {
+	rng := rand.New(rand.NewSource(2))
+	gen := func(n int) []string {
+		var ls []string
+		for i := 0; i < n; i++ {
+			if rng.Intn(3) == 0 {
+				ls = append(ls, "same\n") // repeated: never an anchor
+			} else {
+				ls = append(ls, fmt.Sprintf("line %d\n", rng.Intn(5*n)))
+			}
+		}
+		return ls
+	}
+	for k := 0; k < 40; k++ {
+		a := gen(300 + rng.Intn(300))
+		b := append([]string(nil), a...)
+		for e := rng.Intn(40); e > 0; e-- {
+			i := rng.Intn(len(b))
+			switch rng.Intn(3) {
+			case 0:
+				b = append(b[:i], b[i+1:]...)
+			case 1:
+				b = append(b[:i], append([]string{fmt.Sprintf("new %d\n", e)}, b[i:]...)...)
+			default:
+				b[i] = "changed\n"
+			}
+		}
+		as, bs := strings.Join(a, ""), strings.Join(b, "")
+		if len(a)*len(b) <= smallDiffCells {
+			t.Fatal("texts too small for the anchored path")
+		}
+		d := unifiedDiff("a", "b", []byte(as), []byte(bs))
+		if got := applyUnified(t, as, d); got != bs {
+			t.Fatalf("anchored diff does not apply:\n%s", d)
+		}
+		if as != bs && strings.Count(d, "\n-") > 3*len(a)/4 {
+			t.Errorf("diff of a few edits removes %d of %d lines", strings.Count(d, "\n-"), len(a))
 		}
 	}
 }

@@ -39,11 +39,12 @@ func main() {
 }
 
 func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
-	if len(args) == 0 || args[0] == "-h" || args[0] == "--help" || args[0] == "help" && len(args) == 1 {
+	if len(args) == 0 {
 		usage(stderr)
-		if len(args) == 0 {
-			return exitUsage
-		}
+		return exitUsage
+	}
+	if isHelp(args[0]) || args[0] == "help" && len(args) == 1 {
+		usage(stdout)
 		return exitOK
 	}
 	name := args[0]
@@ -57,7 +58,27 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		usage(stderr)
 		return exitUsage
 	}
+	if helpAsked(args[1:]) {
+		// Asked-for help is the output, not a complaint: it goes to
+		// standard output (and the status is 0).
+		stderr = stdout
+	}
 	return c.run(args[1:], stdin, stdout, stderr)
+}
+
+func isHelp(a string) bool { return a == "-h" || a == "-help" || a == "--help" || a == "--h" }
+
+// helpAsked reports whether a help flag stands among a command's flags.
+func helpAsked(args []string) bool {
+	for _, a := range args {
+		if a == "--" {
+			return false
+		}
+		if isHelp(a) {
+			return true
+		}
+	}
+	return false
 }
 
 func usage(w io.Writer) {
@@ -113,9 +134,15 @@ func oneFile(fl *flag.FlagSet, args []string, stderr io.Writer) (file string, rc
 }
 
 // loadClean loads a .loop file for a command that needs it free of errors
-// (estimate, plot): the errors are printed and ok is false when there are any.
-func loadClean(file, cmd, nothing string, stderr io.Writer) (*lang.Model, bool) {
-	m := lang.Load(file, lang.OSFS{})
+// (estimate, plot): the errors are printed and ok is false when there are
+// any, rc then being the command's status (exitUsage when the file cannot
+// be read, exitFindings when it has errors).
+func loadClean(file, cmd, nothing string, stderr io.Writer) (m *lang.Model, rc int, ok bool) {
+	src, ok := readInput(cmd, file, stderr)
+	if !ok {
+		return nil, exitUsage, false
+	}
+	m = lang.LoadSource(file, src, lang.OSFS{})
 	bad := false
 	for _, d := range m.Diags {
 		if d.Severity == lang.Error {
@@ -125,6 +152,7 @@ func loadClean(file, cmd, nothing string, stderr io.Writer) (*lang.Model, bool) 
 	}
 	if bad {
 		fmt.Fprintf(stderr, "circa %s: the file has errors; %s\n", cmd, nothing)
+		return m, exitFindings, false
 	}
-	return m, !bad
+	return m, exitOK, true
 }

@@ -64,9 +64,9 @@ func runPlot(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 		}
 		exts = append(exts, f)
 	}
-	m, ok := loadClean(file, "plot", "no figures", stderr)
+	m, rc, ok := loadClean(file, "plot", "no figures", stderr)
 	if !ok {
-		return exitFindings
+		return rc
 	}
 	if opts.Case != "" && m.Case(opts.Case) == nil {
 		var names []string

@@ -8,6 +8,10 @@ import (
 
 func init() {
 	register(&command{name: "version", summary: "print the version", run: func(args []string, _ io.Reader, stdout, _ io.Writer) int {
+		if helpAsked(args) {
+			fmt.Fprintln(stdout, "Usage: circa version\n\nPrints the version of this circa binary.")
+			return exitOK
+		}
 		v := "(devel)"
 		if bi, ok := debug.ReadBuildInfo(); ok && bi.Main.Version != "" {
 			v = bi.Main.Version
