@@ -172,3 +172,70 @@ func TestHoverMarksPreviousEstimate(t *testing.T) {
 		t.Errorf("hover during the debounce: %s", hover)
 	}
 }
+
+// A cheap file is checked at once; a costly one waits as long as its last
+// checks took, up to a bound.
+func TestAdaptiveDebounce(t *testing.T) {
+	for _, tc := range []struct{ cost, want time.Duration }{
+		{0, 0},
+		{8 * time.Millisecond, 0},
+		{100 * time.Millisecond, 100 * time.Millisecond},
+		{5 * time.Second, maxDebounce},
+	} {
+		if got := adaptiveDebounce(tc.cost); got != tc.want {
+			t.Errorf("checks of %v: wait %v, want %v", tc.cost, got, tc.want)
+		}
+	}
+}
+
+// With the adaptive debounce, an edit that arrives while a costly file
+// waits cancels the older version's checks: only the newer version's
+// complete results go out, and the log says when they did.
+func TestAdaptiveDebounceCancelsStale(t *testing.T) {
+	var log strings.Builder
+	var logMu sync.Mutex
+	c := newTestClient(t, Options{Log: writerFunc(func(p []byte) (int, error) {
+		logMu.Lock()
+		defer logMu.Unlock()
+		return log.Write(p)
+	}), LogTiming: true})
+	var mu sync.Mutex
+	full := map[int32]bool{}
+	c.srv.onPublish = func(path string, version int32, isFull bool, n int) {
+		mu.Lock()
+		defer mu.Unlock()
+		if isFull {
+			full[version] = true
+		}
+	}
+	c.initialize(nil)
+	uri := "file:///tmp/costly.loop"
+	c.srv.mu.Lock()
+	c.srv.checkCost["/tmp/costly.loop"] = 300 * time.Millisecond
+	c.srv.mu.Unlock()
+	c.notify("textDocument/didOpen", map[string]any{"textDocument": map[string]any{"uri": uri, "languageId": "loop", "version": 1, "text": smallLoop}})
+	c.notify("textDocument/didChange", map[string]any{"textDocument": map[string]any{"uri": uri, "version": 2},
+		"contentChanges": []any{map[string]any{"text": smallLoop + "# two\n"}}})
+	c.settle()
+	mu.Lock()
+	if full[1] || !full[2] {
+		t.Errorf("complete results published for versions %v, want 2 only", full)
+	}
+	mu.Unlock()
+	// The small file's checks were cheap: the next edit is checked at once.
+	c.srv.mu.Lock()
+	sn := c.srv.snap
+	c.srv.mu.Unlock()
+	if d := c.srv.debounceFor(sn.sortedRoots()); d != 0 {
+		t.Errorf("after cheap checks the next wait is %v", d)
+	}
+	logMu.Lock()
+	defer logMu.Unlock()
+	if !strings.Contains(log.String(), "timing: /tmp/costly.loop version 2: first ") || strings.Contains(log.String(), "version 1:") {
+		t.Errorf("timing log:\n%s", log.String())
+	}
+}
+
+type writerFunc func([]byte) (int, error)
+
+func (f writerFunc) Write(p []byte) (int, error) { return f(p) }

@@ -43,8 +43,10 @@ func (s *Server) analyse(snap *snapshot) {
 		a.Model()
 	}
 	s.publish(snap, false)
-	if d := s.opts.Debounce; d > 0 {
-		t := time.NewTimer(d)
+	first := time.Since(snap.at)
+	wait := s.debounceFor(roots)
+	if wait > 0 {
+		t := time.NewTimer(wait)
 		select {
 		case <-snap.ctx.Done():
 			t.Stop()
@@ -62,6 +64,9 @@ func (s *Server) analyse(snap *snapshot) {
 		return
 	}
 	s.publish(snap, true)
+	if s.opts.LogTiming && snap.ctx.Err() == nil {
+		s.logTiming(snap, roots, first, wait)
+	}
 	complete := true
 	for _, a := range roots {
 		if _, est, ok := a.checks(); ok {
@@ -122,6 +127,9 @@ func (s *Server) slowWorker(ctx context.Context) {
 			continue
 		}
 		s.publish(snap, true)
+		if s.opts.LogTiming && snap.ctx.Err() == nil {
+			s.logTiming(snap, snap.sortedRoots(), -1, -1)
+		}
 		for _, a := range snap.sortedRoots() {
 			if _, est, ok := a.checks(); ok {
 				if d := est.detached(); d != nil {
@@ -136,6 +144,66 @@ func (s *Server) slowWorker(ctx context.Context) {
 		}
 	}
 }
+
+// Adaptive debounce: a file whose checks took less than instantChecks is
+// checked at once after every edit, so its complete diagnostics follow the
+// edit as closely as its syntax errors; a slower one waits as long as its
+// last checks took (at most maxDebounce) for typing to pause, so a burst of
+// keystrokes costs one check rather than one per keystroke.
+const (
+	instantChecks = 25 * time.Millisecond
+	maxDebounce   = 400 * time.Millisecond
+)
+
+// adaptiveDebounce is the wait before checks expected to take cost.
+func adaptiveDebounce(cost time.Duration) time.Duration {
+	if cost < instantChecks {
+		return 0
+	}
+	return min(cost, maxDebounce)
+}
+
+// debounceFor is the wait before checking roots: the fixed debounce when
+// one is set, else adaptiveDebounce of what their last checks took (roots
+// already checked, or never checked, cost nothing).
+func (s *Server) debounceFor(roots []*analysis) time.Duration {
+	if d := s.opts.Debounce; d != 0 {
+		return max(d, 0)
+	}
+	var cost time.Duration
+	s.mu.Lock()
+	for _, a := range roots {
+		if _, _, ok := a.checks(); !ok {
+			cost += s.checkCost[a.root]
+		}
+	}
+	s.mu.Unlock()
+	return adaptiveDebounce(cost)
+}
+
+// logTiming logs, for each open root of a published snapshot, how long
+// after the change its first and its complete diagnostics went out
+// (first < 0: the complete checks that followed in the background).
+func (s *Server) logTiming(snap *snapshot, roots []*analysis, first, wait time.Duration) {
+	done := time.Since(snap.at)
+	for _, a := range roots {
+		v := rootVersion(snap, a)
+		if v < 0 {
+			continue
+		}
+		state := "partial (tilt margin follows)"
+		if a.fullyChecked() {
+			state = "complete"
+		}
+		if first < 0 {
+			s.logf("timing: %s version %d: %s %.2f ms after the change", a.root, v, state, ms(done))
+			continue
+		}
+		s.logf("timing: %s version %d: first %.2f ms, %s %.2f ms after the change (debounce %.0f ms)", a.root, v, ms(first), state, ms(done), ms(wait))
+	}
+}
+
+func ms(d time.Duration) float64 { return float64(d) / float64(time.Millisecond) }
 
 // runFullChecks runs the checks with the tilt-limit search for an analysis
 // whose checks ran without it, and replaces their findings and estimate.
@@ -174,10 +242,14 @@ func (s *Server) runChecks(snap *snapshot, a *analysis) {
 	if s.onEstimate != nil {
 		s.onEstimate(a.root, mode == marginsFull)
 	}
+	t0 := time.Now()
 	diags, est := checkModel(snap.ctx, a.Model(), mode)
 	if snap.ctx.Err() != nil || est == nil {
 		return
 	}
+	s.mu.Lock()
+	s.checkCost[a.root] = time.Since(t0)
+	s.mu.Unlock()
 	est.version = rootVersion(snap, a)
 	a.checkMu.Lock()
 	a.checkDiag, a.est, a.checked = diags, est, true

@@ -20,15 +20,17 @@ import (
 
 // Options configure a server beyond what the client negotiates.
 type Options struct {
-	// Debounce is how long the slower checks and estimates wait after an edit
-	// before they run; a newer edit cancels the wait. Zero means 150 ms; a
-	// negative value runs them at once.
+	// Debounce is how long the checks and estimates wait after an edit
+	// before they run; a newer edit cancels the wait. Zero adapts the wait
+	// to how long the last checks of the same file took (see
+	// adaptiveDebounce); a negative value runs them at once.
 	Debounce time.Duration
 	// Log receives the server's log lines; nil means standard error.
 	Log io.Writer
+	// LogTiming logs, for every change, when its first and its complete
+	// diagnostics were published, counted from the change's arrival.
+	LogTiming bool
 }
-
-const defaultDebounce = 150 * time.Millisecond
 
 // MemoryLimit is the soft heap limit `circa serve` runs under unless the
 // environment sets GOMEMLIMIT. A workspace of 5,000 components keeps about
@@ -57,6 +59,9 @@ type Server struct {
 	// lastEst holds, by root, the last finished estimate, detached from its
 	// model so an old model is not kept alive while a new one is built.
 	lastEst map[string]*estimates
+	// checkCost holds, by root, how long its last checks took, which sets
+	// the next debounce.
+	checkCost map[string]time.Duration
 
 	disk diskCache
 
@@ -102,9 +107,6 @@ func Serve(ctx context.Context, rwc io.ReadWriteCloser, opts Options) int {
 }
 
 func newServer(opts Options) *Server {
-	if opts.Debounce == 0 {
-		opts.Debounce = defaultDebounce
-	}
 	logw := opts.Log
 	if logw == nil {
 		logw = os.Stderr
@@ -115,6 +117,7 @@ func newServer(opts Options) *Server {
 		docs:      map[string]*document{},
 		inflight:  map[jsonrpc2.ID]context.CancelFunc{},
 		lastEst:   map[string]*estimates{},
+		checkCost: map[string]time.Duration{},
 		published: map[string]pubState{},
 		settings:  DefaultSettings(),
 		work:      make(chan struct{}, 1),

@@ -34,6 +34,7 @@ func newDocument(u uri.URI, path string, version int32, text []byte) *document {
 // a snapshot without locking; a newer change cancels ctx.
 type snapshot struct {
 	id       uint64
+	at       time.Time // when the change that made it arrived
 	ctx      context.Context
 	cancel   context.CancelFunc
 	docs     map[string]*document
@@ -237,7 +238,7 @@ func (s *Server) changeLocked(docs map[string]*document, changed []string, setti
 	ctx, cancel := context.WithCancel(context.Background())
 	s.nextID++
 	n := &snapshot{
-		id: s.nextID, ctx: ctx, cancel: cancel, docs: docs, enc: s.enc,
+		id: s.nextID, at: time.Now(), ctx: ctx, cancel: cancel, docs: docs, enc: s.enc,
 		settings: s.settings, roots: map[string]*analysis{}, disk: &s.disk, srv: s,
 	}
 	fs := overlay{docs: docs, disk: &s.disk}

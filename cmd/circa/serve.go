@@ -21,8 +21,11 @@ func runServe(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	fs := flag.NewFlagSet("serve", flag.ContinueOnError)
 	fs.SetOutput(stderr)
 	fs.Usage = func() {
-		fmt.Fprintln(stderr, "Usage: circa serve\n\nRuns the language server for .loop files, speaking the Language Server\nProtocol on standard input and output; logs go to standard error.\nSettings are described in docs/lsp.md.")
+		fmt.Fprintln(stderr, "Usage: circa serve [-log-timing]\n\nRuns the language server for .loop files, speaking the Language Server\nProtocol on standard input and output; logs go to standard error.\nSettings are described in docs/lsp.md.")
+		fmt.Fprintln(stderr)
+		fs.PrintDefaults()
 	}
+	logTiming := fs.Bool("log-timing", false, "log when each change's first and complete diagnostics are published")
 	if err := fs.Parse(args); err != nil {
 		if err == flag.ErrHelp {
 			return exitOK
@@ -38,7 +41,7 @@ func runServe(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	}
 	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
 	defer stop()
-	return lsp.Serve(ctx, stdio{stdin, stdout}, lsp.Options{Log: stderr})
+	return lsp.Serve(ctx, stdio{stdin, stdout}, lsp.Options{Log: stderr, LogTiming: *logTiming})
 }
 
 // stdio joins standard input and output into one stream.
