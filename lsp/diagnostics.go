@@ -399,6 +399,9 @@ func diagKey(ds []protocol.Diagnostic) string {
 // toProtocolDiags converts findings in one file; their spans are read with
 // that file's mapper (the open buffer's, else the loaded file's).
 func (s *Server) toProtocolDiags(snap *snapshot, path string, ds []lang.Diagnostic) []protocol.Diagnostic {
+	if d, ok := snap.docs[path]; ok && d.outOfSync {
+		return []protocol.Diagnostic{outOfSyncDiag(d)}
+	}
 	out := make([]protocol.Diagnostic, 0, len(ds))
 	for _, d := range ds {
 		out = append(out, snap.toProtocolDiag(path, d))

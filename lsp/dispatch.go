@@ -17,6 +17,7 @@ const slowRequest = 100 * time.Millisecond
 // Error codes beyond JSON-RPC's own.
 const (
 	codeRequestCancelled jsonrpc2.Code = -32800
+	codeRequestFailed    jsonrpc2.Code = -32803
 )
 
 // request is a call's handler: it runs on a snapshot taken when the call
@@ -48,7 +49,7 @@ var notifications = map[string]notification{
 	"textDocument/didOpen":             didOpen,
 	"textDocument/didChange":           didChange,
 	"textDocument/didClose":            didClose,
-	"textDocument/didSave":             func(context.Context, *Server, []byte) error { return nil },
+	"textDocument/didSave":             didSave,
 	"workspace/didChangeWatchedFiles":  didChangeWatchedFiles,
 	"workspace/didChangeConfiguration": didChangeConfiguration,
 	"$/cancelRequest":                  cancelRequest,
@@ -93,6 +94,10 @@ func (s *Server) handle(ctx context.Context, req *jsonrpc2.Request) (result any,
 		return nil, jsonrpc2.NewError(jsonrpc2.InvalidRequest, "the server is shutting down")
 	case !known:
 		return nil, jsonrpc2.Errorf(jsonrpc2.MethodNotFound, "method not found: %s", method)
+	case editsText[method]:
+		if d := snap.outOfSyncDoc(); d != nil {
+			return nil, jsonrpc2.Errorf(codeRequestFailed, "%s is out of sync with the editor; save it or reopen it first", d.path)
+		}
 	}
 	// Copy what the handler needs before releasing the read loop; the
 	// request's bytes belong to the transport.
@@ -128,7 +133,7 @@ func (s *Server) handle(ctx context.Context, req *jsonrpc2.Request) (result any,
 func (s *Server) notify(ctx context.Context, method string, params []byte) {
 	defer func() {
 		if r := recover(); r != nil {
-			s.logf("%s panicked: %v\n%s", method, r, debug.Stack())
+			s.notificationPanicked(method, params, r, debug.Stack())
 		}
 	}()
 	if method == "exit" {
@@ -157,6 +162,9 @@ func (s *Server) notify(ctx context.Context, method string, params []byte) {
 	if !ready && method != "$/cancelRequest" {
 		s.logf("ignoring %s outside an initialized session", method)
 		return
+	}
+	if s.beforeNote != nil {
+		s.beforeNote(method)
 	}
 	if err := h(ctx, s, params); err != nil {
 		s.logf("%s: %v", method, err)

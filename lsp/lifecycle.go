@@ -79,7 +79,9 @@ func capabilities(enc protocol.PositionEncodingKind) protocol.ServerCapabilities
 	incr := protocol.TextDocumentSyncKindIncremental
 	return protocol.ServerCapabilities{
 		PositionEncoding: enc,
-		TextDocumentSync: &protocol.TextDocumentSyncOptions{OpenClose: &yes, Change: &incr},
+		// The text on save lets the server check its copy against the
+		// editor's and take the editor's when they differ.
+		TextDocumentSync: &protocol.TextDocumentSyncOptions{OpenClose: &yes, Change: &incr, Save: &protocol.SaveOptions{IncludeText: &yes}},
 		CompletionProvider: &protocol.CompletionOptions{
 			TriggerCharacters: []string{" ", "(", ","},
 		},

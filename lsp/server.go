@@ -79,6 +79,7 @@ type Server struct {
 
 	// testing hooks
 	beforeReply func(ctx context.Context, method string)
+	beforeNote  func(method string) // before a notification's handler
 	onPublish   func(path string, version int32, full bool, n int)
 	onAnalysed  func(snapID uint64) // quick checks and estimates published
 	onComplete  func(snapID uint64) // complete checks published

@@ -23,6 +23,11 @@ type document struct {
 	version int32
 	text    []byte
 	mapper  *lang.Mapper
+	// outOfSync is set when an edit could not be applied: text is then the
+	// last text known to match the client's, version its version, and
+	// clientVersion the version the client has reached since.
+	outOfSync     bool
+	clientVersion int32
 }
 
 func newDocument(u uri.URI, path string, version int32, text []byte) *document {

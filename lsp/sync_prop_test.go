@@ -182,7 +182,11 @@ func TestIncrementalChangesMatchClient(t *testing.T) {
 					client.apply(rg, text, enc)
 				}
 				before := string(d.text)
-				d = newDocument(d.uri, d.path, d.version+1, applyChanges(d, changes, enc))
+				text, inSync := applyChanges(d, changes, enc)
+				if !inSync {
+					t.Fatalf("a document in sync fell out of sync")
+				}
+				d = newDocument(d.uri, d.path, d.version+1, text)
 				if got, want := string(d.text), client.String(); got != want {
 					t.Fatalf("enc %d, document %d, event %d: from %q the changes %s give %q, the client has %q",
 						enc, doc, ev, before, describeChanges(changes), got, want)
