@@ -7,7 +7,8 @@ import (
 
 // sanitize replaces any NaN by 0 and ±Inf by ±MaxFloat64 in v (a pointer
 // to a result struct) and returns how many it replaced, so that no
-// non-finite number leaves the package whatever the input.
+// non-finite number leaves the package whatever the input. Negative zeros
+// become zeros (not counted).
 func sanitize(v any) int {
 	return walk(reflect.ValueOf(v))
 }
@@ -45,6 +46,8 @@ func walk(v reflect.Value) int {
 		case math.IsInf(f, -1):
 			v.SetFloat(-math.MaxFloat64)
 			return 1
+		case f == 0 && math.Signbit(f):
+			v.SetFloat(0) // a negative zero prints as "-0"
 		}
 	}
 	return 0

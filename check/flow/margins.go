@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"sort"
+	"strconv"
 
 	"circa/check/correlate"
 	"circa/check/geom"
@@ -426,7 +427,10 @@ func (p *prepared) chargeMargin(s *state, cr *CaseResult) {
 		}
 	}
 	drho := math.Max(s.p.RhoL-s.p.RhoV, 1e-9)
-	if full := vol * s.p.RhoL; ch.SI > full {
+	full := vol * s.p.RhoL
+	cr.ChargeRange = &ChargeRange{Charge: ch.SI, Low: least - ChargeLevelWarn*drho*vLiquid,
+		High: math.Min(most+ChargeFloodWarn*drho*vCond, full)}
+	if ch.SI > full {
 		m := Margin{Margin: MarginCharge, Value: ch.SI, Limit: full, Unit: "kg", Use: ch.SI / math.Max(full, 1e-300), Status: "error"}
 		cr.add(m)
 		cr.Findings = append(cr.Findings, p.finding(RuleCharge, "error", cr.Case, "", ch.SI, full, "kg", "",
@@ -586,12 +590,16 @@ func (tl *TiltLimits) describe() string {
 	return out
 }
 
-// worst picks, for each margin, the case and component closest to the limit.
+// worst picks, for each margin, the case and component closest to the
+// limit, naming the sweep point when one is.
 func worst(cases []CaseResult) []Margin {
 	best := map[string]Margin{}
 	for _, c := range cases {
 		for _, m := range c.Margins {
 			if b, ok := best[m.Margin]; !ok || m.Use > b.Use {
+				if c.Grid {
+					m.Point = c.PointLabel()
+				}
 				best[m.Margin] = m
 			}
 		}
@@ -606,4 +614,51 @@ func worst(cases []CaseResult) []Margin {
 		out[i] = best[n]
 	}
 	return out
+}
+
+// chargeRange intersects the charge ranges of every case.
+func chargeRange(cases []CaseResult) *ChargeRange {
+	var out *ChargeRange
+	for _, c := range cases {
+		r := c.ChargeRange
+		if r == nil {
+			continue
+		}
+		point := ""
+		if c.Grid {
+			point = c.PointLabel()
+		}
+		if out == nil {
+			out = &ChargeRange{Charge: r.Charge, Low: r.Low, High: r.High, LowCase: c.Case, HighCase: c.Case, LowPoint: point, HighPoint: point}
+			continue
+		}
+		if r.Low > out.Low {
+			out.Low, out.LowCase, out.LowPoint = r.Low, c.Case, point
+		}
+		if r.High < out.High {
+			out.High, out.HighCase, out.HighPoint = r.High, c.Case, point
+		}
+	}
+	return out
+}
+
+// PointLabel describes a case's attitude and acceleration in degrees and
+// standard gravities, as a sweep point is named.
+func (c *CaseResult) PointLabel() string {
+	deg := func(r float64) string {
+		d := r * 180 / math.Pi
+		if math.Abs(d) < 0.05 {
+			return "0°"
+		}
+		return strconv.FormatFloat(math.Round(d*10)/10, 'f', -1, 64) + "°"
+	}
+	s := "pitch " + deg(c.Pitch) + ", roll " + deg(c.Roll)
+	if math.Abs(c.Yaw) >= 0.05*math.Pi/180 {
+		s = "yaw " + deg(c.Yaw) + ", " + s
+	}
+	if a := c.Accel; a != [3]float64{} {
+		g := func(v float64) string { return strconv.FormatFloat(v/geom.Gn, 'g', 3, 64) }
+		s += ", acceleration (" + g(a[0]) + ", " + g(a[1]) + ", " + g(a[2]) + ") gn"
+	}
+	return s
 }

@@ -39,6 +39,12 @@ type LoopResult struct {
 	Cases       []CaseResult `json:"cases"`
 	// Worst lists, for each margin, the case that comes closest to its limit.
 	Worst []Margin `json:"worst"`
+	// DesignPressureUnit is the unit the design pressure was written in
+	// ("bar(g)"), so that it can be shown as written; values stay absolute.
+	DesignPressureUnit string `json:"design_pressure_unit,omitempty"`
+	// ChargeRange is the fill charge against the range every case accepts,
+	// when the loop states a charge.
+	ChargeRange *ChargeRange `json:"charge_range,omitempty"`
 	// TiltLimits are the attitude limits of the nominal case, when searched.
 	Findings []Finding `json:"findings,omitempty"`
 }
@@ -79,8 +85,10 @@ type CaseResult struct {
 	Components []ComponentState `json:"components,omitempty"`
 	Totals     Totals           `json:"totals"`
 	Margins    []Margin         `json:"margins,omitempty"`
-	Tilt       *TiltLimits      `json:"tilt,omitempty"`
-	Findings   []Finding        `json:"findings,omitempty"`
+	// ChargeRange is the fill charge against the range this case accepts.
+	ChargeRange *ChargeRange `json:"charge_range,omitempty"`
+	Tilt        *TiltLimits  `json:"tilt,omitempty"`
+	Findings    []Finding    `json:"findings,omitempty"`
 
 	pointCase *lang.Case
 }
@@ -113,19 +121,45 @@ type ComponentState struct {
 	DpAccel    float64 `json:"dp_acceleration"`
 	DpGravity  float64 `json:"dp_gravity"`
 	DpTotal    float64 `json:"dp_total"` // p_in − p_out
-	Mass       float64 `json:"mass"`     // fluid held, kg
+	// Budget is the same pressure change with every term a drop, and the
+	// acceleration split into its phase-change and flow-area parts.
+	Budget Budget  `json:"budget"`
+	Mass   float64 `json:"mass"` // fluid held, kg
+}
+
+// Budget splits a pressure drop along the flow, p_in − p_out in Pa, by
+// cause. Every term is a drop (positive: the pressure falls along the
+// flow), so the terms add up to Total, and around a loop the totals add up
+// to zero.
+type Budget struct {
+	Friction float64 `json:"friction"`
+	// Gravity is the hydrostatic drop −∫ρ_m b·ŝ ds: positive going up
+	// against the body force.
+	Gravity float64 `json:"gravity"`
+	// Acceleration is the change of momentum flux inside the component,
+	// from evaporation or condensation.
+	Acceleration float64 `json:"acceleration"`
+	// AreaChange is the step of momentum flux from the previous component's
+	// outlet to this one's inlet at the same quality: a change of flow area
+	// (and of the void fraction where the two lie at different inclinations).
+	AreaChange float64 `json:"area_change"`
+	Local      float64 `json:"local"`
+	Total      float64 `json:"total"`
 }
 
 // Totals sums the loop at the operating point.
 type Totals struct {
-	Heat       float64 `json:"heat"`     // W added
-	Rejected   float64 `json:"rejected"` // W removed by the condensers
-	EnergyGap  float64 `json:"energy_closure"`
-	MassGap    float64 `json:"mass_closure"` // largest junction imbalance over the flow
-	Friction   float64 `json:"dp_friction"`
-	Local      float64 `json:"dp_local"`
-	Accel      float64 `json:"dp_acceleration"`
-	Gravity    float64 `json:"dp_gravity"`       // net gravity head at the operating point
+	Heat      float64 `json:"heat"`     // W added
+	Rejected  float64 `json:"rejected"` // W removed by the condensers
+	EnergyGap float64 `json:"energy_closure"`
+	MassGap   float64 `json:"mass_closure"` // largest junction imbalance over the flow
+	Friction  float64 `json:"dp_friction"`
+	Local     float64 `json:"dp_local"`
+	Accel     float64 `json:"dp_acceleration"`
+	Gravity   float64 `json:"dp_gravity"` // net gravity head at the operating point
+	// Budget sums the components' budgets, each weighted by its share of
+	// the loop flow as the other sums are; its Total is zero at a solution.
+	Budget     Budget  `json:"budget"`
 	HeadMax    float64 `json:"head_available"`   // gravity head at vanishing flow
 	Inventory  float64 `json:"inventory"`        // fluid in the flow path at the operating point, kg
 	Reservoirs float64 `json:"reservoir_liquid"` // reservoirs full of liquid, kg
@@ -134,14 +168,35 @@ type Totals struct {
 // Margin is one design margin in one case. Use is the fraction of the limit
 // used: 1 or more means the limit is reached.
 type Margin struct {
-	Margin    string  `json:"margin"`
-	Case      string  `json:"case,omitempty"`
+	Margin string `json:"margin"`
+	Case   string `json:"case,omitempty"`
+	// Point names the sweep point ("pitch 20°, roll 0°") when the margin
+	// comes from one, in a loop's worst margins.
+	Point     string  `json:"point,omitempty"`
 	Component string  `json:"component,omitempty"`
 	Value     float64 `json:"value"`
 	Limit     float64 `json:"limit"`
 	Unit      string  `json:"unit"`
 	Use       float64 `json:"use"`
 	Status    string  `json:"status"` // "ok", "warning", "error"
+}
+
+// ChargeRange is the range of fill charge, kg, that raises no charge
+// warning: below Low the deficit empties more than ChargeLevelWarn of the
+// liquid lines, above High the surplus floods more than ChargeFloodWarn of
+// the condensers (or leaves no room for vapour). For a loop it is the
+// range every case accepts, with the cases that set its ends; Low above
+// High means no charge suits every case.
+type ChargeRange struct {
+	Charge   float64 `json:"charge"`
+	Low      float64 `json:"low"`
+	High     float64 `json:"high"`
+	LowCase  string  `json:"low_case,omitempty"`
+	HighCase string  `json:"high_case,omitempty"`
+	// LowPoint and HighPoint name the sweep point that sets an end, when
+	// one does.
+	LowPoint  string `json:"low_point,omitempty"`
+	HighPoint string `json:"high_point,omitempty"`
 }
 
 // TiltLimits are the attitudes, from the case's own, at which circulation

@@ -164,6 +164,11 @@ func (p *prepared) record(s *state, ev *eval, f []float64, cr *CaseResult) {
 			cs := ComponentState{Component: cp.name, Kind: cp.kind.String(), MassFlow: mc, MassFlux: mc / cp.A,
 				XIn: xin, XOut: xout, DpFriction: q.fric, DpLocal: q.local, DpAccel: q.acc, DpGravity: q.grav,
 				DpTotal: q.loss()}
+			// The inlet step (q.acc beyond the change inside) is the
+			// momentum-flux change of an area step.
+			inside := q.mOut - q.mIn
+			cs.Budget = Budget{Friction: q.fric, Gravity: -q.grav, Acceleration: inside, AreaChange: q.acc - inside,
+				Local: q.local, Total: q.loss()}
 			cs.Heat = math.Abs(mc) * s.p.Hlv * (xout - xin)
 			G := math.Abs(cs.MassFlux)
 			var sumA, sumL, mass float64
@@ -219,6 +224,12 @@ func (p *prepared) record(s *state, ev *eval, f []float64, cr *CaseResult) {
 		t.Local += w * c.DpLocal
 		t.Accel += w * c.DpAccel
 		t.Gravity += w * c.DpGravity
+		t.Budget.Friction += w * c.Budget.Friction
+		t.Budget.Gravity += w * c.Budget.Gravity
+		t.Budget.Acceleration += w * c.Budget.Acceleration
+		t.Budget.AreaChange += w * c.Budget.AreaChange
+		t.Budget.Local += w * c.Budget.Local
+		t.Budget.Total += w * c.Budget.Total
 		t.Inventory += c.Mass
 	}
 	for _, r := range n.res {
