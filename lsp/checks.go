@@ -197,11 +197,17 @@ func (s *Server) componentEstimate(c *cursor, comp *lang.Component) string {
 	if st.Heat != 0 {
 		fmt.Fprintf(&b, "| heat | %s |\n", units.Format(st.Heat, uW))
 	}
-	fmt.Fprintf(&b, "| Δp friction | %s |\n", units.Format(st.DpFriction, uPa))
-	fmt.Fprintf(&b, "| Δp local | %s |\n", units.Format(st.DpLocal, uPa))
-	fmt.Fprintf(&b, "| Δp acceleration | %s |\n", units.Format(st.DpAccel, uPa))
-	fmt.Fprintf(&b, "| Δp gravity | %s |\n", units.Format(st.DpGravity, uPa))
-	fmt.Fprintf(&b, "| Δp total (in − out) | %s |\n", units.Format(st.DpTotal, uPa))
+	// One sign convention, as every estimate output: each term is a drop
+	// along the flow, and they add up to p_in − p_out.
+	bu := st.Budget
+	fmt.Fprintf(&b, "| pressure drop: friction | %s |\n", units.Format(bu.Friction, uPa))
+	fmt.Fprintf(&b, "| pressure drop: gravity | %s |\n", units.Format(bu.Gravity, uPa))
+	fmt.Fprintf(&b, "| pressure drop: acceleration (phase change) | %s |\n", units.Format(bu.Acceleration, uPa))
+	if bu.AreaChange != 0 {
+		fmt.Fprintf(&b, "| pressure drop: flow-area change at the inlet | %s |\n", units.Format(bu.AreaChange, uPa))
+	}
+	fmt.Fprintf(&b, "| pressure drop: local | %s |\n", units.Format(bu.Local, uPa))
+	fmt.Fprintf(&b, "| pressure drop p_in − p_out | %s |\n", units.Format(bu.Total, uPa))
 	for _, mg := range cr.Margins {
 		if mg.Component == comp.Name {
 			fmt.Fprintf(&b, "| margin %s | %s of %s (%.0f %% used, %s) |\n", mg.Margin, fmtNum(mg.Value), fmtLimit(mg.Limit, mg.Unit), 100*mg.Use, mg.Status)

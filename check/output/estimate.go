@@ -1,0 +1,447 @@
+package output
+
+import (
+	"encoding/json"
+	"fmt"
+	"io"
+	"sort"
+	"strings"
+	"text/tabwriter"
+
+	"circa/check/flow"
+	"circa/check/geom"
+)
+
+// BudgetConvention says how every pressure budget is signed; the text, CSV
+// and JSON budgets all follow it.
+const BudgetConvention = "pressure drop along the flow, p_in − p_out, Pa: every term is a drop (positive where the pressure falls, gravity positive going up), so the terms add up to the row's total and the totals to zero around the loop"
+
+// EstimateJSON writes the estimate as one indented JSON document
+// (docs/estimate-json.md).
+func EstimateJSON(w io.Writer, res *flow.Result) error {
+	enc := json.NewEncoder(w)
+	enc.SetIndent("", "  ")
+	return enc.Encode(res)
+}
+
+// EstimateText writes the estimate for people: the cautions, then per loop
+// its methods and assumptions, every case's operating point, pressure
+// budget and margins, sweep points as one table per case, and the worst
+// case per margin.
+func EstimateText(w io.Writer, res *flow.Result) error {
+	ew := &errWriter{w: w}
+	for _, c := range res.Cautions {
+		fmt.Fprintln(ew, "caution:", c)
+	}
+	for _, f := range res.Findings {
+		fmt.Fprintf(ew, "%s: %s\n", f.Severity, f.Message)
+	}
+	for i := range res.Loops {
+		loopText(ew, &res.Loops[i])
+	}
+	return ew.err
+}
+
+// errWriter keeps the first write error so a writer can print freely and
+// report once.
+type errWriter struct {
+	w   io.Writer
+	err error
+}
+
+func (e *errWriter) Write(p []byte) (int, error) {
+	if e.err != nil {
+		return len(p), nil
+	}
+	n, err := e.w.Write(p)
+	e.err = err
+	return n, nil
+}
+
+func loopText(w io.Writer, l *flow.LoopResult) {
+	fmt.Fprintf(w, "\nloop %s: fluid %s", l.Loop, l.Fluid)
+	if l.Safety != "" {
+		fmt.Fprintf(w, " (safety class %s)", l.Safety)
+	}
+	kind := "single loop"
+	if l.Network {
+		kind = "network"
+	}
+	fmt.Fprintf(w, ", %s\n", kind)
+	fmt.Fprintf(w, "methods: void %s, friction %s, single-phase %s, CHF %s, %d cells per heated component\n",
+		l.Methods.Void, l.Methods.Friction, l.Methods.SinglePhase, l.Methods.CHF, l.Methods.Cells)
+	fmt.Fprintf(w, "assumptions: %s\n", strings.Join(l.Assumptions, "; "))
+	for _, f := range l.Findings {
+		fmt.Fprintf(w, "%s: %s\n", f.Severity, f.Message)
+	}
+	for i := 0; i < len(l.Cases); {
+		j := i + 1
+		for j < len(l.Cases) && l.Cases[j].Grid {
+			j++
+		}
+		caseText(w, l, &l.Cases[i])
+		if j > i+1 {
+			sweepText(w, l, l.Cases[i].Case, l.Cases[i+1:j])
+		}
+		i = j
+	}
+	if r := l.ChargeRange; r != nil {
+		fmt.Fprintf(w, "\ncharge (loop %s): %s\n", l.Loop, ChargeSummary(r))
+	}
+	if len(l.Worst) > 0 {
+		fmt.Fprintf(w, "\nworst case per margin (loop %s):\n", l.Loop)
+		tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
+		fmt.Fprintln(tw, "  margin\tcase\tcomponent\tvalue\tlimit\tuse\tstatus")
+		for _, m := range l.Worst {
+			where := m.Case
+			if m.Point != "" {
+				where += " at " + m.Point
+			}
+			v, lim := MarginValue(l, CaseOf(l, m), m)
+			fmt.Fprintf(tw, "  %s\t%s\t%s\t%s\t%s\t%s\t%s\n", m.Margin, where, m.Component, v, lim, fixed(m.Use, 2), m.Status)
+		}
+		tw.Flush()
+	}
+}
+
+// CaseOf finds the case (or sweep point) a loop's worst margin comes from.
+func CaseOf(l *flow.LoopResult, m flow.Margin) *flow.CaseResult {
+	for i := range l.Cases {
+		c := &l.Cases[i]
+		if c.Case != m.Case || c.Grid != (m.Point != "") {
+			continue
+		}
+		if !c.Grid || c.PointLabel() == m.Point {
+			return c
+		}
+	}
+	return nil
+}
+
+// ChargeSummary says where the fill charge stands against the range every
+// case accepts: inside it and how far from the nearer end, or how far
+// outside.
+func ChargeSummary(r *flow.ChargeRange) string {
+	kg := func(v float64) string { return sig(v, 3) + " kg" }
+	by := func(c, p string) string {
+		if p != "" {
+			return c + " at " + p
+		}
+		return c
+	}
+	s := fmt.Sprintf("%s; the cases accept %s (set by %s) to %s (set by %s)", kg(r.Charge), kg(r.Low), by(r.LowCase, r.LowPoint), kg(r.High), by(r.HighCase, r.HighPoint))
+	switch {
+	case r.Low > r.High:
+		s += fmt.Sprintf(": no charge suits every case (the ranges miss each other by %s)", kg(r.Low-r.High))
+	case r.Charge < r.Low:
+		s += fmt.Sprintf(": outside, %s short; add at least %s", kg(r.Low-r.Charge), kg(r.Low-r.Charge))
+	case r.Charge > r.High:
+		s += fmt.Sprintf(": outside, %s over; remove at least %s", kg(r.Charge-r.High), kg(r.Charge-r.High))
+	default:
+		s += fmt.Sprintf(": inside, %s above the low end and %s below the high end", kg(r.Charge-r.Low), kg(r.High-r.Charge))
+	}
+	return s
+}
+
+// MarginValue formats a margin's value and limit for people: temperatures
+// in °C, pressures as the design pressure was written, angles in degrees,
+// and the charge against the range the case accepts (c may be nil).
+func MarginValue(l *flow.LoopResult, c *flow.CaseResult, m flow.Margin) (value, limit string) {
+	if m.Margin == flow.MarginCharge && c != nil && c.ChargeRange != nil {
+		r := c.ChargeRange
+		return sig(m.Value, 3) + " kg", sig(r.Low, 3) + "–" + sig(r.High, 3) + " kg"
+	}
+	if m.Unit == "Pa" {
+		return pressureAs(m.Value, l.DesignPressureUnit), pressureAs(m.Limit, l.DesignPressureUnit)
+	}
+	return unitValue(m.Value, m.Unit), unitValue(m.Limit, m.Unit)
+}
+
+func unitValue(v float64, unit string) string {
+	switch unit {
+	case "K":
+		return temperature(v)
+	case "Pa":
+		return fixed(v/1e5, 2) + " bar abs"
+	case "rad":
+		return fixed(deg(v), 1) + "°"
+	case "W":
+		return fixed(v, 0) + " W"
+	case "kg":
+		return sig(v, 3) + " kg"
+	}
+	return sig(v, 3)
+}
+
+func caseHeader(c *flow.CaseResult) string {
+	s := "case " + c.Case
+	if c.Grid || c.Pitch != 0 || c.Roll != 0 || c.Yaw != 0 || c.Accel != [3]float64{} {
+		s += fmt.Sprintf(" (pitch %s, roll %s, yaw %s", angle(c.Pitch), angle(c.Roll), angle(c.Yaw))
+		if a := c.Accel; a != [3]float64{} {
+			s += fmt.Sprintf(", acceleration (%s, %s, %s) gn", sig(a[0]/geom.Gn, 3), sig(a[1]/geom.Gn, 3), sig(a[2]/geom.Gn, 3))
+		}
+		s += ")"
+	}
+	if len(StableRoots(c)) > 1 {
+		s += " [several operating points]"
+	}
+	return s
+}
+
+func caseText(w io.Writer, l *flow.LoopResult, c *flow.CaseResult) {
+	fmt.Fprintf(w, "\n%s: heat %s W", caseHeader(c), fixed(c.Heat, 0))
+	if c.SatSource != "" {
+		fmt.Fprintf(w, ", saturation %s, %s (%s)", temperature(c.SatTemperature), pressureAs(c.SatPressure, l.DesignPressureUnit), c.SatSource)
+	}
+	fmt.Fprintln(w)
+	if !c.Circulates {
+		fmt.Fprintf(w, "  no circulation: %s\n", c.Reason)
+	} else {
+		fmt.Fprintf(w, "  mass flow %s g/s\n", fixed(c.MassFlow*1e3, 2))
+		stateTable(w, c)
+		budgetTable(w, l, c)
+		t := c.Totals
+		fmt.Fprintf(w, "  heat in %s W, rejected %s W; gravity head at vanishing flow %s Pa; inventory %s kg (+ %s kg in reservoirs)\n",
+			fixed(t.Heat, 1), fixed(t.Rejected, 1), fixed(t.HeadMax, 0), sig(t.Inventory, 3), sig(t.Reservoirs, 3))
+		rootsText(w, c)
+	}
+	if c.Tilt != nil {
+		fmt.Fprintf(w, "  tilt: %s\n", TiltSummary(c.Tilt))
+	}
+	if len(c.Margins) > 0 {
+		tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
+		fmt.Fprintln(tw, "  margin\tcomponent\tvalue\tlimit\tuse\tstatus")
+		for _, m := range c.Margins {
+			v, lim := MarginValue(l, c, m)
+			fmt.Fprintf(tw, "  %s\t%s\t%s\t%s\t%s\t%s\n", m.Margin, m.Component, v, lim, fixed(m.Use, 2), m.Status)
+		}
+		tw.Flush()
+	}
+	for _, f := range c.Findings {
+		fmt.Fprintf(w, "  %s: %s\n", f.Severity, f.Message)
+	}
+}
+
+func stateTable(w io.Writer, c *flow.CaseResult) {
+	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
+	fmt.Fprintln(tw, "  component\tkind\tg/s\tkg/(m²·s)\tx in\tx out\tα out\tα mean\tu_l m/s\tu_v m/s\t")
+	for _, s := range c.Components {
+		fmt.Fprintf(tw, "  %s\t%s\t%s\t%s\t%s\t%s\t%s\t%s\t%s\t%s\t\n",
+			s.Component, s.Kind, fixed(s.MassFlow*1e3, 2), fixed(s.MassFlux, 0), fixed(s.XIn, 3), fixed(s.XOut, 3),
+			fixed(s.VoidOut, 3), fixed(s.VoidMean, 3), fixed(s.VelLiquid, 2), fixed(s.VelVapour, 2))
+	}
+	tw.Flush()
+}
+
+// BudgetRow is one line of a case's pressure budget in whole pascals.
+type BudgetRow struct {
+	Component string
+	// Friction, gravity, acceleration (phase change), area change, local, total.
+	Terms [6]int
+}
+
+// BudgetRows rounds a case's budget to whole pascals for display so that
+// every row's terms add up to its total exactly and, for a single loop, each
+// column of the total row (the last) is the sum of the rows above it, its
+// total zero. Each number is within about a pascal of the estimate.
+func BudgetRows(network bool, c *flow.CaseResult) []BudgetRow {
+	terms := func(b flow.Budget) []float64 {
+		return []float64{b.Friction, b.Gravity, b.Acceleration, b.AreaChange, b.Local}
+	}
+	rows := make([]BudgetRow, 0, len(c.Components)+1)
+	mk := func(name string, b flow.Budget, total int) BudgetRow {
+		r := BudgetRow{Component: name}
+		copy(r.Terms[:5], roundToSum(terms(b), total))
+		r.Terms[5] = total
+		return r
+	}
+	tot := c.Totals.Budget
+	if network {
+		// Parallel branches: each row stands alone; the total row is the
+		// flow-weighted sum, rounded to add up to zero.
+		for _, s := range c.Components {
+			rows = append(rows, mk(s.Component, s.Budget, int(roundHalf(s.Budget.Total))))
+		}
+		return append(rows, mk("total", tot, int(roundHalf(tot.Total))))
+	}
+	totals := make([]float64, len(c.Components))
+	for i, s := range c.Components {
+		totals[i] = s.Budget.Total
+	}
+	rt := roundToSum(totals, int(roundHalf(tot.Total)))
+	sum := mk("total", tot, int(roundHalf(tot.Total)))
+	vals := make([][]float64, len(c.Components))
+	for i, s := range c.Components {
+		rows = append(rows, mk(s.Component, s.Budget, rt[i]))
+		vals[i] = terms(s.Budget)
+	}
+	balanceColumns(rows, vals, sum.Terms[:5])
+	return append(rows, sum)
+}
+
+// balanceColumns moves units between the terms of the rows, keeping every
+// row's sum, until each column adds up to its target: a unit goes from a
+// column over its target to one under it, in the row whose rounding that
+// helps most.
+func balanceColumns(rows []BudgetRow, vals [][]float64, target []int) {
+	n := len(target)
+	disc := make([]int, n)
+	for j := range disc {
+		disc[j] = -target[j]
+		for i := range rows {
+			disc[j] += rows[i].Terms[j]
+		}
+	}
+	for guard := 0; guard < 1000; guard++ {
+		over, under := -1, -1
+		for j := range disc {
+			if disc[j] > 0 && over < 0 {
+				over = j
+			}
+			if disc[j] < 0 && under < 0 {
+				under = j
+			}
+		}
+		if over < 0 || under < 0 || len(rows) == 0 {
+			return
+		}
+		best, gain := 0, 0.0
+		for i := range rows {
+			g := (float64(rows[i].Terms[over]) - vals[i][over]) + (vals[i][under] - float64(rows[i].Terms[under]))
+			if i == 0 || g > gain {
+				best, gain = i, g
+			}
+		}
+		rows[best].Terms[over]--
+		rows[best].Terms[under]++
+		disc[over]--
+		disc[under]++
+	}
+}
+
+func roundHalf(v float64) float64 {
+	if v < 0 {
+		return -float64(int(-v + 0.5))
+	}
+	return float64(int(v + 0.5))
+}
+
+func budgetTable(w io.Writer, l *flow.LoopResult, c *flow.CaseResult) {
+	fmt.Fprintf(w, "  %s", BudgetConvention)
+	if l.Network {
+		fmt.Fprint(w, "; the total row weights each component by its share of the loop flow")
+	}
+	fmt.Fprintln(w)
+	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
+	fmt.Fprintln(tw, "  component\tfriction\tgravity\tacceleration\tarea change\tlocal\ttotal\t")
+	for _, r := range BudgetRows(l.Network, c) {
+		fmt.Fprintf(tw, "  %s\t%d\t%d\t%d\t%d\t%d\t%d\t\n", r.Component, r.Terms[0], r.Terms[1], r.Terms[2], r.Terms[3], r.Terms[4], r.Terms[5])
+	}
+	tw.Flush()
+}
+
+// StableRoots are the stable balances of a single loop's excess head, in
+// order of flow.
+func StableRoots(c *flow.CaseResult) []flow.Root {
+	var out []flow.Root
+	for _, r := range c.Roots {
+		if r.Stable {
+			out = append(out, r)
+		}
+	}
+	sort.Slice(out, func(i, j int) bool { return out[i].MassFlow < out[j].MassFlow })
+	return out
+}
+
+// OperatingPoints says, when a case has more than one balance, every one
+// of them, which is reported and why; "" when there is one.
+func OperatingPoints(c *flow.CaseResult) string {
+	if len(c.Roots) < 2 {
+		return ""
+	}
+	var stable, unstable []string
+	for _, r := range c.Roots {
+		s := fixed(r.MassFlow*1e3, 2) + " g/s"
+		if r.Stable {
+			stable = append(stable, s)
+		} else {
+			unstable = append(unstable, s)
+		}
+	}
+	s := "balances: stable at " + strings.Join(stable, ", ")
+	if len(stable) == 0 {
+		s = "balances: none stable"
+	}
+	if len(unstable) > 0 {
+		s += "; statically unstable (excess head rising with flow) at " + strings.Join(unstable, ", ")
+	}
+	if len(stable) > 1 {
+		s += fmt.Sprintf("; reported: %s g/s, the stable balance of highest flow, which the estimate always takes; "+
+			"which one the loop settles on depends on its history (start-up, load and sink changes): check the margins at the others by test",
+			fixed(c.MassFlow*1e3, 2))
+	}
+	return s
+}
+
+func rootsText(w io.Writer, c *flow.CaseResult) {
+	if s := OperatingPoints(c); s != "" {
+		fmt.Fprintf(w, "  %s\n", s)
+	}
+}
+
+// TiltSummary says where circulation stops around the case's attitude.
+func TiltSummary(t *flow.TiltLimits) string {
+	var parts []string
+	for _, a := range []struct {
+		n string
+		v *float64
+	}{{"pitch", t.PitchUp}, {"pitch", t.PitchDown}, {"roll", t.RollLeft}, {"roll", t.RollRight}} {
+		if a.v != nil {
+			parts = append(parts, a.n+" "+angle(*a.v))
+		}
+	}
+	s := "circulation stops at "
+	if len(parts) == 0 {
+		s += "no attitude within ±90°"
+	} else {
+		s += strings.Join(parts, ", ")
+	}
+	return s + fmt.Sprintf(" (margin %s°)", fixed(deg(t.Margin), 1))
+}
+
+// sweepText writes a case's sweep points as one table: the attitude and
+// acceleration, the flow and the margin closest to its limit.
+func sweepText(w io.Writer, l *flow.LoopResult, name string, pts []flow.CaseResult) {
+	fmt.Fprintf(w, "\nsweep of case %s: %d points (the loss reserve is not evaluated on sweep points)\n", name, len(pts))
+	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
+	fmt.Fprintln(tw, "  pitch\troll\tacceleration gn\tmass flow g/s\tlimiting margin\tcomponent\tvalue\tlimit\tuse\tstatus")
+	for i := range pts {
+		c := &pts[i]
+		a := c.Accel
+		acc := sig(a[0]/geom.Gn, 3) + ", " + sig(a[1]/geom.Gn, 3) + ", " + sig(a[2]/geom.Gn, 3)
+		flowText := "none"
+		if c.Circulates {
+			flowText = fixed(c.MassFlow*1e3, 2)
+		}
+		fmt.Fprintf(tw, "  %s\t%s\t%s\t%s", angle(c.Pitch), angle(c.Roll), acc, flowText)
+		if m, ok := Limiting(c); ok {
+			v, lim := MarginValue(l, c, m)
+			fmt.Fprintf(tw, "\t%s\t%s\t%s\t%s\t%s\t%s\n", m.Margin, m.Component, v, lim, fixed(m.Use, 2), m.Status)
+		} else {
+			fmt.Fprint(tw, "\t\t\t\t\t\t\n")
+		}
+	}
+	tw.Flush()
+}
+
+// Limiting is the case's margin that uses the most of its limit.
+func Limiting(c *flow.CaseResult) (flow.Margin, bool) {
+	var best flow.Margin
+	ok := false
+	for _, m := range c.Margins {
+		if !ok || m.Use > best.Use {
+			best, ok = m, true
+		}
+	}
+	return best, ok
+}

@@ -1,0 +1,105 @@
+package output
+
+import (
+	"math"
+	"strconv"
+	"strings"
+
+	"circa/units"
+)
+
+// fixed formats v with prec decimals; a value that rounds to zero prints
+// without a sign ("0", not "-0").
+func fixed(v float64, prec int) string {
+	s := strconv.FormatFloat(v, 'f', prec, 64)
+	if strings.HasPrefix(s, "-") && strings.Trim(s, "-0.") == "" {
+		s = s[1:]
+	}
+	return s
+}
+
+// sig formats v to n significant digits, without a negative zero.
+func sig(v float64, n int) string {
+	s := strconv.FormatFloat(v, 'g', n, 64)
+	if f, err := strconv.ParseFloat(s, 64); err == nil && f == 0 {
+		return "0"
+	}
+	return s
+}
+
+func celsius(k float64) float64 { return k - 273.15 }
+
+func deg(r float64) float64 { return r * 180 / math.Pi }
+
+// temperature is an absolute temperature in degrees Celsius, spelt as every
+// command spells it.
+func temperature(k float64) string { return fixed(celsius(k), 1) + " °C" }
+
+// angle is an angle in signed degrees with one decimal.
+func angle(r float64) string {
+	s := fixed(deg(r), 1)
+	if s != "0.0" && !strings.HasPrefix(s, "-") {
+		s = "+" + s
+	}
+	return s + "°"
+}
+
+// pressureAs formats an absolute pressure in the unit the design pressure
+// was written in (gauge stays gauge), else in bar absolute.
+func pressureAs(pa float64, written string) string {
+	if written != "" {
+		if u, err := units.Parse(written); err == nil && u.Text != "" && u.Dim == units.MustParse("Pa").Dim {
+			s := fixed(u.FromSI(pa), 2) + " " + u.Text
+			if !u.Gauge {
+				s += absMark(u.Text)
+			}
+			return s
+		}
+	}
+	return fixed(pa/1e5, 2) + " bar abs"
+}
+
+// absMark labels an absolute pressure whose unit does not say so.
+func absMark(unit string) string {
+	switch unit {
+	case "bar(a)", "psia":
+		return ""
+	}
+	return " abs"
+}
+
+// roundToSum rounds each value to an integer so that the integers add up
+// to total (itself an integer near the values' sum): each value moves by
+// less than one, and the largest remainders take the difference.
+func roundToSum(vals []float64, total int) []int {
+	out := make([]int, len(vals))
+	rem := make([]float64, len(vals))
+	sum := 0
+	for i, v := range vals {
+		f := math.Floor(v)
+		out[i] = int(f)
+		rem[i] = v - f
+		sum += out[i]
+	}
+	for d := total - sum; d != 0; {
+		best := -1
+		for i := range vals {
+			if d > 0 && (best < 0 || rem[i] > rem[best]) || d < 0 && (best < 0 || rem[i] < rem[best]) {
+				best = i
+			}
+		}
+		if best < 0 {
+			break
+		}
+		if d > 0 {
+			out[best]++
+			rem[best] -= 1
+			d--
+		} else {
+			out[best]--
+			rem[best] += 1
+			d++
+		}
+	}
+	return out
+}
