@@ -121,14 +121,18 @@ func parseQuantity(s string, need units.Need) (float64, error) {
 	return q.SI, nil
 }
 
+// celsiusText writes an absolute temperature in °C, as the estimate does.
+func celsiusText(k float64) string {
+	return strings.TrimSuffix(units.Format(k, units.MustParse("degC")), " degC") + " °C"
+}
+
 func printFluidList(w io.Writer) {
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
 	fmt.Fprintln(tw, "NAME\tALIASES\tRANGE\tCRITICAL POINT\tSAFETY CLASS")
-	degC := units.MustParse("degC")
 	for _, in := range fluid.List() {
 		fmt.Fprintf(tw, "%s\t%s\t%s to %s\t%s, %s\t%s\n", in.Name, strings.Join(in.Aliases[:min(3, len(in.Aliases))], ", "),
-			units.Format(in.Tmin, degC), units.Format(in.Tmax, degC),
-			units.Format(in.Tc, degC), units.Format(in.Pc, units.MustParse("MPa")), in.Safety)
+			celsiusText(in.Tmin), celsiusText(in.Tmax),
+			celsiusText(in.Tc), units.Format(in.Pc, units.MustParse("MPa")), in.Safety)
 	}
 	tw.Flush()
 	fmt.Fprintln(w, "\nSafety classes follow ASHRAE 34 / ISO 817 (A: lower toxicity, B: higher toxicity; 1: no flame")
@@ -138,7 +142,7 @@ func printFluidList(w io.Writer) {
 
 func printSat(w io.Writer, in fluid.Info, s fluid.Sat) {
 	u := units.MustParse
-	fmt.Fprintf(w, "%s, saturated at %s (%s)\n", in.Name, units.Format(s.T, u("degC")), units.Format(s.T, u("K")))
+	fmt.Fprintf(w, "%s, saturated at %s (%s)\n", in.Name, celsiusText(s.T), units.Format(s.T, u("K")))
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
 	row := func(name string, si float64, unit string) {
 		fmt.Fprintf(tw, "  %s\t%s\n", name, units.Format(si, u(unit)))
@@ -157,7 +161,7 @@ func printSat(w io.Writer, in fluid.Info, s fluid.Sat) {
 	row("vapour conductivity", s.KV, "mW/(m*K)")
 	row("surface tension", s.Sigma, "mN/m")
 	tw.Flush()
-	fmt.Fprintf(w, "  critical point %s, %s; molar mass %s\n", units.Format(in.Tc, u("degC")), units.Format(in.Pc, u("MPa")),
+	fmt.Fprintf(w, "  critical point %s, %s; molar mass %s\n", celsiusText(in.Tc), units.Format(in.Pc, u("MPa")),
 		units.Format(in.MolarMass, u("g/mol")))
 	if in.Safety != "" {
 		fmt.Fprintf(w, "  safety class %s\n", in.Safety)

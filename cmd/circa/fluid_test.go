@@ -60,3 +60,12 @@ func TestFluidCaution(t *testing.T) {
 		t.Errorf("ammonia (B2L) printed no caution:\n%s", out.String())
 	}
 }
+
+// Temperatures are spelt °C, as the estimate spells them.
+func TestFluidTemperatureSpelling(t *testing.T) {
+	var out, errb bytes.Buffer
+	run([]string{"fluid", "water", "--at", "60degC"}, nil, &out, &errb)
+	if !strings.HasPrefix(out.String(), "water, saturated at 60 °C (333.15 K)") || strings.Contains(out.String(), "degC") {
+		t.Errorf("%q", out.String())
+	}
+}
