@@ -53,6 +53,12 @@ type Rule struct {
 	Example   string // a .loop fragment that triggers it
 	Fix       string // how to fix it
 	Run       func(*Context)
+	// Partial rules also run on a loop whose text did not fully resolve
+	// (lang.Loop.Unresolved), looking only at its resolved components
+	// (Context.Components). The others need the whole loop and skip such a
+	// loop: the resolver's error is the cause, and what they would report
+	// follows from it.
+	Partial bool
 }
 
 // Options tune a run.
@@ -134,6 +140,18 @@ type Context struct {
 type runState struct {
 	diags   []lang.Diagnostic
 	margins []Margin
+}
+
+// Components returns the loop's components whose ends and fields all
+// resolved.
+func (c *Context) Components() []*lang.Component {
+	out := make([]*lang.Component, 0, len(c.Loop.Components))
+	for _, comp := range c.Loop.Components {
+		if !comp.Unresolved {
+			out = append(out, comp)
+		}
+	}
+	return out
 }
 
 // Rule returns the rule being run.
@@ -284,7 +302,7 @@ func RunReport(m *lang.Model, opts Options) *Report {
 		}
 		memo := map[string]any{}
 		for _, r := range active {
-			if r.Scope == PerLoop {
+			if r.Scope == PerLoop && (r.Partial || !l.Unresolved) {
 				runRule(&Context{Model: m, Loop: l, Layout: lay, Graph: g, Options: opts, rule: r, state: st, memo: memo}, l.NameLoc())
 			}
 		}

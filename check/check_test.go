@@ -24,7 +24,8 @@ import (
 // several per line separated by commas. Expected and actual findings are
 // matched one to one: a missing or an extra finding fails. The archive's
 // comment may say "disable: RULE, RULE" to keep rules out of its files.
-// Estimates are skipped: these are the structural rules.
+// Estimates are skipped (these are the structural rules) unless the comment
+// has a line "estimates"; the search for tilt limits is skipped even then.
 
 type archiveFS map[string][]byte
 
@@ -90,6 +91,9 @@ func loadArchives(t *testing.T) []archiveCase {
 		}
 		opts := Options{SkipEstimates: true, Disabled: map[string]bool{}}
 		for _, line := range strings.Split(string(ar.Comment), "\n") {
+			if strings.TrimSpace(line) == "estimates" {
+				opts.SkipEstimates, opts.NoTilt = false, true
+			}
 			if rest, ok := strings.CutPrefix(strings.TrimSpace(line), "disable:"); ok {
 				for _, id := range strings.Split(rest, ",") {
 					opts.Disabled[strings.TrimSpace(id)] = true

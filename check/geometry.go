@@ -37,49 +37,49 @@ func init() {
 		Rationale: "Friction, velocity and the liquid inventory need the flow area and the length of every tube. Bends and fittings default to zero length but still need a bore for their velocity head.",
 		Example:   "pipe riser from a to b { length 1 m }   # no bore",
 		Fix:       "Add bore (round tube) or flow_area and hydraulic_diameter, and length; a part with \"use PART\" can carry the bore.",
-		Run:       missingGeometry})
+		Run:       missingGeometry, Partial: true})
 	Register(&Rule{ID: "not-positive", Category: CategoryGeometry, Severity: lang.Error,
 		Summary:   "a size that must be positive is zero or negative",
 		Rationale: "Lengths, bores, areas and volumes are magnitudes; a zero or negative one is a typo (a sign belongs on rise only).",
 		Example:   "pipe p from a to b { length 1 m; bore -8 mm }",
 		Fix:       "Write the magnitude; put a direction in rise or run.",
-		Run:       notPositive})
+		Run:       notPositive, Partial: true})
 	Register(&Rule{ID: "rough-wall", Category: CategoryGeometry, Severity: lang.Warning,
 		Summary:   "wall roughness not well below the bore (e/D ≥ 0.05)",
 		Rationale: "Friction factor charts and correlations cover relative roughness up to 0.05 (Moody 1944); a larger value is usually a unit slip (mm for µm).",
 		Example:   "pipe p from a to b { length 1 m; bore 8 mm; roughness 1.5 mm }",
 		Fix:       "Check the roughness unit: drawn copper is about 1.5 µm.",
-		Run:       roughWall})
+		Run:       roughWall, Partial: true})
 	Register(&Rule{ID: "heated-length-exceeds-length", Category: CategoryGeometry, Severity: lang.Error,
 		Summary:   "an evaporator heated over more than its length",
 		Rationale: "The heated length is part of the evaporator's length; a longer one puts the heat flux and the quality march outside the tube.",
 		Example:   "evaporator e from a to b { length 0.3 m; heated_length 0.4 m; bore 8 mm }",
 		Fix:       "Make heated_length at most length.",
-		Run:       heatedLength})
+		Run:       heatedLength, Partial: true})
 	Register(&Rule{ID: "rise-exceeds-length", Category: CategoryGeometry, Severity: lang.Error,
 		Summary:   "a component rises (or falls) more than its length",
 		Rationale: "A tube cannot climb more than its own length: |rise| ≤ length (within 1 mm). One of the two values is wrong, or the rise belongs to a longer run of components.",
 		Example:   "pipe riser from a to b { length 0.5 m; rise 0.8 m; bore 12 mm }",
 		Fix:       "Correct the rise or the length.",
-		Run:       riseExceedsLength})
+		Run:       riseExceedsLength, Partial: true})
 	Register(&Rule{ID: "span-exceeds-length", Category: CategoryGeometry, Severity: lang.Error,
 		Summary:   "a component's ends lie further apart than its length",
 		Rationale: "The straight distance between a component's ends (from coordinates or its run) is the least length a tube between them can have.",
 		Example:   "node a at (0, 0, 0) m\nnode b at (2, 0, 0) m\npipe p from a to b { length 1 m; bore 8 mm }",
 		Fix:       "Correct the length or the coordinates.",
-		Run:       spanExceedsLength})
+		Run:       spanExceedsLength, Partial: true})
 	Register(&Rule{ID: "rise-mismatch", Category: CategoryGeometry, Severity: lang.Error,
 		Summary:   "a stated rise disagrees with the end coordinates (or the run)",
 		Rationale: "When both the rise and the end positions are written they must agree (within 5 mm or 1 % of the length); otherwise the driving head depends on which one the estimate believes.",
 		Example:   "node a at (0, 0, 0) m\nnode b at (0, 0, 1) m\npipe p from a to b { length 1 m; rise 0.8 m; bore 8 mm }",
 		Fix:       "Correct the rise (the fix writes the coordinates' value), or the coordinates, or drop the rise.",
-		Run:       riseMismatch})
+		Run:       riseMismatch, Partial: true})
 	Register(&Rule{ID: "run-mismatch", Category: CategoryGeometry, Severity: lang.Error,
 		Summary:   "a stated run disagrees with the end coordinates",
 		Rationale: "When both a component's run and its end positions are written they must agree (within 5 mm or 1 % of the length).",
 		Example:   "node a at (0, 0, 0) m\nnode b at (1, 0, 0) m\npipe p from a to b { length 1 m; run (0.5, 0, 0) m; bore 8 mm }",
 		Fix:       "Correct the run (the fix writes the coordinates' value) or the coordinates.",
-		Run:       runMismatch})
+		Run:       runMismatch, Partial: true})
 	Register(&Rule{ID: "rise-misclosure", Category: CategoryGeometry, Severity: lang.Error,
 		Summary:   "the rises around a closed circuit do not sum to zero",
 		Rationale: "Going once around any closed circuit returns to the starting height, so the signed rises of its components must sum to zero (within 5 mm or 1 % of their magnitudes). A misclosure means a rise is wrong, and with it the driving head.",
@@ -104,7 +104,7 @@ func stmtHasLangError(m *lang.Model, c *lang.Component) bool {
 }
 
 func missingGeometry(c *Context) {
-	for _, comp := range c.Loop.Components {
+	for _, comp := range c.Components() {
 		if comp.Kind == lang.Reservoir || stmtHasLangError(c.Model, comp) {
 			continue
 		}
@@ -122,7 +122,7 @@ func missingGeometry(c *Context) {
 }
 
 func notPositive(c *Context) {
-	for _, comp := range c.Loop.Components {
+	for _, comp := range c.Components() {
 		type field struct {
 			name   string
 			v      lang.Value
@@ -153,7 +153,7 @@ func notPositive(c *Context) {
 }
 
 func roughWall(c *Context) {
-	for _, comp := range c.Loop.Components {
+	for _, comp := range c.Components() {
 		d := comp.Diameter()
 		if comp.Kind == lang.Reservoir || !(d > 0) || !(comp.Roughness.SI > 0) {
 			continue
@@ -166,7 +166,7 @@ func roughWall(c *Context) {
 }
 
 func heatedLength(c *Context) {
-	for _, comp := range c.Loop.Components {
+	for _, comp := range c.Components() {
 		if comp.Kind != lang.Evaporator || !comp.HeatedLength.Set || !comp.Length.Set || !(comp.Length.SI > 0) {
 			continue
 		}
@@ -201,7 +201,7 @@ func where(comp *lang.Component, src geom.Source) string {
 }
 
 func riseExceedsLength(c *Context) {
-	for _, comp := range c.Loop.Components {
+	for _, comp := range c.Components() {
 		L, ok := lengthOf(comp)
 		if !ok || comp.To == nil {
 			continue
@@ -224,7 +224,7 @@ func riseExceedsLength(c *Context) {
 func agreeTol(L float64) float64 { return math.Max(agreeAbs, agreeRel*L) }
 
 func spanExceedsLength(c *Context) {
-	for _, comp := range c.Loop.Components {
+	for _, comp := range c.Components() {
 		L, ok := lengthOf(comp)
 		src := c.Layout.Source[comp.Index]
 		if !ok || comp.To == nil || src == geom.FromRise {
@@ -242,7 +242,7 @@ func spanExceedsLength(c *Context) {
 }
 
 func riseMismatch(c *Context) {
-	for _, comp := range c.Loop.Components {
+	for _, comp := range c.Components() {
 		src := c.Layout.Source[comp.Index]
 		if !comp.Rise.Set || comp.To == nil || src == geom.FromRise {
 			continue
@@ -260,7 +260,7 @@ func riseMismatch(c *Context) {
 }
 
 func runMismatch(c *Context) {
-	for _, comp := range c.Loop.Components {
+	for _, comp := range c.Components() {
 		if !comp.Run.Set || comp.From == nil || comp.To == nil || c.Layout.Source[comp.Index] != geom.FromCoords {
 			continue
 		}

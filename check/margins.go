@@ -128,6 +128,9 @@ var lowerIsWorse = map[string]bool{flow.RuleCHF: true, flow.RuleHead: true, flow
 // reportEstimate reports the estimate's findings of one rule: per
 // component, the worst case, naming the other cases with the same finding.
 func reportEstimate(c *Context, id string) {
+	if !c.Loop.Fluid.Set || c.Loop.Fluid.Bad {
+		return // the resolver reported the missing or unknown fluid
+	}
 	lr := loopEstimate(c)
 	for _, f := range lr.Findings {
 		if f.Rule == id && !structural[f.Rule] {

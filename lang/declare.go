@@ -6,8 +6,6 @@ package lang
 
 import (
 	"fmt"
-
-	"circa/units"
 )
 
 var topKeywords = []string{"include", "param", "part", "loop", "case", "limits", "methods"}
@@ -27,6 +25,7 @@ func kindOf(word string) (Kind, bool) {
 func (r *resolver) declare() {
 	r.loopStmts = map[*Loop]*Stmt{}
 	r.compStmts = map[*Component]*Stmt{}
+	r.nodeAt = map[*Node]*Expr{}
 	r.caseStmts = map[*Case]*Stmt{}
 	for _, path := range r.m.Order {
 		f := r.m.Files[path]
@@ -166,16 +165,24 @@ func (r *resolver) declareLoop(file string, st *Stmt) {
 	nodes := map[string]*Node{}
 	// Nodes first, so components may name nodes declared after them.
 	for _, s := range st.Block.Stmts {
-		if s.Bad || (s.Keyword() != "node" && s.Keyword() != "junction") {
+		if s.Bad {
+			// What the statement meant is unknown: it may be a node or a
+			// component the loop needs.
+			l.Unresolved = true
+			continue
+		}
+		if s.Keyword() != "node" && s.Keyword() != "junction" {
 			continue
 		}
 		if len(s.Args) == 0 || nameOf(s.Args[0].Expr) == nil {
 			r.errorf("syntax", file, s.Span(), "%s needs a name: %s NAME [at (X, Y, Z) UNIT]", s.Keyword(), s.Keyword())
+			l.Unresolved = true
 			continue
 		}
 		nm := nameOf(s.Args[0].Expr)
 		if prev, dup := nodes[nm.Name]; dup {
 			r.duplicate(file, nm, "node", prev.Decl)
+			l.Unresolved = true
 			continue
 		}
 		n := &Node{Decl: r.decl(file, s, nm), Loop: l, Junction: s.Keyword() == "junction", Index: len(l.Nodes)}
@@ -186,9 +193,11 @@ func (r *resolver) declareLoop(file string, st *Stmt) {
 		if len(rest) > 0 {
 			if rest[0].Key != "at" || len(rest) != 2 || rest[1].Expr == nil {
 				r.errorf("syntax", file, s.Span(), "a node's coordinates are written: %s %s at (X, Y, Z) UNIT", s.Keyword(), nm.Name)
+				n.At.Bad = true
 				continue
 			}
-			n.At = r.vector(file, rest[1].Expr, units.Need{Dim: units.Length})
+			// Evaluated when filling, once every file's parameters are declared.
+			r.nodeAt[n] = rest[1].Expr
 		}
 		if s.Block != nil {
 			r.errorf("syntax", file, Span{s.Block.Open, s.Block.Open + 1}, "a node takes no block")
@@ -215,6 +224,7 @@ func (r *resolver) declareComponent(file string, s *Stmt, l *Loop, k Kind, nodes
 		} else {
 			r.errorf("syntax", file, s.Span(), "%s needs a name and its ends: %s NAME from NODE to NODE", k, k)
 		}
+		l.Unresolved = true
 		return
 	}
 	nm := nameOf(parts[0].Expr)
@@ -225,6 +235,7 @@ func (r *resolver) declareComponent(file string, s *Stmt, l *Loop, k Kind, nodes
 		id := nameOf(p.Expr)
 		if id == nil {
 			r.errorf("syntax", file, p.Span(), "expected a node name")
+			c.Unresolved = true
 			return nil, p.Span()
 		}
 		n, ok := nodes[id.Name]
@@ -234,6 +245,7 @@ func (r *resolver) declareComponent(file string, s *Stmt, l *Loop, k Kind, nodes
 				cands = append(cands, n.Name)
 			}
 			r.unknownName(file, id, "node", cands, fmt.Sprintf(" in loop %s", l.Name))
+			c.Unresolved = true
 			return nil, id.Span()
 		}
 		r.ref(RefNode, id.Name, l, file, id.Span(), false)
@@ -243,19 +255,25 @@ func (r *resolver) declareComponent(file string, s *Stmt, l *Loop, k Kind, nodes
 	if k == Reservoir {
 		if len(rest) != 2 || rest[0].Key != "at" || rest[1].Expr == nil {
 			r.errorf("syntax", file, s.Span(), "reservoir needs the node it hangs from: reservoir %s at NODE", nm.Name)
+			c.Unresolved = true
 		} else {
 			c.From, c.FromSpan = node(rest[1])
 		}
 	} else {
 		if len(rest) != 4 || rest[0].Key != "from" || rest[2].Key != "to" || rest[1].Expr == nil || rest[3].Expr == nil {
 			r.errorf("syntax", file, s.Span(), "%s needs its ends: %s %s from NODE to NODE", k, k, nm.Name)
+			c.Unresolved = true
 		} else {
 			c.From, c.FromSpan = node(rest[1])
 			c.To, c.ToSpan = node(rest[3])
 		}
 	}
+	if c.Unresolved {
+		l.Unresolved = true
+	}
 	if prev, dup := r.comps[nm.Name]; dup {
 		r.duplicate(file, nm, "component", prev.Decl)
+		l.Unresolved = true
 		return
 	}
 	r.comps[nm.Name] = c

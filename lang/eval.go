@@ -21,7 +21,7 @@ func (r *resolver) qty(file string, s *Stmt, need units.Need) Value {
 		} else {
 			r.errorf("syntax", file, s.Span(), "%s takes one value (%s); write a negative value after a space as -2, or put an expression in parentheses", s.Keyword(), needNoun(need))
 		}
-		return Value{}
+		return Value{Bad: true, File: file, Span: s.Span()}
 	}
 	return r.expr(file, s.Args[0].Expr, need)
 }
@@ -43,12 +43,12 @@ func (r *resolver) expr(file string, e *Expr, need units.Need) Value {
 	}
 	q, unitText, ok := r.eval(file, e)
 	if !ok {
-		return Value{}
+		return Value{Bad: true, File: file, Span: e.Span()}
 	}
 	if err := units.Check(q, unitText, need); err != nil {
 		d := r.errorf("unit", file, e.Span(), "%s", err.Error())
 		r.unitFix(d, file, e, q, need)
-		return Value{}
+		return Value{Bad: true, File: file, Span: e.Span()}
 	}
 	return Value{SI: q.SI, Set: true, File: file, Span: e.Span(), Unit: unitText}
 }
@@ -79,7 +79,7 @@ func (r *resolver) unitFix(d *Diagnostic, file string, e *Expr, q units.Quantity
 func (r *resolver) vectorField(file string, s *Stmt, need units.Need) Vec {
 	if len(s.Args) != 1 || s.Args[0].Expr == nil {
 		r.errorf("syntax", file, s.Span(), "%s takes one vector: %s (X, Y, Z) UNIT", s.Keyword(), s.Keyword())
-		return Vec{}
+		return Vec{Bad: true, File: file, Span: s.Span()}
 	}
 	return r.vector(file, s.Args[0].Expr, need)
 }
@@ -90,14 +90,14 @@ func (r *resolver) vector(file string, e *Expr, need units.Need) Vec {
 	a := singleAtom(e)
 	if a == nil || len(a.Group) != 3 {
 		r.errorf("syntax", file, e.Span(), "expected a vector of three components: (X, Y, Z) UNIT")
-		return Vec{}
+		return Vec{Bad: true, File: file, Span: e.Span()}
 	}
 	var unit *units.Unit
 	unitText := ""
 	if a.Unit != nil {
 		u, ok := r.unit(file, a.Unit)
 		if !ok {
-			return Vec{}
+			return Vec{Bad: true, File: file, Span: e.Span()}
 		}
 		unit, unitText = &u, a.Unit.Text
 	}
@@ -105,7 +105,7 @@ func (r *resolver) vector(file string, e *Expr, need units.Need) Vec {
 	for i, el := range a.Group {
 		q, ut, ok := r.eval(file, el)
 		if !ok {
-			return Vec{}
+			return Vec{Bad: true, File: file, Span: e.Span()}
 		}
 		if unit != nil && q.Dim.IsZero() {
 			q = unit.Quantity(q.SI)
@@ -116,7 +116,7 @@ func (r *resolver) vector(file string, e *Expr, need units.Need) Vec {
 		}
 		if err := units.Check(q, ut, need); err != nil {
 			r.errorf("unit", file, el.Span(), "%s", err.Error())
-			return Vec{}
+			return Vec{Bad: true, File: file, Span: e.Span()}
 		}
 		xyz[i] = q.SI
 	}
@@ -134,7 +134,13 @@ func (r *resolver) unit(file string, t *UnitTok) (units.Unit, bool) {
 				sp = t.Span()
 			}
 			d := r.errorf("unit", file, sp, "%s", ue.Msg)
-			for _, sg := range r.fitting(ue.Suggestions) {
+			// A suggestion replaces the piece that failed (the "k" of W/k);
+			// the fix writes the whole unit it gives.
+			var whole []string
+			for _, sg := range ue.Suggestions {
+				whole = append(whole, t.Text[:sp.Start-start]+sg+t.Text[sp.End-start:])
+			}
+			for _, sg := range r.fitting(whole) {
 				d.Fixes = append(d.Fixes, Fix{Title: fmt.Sprintf("Change to %q", sg), Edits: []Edit{{Loc: Location{File: file, Span: t.Span()}, NewText: sg}}})
 			}
 		} else {
@@ -145,20 +151,22 @@ func (r *resolver) unit(file string, t *UnitTok) (units.Unit, bool) {
 	return u, true
 }
 
-// fitting keeps the suggested units of the dimension the field needs, when
-// it is known and any suggestion has it.
+// fitting keeps the suggested units that parse and, when the field's
+// dimension is known and any suggestion has it, those of that dimension.
 func (r *resolver) fitting(sugg []string) []string {
-	if r.unitHint == nil {
-		return sugg
-	}
-	var keep []string
+	var valid, keep []string
 	for _, sg := range sugg {
-		if u, err := units.Parse(sg); err == nil && u.Dim == r.unitHint.Dim {
+		u, err := units.Parse(sg)
+		if err != nil {
+			continue
+		}
+		valid = append(valid, sg)
+		if r.unitHint != nil && u.Dim == r.unitHint.Dim {
 			keep = append(keep, sg)
 		}
 	}
 	if len(keep) == 0 {
-		return sugg
+		return valid
 	}
 	return keep
 }

@@ -9,6 +9,9 @@ import (
 	"path/filepath"
 	"strconv"
 	"strings"
+	"unicode"
+
+	"circa/check/fluid"
 
 	"circa/units"
 )
@@ -16,6 +19,14 @@ import (
 // fill evaluates every field now that all names are known.
 func (r *resolver) fill() {
 	for _, l := range r.m.Loops {
+		for _, n := range l.Nodes {
+			if e := r.nodeAt[n]; e != nil {
+				n.At = r.vector(n.File, e, needLength)
+			}
+			if n.At.Bad {
+				l.Unresolved = true
+			}
+		}
 		st := r.loopStmts[l]
 		var body []*Stmt // a loop written without a block has none
 		if st.Block != nil {
@@ -39,6 +50,9 @@ func (r *resolver) fill() {
 			}
 			r.loopField(l, s)
 		}
+		if l.Charge.Bad || l.DesignPressure.Bad || l.Saturation.Bad {
+			l.Unresolved = true
+		}
 		if !l.Fluid.Set {
 			r.errorf("missing-field", l.File, l.NameSpan, "loop %s names no working fluid: add \"fluid NAME\"", l.Name)
 		}
@@ -46,6 +60,10 @@ func (r *resolver) fill() {
 	for _, l := range r.m.Loops {
 		for _, c := range l.Components {
 			r.componentFields(c, r.compStmts[c])
+			if c.Unresolved || c.anyBad() {
+				c.Unresolved = true
+				l.Unresolved = true
+			}
 		}
 	}
 	for _, c := range r.m.Cases {
@@ -54,9 +72,14 @@ func (r *resolver) fill() {
 			continue
 		}
 		for _, s := range st.Block.Stmts {
-			if !s.Bad {
-				r.caseField(c, s)
+			if s.Bad {
+				c.Unresolved = true
+				continue
 			}
+			r.caseField(c, s)
+		}
+		if c.anyBad() {
+			c.Unresolved = true
 		}
 	}
 	for _, fs := range r.limStmts {
@@ -143,6 +166,9 @@ func (r *resolver) loopField(l *Loop, s *Stmt) {
 		l.Saturation = r.qty(file, s, needTemp)
 	default:
 		r.unknownWord(file, s, append(append([]string(nil), loopKeywords...), "param"), "in a loop")
+		// It may be a misspelt component, whose absence the whole-loop
+		// rules would report.
+		l.Unresolved = true
 	}
 	r.noBlock(file, s)
 }
@@ -159,11 +185,13 @@ func (r *resolver) fluidField(l *Loop, s *Stmt) {
 		if id := nameOf(s.Args[0].Expr); id != nil {
 			l.Fluid = FluidSpec{Name: id.Name, Set: true, File: file, Span: id.Span()}
 			r.ref(RefFluid, id.Name, l, file, id.Span(), false)
+			r.knownFluid(l)
 			return
 		}
 		if a := singleAtom(s.Args[0].Expr); a != nil && a.Str != nil {
 			// fluid "R134a" is accepted as a name too.
 			l.Fluid = FluidSpec{Name: a.Str.Value(), Set: true, File: file, Span: a.Str.Span()}
+			r.knownFluid(l)
 			return
 		}
 	}
@@ -183,6 +211,43 @@ func (r *resolver) fluidField(l *Loop, s *Stmt) {
 	r.errorf("syntax", file, s.Span(), "fluid needs a built-in name (fluid R134a) or a table (fluid table \"coolant.csv\")")
 }
 
+// knownFluid reports a fluid name that is not built in, with the nearest
+// spelling that is.
+func (r *resolver) knownFluid(l *Loop) {
+	if fluid.Known(l.Fluid.Name) {
+		return
+	}
+	l.Fluid.Bad = true
+	var idents []string // spellings that can be written without quotes
+	for _, sp := range fluid.Spellings() {
+		if isIdent(sp) {
+			idents = append(idents, sp)
+		}
+	}
+	d := r.errorf("unknown-name", l.Fluid.File, l.Fluid.Span, "unknown fluid %q; built-in fluids: %s", l.Fluid.Name, strings.Join(fluid.Names(), ", "))
+	if best := Closest(l.Fluid.Name, idents); best != "" {
+		d.Format = "unknown fluid %q; did you mean %s? (built-in fluids: %s)"
+		d.Args = []any{l.Fluid.Name, best, strings.Join(fluid.Names(), ", ")}
+		d.Fixes = append(d.Fixes, Fix{Title: fmt.Sprintf("Change to %s", best), Edits: []Edit{{Loc: l.Fluid.Loc(), NewText: best}}})
+	}
+}
+
+// isIdent reports whether s is a name the language reads as one identifier.
+func isIdent(s string) bool {
+	if n := len(s); n > 3 && s[n-3] == '(' && s[n-1] == ')' && s[n-2] >= 'A' && s[n-2] <= 'Z' {
+		s = s[:n-3] // R1234ze(E)
+	}
+	if s == "" {
+		return false
+	}
+	for i, c := range s {
+		if !(c == '_' || unicode.IsLetter(c) || (i > 0 && unicode.IsDigit(c))) {
+			return false
+		}
+	}
+	return true
+}
+
 func (r *resolver) componentFields(c *Component, st *Stmt) {
 	if st.Block == nil {
 		return
@@ -191,6 +256,7 @@ func (r *resolver) componentFields(c *Component, st *Stmt) {
 	var own []*Stmt
 	for _, s := range st.Block.Stmts {
 		if s.Bad {
+			c.Unresolved = true
 			continue
 		}
 		if s.Keyword() == "use" {
@@ -200,6 +266,7 @@ func (r *resolver) componentFields(c *Component, st *Stmt) {
 			}
 			if id == nil {
 				r.errorf("syntax", c.File, s.Span(), "use needs a part name: use PART")
+				c.Unresolved = true
 				continue
 			}
 			p, ok := r.parts[id.Name]
@@ -209,14 +276,17 @@ func (r *resolver) componentFields(c *Component, st *Stmt) {
 					cands = append(cands, n)
 				}
 				r.unknownName(c.File, id, "part", cands, "")
+				c.Unresolved = true
 				continue
 			}
 			r.ref(RefPart, id.Name, nil, c.File, id.Span(), false)
 			c.Uses = append(c.Uses, p)
 			for _, ps := range p.Stmts {
-				if !ps.Bad {
-					r.componentField(c, p.File, ps)
+				if ps.Bad {
+					c.Unresolved = true
+					continue
 				}
+				r.componentField(c, p.File, ps)
 			}
 			continue
 		}
@@ -351,6 +421,7 @@ func (r *resolver) caseField(c *Case, s *Stmt) {
 			} else {
 				r.errorf("syntax", file, s.Span(), "sink in a case is: sink 35 degC, or sink CONDENSER 35 degC")
 			}
+			c.Unresolved = true
 			return
 		}
 		id := nameOf(s.Args[0].Expr)
@@ -367,11 +438,13 @@ func (r *resolver) caseField(c *Case, s *Stmt) {
 				}
 			}
 			r.unknownName(file, id, want.String(), cands, "")
+			c.Unresolved = true
 			return
 		}
 		r.ref(RefComponent, id.Name, comp.Loop, file, id.Span(), false)
 		if comp.Kind != want {
 			r.errorf("wrong-kind", file, id.Span(), "%s is a %s, not a %s", id.Name, comp.Kind, want)
+			c.Unresolved = true
 			return
 		}
 		v := r.expr(file, s.Args[1].Expr, need)

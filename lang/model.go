@@ -4,10 +4,13 @@ package lang
 // remembering where it was written. The checker reads only this.
 
 // Value is a scalar in SI units. Set is false when the file did not give it;
-// SI then holds the default, if there is one.
+// SI then holds the default, if there is one. Bad is true when the file gave
+// it but it could not be resolved (the error is reported where it was
+// written): Set is then false and nothing may be computed from it.
 type Value struct {
 	SI   float64
 	Set  bool
+	Bad  bool
 	File string
 	Span Span   // the expression as written
 	Unit string // the unit as written ("" for bare numbers and defaults)
@@ -17,9 +20,11 @@ type Value struct {
 func (v Value) Loc() Location { return Location{File: v.File, Span: v.Span} }
 
 // Vec is a vector in SI units in the equipment frame (x forward, y left, z up).
+// Bad is as for Value.
 type Vec struct {
 	X, Y, Z float64
 	Set     bool
+	Bad     bool
 	File    string
 	Span    Span
 	Unit    string
@@ -82,6 +87,7 @@ type FluidSpec struct {
 	Name  string // built-in name as written; for tables, the file's base name
 	Table string // path of a CSV table, resolved against the including file
 	Set   bool
+	Bad   bool // written, but not a known fluid (reported by the resolver)
 	File  string
 	Span  Span
 }
@@ -98,6 +104,11 @@ type Loop struct {
 	Saturation     Value
 	Nodes          []*Node
 	Components     []*Component
+	// Unresolved is true when some of the loop's text could not be resolved
+	// (an unknown or duplicate name, a bad value, a statement that did not
+	// parse). That error is the finding; rules that need the whole loop skip
+	// it rather than report what follows from the error.
+	Unresolved bool
 }
 
 // Node is a point of a loop.
@@ -167,6 +178,21 @@ type Component struct {
 	Volume Value // reservoir
 
 	Uses []*Part
+	// Unresolved is true when an end or a field could not be resolved; rules
+	// that need the component skip it.
+	Unresolved bool
+}
+
+// anyBad reports whether a field failed to resolve.
+func (c *Component) anyBad() bool {
+	for _, v := range []*Value{&c.Length, &c.Rise, &c.Bore, &c.FlowArea, &c.HydDiameter, &c.Roughness, &c.Loss,
+		&c.Heat, &c.HeatedLength, &c.WettedArea, &c.HeatFlux, &c.WallLimit, &c.BoilRoughness,
+		&c.Conductance, &c.Sink, &c.Outlet, &c.Subcool, &c.Volume} {
+		if v.Bad {
+			return true
+		}
+	}
+	return c.Run.Bad
 }
 
 // Diameter returns the hydraulic diameter: bore, else hydraulic_diameter,
@@ -204,6 +230,24 @@ type Case struct {
 	Yaw        Value
 	Accel      Vec
 	Saturation Value
+	// Unresolved is true when a field could not be resolved; the estimate
+	// skips the case.
+	Unresolved bool
+}
+
+// anyBad reports whether a field failed to resolve.
+func (c *Case) anyBad() bool {
+	for _, v := range []*Value{&c.Sink, &c.Pitch, &c.Roll, &c.Yaw, &c.Saturation} {
+		if v.Bad {
+			return true
+		}
+	}
+	for _, cv := range append(append([]CompValue(nil), c.Heat...), c.Sinks...) {
+		if cv.Value.Bad {
+			return true
+		}
+	}
+	return c.Accel.Bad
 }
 
 // CompValue is a value given in a case for one component.

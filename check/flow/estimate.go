@@ -115,9 +115,15 @@ func EstimateLoop(m *lang.Model, l *lang.Loop, opts Options) LoopResult {
 	return estimateLoop(m, l, methods, casePoints(cases, opts.Sweep), opts)
 }
 
+// casePoints returns the points to solve. A case whose text did not fully
+// resolve is left out: its error is reported where it was written, and an
+// estimate with a value missing would report what follows from it.
 func casePoints(cases []*lang.Case, sw *Sweep) []point {
 	var points []point
 	for _, c := range cases {
+		if c.Unresolved {
+			continue
+		}
 		points = append(points, pointsOf(c, sw)...)
 	}
 	if len(cases) == 0 {

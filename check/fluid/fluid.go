@@ -188,6 +188,26 @@ func Names() []string {
 	return out
 }
 
+// Known reports whether name is a built-in fluid's name or alias, without
+// building its table.
+func Known(name string) bool {
+	regMu.Lock()
+	defer regMu.Unlock()
+	_, ok := registry[key(name)]
+	return ok
+}
+
+// Spellings returns every built-in fluid's name and aliases, for
+// suggestions.
+func Spellings() []string {
+	var out []string
+	for _, in := range List() {
+		out = append(out, in.Name)
+		out = append(out, in.Aliases...)
+	}
+	return out
+}
+
 // UnknownError reports a fluid name that is not built in.
 type UnknownError struct {
 	Name  string
