@@ -120,6 +120,7 @@ var (
 	needNumber   = units.Need{Dim: units.Dimensionless}
 	needFlux     = units.Need{Dim: units.HeatFlux}
 	needUA       = units.Need{Dim: units.Conductance}
+	needHTC      = units.Need{Dim: units.HeatTransferCoefficient}
 	needAngle    = units.Need{Dim: units.Angle}
 	needAccel    = units.Need{Dim: units.Acceleration}
 )
@@ -132,6 +133,7 @@ var FieldNeeds = map[string]units.Need{
 	"heat": needPower, "heated_length": needLength, "wetted_area": needArea, "heat_flux": needFlux,
 	"wall_limit": needTemp, "roughness_boiling": needLength, "conductance": needUA, "sink": needTemp,
 	"outlet": needTemp, "subcool": needTempDiff, "volume": needVolume,
+	"tubes": needNumber, "coolant_htc": needHTC,
 	"pitch": needAngle, "roll": needAngle, "yaw": needAngle, "accel": needAccel,
 	"exit_quality": needNumber, "chf_ratio": needNumber, "flooding": needNumber, "tilt_margin": needAngle,
 	"wall_margin": needTempDiff, "head_ratio": needNumber, "saturation_max": needTemp,
@@ -145,7 +147,7 @@ var (
 		Bend:       {"use", "length", "rise", "run", "bore", "flow_area", "hydraulic_diameter", "roughness", "loss"},
 		Fitting:    {"use", "length", "rise", "run", "bore", "flow_area", "hydraulic_diameter", "roughness", "loss"},
 		Evaporator: {"use", "length", "rise", "run", "bore", "flow_area", "hydraulic_diameter", "roughness", "loss", "heat", "heated_length", "wetted_area", "heat_flux", "wall_limit", "roughness_boiling"},
-		Condenser:  {"use", "length", "rise", "run", "bore", "flow_area", "hydraulic_diameter", "roughness", "loss", "conductance", "sink", "outlet", "subcool"},
+		Condenser:  {"use", "length", "rise", "run", "bore", "flow_area", "hydraulic_diameter", "roughness", "loss", "conductance", "sink", "outlet", "subcool", "tubes", "coolant_htc"},
 		Reservoir:  {"use", "volume", "rise", "length", "bore"},
 	}
 	CaseFields   = []string{"heat", "sink", "pitch", "roll", "yaw", "accel", "saturation"}
@@ -311,6 +313,8 @@ func (r *resolver) conflicts(c *Component) {
 		{"bore", "hydraulic_diameter", c.Bore.Set, c.HydDiameter.Set, c.HydDiameter.Span, c.HydDiameter.File},
 		{"wetted_area", "heat_flux", c.WettedArea.Set, c.HeatFlux.Set, c.HeatFlux.Span, c.HeatFlux.File},
 		{"conductance", "outlet", c.Conductance.Set, c.Outlet.Set, c.Outlet.Span, c.Outlet.File},
+		{"conductance", "coolant_htc", c.Conductance.Set, c.CoolantHTC.Set, c.CoolantHTC.Span, c.CoolantHTC.File},
+		{"conductance", "tubes", c.Conductance.Set, c.Tubes.Set, c.Tubes.Span, c.Tubes.File},
 	}
 	for _, p := range pairs {
 		if p.va && p.vb {
@@ -380,6 +384,10 @@ func (r *resolver) componentField(c *Component, file string, s *Stmt) {
 		dst = &c.Outlet
 	case "subcool":
 		dst = &c.Subcool
+	case "tubes":
+		dst = &c.Tubes
+	case "coolant_htc":
+		dst = &c.CoolantHTC
 	case "volume":
 		dst = &c.Volume
 	}
@@ -387,6 +395,10 @@ func (r *resolver) componentField(c *Component, file string, s *Stmt) {
 		return
 	}
 	v := r.qty(file, s, FieldNeeds[kw])
+	if kw == "tubes" && v.Set && !(v.SI >= 1 && v.SI <= 1e6 && v.SI == math.Floor(v.SI)) {
+		r.errorf("bad-value", file, v.Span, "tubes must be a whole number of at least 1, not %s", strconv.FormatFloat(v.SI, 'g', -1, 64))
+		v.Set = false
+	}
 	if v.Set || !dst.Set {
 		if !v.Set {
 			v.SI = dst.SI // keep the default when the value was bad

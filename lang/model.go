@@ -174,6 +174,8 @@ type Component struct {
 	Sink        Value
 	Outlet      Value
 	Subcool     Value
+	Tubes       Value // parallel condensing tubes of the component's bore and length (default 1)
+	CoolantHTC  Value // coolant-side coefficient of a condenser given by geometry
 
 	Volume Value // reservoir
 
@@ -304,7 +306,7 @@ var MethodChoices = map[string][]string{
 	"void_fraction": {"rouhani_axelsson", "homogeneous", "zivi", "chisholm", "rouhani_axelsson_vertical", "rouhani_axelsson_horizontal"},
 	"friction":      {"muller_steinhagen_heck", "friedel", "lockhart_martinelli", "homogeneous_mcadams", "homogeneous_cicchitti", "homogeneous_dukler"},
 	"single_phase":  {"churchill", "colebrook"},
-	"chf":           {"lienhard_dhir", "zuber"},
+	"chf":           {"lienhard_dhir", "zuber", "katto_ohno"},
 }
 
 // DefaultMethods returns the documented defaults.

@@ -258,6 +258,8 @@ func (s *Server) componentHover(c *cursor, comp *lang.Component) string {
 	add("loss K", comp.Loss, "")
 	add("heat", comp.Heat, "W")
 	add("conductance", comp.Conductance, "W/K")
+	add("tubes", comp.Tubes, "")
+	add("coolant side", comp.CoolantHTC, "W/(m2*K)")
 	if len(rows) > 0 {
 		b.WriteString("| | |\n|---|---|\n")
 		for _, r := range rows {

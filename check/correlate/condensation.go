@@ -20,3 +20,37 @@ func Shah1979(G, x, D float64, p Props) float64 {
 	hlo := 0.023 * math.Pow(re, 0.8) * math.Pow(prl, 0.4) * p.KL / D
 	return finite(hlo * (math.Pow(1-x, 0.8) + 3.8*math.Pow(x, 0.76)*math.Pow(1-x, 0.04)/math.Pow(p.ReducedPressure, 0.38)))
 }
+
+// FilmVertical is the mean coefficient of laminar film condensation on a
+// vertical surface of height L (m) of Nusselt (1916), W/(m²K):
+// h = 0.943 [ρl (ρl−ρv) a kl³ h'lv / (μl L ΔT)]^¼, with the latent heat
+// corrected for subcooling of the film, h'lv = hlv + 0.68 cpl ΔT
+// (Rohsenow 1956). a is the body force along the surface (m/s²) and
+// dT = Tsat − Twall (K). It reads RhoL, RhoV, KL, MuL, CpL and Hlv.
+func FilmVertical(L, a, dT float64, p Props) float64 {
+	if !(L > 0) {
+		return 0
+	}
+	return filmCoef(0.943, L, a, dT, 0.68, p)
+}
+
+// FilmHorizontalTube is the mean coefficient of stratified film
+// condensation inside a horizontal tube of inner diameter D (m) at low
+// vapour velocity of Chato (1962), W/(m²K):
+// h = 0.555 [ρl (ρl−ρv) a kl³ h'lv / (μl D ΔT)]^¼, h'lv = hlv + 3/8 cpl ΔT.
+// a is the body force across the tube (m/s²), dT = Tsat − Twall (K).
+func FilmHorizontalTube(D, a, dT float64, p Props) float64 {
+	if !(D > 0) {
+		return 0
+	}
+	return filmCoef(0.555, D, a, dT, 0.375, p)
+}
+
+func filmCoef(c, length, a, dT, sub float64, p Props) float64 {
+	a = math.Abs(a)
+	if !(a > 0) || !(dT > 0) || !(p.RhoL > p.RhoV) || !(p.KL > 0) || !(p.MuL > 0) || !(p.Hlv > 0) {
+		return 0
+	}
+	h := p.Hlv + sub*math.Max(p.CpL, 0)*dT
+	return finite(c * math.Sqrt(math.Sqrt(p.RhoL*(p.RhoL-p.RhoV)*a*p.KL*p.KL*p.KL*h/(p.MuL*length*dT))))
+}

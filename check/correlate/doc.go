@@ -52,8 +52,18 @@
 //     K = 0.149 (default, [LienhardDhir]).
 //   - [Cooper]: nucleate pool boiling, M.G. Cooper, IChemE Symp. Ser. 86
 //     (1984) 785–793.
+//   - [CHFKattoOhno]: flow-boiling critical heat flux in uniformly heated
+//     tubes, Y. Katto, H. Ohno, Int. J. Heat Mass Transfer 27 (1984)
+//     1641–1648; coefficients and regime rules as reproduced in J.G. Collier,
+//     J.R. Thome, Convective Boiling and Condensation, 3rd ed. (1994), from
+//     memory.
 //   - [Shah1979]: film condensation in tubes, M.M. Shah, Int. J. Heat Mass
 //     Transfer 22 (1979) 547–556.
+//   - [FilmVertical]: laminar film condensation on a vertical wall,
+//     W. Nusselt, Z. VDI 60 (1916) 541–546, with the film-subcooling latent
+//     heat of W.M. Rohsenow, Trans. ASME 78 (1956) 1645–1648.
+//   - [FilmHorizontalTube]: stratified condensation inside a horizontal
+//     tube at low vapour velocity, J.C. Chato, ASHRAE J. 4(2) (1962) 52–60.
 //
 // Counter-current flooding:
 //   - [WallisFraction]: G.B. Wallis, One-Dimensional Two-Phase Flow,

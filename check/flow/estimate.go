@@ -56,6 +56,7 @@ type prepared struct {
 	void     correlate.VoidMethod
 	fric     correlate.Friction
 	chfK     float64
+	chfFlow  bool // flow-boiling CHF (Katto–Ohno) instead of the pool-boiling form
 	limits   lang.Limits
 	findings []Finding
 }
@@ -142,6 +143,14 @@ func estimateLoop(m *lang.Model, l *lang.Loop, methods MethodsUsed, points []poi
 	}
 	if p.net != nil {
 		lr.Network = !p.net.ring
+		for _, cp := range p.net.comps {
+			if byGeometry(cp) {
+				lr.Assumptions = append(lr.Assumptions, "condensers given by geometry: laminar film condensation inside their tubes "+
+					"(Nusselt 1916 within 45° of the body force, Chato 1962 flatter), the tube wall at the coolant temperature "+
+					"unless coolant_htc gives the coolant side; vapour shear neglected")
+				break
+			}
+		}
 	}
 	lr.Cases = make([]CaseResult, len(points))
 	if p.net != nil && p.fl != nil {
@@ -265,8 +274,8 @@ func chooseMethods(ms lang.Methods, opts Options) (MethodsUsed, error) {
 	if mu.SinglePhase != "churchill" && mu.SinglePhase != "colebrook" {
 		return mu, fmt.Errorf("unknown single-phase friction method %q (want churchill or colebrook)", mu.SinglePhase)
 	}
-	if mu.CHF != "lienhard_dhir" && mu.CHF != "zuber" {
-		return mu, fmt.Errorf("unknown critical heat flux method %q (want lienhard_dhir or zuber)", mu.CHF)
+	if mu.CHF != "lienhard_dhir" && mu.CHF != "zuber" && mu.CHF != "katto_ohno" {
+		return mu, fmt.Errorf("unknown critical heat flux method %q (want lienhard_dhir, zuber or katto_ohno)", mu.CHF)
 	}
 	if mu.Cells > 100000 {
 		mu.Cells = 100000
@@ -299,6 +308,7 @@ func prepare(m *lang.Model, l *lang.Loop, mu MethodsUsed) *prepared {
 	if mu.CHF == "zuber" {
 		p.chfK = correlate.Zuber
 	}
+	p.chfFlow = mu.CHF == "katto_ohno"
 	var err error
 	switch {
 	case l.Fluid.Table != "":
@@ -395,6 +405,9 @@ func (p *prepared) newState(pt point, cr *CaseResult) (*state, []Finding) {
 	var outletT float64
 	outletSet := false
 	missing := ""
+	var conds []comp
+	var sinks []float64
+	film := false
 	for _, cp := range net.comps {
 		if cp.kind != lang.Condenser {
 			continue
@@ -403,6 +416,13 @@ func (p *prepared) newState(pt point, cr *CaseResult) (*state, []Finding) {
 			outletT, outletSet = cp.c.Outlet.SI, true
 		}
 		ts, ok := sinkOf(cp)
+		if ok && byGeometry(cp) {
+			conds, sinks, film = append(conds, cp), append(sinks, ts), true
+			continue
+		}
+		if ok && cp.c.Conductance.Set {
+			conds, sinks = append(conds, cp), append(sinks, ts)
+		}
 		if !cp.c.Conductance.Set || !ok {
 			if !cp.c.Outlet.Set && missing == "" {
 				missing = cp.name
@@ -419,6 +439,14 @@ func (p *prepared) newState(pt point, cr *CaseResult) (*state, []Finding) {
 		T, cr.SatSource = l.Saturation.SI, "loop"
 	case outletSet:
 		T, cr.SatSource = outletT, "condenser outlet"
+	case film && missing == "":
+		var ok bool
+		T, ok = geometrySaturation(p.fl, p.info, conds, sinks, geom.BodyForceAt(pt.yaw, pt.pitch, pt.roll, pt.accel), qTot)
+		cr.SatSource = "condenser balance"
+		if !ok {
+			find(RuleCondenser, "error", conds[0].name, T, p.info.Tmax, "K", "the condensers cannot reject %.0f W in case %s below the top of the fluid's range (%.2f °C): no estimate", qTot, cname, p.info.Tmax-273.15)
+			return nil, fs
+		}
 	case ua > 0 && missing == "":
 		T, cr.SatSource = (qTot+uaT)/ua, "condenser balance"
 	default:

@@ -63,6 +63,25 @@ func wallFlux(c *lang.Component, q, D, L float64) float64 {
 	return 0
 }
 
+// chf is an evaporator's critical heat flux, W/m², and a phrase giving it
+// with the form used: the pool-boiling form at the local body force, or Katto–Ohno's
+// flow-boiling form at the evaporator's mass flux, heated length and inlet
+// subcooling.
+func (p *prepared) chf(s *state, cp *comp, cs ComponentState) (float64, string) {
+	if p.chfFlow {
+		lh := cp.L
+		if cp.c.HeatedLength.Set && cp.c.HeatedLength.SI > 0 {
+			lh = cp.c.HeatedLength.SI
+		}
+		dh := math.Max(0, -cs.XIn) * s.p.Hlv
+		if q := correlate.CHFKattoOhno(cs.MassFlux, lh, cp.D, dh, s.p); q > 0 {
+			return q, fmt.Sprintf("flow-boiling CHF (Katto–Ohno) %.3g W/cm² at G = %.0f kg/(m²·s)", q/1e4, math.Abs(cs.MassFlux))
+		}
+	}
+	q := correlate.CHFPool(p.chfK, s.p.Hlv, s.p.RhoL, s.p.RhoV, s.p.Sigma, s.bmag)
+	return q, fmt.Sprintf("pool-boiling CHF %.3g W/cm² at |b| = %.2f m/s²", q/1e4, s.bmag)
+}
+
 // margins evaluates every margin of a circulating case.
 func (p *prepared) margins(s *state, cr *CaseResult, f []float64) {
 	lim := p.limits
@@ -90,7 +109,7 @@ func (p *prepared) margins(s *state, cr *CaseResult, f []float64) {
 			// Critical heat flux.
 			qw := wallFlux(cp.c, s.heat[ci], cp.D, cp.L)
 			if qw > 0 {
-				chf := correlate.CHFPool(p.chfK, s.p.Hlv, s.p.RhoL, s.p.RhoV, s.p.Sigma, s.bmag)
+				chf, form := p.chf(s, cp, cs)
 				ratio := chf / qw
 				rl := lim.CHFRatio.SI
 				m := Margin{Margin: MarginCHF, Component: cp.name, Value: ratio, Limit: rl, Use: rl / math.Max(ratio, 1e-300)}
@@ -102,8 +121,8 @@ func (p *prepared) margins(s *state, cr *CaseResult, f []float64) {
 						sev = "error"
 					}
 					cr.Findings = append(cr.Findings, p.finding(RuleCHF, sev, cr.Case, cp.name, ratio, rl, "", "chf_ratio",
-						"critical heat flux ratio %.2f at evaporator %s in case %s is below the limit %.2f (wall flux %.3g W/cm², pool-boiling CHF %.3g W/cm² at |b| = %.2f m/s²)",
-						ratio, cp.name, cr.Case, rl, qw/1e4, chf/1e4, s.bmag))
+						"critical heat flux ratio %.2f at evaporator %s in case %s is below the limit %.2f (wall flux %.3g W/cm², %s)",
+						ratio, cp.name, cr.Case, rl, qw/1e4, form))
 				}
 				// Wall temperature.
 				if cp.c.WallLimit.Set {
@@ -327,11 +346,13 @@ func (p *prepared) pressureMargin(s *state, cr *CaseResult) {
 }
 
 // condenserMargin checks that the condensers reject the load within the
-// allowed saturation temperature.
+// allowed saturation temperature. A condenser given by geometry counts with
+// its film conductance at the operating saturation temperature.
 func (p *prepared) condenserMargin(s *state, cr *CaseResult) {
 	var ua, uaT float64
 	for _, cp := range s.net.comps {
-		if cp.kind != lang.Condenser || !cp.c.Conductance.Set {
+		geo := byGeometry(cp)
+		if cp.kind != lang.Condenser || !cp.c.Conductance.Set && !geo {
 			continue
 		}
 		ts, ok := cp.c.Sink.SI, cp.c.Sink.Set
@@ -345,10 +366,18 @@ func (p *prepared) condenserMargin(s *state, cr *CaseResult) {
 				}
 			}
 		}
-		if ok {
-			ua += cp.c.Conductance.SI
-			uaT += cp.c.Conductance.SI * ts
+		if !ok {
+			continue
 		}
+		g := cp.c.Conductance.SI
+		if geo {
+			g = 0
+			if dT := s.sat.T - ts; dT > 0 {
+				g = filmRejection(cp, s.b, s.sat.T, ts, s.p) / dT
+			}
+		}
+		ua += g
+		uaT += g * ts
 	}
 	if ua <= 0 {
 		return

@@ -1,0 +1,99 @@
+package flow
+
+import (
+	"math"
+	"strings"
+	"testing"
+
+	"circa/check/correlate"
+	"circa/check/fluid"
+)
+
+// TestCondenserByGeometry gives the ring's horizontal condenser by its bore,
+// length and tube count instead of a conductance: the saturation temperature
+// must make Chato's film coefficient (recomputed here from the fluid's
+// properties at that temperature) reject the load, Q = h·π D L N·(T − T_sink).
+func TestCondenserByGeometry(t *testing.T) {
+	for _, c := range []struct {
+		fields string
+		tubes  float64
+	}{
+		{"", 1}, {"tubes 4", 4},
+	} {
+		src := strings.ReplaceAll(ring, "HEAT", "300 W")
+		src = strings.Replace(src, "conductance 150 W/K; sink 25 degC", "sink 25 degC; "+c.fields, 1)
+		r := estimate(t, load(t, src), Options{NoTilt: true})
+		cr := only(t, r)
+		if cr.SatSource != "condenser balance" {
+			t.Fatalf("%q: saturation from %q", c.fields, cr.SatSource)
+		}
+		T := cr.SatTemperature
+		fl, _ := fluid.Lookup("R134a")
+		sat, _ := fl.AtT(T)
+		p := correlate.Props{RhoL: sat.RhoL, RhoV: sat.RhoV, MuL: sat.MuL, KL: sat.KL, CpL: sat.CpL, Hlv: sat.Hlv}
+		dT := T - (25 + 273.15)
+		h := correlate.FilmHorizontalTube(0.01, gn, dT, p)
+		q := h * math.Pi * 0.01 * 0.3 * c.tubes * dT
+		if math.Abs(q-300) > 1e-3*300 {
+			t.Errorf("%q: T_sat %.3f °C rejects %.2f W by Chato's film, want 300 W", c.fields, T-273.15, q)
+		}
+		hasA := false
+		for _, a := range r.Loops[0].Assumptions {
+			hasA = hasA || strings.Contains(a, "Chato")
+		}
+		if !hasA {
+			t.Errorf("%q: assumptions do not name the film condensation", c.fields)
+		}
+	}
+	// A coolant side in series raises the saturation temperature.
+	base := strings.ReplaceAll(ring, "HEAT", "300 W")
+	film := only(t, estimate(t, load(t, strings.Replace(base, "conductance 150 W/K;", "", 1)), Options{NoTilt: true}))
+	series := only(t, estimate(t, load(t, strings.Replace(base, "conductance 150 W/K;", "coolant_htc 2000 W/(m2 K);", 1)), Options{NoTilt: true}))
+	if !(series.SatTemperature > film.SatTemperature+0.1) {
+		t.Errorf("coolant side 2000 W/(m²K): T_sat %.2f °C, film alone %.2f °C", series.SatTemperature-273.15, film.SatTemperature-273.15)
+	}
+	// Coolant side alone would need ΔT = Q/(ho·A) = 300/(2000·π·0.01·0.3) = 15.92 K; the series
+	// sum is more than that.
+	if d := series.SatTemperature - 298.15; !(d > 15.92) {
+		t.Errorf("series ΔT %.2f K, want above the coolant side's 15.92 K", d)
+	}
+}
+
+// TestCHFKattoOhnoMethod selects the flow-boiling CHF and checks that the
+// margin is Katto–Ohno's at the evaporator's own flow, heated length, bore
+// and inlet subcooling, not the pool-boiling value.
+func TestCHFKattoOhnoMethod(t *testing.T) {
+	src := strings.ReplaceAll(ring, "HEAT", "800 W")
+	pool := only(t, estimate(t, load(t, src), Options{NoTilt: true}))
+	r := estimate(t, load(t, src+"methods { chf katto_ohno }\n"), Options{NoTilt: true})
+	if r.Loops[0].Methods.CHF != "katto_ohno" {
+		t.Fatalf("methods %+v", r.Loops[0].Methods)
+	}
+	cr := only(t, r)
+	var ev ComponentState
+	for _, c := range cr.Components {
+		if c.Component == "evap" {
+			ev = c
+		}
+	}
+	fl, _ := fluid.Lookup("R134a")
+	sat, _ := fl.AtT(cr.SatTemperature)
+	p := correlate.Props{RhoL: sat.RhoL, RhoV: sat.RhoV, Sigma: sat.Sigma, Hlv: sat.Hlv}
+	want := correlate.CHFKattoOhno(ev.MassFlux, 0.3, 0.01, math.Max(0, -ev.XIn)*sat.Hlv, p) / (800 / 0.01)
+	got, poolRatio := margin(cr, MarginCHF), margin(pool, MarginCHF)
+	if math.Abs(got-want) > 1e-6*want {
+		t.Errorf("CHF ratio %g, want Katto–Ohno's %g", got, want)
+	}
+	if math.Abs(got-poolRatio) < 1e-3*poolRatio {
+		t.Errorf("Katto–Ohno ratio %g equals the pool-boiling one", got)
+	}
+}
+
+func margin(cr *CaseResult, name string) float64 {
+	for _, m := range cr.Margins {
+		if m.Margin == name {
+			return m.Value
+		}
+	}
+	return math.NaN()
+}
