@@ -159,13 +159,13 @@ func (s *Server) run(ctx context.Context, rwc io.ReadWriteCloser) int {
 	}
 	close(s.done)
 	cancel()
-	// Close waits for handlers to drain; do not let a stuck one hold the exit.
-	closed := make(chan struct{})
-	go func() { s.conn.Close(); close(closed) }()
-	select {
-	case <-closed:
-	case <-time.After(time.Second):
-	}
+	// Closing the connection waits for its reader, which may be blocked on a
+	// stream only the client can end (standard input stays open after
+	// exit): close in the background and return at once.
+	go func() {
+		rwc.Close()
+		s.conn.Close()
+	}()
 	return code
 }
 
