@@ -132,7 +132,7 @@ func (r *resolver) unknownWord(file string, st *Stmt, known []string, where stri
 
 func (r *resolver) declareParam(file string, st *Stmt) {
 	if len(st.Args) != 3 || st.Args[0].Expr == nil || nameOf(st.Args[0].Expr) == nil || st.Args[1].Key != "=" || st.Args[2].Expr == nil {
-		r.errorf("syntax", file, st.Span(), "param needs a name and a value: param NAME = VALUE")
+		r.shapeError(file, st, "param needs a name and a value: param NAME = VALUE")
 		return
 	}
 	name := nameOf(st.Args[0].Expr)

@@ -19,7 +19,7 @@ func (r *resolver) qty(file string, s *Stmt, need units.Need) Value {
 		if len(s.Args) == 0 {
 			r.errorf("missing-value", file, s.Span(), "%s needs a value (%s)", s.Keyword(), needNoun(need))
 		} else {
-			r.errorf("syntax", file, s.Span(), "%s takes one value (%s); write a negative value after a space as -2, or put an expression in parentheses", s.Keyword(), needNoun(need))
+			r.shapeError(file, s, "%s takes one value (%s); write a negative value after a space as -2, or put an expression in parentheses", s.Keyword(), needNoun(need))
 		}
 		return Value{Bad: true, File: file, Span: s.Span()}
 	}
@@ -78,7 +78,7 @@ func (r *resolver) unitFix(d *Diagnostic, file string, e *Expr, q units.Quantity
 // vectorField reads a field that takes one vector.
 func (r *resolver) vectorField(file string, s *Stmt, need units.Need) Vec {
 	if len(s.Args) != 1 || s.Args[0].Expr == nil {
-		r.errorf("syntax", file, s.Span(), "%s takes one vector: %s (X, Y, Z) UNIT", s.Keyword(), s.Keyword())
+		r.shapeError(file, s, "%s takes one vector: %s (X, Y, Z) UNIT", s.Keyword(), s.Keyword())
 		return Vec{Bad: true, File: file, Span: s.Span()}
 	}
 	return r.vector(file, s.Args[0].Expr, need)
@@ -89,6 +89,10 @@ func (r *resolver) vectorField(file string, s *Stmt, need units.Need) Vec {
 func (r *resolver) vector(file string, e *Expr, need units.Need) Vec {
 	a := singleAtom(e)
 	if a == nil || len(a.Group) != 3 {
+		if id := notDecimalExpr(e); id != nil {
+			r.errorf("syntax", file, id.Span(), notDecimalMsg, id.Name)
+			return Vec{Bad: true, File: file, Span: e.Span()}
+		}
 		r.errorf("syntax", file, e.Span(), "expected a vector of three components: (X, Y, Z) UNIT")
 		return Vec{Bad: true, File: file, Span: e.Span()}
 	}
@@ -274,6 +278,10 @@ func (r *resolver) atom(file string, a *Atom) (units.Quantity, string, bool) {
 		return u.Quantity(v), a.Unit.Text, true
 	case a.Ref != nil:
 		ps, ok := r.params[a.Ref.Name]
+		if !ok && notDecimalName(a.Ref.Name) {
+			r.errorf("syntax", file, a.Ref.Span(), notDecimalMsg, a.Ref.Name)
+			return units.Quantity{}, "", false
+		}
 		if !ok {
 			cands := make([]string, 0, len(r.params))
 			for n := range r.params {

@@ -429,9 +429,9 @@ func (r *resolver) caseField(c *Case, s *Stmt) {
 		}
 		if len(s.Args) != 2 || nameOf(s.Args[0].Expr) == nil || s.Args[1].Expr == nil {
 			if kw == "heat" {
-				r.errorf("syntax", file, s.Span(), "heat in a case names its evaporator: heat EVAPORATOR 2 kW")
+				r.shapeError(file, s, "heat in a case names its evaporator: heat EVAPORATOR 2 kW")
 			} else {
-				r.errorf("syntax", file, s.Span(), "sink in a case is: sink 35 degC, or sink CONDENSER 35 degC")
+				r.shapeError(file, s, "sink in a case is: sink 35 degC, or sink CONDENSER 35 degC")
 			}
 			c.Unresolved = true
 			return

@@ -121,6 +121,12 @@ func (s *scanner) prevEndsValue() bool {
 
 func (s *scanner) run() {
 	src := s.src
+	if len(src) >= 3 && src[0] == 0xef && src[1] == 0xbb && src[2] == 0xbf {
+		// A byte-order mark at the start is a blank, not a character: the
+		// text is read as UTF-8 regardless.
+		s.pos = 3
+		s.emit(TokSpace, 0)
+	}
 	for s.pos < len(src) {
 		c := src[s.pos]
 		start := s.pos
@@ -197,6 +203,15 @@ func (s *scanner) signStartsNumber() bool {
 
 func (s *scanner) scanNumber(start int) {
 	src := s.src
+	if s.hexNumber() {
+		// "0x10": a Bad token the parser explains (numbers are decimal),
+		// never a zero with the unit "x10".
+		for s.pos < len(src) && (isDigit(src[s.pos]) || isIdentStart(src[s.pos])) {
+			s.pos++
+		}
+		s.emit(TokBad, start)
+		return
+	}
 	for s.pos < len(src) && isDigit(src[s.pos]) {
 		s.pos++
 	}
@@ -222,6 +237,14 @@ func (s *scanner) scanNumber(start int) {
 	s.emit(TokNumber, start)
 	s.maybeUnit()
 }
+
+// hexNumber reports whether a hexadecimal number ("0x1F") starts at s.pos.
+func (s *scanner) hexNumber() bool {
+	p := s.pos
+	return p+2 < len(s.src) && s.src[p] == '0' && s.src[p+1]|0x20 == 'x' && isHexDigit(s.src[p+2])
+}
+
+func isHexDigit(c byte) bool { return isDigit(c) || (c|0x20 >= 'a' && c|0x20 <= 'f') }
 
 // maybeUnit reads the unit word that may follow a number or a closing
 // parenthesis on the same line: optional blanks, then a character that can

@@ -382,6 +382,9 @@ func unexpected(t *lexer.Token, where string) string {
 		if strings.HasPrefix(t.Value, `"`) {
 			return "string is not closed: add '\"' before the end of the line"
 		}
+		if c := strings.TrimLeft(t.Value, "+-"); c != "" && isDigit(c[0]) {
+			return fmt.Sprintf(notDecimalMsg, t.Value)
+		}
 		what = fmt.Sprintf("character %q", t.Value)
 	case TokUnit:
 		what = fmt.Sprintf("unit %q", t.Value)
