@@ -21,8 +21,13 @@ type FS interface {
 type OSFS struct{}
 
 // ReadFile reads a regular file from disk, refusing devices, FIFOs and
-// files over MaxFileSize (see textfile.Read).
-func (OSFS) ReadFile(path string) ([]byte, error) { return textfile.Read(path) }
+// files over MaxFileSize (see textfile.Read), without a leading byte-order
+// mark.
+func (OSFS) ReadFile(path string) ([]byte, error) {
+	b, err := textfile.Read(path)
+	b, _ = textfile.CutBOM(b)
+	return b, err
+}
 
 // MaxFileSize bounds what the loader reads, so a wrong include cannot make
 // the checker swallow a disk image.

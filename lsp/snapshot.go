@@ -215,6 +215,8 @@ func readLimited(path string) ([]byte, fileStat, error) {
 	}
 	fs := fileStat{exists: true, mod: st.ModTime(), size: st.Size()}
 	data, err := textfile.Read(path)
+	// An editor hides the mark; positions count from after it.
+	data, _ = textfile.CutBOM(data)
 	return data, fs, err
 }
 

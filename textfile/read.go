@@ -124,3 +124,17 @@ func regular(path string, st fs.FileInfo) error {
 	}
 	return &Error{Path: path, Reason: "it is " + what + ", not a regular file", kind: ErrNotRegular}
 }
+
+// bom is the UTF-8 encoding of U+FEFF, which some editors write at the
+// start of a file to mark it as UTF-8.
+const bom = "\xef\xbb\xbf"
+
+// CutBOM returns text without a leading byte-order mark, and whether it had
+// one. Text read from disk is cut so that line 1, column 1 is the first
+// character an editor shows.
+func CutBOM(text []byte) ([]byte, bool) {
+	if len(text) >= 3 && string(text[:3]) == bom {
+		return text[3:], true
+	}
+	return text, false
+}

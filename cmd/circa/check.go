@@ -106,7 +106,7 @@ func runCheck(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 				continue
 			}
 			stdinRead = true
-			src, ok := readStdin("check", stdin, stderr)
+			src, ok := readSource("check", "-", stdin, stderr)
 			if !ok {
 				status = exitUsage
 				continue
@@ -120,7 +120,7 @@ func runCheck(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 			status = exitUsage
 		}
 		for _, f := range files {
-			src, ok := readInput("check", f, stderr)
+			src, ok := readSource("check", f, stdin, stderr)
 			if !ok {
 				status = exitUsage
 				continue

@@ -108,8 +108,12 @@ func runFmt(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 
 // fmtOne formats one text and does what the options ask with the result.
 // onDisk is false for standard input, which cannot be written back.
+//
+// The canonical layout has no byte-order mark: a file that starts with one
+// is not formatted, and -w removes the mark.
 func fmtOne(name string, src []byte, onDisk bool, o fmtOptions, stdout, stderr io.Writer) int {
-	f := lang.Parse(name, src)
+	text, _ := textfile.CutBOM(src)
+	f := lang.Parse(name, text)
 	if len(f.Errors) > 0 {
 		for _, d := range f.Errors {
 			pos := f.Mapper.OffsetPosition(d.Loc.Span.Start, lang.UTF8)

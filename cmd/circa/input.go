@@ -26,7 +26,8 @@ func readError(path string, err error) string {
 // readInput reads a file named on the command line through the shared
 // reader (regular files only, size-capped). On failure it prints readError
 // for the command and ok is false; the command's status is then exitUsage,
-// the status of every I/O error.
+// the status of every I/O error. The text keeps a leading byte-order mark;
+// textfile.CutBOM removes it.
 func readInput(cmd, path string, stderr io.Writer) (src []byte, ok bool) {
 	src, err := textfile.Read(path)
 	if err != nil {
@@ -44,6 +45,21 @@ func readStdin(cmd string, stdin io.Reader, stderr io.Writer) ([]byte, bool) {
 		return nil, false
 	}
 	return src, true
+}
+
+// readSource is readInput (or readStdin for "-") for a command that checks
+// the text: without a byte-order mark, so that positions count from the
+// first character an editor shows.
+func readSource(cmd, path string, stdin io.Reader, stderr io.Writer) ([]byte, bool) {
+	var src []byte
+	var ok bool
+	if path == "-" {
+		src, ok = readStdin(cmd, stdin, stderr)
+	} else {
+		src, ok = readInput(cmd, path, stderr)
+	}
+	src, _ = textfile.CutBOM(src)
+	return src, ok
 }
 
 // loopFiles expands a path named on the command line: a directory gives

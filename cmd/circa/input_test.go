@@ -179,3 +179,28 @@ func TestHelpOnStdout(t *testing.T) {
 		t.Errorf("no command: %d %q %q", code, out, errs)
 	}
 }
+
+// A file that starts with a byte-order mark is checked, its positions
+// counted from the first character an editor shows; fmt removes the mark.
+func TestByteOrderMarkFile(t *testing.T) {
+	p := filepath.Join(t.TempDir(), "bom.loop")
+	src := "\ufeffparam a = x\n"
+	if err := os.WriteFile(p, []byte(src), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	_, out, _ := circa(t, "", "check", "--no-estimates", p)
+	if !strings.Contains(out, p+":1:11: error: unknown parameter \"x\"") || strings.Contains(out, "unexpected character") {
+		t.Errorf("check:\n%s", out)
+	}
+	tidy := filepath.Join(t.TempDir(), "tidy.loop")
+	os.WriteFile(tidy, []byte("\ufeffparam a = 2 m\n"), 0o644)
+	if code, out, _ := circa(t, "", "fmt", "-l", tidy); code != exitOK || out != tidy+"\n" {
+		t.Errorf("fmt -l with only a mark to remove: %d %q", code, out)
+	}
+	if code, _, errs := circa(t, "", "fmt", "-w", tidy); code != exitOK {
+		t.Fatalf("fmt -w: %d %s", code, errs)
+	}
+	if b, _ := os.ReadFile(tidy); string(b) != "param a = 2 m\n" {
+		t.Errorf("after fmt -w: %q", b)
+	}
+}

@@ -138,7 +138,7 @@ func oneFile(fl *flag.FlagSet, args []string, stderr io.Writer) (file string, rc
 // any, rc then being the command's status (exitUsage when the file cannot
 // be read, exitFindings when it has errors).
 func loadClean(file, cmd, nothing string, stderr io.Writer) (m *lang.Model, rc int, ok bool) {
-	src, ok := readInput(cmd, file, stderr)
+	src, ok := readSource(cmd, file, nil, stderr)
 	if !ok {
 		return nil, exitUsage, false
 	}
