@@ -44,15 +44,19 @@ const (
 // Rule is one check. Rules with a nil Run are documented here but found
 // elsewhere (the language's own findings, and those produced by Run itself).
 type Rule struct {
-	ID        string // stable kebab-case identifier, used in "# allow:" comments
-	Category  string
-	Severity  lang.Severity // default severity of its findings
-	Scope     Scope
-	Summary   string // one line
-	Rationale string // why it matters
-	Example   string // a .loop fragment that triggers it
-	Fix       string // how to fix it
-	Run       func(*Context)
+	ID       string // stable kebab-case identifier, used in "# allow:" comments
+	Category string
+	Severity lang.Severity // default severity of its findings
+	// Escalation, when not empty, says when a finding is reported as an
+	// error instead of Severity ("the ratio is below 1"), so that "circa
+	// explain" tells what --fail-on will do.
+	Escalation string
+	Scope      Scope
+	Summary    string // one line
+	Rationale  string // why it matters
+	Example    string // a .loop fragment that triggers it
+	Fix        string // how to fix it
+	Run        func(*Context)
 	// Partial rules also run on a loop whose text did not fully resolve
 	// (lang.Loop.Unresolved), looking only at its resolved components
 	// (Context.Components). The others need the whole loop and skip such a
@@ -152,6 +156,15 @@ func (c *Context) Components() []*lang.Component {
 		}
 	}
 	return out
+}
+
+// SeverityText describes the severities a rule's findings can have:
+// "warning", or "warning (error when the ratio is below 1)".
+func (r *Rule) SeverityText() string {
+	if r.Escalation == "" {
+		return r.Severity.String()
+	}
+	return fmt.Sprintf("%s (error when %s)", r.Severity, r.Escalation)
 }
 
 // Rule returns the rule being run.

@@ -299,3 +299,51 @@ func TestInternal(t *testing.T) {
 		t.Error("Run(nil) found something")
 	}
 }
+
+// Every finding has the severity "circa explain" documents for its rule: the
+// rule's severity, or error where the rule says when it escalates.
+func TestSeveritiesAsDocumented(t *testing.T) {
+	check := func(name string, ds []lang.Diagnostic) {
+		for _, d := range ds {
+			r, ok := Lookup(d.Rule)
+			if !ok || d.Severity == r.Severity || (d.Severity == lang.Error && r.Escalation != "") {
+				continue
+			}
+			t.Errorf("%s: %s reported as %s, documented as %s", name, d.Rule, d.Severity, r.SeverityText())
+		}
+	}
+	for _, ac := range loadArchives(t) {
+		opts := ac.opts
+		opts.SkipEstimates, opts.NoTilt = false, true
+		m := lang.LoadSource(ac.root, ac.fsys[ac.root], ac.fsys)
+		check(ac.name, Run(m, opts))
+	}
+	// A charge larger than the loop full of liquid is an error of a rule
+	// documented as a warning that escalates.
+	src := `
+loop l {
+  fluid water
+  charge 5 kg
+  node a at (0, 0, 0) m
+  node b at (0, 0, 0.2) m
+  node c at (0, 0, 1.2) m
+  node d at (0, 0, 1.0) m
+  evaporator e from a to b { length 0.2 m; rise 0.2 m; bore 10 mm; heat 150 W }
+  pipe up from b to c { length 1 m; bore 10 mm }
+  condenser k from c to d { length 0.3 m; bore 10 mm; conductance 40 W/K; sink 25 °C }
+  pipe down from d to a { length 1.1 m; bore 10 mm }
+}
+`
+	m := lang.LoadSource("over.loop", []byte(src), archiveFS{})
+	ds := Run(m, Options{NoTilt: true})
+	found := false
+	for _, d := range ds {
+		if d.Rule == "margin-charge" && d.Severity == lang.Error {
+			found = true
+		}
+	}
+	if !found {
+		t.Errorf("no margin-charge error for 5 kg in about 0.2 L: %v", ds)
+	}
+	check("over.loop", ds)
+}

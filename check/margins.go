@@ -22,6 +22,13 @@ type marginRule struct {
 	fix       string
 }
 
+// escalations say when a margin finding is an error rather than a warning.
+var escalations = map[string]string{
+	flow.RuleCHF:      "the wall flux reaches the critical heat flux (ratio below 1)",
+	flow.RuleFlooding: "the flooding fraction reaches 1",
+	flow.RuleCharge:   "the charge is more than the loop full of liquid, empties the liquid lines, or floods the whole condenser",
+}
+
 var marginRules = []marginRule{
 	{flow.RuleExitQuality, lang.Warning, "the evaporator's exit quality exceeds the limit",
 		"High exit quality brings the evaporator close to dryout, where the wall loses its liquid film and its temperature jumps; the limit (default 0.5) is common practice for electronics loops.",
@@ -97,7 +104,7 @@ var structural = map[string]bool{flow.RuleGeometry: true, flow.RuleNoCondenser: 
 func init() {
 	for _, r := range marginRules {
 		r := r
-		Register(&Rule{ID: r.id, Category: CategoryMargin, Severity: r.sev, Scope: PerLoop,
+		Register(&Rule{ID: r.id, Category: CategoryMargin, Severity: r.sev, Escalation: escalations[r.id], Scope: PerLoop,
 			Summary: r.summary, Rationale: r.rationale, Example: r.example, Fix: r.fix,
 			Run: func(c *Context) { reportEstimate(c, r.id) }})
 	}

@@ -289,7 +289,7 @@ func ruleText(id string) (string, bool) {
 		return "", false
 	}
 	var b strings.Builder
-	fmt.Fprintf(&b, "**%s** (%s, %s): %s\n", r.ID, r.Category, r.Severity, r.Summary)
+	fmt.Fprintf(&b, "**%s** (%s, %s): %s\n", r.ID, r.Category, r.SeverityText(), r.Summary)
 	if r.Rationale != "" {
 		fmt.Fprintf(&b, "\n%s\n", r.Rationale)
 	}

@@ -36,9 +36,13 @@ func runExplain(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 				cat = r.Category
 				fmt.Fprintf(&b, "\n%s:\n", cat)
 			}
-			fmt.Fprintf(&b, "  %-30s %-8s %s\n", r.ID, r.Severity, r.Summary)
+			sev := r.Severity.String()
+			if r.Escalation != "" {
+				sev += "+" // can be raised to error; see the rule
+			}
+			fmt.Fprintf(&b, "  %-30s %-8s %s\n", r.ID, sev, r.Summary)
 		}
-		b.WriteString("\nRun 'circa explain RULE' for a rule's rationale, example and fix.\n")
+		b.WriteString("\nwarning+ is a warning that becomes an error past a second threshold.\nRun 'circa explain RULE' for a rule's rationale, example and fix.\n")
 		_, _ = io.WriteString(stdout, strings.TrimPrefix(b.String(), "\n"))
 		return exitOK
 	}
@@ -56,6 +60,9 @@ func runExplain(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 		return exitUsage
 	}
 	fmt.Fprintf(&b, "%s (%s, %s): %s\n\n", r.ID, r.Severity, r.Category, r.Summary)
+	if r.Escalation != "" {
+		fmt.Fprintf(&b, "Severity:\n%s\n\n", indent(fmt.Sprintf("%s; error when %s.", r.Severity, r.Escalation)))
+	}
 	fmt.Fprintf(&b, "Why:\n%s\n\n", indent(r.Rationale))
 	fmt.Fprintf(&b, "Example:\n%s\n\n", indent(r.Example))
 	fmt.Fprintf(&b, "Fix:\n%s\n", indent(r.Fix))
