@@ -35,7 +35,7 @@ func TestTruncatedInputs(t *testing.T) {
 }
 
 func TestOptions(t *testing.T) {
-	src := []byte("loop l {\n  fluid water\n  node a\n  node spare\n}\n")
+	src := []byte("loop l {\n  fluid water\n  node a\n  node b\n  node spare\n  pipe p from a to b { length 1 m; bore 8 mm }\n}\n")
 	m := lang.LoadSource("o.loop", src, archiveFS{})
 	has := func(ds []lang.Diagnostic, rule string, sev lang.Severity) bool {
 		for _, d := range ds {
@@ -65,7 +65,7 @@ func TestOptions(t *testing.T) {
 // A silencer for a rule that is disabled (or skipped with the estimates) is
 // not reported as unused: the rule did not run.
 func TestAllowForDisabledRule(t *testing.T) {
-	src := []byte("loop l {\n  fluid water\n  node a   # allow: unused-node\n}\n")
+	src := []byte("loop l {\n  fluid water\n  node a   # allow: unused-node\n  node b\n  node c\n  pipe p from b to c { length 1 m; bore 8 mm }\n}\n")
 	m := lang.LoadSource("o.loop", src, archiveFS{})
 	for _, d := range Run(m, Options{SkipEstimates: true, Disabled: map[string]bool{"unused-node": true}}) {
 		if d.Rule == "unused-allow" {

@@ -57,7 +57,7 @@ func init() {
 		Summary:   "a loop without an evaporator",
 		Rationale: "Without a heated section nothing boils and nothing drives the loop.",
 		Example:   "loop l { fluid water; node a; node b; pipe p from a to b { ... }; condenser c from b to a { ... } }",
-		Fix:       "Declare the heated section as an evaporator.",
+		Fix:       "Declare the heated section as an evaporator. A loop with no components at all gets this one finding (not no-condenser too), and its nodes are not reported unused.",
 		Run:       func(c *Context) { needKind(c, lang.Evaporator) }})
 	Register(&Rule{ID: "no-condenser", Category: CategoryTopology, Severity: lang.Error,
 		Summary:   "a loop without a condenser",
@@ -96,6 +96,9 @@ func danglingEnds(c *Context) {
 }
 
 func unusedNodes(c *Context) {
+	if len(c.Loop.Components) == 0 {
+		return // nodes come first; no-evaporator says the loop has no components
+	}
 	// A component whose other end did not resolve still uses this one (its
 	// unknown name is reported by itself).
 	named := make([]bool, len(c.Loop.Nodes))
@@ -274,7 +277,15 @@ func duplicateBranches(c *Context) {
 	}
 }
 
+// needKind reports a loop without a component of kind k. A loop with no
+// components at all gets one finding, from no-evaporator, not two.
 func needKind(c *Context, k lang.Kind) {
+	if len(c.Loop.Components) == 0 {
+		if k == lang.Evaporator {
+			c.Reportf(c.Loop.NameLoc(), "loop %s has no components yet: add an evaporator, a condenser and the tubes between them", c.Loop.Name)
+		}
+		return
+	}
 	for _, comp := range c.Loop.Components {
 		if comp.Kind == k {
 			return

@@ -162,6 +162,10 @@ func (r *resolver) declareLoop(file string, st *Stmt) {
 	if st.Block == nil {
 		return
 	}
+	if st.Block.Close < 0 {
+		// Still being written: the unclosed block is the finding.
+		l.Unresolved = true
+	}
 	nodes := map[string]*Node{}
 	// Nodes first, so components may name nodes declared after them.
 	for _, s := range st.Block.Stmts {

@@ -53,7 +53,7 @@ func (r *resolver) fill() {
 		if l.Charge.Bad || l.DesignPressure.Bad || l.Saturation.Bad {
 			l.Unresolved = true
 		}
-		if !l.Fluid.Set {
+		if !l.Fluid.Set && (st.Block == nil || st.Block.Close >= 0) {
 			r.errorf("missing-field", l.File, l.NameSpan, "loop %s names no working fluid: add \"fluid NAME\"", l.Name)
 		}
 	}
