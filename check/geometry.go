@@ -86,6 +86,12 @@ func init() {
 		Example:   "evaporator e from a to b { rise 0.3 m ... }\npipe up from b to c { rise 1 m ... }\ncondenser k from c to d { rise -0.2 m ... }\npipe down from d to a { rise -1.05 m ... }   # sums to +0.05 m",
 		Fix:       "Find the wrong rise among the listed components; giving nodes coordinates makes the rises follow from them.",
 		Run:       riseMisclosure})
+	Register(&Rule{ID: "run-misclosure", Category: CategoryGeometry, Severity: lang.Error,
+		Summary:   "the horizontal runs around a closed circuit do not sum to zero",
+		Rationale: "Going once around a closed circuit returns to the starting point, so the horizontal parts (x, y) of the components' runs must sum to zero as well (within 5 mm or 1 % of their magnitudes). The check applies to circuits whose every component's horizontal displacement is known (a run, coordinates at both ends, or a bend or fitting of no length); a misclosure means a run is wrong, and with it the attitude at which the loop stops.",
+		Example:   "pipe up from b to c { run (0, 0, 1) m ... }\ncondenser k from c to d { run (-0.3, 0, 0) m ... }\npipe down from d to a { run (0.25, 0, -1) m ... }   # x sums to -0.05 m",
+		Fix:       "Find the wrong run among the listed components; giving nodes coordinates makes the runs follow from them.",
+		Run:       runMisclosure})
 }
 
 // stmtHasLangError reports whether the language already reported an error
@@ -343,6 +349,71 @@ func riseMisclosure(c *Context) {
 		}
 		d := c.Reportf(loc, "rises around the circuit %s do not close: they sum to %s (tolerance %s)",
 			strings.Join(names, " → "), qs(sum, "m"), q(tol, "mm"))
+		d.Related = rel
+	}
+}
+
+// horizontalKnown reports whether a component's horizontal displacement is
+// known: from a run or coordinates, or a bend or fitting of no length.
+func horizontalKnown(comp *lang.Component, lay *geom.Layout) bool {
+	if lay.Horizontal[comp.Index] {
+		return true
+	}
+	L, ok := lengthOf(comp)
+	return ok && L == 0
+}
+
+func runMisclosure(c *Context) {
+	g, l, lay := c.Graph, c.Loop, c.Layout
+	for _, ch := range g.Chords {
+		cyc := g.Cycle(ch)
+		var sum geom.Vec3
+		abs := 0.0
+		known, fromRun := true, false
+		for _, s := range cyc {
+			sc := l.Components[s.Comp]
+			if !horizontalKnown(sc, lay) {
+				known = false
+				break
+			}
+			fromRun = fromRun || lay.Source[s.Comp] == geom.FromRun
+			d := lay.Disp[s.Comp].Scale(float64(s.Sign))
+			d[2] = 0
+			sum = sum.Add(d)
+			abs += d.Norm()
+		}
+		tol := math.Max(closureAbs, closureRel*abs)
+		if !known || !fromRun || sum.Norm() <= tol {
+			continue
+		}
+		at := -1
+		names := make([]string, 0, len(cyc))
+		rel := make([]lang.Related, 0, len(cyc))
+		for _, s := range cyc {
+			sc := l.Components[s.Comp]
+			names = append(names, sc.Name)
+			if lay.Source[s.Comp] == geom.FromRun && (at < 0 || s.Comp < at) {
+				at = s.Comp
+			}
+			d := lay.Disp[s.Comp].Scale(float64(s.Sign))
+			dir := "horizontal run"
+			if s.Sign < 0 {
+				dir = "horizontal run, walked against the flow"
+			}
+			loc := compLoc(sc)
+			if sc.Run.Set && sc.Run.File != "" {
+				loc = sc.Run.Loc()
+			}
+			rel = append(rel, lang.Related{Loc: loc, Message: fmt.Sprintf("%s %s: %s (%s, %s) (from %s)", sc.Kind, sc.Name, dir,
+				qs(d[0], "m"), qs(d[1], "m"), where(sc, lay.Source[s.Comp]))})
+		}
+		first := l.Components[at]
+		loc := compLoc(first)
+		if first.Run.Set && first.Run.File != "" {
+			loc = first.Run.Loc()
+		}
+		d := c.Reportf(loc, "horizontal runs around the circuit %s do not close: they sum to (%s, %s), %s off (tolerance %s)",
+			strings.Join(names, " → "), qs(sum[0], "m"), qs(sum[1], "m"), q(sum.Norm(), "mm"), q(tol, "mm"))
 		d.Related = rel
 	}
 }

@@ -10,13 +10,18 @@ import (
 // along the nominal case's body force. The liquid line is every component
 // reachable from a condenser outlet, and leading to an evaporator inlet,
 // without passing through an evaporator or condenser; the vapour line the
-// same from evaporator outlets to condenser inlets. Each series run of such
-// components (between junctions) is checked on its own; humps spanning a
-// junction are not seen, nor windings inside one component.
+// same from evaporator outlets to condenser inlets. Every path through the
+// line, from where it starts to where it ends, is checked, across the
+// junctions it passes (up to maxTrapPaths paths per line); each high or low
+// point is reported once. Windings inside one component are not seen.
 
 // trapTol is the least rise and fall that make a hump (common practice:
 // smaller humps are within the tolerance of a layout drawing).
 const trapTol = 5e-3
+
+// maxTrapPaths bounds the paths walked through one line; a network with
+// more (many parallel branches in series) is checked on its first paths.
+const maxTrapPaths = 4096
 
 func init() {
 	Register(&Rule{ID: "downcomer-high-point", Category: CategoryTraps, Severity: lang.Warning,
@@ -103,45 +108,58 @@ func traps(c *Context, liquid bool) {
 	}
 	// Height of each node along the body force.
 	height := func(v int) float64 { return lay.Pos[v].Dot(down) }
-	nin, nout := make([]int, len(l.Nodes)), make([]int, len(l.Nodes))
-	next := make([]int, len(l.Nodes))
+	nin := make([]int, len(l.Nodes))
+	outs := make([][]int, len(l.Nodes))
 	for ci, ok := range in {
 		if !ok {
 			continue
 		}
 		comp := l.Components[ci]
-		nout[comp.From.Index]++
+		outs[comp.From.Index] = append(outs[comp.From.Index], ci)
 		nin[comp.To.Index]++
-		next[comp.From.Index] = ci
 	}
-	interior := func(v int) bool { return nin[v] == 1 && nout[v] == 1 }
-	done := make([]bool, len(l.Components))
-	for ci, ok := range in {
-		if !ok || done[ci] || interior(l.Components[ci].From.Index) {
-			continue
+	reported := make([]bool, len(l.Nodes))
+	paths := 0
+	onPath := make([]bool, len(l.Nodes))
+	var comps, nodes []int
+	// walk extends the path at node v depth first; a path ends where the line
+	// ends (no line component leaves v) or would close on itself.
+	var walk func(v int)
+	walk = func(v int) {
+		if paths >= maxTrapPaths {
+			return
 		}
-		// Walk one series run.
-		var comps []int
-		nodes := []int{l.Components[ci].From.Index}
-		for cur := ci; !done[cur]; {
-			done[cur] = true
-			comps = append(comps, cur)
-			v := l.Components[cur].To.Index
-			nodes = append(nodes, v)
-			if !interior(v) {
-				break
+		onPath[v] = true
+		nodes = append(nodes, v)
+		ext := false
+		for _, ci := range outs[v] {
+			if w := l.Components[ci].To.Index; !onPath[w] {
+				ext = true
+				comps = append(comps, ci)
+				walk(w)
+				comps = comps[:len(comps)-1]
 			}
-			cur = next[v]
 		}
-		checkRun(c, liquid, comps, nodes, height)
+		if !ext && len(comps) > 0 {
+			paths++
+			checkRun(c, liquid, comps, nodes, height, reported)
+		}
+		nodes = nodes[:len(nodes)-1]
+		onPath[v] = false
+	}
+	for v := range l.Nodes {
+		if nin[v] == 0 && len(outs[v]) > 0 {
+			walk(v)
+		}
 	}
 }
 
-// checkRun reports the humps (liquid) or dips (vapour) of one series run:
+// checkRun reports the humps (liquid) or dips (vapour) of one path:
 // an interior node that the run climbs to by more than trapTol from its
 // lowest point before and falls from by more than trapTol to its lowest
-// point after (mirrored for dips).
-func checkRun(c *Context, liquid bool, comps, nodes []int, height func(int) float64) {
+// point after (mirrored for dips). Nodes already reported are skipped and
+// newly reported ones marked.
+func checkRun(c *Context, liquid bool, comps, nodes []int, height func(int) float64, reported []bool) {
 	n := len(nodes)
 	if n < 3 {
 		return
@@ -177,9 +195,10 @@ func checkRun(c *Context, liquid bool, comps, nodes []int, height func(int) floa
 			continue // the plateau climbs on: not a top
 		}
 		climb, fall := h[i]-pre[i], h[i]-suf[i]
-		if climb <= trapTol || fall <= trapTol {
+		if climb <= trapTol || fall <= trapTol || reported[nodes[i]] {
 			continue
 		}
+		reported[nodes[i]] = true
 		node := l.Nodes[nodes[i]]
 		before, after := l.Components[comps[i-1]], l.Components[comps[i]]
 		var d *lang.Diagnostic
