@@ -9,7 +9,6 @@ import (
 	"path/filepath"
 	"strconv"
 	"strings"
-	"unicode"
 
 	"circa/check/fluid"
 
@@ -222,7 +221,7 @@ func (r *resolver) knownFluid(l *Loop) {
 	l.Fluid.Bad = true
 	var idents []string // spellings that can be written without quotes
 	for _, sp := range fluid.Spellings() {
-		if isIdent(sp) {
+		if IsIdent(sp) {
 			idents = append(idents, sp)
 		}
 	}
@@ -232,22 +231,6 @@ func (r *resolver) knownFluid(l *Loop) {
 		d.Args = []any{l.Fluid.Name, best, strings.Join(fluid.Names(), ", ")}
 		d.Fixes = append(d.Fixes, Fix{Title: fmt.Sprintf("Change to %s", best), Edits: []Edit{{Loc: l.Fluid.Loc(), NewText: best}}})
 	}
-}
-
-// isIdent reports whether s is a name the language reads as one identifier.
-func isIdent(s string) bool {
-	if n := len(s); n > 3 && s[n-3] == '(' && s[n-1] == ')' && s[n-2] >= 'A' && s[n-2] <= 'Z' {
-		s = s[:n-3] // R1234ze(E)
-	}
-	if s == "" {
-		return false
-	}
-	for i, c := range s {
-		if !(c == '_' || unicode.IsLetter(c) || (i > 0 && unicode.IsDigit(c))) {
-			return false
-		}
-	}
-	return true
 }
 
 func (r *resolver) componentFields(c *Component, st *Stmt) {

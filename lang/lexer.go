@@ -158,7 +158,7 @@ func (s *scanner) run() {
 			s.scanIdent()
 		case c >= 0x80:
 			r, n := utf8.DecodeRune(src[s.pos:])
-			if unicode.IsLetter(r) {
+			if IdentStart(r) {
 				s.scanIdent()
 				break
 			}
@@ -345,22 +345,20 @@ func (s *scanner) scanIdent() {
 	start := s.pos
 	for s.pos < len(src) {
 		c := src[s.pos]
-		if isIdentStart(c) || isDigit(c) {
+		if c < utf8.RuneSelf {
+			if !isIdentStart(c) && !isDigit(c) {
+				break
+			}
 			s.pos++
 			continue
 		}
-		if c >= 0x80 {
-			r, n := utf8.DecodeRune(src[s.pos:])
-			if unicode.IsLetter(r) || unicode.IsDigit(r) {
-				s.pos += n
-				continue
-			}
+		r, n := utf8.DecodeRune(src[s.pos:])
+		if !IdentPart(r) {
+			break
 		}
-		break
+		s.pos += n
 	}
-	// Stereo-isomer suffix written without a space: R1234ze(E), R1233zd(Z).
-	if s.pos+2 < len(src) && src[s.pos] == '(' && src[s.pos+2] == ')' &&
-		src[s.pos+1] >= 'A' && src[s.pos+1] <= 'Z' {
+	if isomerSuffix(s.str[s.pos:]) {
 		s.pos += 3
 	}
 	s.emit(TokIdent, start)
@@ -399,7 +397,6 @@ func isDigit(c byte) bool { return c >= '0' && c <= '9' }
 func isBlank(c byte) bool {
 	return c == ' ' || c == '\t' || c == '\r' || c == '\f' || c == '\v'
 }
-func isIdentStart(c byte) bool { return c == '_' || (c|0x20 >= 'a' && c|0x20 <= 'z') }
 func isPunct(c byte) bool {
 	switch c {
 	case '{', '}', '(', ')', ',', ';', '=', '+', '-', '*', '/', '^':

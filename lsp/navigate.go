@@ -171,8 +171,8 @@ func renameRequest(ctx context.Context, s *Server, sn *snapshot, params []byte) 
 	if err != nil {
 		return nil, err
 	}
-	if !validName(p.NewName) {
-		return nil, jsonrpc2.Errorf(jsonrpc2.InvalidParams, "%q is not a name: start with a letter or _, then letters, digits or _", p.NewName)
+	if !lang.IsIdent(p.NewName) {
+		return nil, jsonrpc2.Errorf(jsonrpc2.InvalidParams, "%q is not a name: a letter (of any script) or _, then letters, digits or _; from, to and at are words of the language", p.NewName)
 	}
 	c, ok := sn.cursorAt(p.TextDocumentPositionParams)
 	if !ok {
@@ -191,17 +191,4 @@ func renameRequest(ctx context.Context, s *Server, sn *snapshot, params []byte) 
 		changes[u] = append(changes[u], protocol.TextEdit{Range: sn.rangeIn(o.File, o.Span, true), NewText: p.NewName})
 	}
 	return &protocol.WorkspaceEdit{Changes: changes}, nil
-}
-
-func validName(s string) bool {
-	if s == "" {
-		return false
-	}
-	for i, r := range s {
-		letter := r == '_' || (r|0x20 >= 'a' && r|0x20 <= 'z')
-		if !letter && (i == 0 || r < '0' || r > '9') {
-			return false
-		}
-	}
-	return true
 }
