@@ -11,6 +11,7 @@ import (
 	"circa/check/flow"
 	"circa/check/geom"
 	"circa/check/output"
+	"circa/lang"
 )
 
 func init() {
@@ -76,7 +77,9 @@ func runEstimate(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 	if !ok {
 		return rc
 	}
+	pr := startProgress(stderr, "estimate", fmt.Sprintf("solving %d operating points and their margins", points(m, opts)))
 	res, err := flow.Estimate(m, opts)
+	pr.Stop()
 	if err != nil {
 		fmt.Fprintf(stderr, "circa estimate: %v\n", err)
 		return exitUsage
@@ -148,4 +151,19 @@ func accelerations(s string) ([][3]float64, error) {
 		out = append(out, a)
 	}
 	return out, nil
+}
+
+// points counts the operating points an estimate solves per loop: every
+// case (or the one asked for) and its sweep points.
+func points(m *lang.Model, opts flow.Options) int {
+	cases := len(m.Cases)
+	if opts.Case != "" || cases == 0 {
+		cases = 1
+	}
+	per := 1
+	if sw := opts.Sweep; sw != nil {
+		n := func(k int) int { return max(k, 1) }
+		per += n(len(sw.Pitch)) * n(len(sw.Roll)) * n(len(sw.Accel))
+	}
+	return cases * per * max(len(m.Loops), 1)
 }

@@ -12,11 +12,15 @@ func init() {
 			fmt.Fprintln(stdout, "Usage: circa version\n\nPrints the version of this circa binary.")
 			return exitOK
 		}
-		v := "(devel)"
-		if bi, ok := debug.ReadBuildInfo(); ok && bi.Main.Version != "" {
-			v = bi.Main.Version
-		}
-		fmt.Fprintln(stdout, "circa", v)
+		fmt.Fprintln(stdout, "circa", buildVersion())
 		return exitOK
 	}})
+}
+
+// buildVersion is the module version the binary was built from.
+func buildVersion() string {
+	if bi, ok := debug.ReadBuildInfo(); ok && bi.Main.Version != "" {
+		return bi.Main.Version
+	}
+	return "(devel)"
 }
