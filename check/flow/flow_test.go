@@ -2,6 +2,7 @@ package flow
 
 import (
 	"encoding/json"
+	"fmt"
 	"math"
 	"strings"
 	"testing"
@@ -466,6 +467,93 @@ func TestMergeGrid(t *testing.T) {
 	for i := range want {
 		if math.Abs(g[i]-want[i]) > 1e-9 {
 			t.Fatalf("merged %v, want %v", g, want)
+		}
+	}
+}
+
+// The tilt limits of the shipped examples, about each one's nominal case.
+// Circulation stops where the gravity head at vanishing flow vanishes or
+// a heated branch stops, which is close to where the condensers' thermal
+// centre stops being above the evaporators' (the tilt-limits rule's
+// angles, checked by hand from the examples' coordinates: rack +80.5° /
+// −99.5° pitch, inverter +71.2°, ferry +103.5° / −76.5°) but not the same:
+// the head counts the vapour and liquid where they are, not at the
+// components' centres. The angles within ±90° agree within 0.02° with
+// those of the earlier search (5° steps to ±90°, then bisection); the
+// others it did not look for.
+func TestTiltLimitsOfExamples(t *testing.T) {
+	for _, tc := range []struct {
+		file, loop string
+		axis       string // "pitch" or "roll"
+		up         bool
+		want       float64 // degrees, this search
+		earlier    float64 // degrees, the earlier search (0: beyond ±90°)
+		centres    float64 // degrees, the thermal centres (0: not checked)
+	}{
+		{"rack-door", "rack", "pitch", true, 80.40, 80.40, 80.5},
+		{"rack-door", "rack", "pitch", false, -99.65, 0, -99.5},
+		{"rack-door", "rack", "roll", true, 90.0, 90.0, 90.0},
+		{"forestry-inverter", "inverter", "pitch", true, 67.58, 67.58, 71.2},
+		{"ferry-cabinet", "cabinet", "pitch", true, 103.0, 0, 103.5},
+		{"ferry-cabinet", "cabinet", "pitch", false, -77.0, -77.01, -76.5},
+		{"ferry-cabinet", "cabinet", "roll", true, 70.16, 70.16, 0},
+		{"ferry-cabinet", "cabinet", "roll", false, -76.30, -76.30, 0},
+	} {
+		m := lang.Load("../../testdata/examples/"+tc.file+".loop", lang.OSFS{})
+		r := estimate(t, m, Options{Case: m.Nominal.Name})
+		c := r.Loops[0].Cases[0]
+		if c.Tilt == nil {
+			t.Fatalf("%s: no tilt limits", tc.file)
+		}
+		lim := map[string]*float64{"pitch true": c.Tilt.PitchUp, "pitch false": c.Tilt.PitchDown,
+			"roll true": c.Tilt.RollLeft, "roll false": c.Tilt.RollRight}[fmt.Sprint(tc.axis, " ", tc.up)]
+		if lim == nil {
+			t.Errorf("%s: no %s limit (up %v)", tc.file, tc.axis, tc.up)
+			continue
+		}
+		got := *lim * 180 / math.Pi
+		if math.Abs(got-tc.want) > 0.05 {
+			t.Errorf("%s: %s limit %.3f°, want %.2f°", tc.file, tc.axis, got, tc.want)
+		}
+		if tc.earlier != 0 && math.Abs(got-tc.earlier) > 0.05 {
+			t.Errorf("%s: %s limit %.3f°, the earlier search found %.2f°", tc.file, tc.axis, got, tc.earlier)
+		}
+		if tc.centres != 0 && math.Abs(got-tc.centres) > 4 {
+			t.Errorf("%s: %s limit %.3f° is far from the thermal centres' %.1f°", tc.file, tc.axis, got, tc.centres)
+		}
+	}
+}
+
+// A tilt limit is exact to its last printed digit: a case tilted 0.1°
+// short of the limit circulates, one 0.1° past it does not (or only
+// backwards through its evaporators). The ferry's roll limits are where a
+// branch stops; the others where the head goes.
+func TestTiltLimitExact(t *testing.T) {
+	for _, file := range []string{"rack-door", "ferry-cabinet"} {
+		m := lang.Load("../../testdata/examples/"+file+".loop", lang.OSFS{})
+		nom := m.Nominal
+		c := only(t, estimate(t, m, Options{Case: nom.Name}))
+		for _, tc := range []struct {
+			v   *lang.Value
+			lim *float64
+		}{{&nom.Pitch, c.Tilt.PitchUp}, {&nom.Pitch, c.Tilt.PitchDown}, {&nom.Roll, c.Tilt.RollLeft}, {&nom.Roll, c.Tilt.RollRight}} {
+			if tc.lim == nil {
+				t.Fatalf("%s: limits %+v", file, c.Tilt)
+			}
+			was := tc.v.SI
+			dir := math.Copysign(1, *tc.lim-was)
+			for _, off := range []float64{-0.1, 0.1} {
+				tc.v.SI = *tc.lim + dir*off*math.Pi/180
+				cc := only(t, estimate(t, m, Options{Case: nom.Name, NoTilt: true}))
+				forward := cc.Circulates
+				for _, f := range cc.Findings {
+					forward = forward && f.Rule != RuleReverse
+				}
+				if forward != (off < 0) {
+					t.Errorf("%s: at %.2f° (%+.1f° from the limit %.2f°) circulates forwards %v", file, tc.v.SI*180/math.Pi, off, *tc.lim*180/math.Pi, forward)
+				}
+			}
+			tc.v.SI = was
 		}
 	}
 }

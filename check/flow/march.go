@@ -47,6 +47,9 @@ type state struct {
 	// tolerance (1e-9 of the largest hydrostatic head) for solves whose
 	// result only feeds a margin.
 	looseTol float64
+	// newtonCap, when set, bounds the network Newton iteration's steps
+	// (60) and each line search's halvings (30) for solves that may fail.
+	newtonCap int
 }
 
 // scaled applies the loss scale to a component's pressure-change parts.

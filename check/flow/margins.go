@@ -514,70 +514,203 @@ const (
 	ChargeFloodWarn = 0.25
 )
 
-// circulatesUnder reports whether the loop circulates under body force b;
-// a network's Newton iteration starts from start, which is updated to the
-// solution found (continuation along an attitude scan).
-func (p *prepared) circulatesUnder(s *state, b geom.Vec3, start *[]float64) bool {
+// Tilt search: from the case's attitude, each way about each axis, the
+// attitude is stepped by tiltStep until the circulation condition fails or
+// half a turn is reached; the bracket is then closed to tiltTol by Brent's
+// method on the condition (or, for a network, on its head at vanishing
+// flow), or by refineTilt where the condition has no value past the limit.
+const (
+	tiltStep  = 10 * math.Pi / 180
+	tiltReach = math.Pi
+	tiltTol   = 0.02 * math.Pi / 180
+	tiltCheck = 0.5 * math.Pi / 180 // how far inside a head-refined limit a solve confirms it
+	// tiltNewtonSteps bounds Newton's iteration at each attitude: from the
+	// last attitude's balance it converges in a few steps where a balance
+	// exists, and near a limit it should fail fast.
+	tiltNewtonSteps = 20
+)
+
+// tiltWalk is what the search carries from one attitude to the next: the
+// cycle flows of the last two attitudes that circulated (a network's
+// Newton iteration starts from their straight-line extrapolation) and the
+// factorised Jacobian, reused while it still converges fast.
+type tiltWalk struct {
+	f       []float64 // at the last circulating attitude d
+	d       float64
+	prev    []float64 // at the one before, dPrev (nil: none)
+	dPrev   float64
+	jac     jacobianCache
+	scratch []float64
+}
+
+// guess is the walk's starting flows for attitude d: the last circulating
+// flows moved along the line through the last two, at most one interval
+// further.
+func (w *tiltWalk) guess(d float64) []float64 {
+	if w.prev == nil || w.d == w.dPrev || d <= w.d {
+		return w.f
+	}
+	r := math.Min((d-w.d)/(w.d-w.dPrev), 1)
+	w.scratch = append(w.scratch[:0], w.f...)
+	for k := range w.scratch {
+		w.scratch[k] += r * (w.f[k] - w.prev[k])
+	}
+	return w.scratch
+}
+
+// moved records the circulating flows f at attitude d.
+func (w *tiltWalk) moved(d float64, f []float64) {
+	if d > w.d {
+		w.prev, w.dPrev = w.f, w.d
+	}
+	w.f, w.d = f, d
+}
+
+// circulation is the circulation condition under body force b as a number
+// whose sign says whether the loop circulates, and the gravity head at
+// vanishing flow it starts from. For a single loop it is the excess head at
+// the bottom of the flow grid when positive, else the largest excess head
+// on the grid: positive exactly when some flow balances. For a network it
+// is the gravity head at vanishing flow with the last circulating flow
+// pattern, times the least flow through a heated branch (along its
+// direction) over the largest branch flow, once Newton's iteration has
+// found the balance; it is negative when the head is gone or a heated
+// branch runs backwards, and NaN when no balance is found. It is continuous
+// in the attitude where the loop stops by losing its head or by a branch
+// reversing. cold, when the walk's start fails, tries Newton's iteration
+// without bounds from the last balance before concluding that none exists.
+func (p *prepared) circulation(s *state, b geom.Vec3, d float64, w *tiltWalk, cold bool) (c, head float64) {
 	t := s.withBody(b)
 	ev := t.newEval()
 	if p.net.ring {
-		return t.circulates(ev)
+		c = t.ringCirculation(ev)
+		return c, c
 	}
-	f, _, err := t.solveNetwork(ev, *start)
+	h := t.headAtVanishingFlow(w.f, t.largestBranchFlow(w.f, ev))
+	if !(h > 0) {
+		return math.Min(h, 0) - 1e-300, h
+	}
+	f, err := t.solveWarm(ev, w.guess(d), &w.jac, false)
+	if err != nil && cold {
+		// Newton's iteration without bounds from the last balance.
+		full := *t
+		full.newtonCap = 0
+		w.jac.valid = false
+		f, _, err = full.newton(ev, append([]float64(nil), w.f...), &w.jac)
+	}
 	if err != nil {
-		return false
+		return math.NaN(), h
 	}
 	t.evaluate(f, ev)
+	least, most := math.Inf(1), 0.0
 	for bi, br := range t.net.branches {
+		most = math.Max(most, math.Abs(ev.mb[bi]))
 		for _, lg := range br.legs {
-			if t.heat[lg.ci] > 0 && !(ev.mb[bi]*lg.sign > 0) {
-				return false
+			if t.heat[lg.ci] > 0 {
+				least = math.Min(least, ev.mb[bi]*lg.sign)
 			}
 		}
 	}
-	*start = f
-	return true
+	if !(most > 0) || math.IsInf(least, 1) {
+		return -1e-3 * h, h
+	}
+	if least > 0 {
+		w.moved(d, f)
+	}
+	return h * least / most, h
+}
+
+// headAt is a network's gravity head at vanishing flow under body force b
+// with the walk's flow pattern: one evaluation, no solve.
+func (p *prepared) headAt(s *state, b geom.Vec3, w *tiltWalk) float64 {
+	t := s.withBody(b)
+	return t.headAtVanishingFlow(w.f, t.largestBranchFlow(w.f, t.newEval()))
+}
+
+// largestBranchFlow is the largest branch flow of cycle flows f.
+func (s *state) largestBranchFlow(f []float64, ev *eval) float64 {
+	s.branchFlows(f, ev)
+	var m float64
+	for _, v := range ev.mb {
+		m = math.Max(m, math.Abs(v))
+	}
+	return m
 }
 
 // tilt finds the pitch and roll angles, from the case's attitude, at which
-// circulation stops: a 5° scan to ±90° then bisection.
+// circulation stops, each way about each axis within half a turn. A
+// network that stops because its head at vanishing flow is gone has its
+// limit refined on that head alone (one evaluation per attitude, where
+// Newton's iteration would struggle with vanishing flows), checked by a
+// solve just inside it; otherwise the limit is refined on the full
+// condition.
 func (p *prepared) tilt(s *state, pt point, cr *CaseResult, start []float64) {
-	tl := &TiltLimits{Margin: math.Pi / 2}
+	tl := &TiltLimits{Margin: tiltReach}
+	// The solves only tell whether a balance exists and start the next
+	// one: a loose tolerance and a short iteration do.
+	ts := *s
+	if ts.looseTol == 0 {
+		ts.looseTol = 1e-6
+	}
+	ts.newtonCap = tiltNewtonSteps
+	s = &ts
 	search := func(axis int, sign float64) *float64 {
-		warm := start
-		at := func(d float64) bool {
+		w := &tiltWalk{f: append([]float64(nil), start...)}
+		body := func(d float64) geom.Vec3 {
 			pitch, roll := pt.pitch, pt.roll
 			if axis == 0 {
 				pitch += sign * d
 			} else {
 				roll += sign * d
 			}
-			return p.circulatesUnder(s, geom.BodyForceAt(pt.yaw, pitch, roll, pt.accel), &warm)
+			return geom.BodyForceAt(pt.yaw, pitch, roll, pt.accel)
 		}
-		step := 5 * math.Pi / 180
-		lo := 0.0
-		for d := step; d <= math.Pi/2+1e-9; d += step {
-			if !at(d) {
-				hi := d
-				for i := 0; i < 14; i++ {
-					mid := 0.5 * (lo + hi)
-					if at(mid) {
-						lo = mid
-					} else {
-						hi = mid
+		var good [][2]float64 // the attitudes that circulate, ascending, and their condition
+		eval := func(d float64, cold bool) (c, h float64) {
+			c, h = p.circulation(s, body(d), d, w, cold)
+			if c > 0 {
+				good = append(good, [2]float64{d, c})
+			}
+			return c, h
+		}
+		lo, clo, hlo := 0.0, math.Inf(1), 0.0
+		for i := 1; float64(i-1)*tiltStep < tiltReach-1e-9; i++ {
+			d := math.Min(float64(i)*tiltStep, tiltReach)
+			// A failure the trend of the condition does not foretell may be
+			// the warm start's: Newton's iteration is tried again without
+			// bounds. One it foretells is the limit.
+			c, h := eval(d, !foretold(good, d))
+			if c > 0 {
+				lo, clo, hlo = d, c, h
+				continue
+			}
+			if math.IsInf(clo, 1) {
+				// The first step already fails: bracket from the case's
+				// own attitude.
+				clo, hlo = eval(0, true)
+			}
+			var crit float64
+			switch {
+			case !(clo > 0):
+				crit = lo
+			case p.net.ring:
+				crit = brent(func(d float64) float64 { c, _ := eval(d, false); return c }, lo, d, clo, c, tiltTol)
+			case !(h > 0) && hlo > 0:
+				crit = brent(func(d float64) float64 { return p.headAt(s, body(d), w) }, lo, d, hlo, h, tiltTol)
+				if inside := crit - tiltCheck; inside > lo {
+					if c, _ := eval(inside, false); !(c > 0) {
+						crit = refineTilt(eval, &good, lo, inside)
 					}
 				}
-				crit := 0.5 * (lo + hi)
-				tl.Margin = math.Min(tl.Margin, crit)
-				var a float64
-				if axis == 0 {
-					a = pt.pitch + sign*crit
-				} else {
-					a = pt.roll + sign*crit
-				}
-				return &a
+			default:
+				crit = refineTilt(eval, &good, lo, d)
 			}
-			lo = d
+			tl.Margin = math.Min(tl.Margin, crit)
+			a := pt.roll + sign*crit
+			if axis == 0 {
+				a = pt.pitch + sign*crit
+			}
+			return &a
 		}
 		return nil
 	}
@@ -598,6 +731,56 @@ func (p *prepared) tilt(s *state, pt point, cr *CaseResult, start []float64) {
 	cr.add(m)
 }
 
+// refineTilt closes the bracket [lo, hi] of a network's tilt limit (the
+// loop circulates at lo, not at hi) where the condition has no value past
+// the limit (no balance is found there): each step aims just past the zero
+// of the straight line through the two nearest circulating attitudes, so a
+// condition that falls smoothly to its limit is closed in a few solves,
+// and bisects when that aim leaves the bracket.
+func refineTilt(eval func(float64, bool) (float64, float64), good *[][2]float64, lo, hi float64) float64 {
+	for it := 0; it < 60 && hi-lo > tiltTol; it++ {
+		x := 0.5 * (lo + hi)
+		if n := len(*good); n >= 2 {
+			p0, p1 := (*good)[n-2], (*good)[n-1]
+			if p1[0] == lo && p0[1] > p1[1] && p0[0] < p1[0] {
+				// Short of the line's zero while it is far, where the
+				// loop still circulates and the solve is quick; just past
+				// it once it is close, to close the bracket.
+				xr := p1[0] + p1[1]*(p1[0]-p0[0])/(p0[1]-p1[1])
+				if xr-lo > 4*tiltTol {
+					xr = lo + 0.8*(xr-lo)
+				} else {
+					xr += 0.5 * tiltTol
+				}
+				if xr > lo && xr < hi {
+					x = xr
+				}
+			}
+		}
+		if c, _ := eval(x, false); c > 0 {
+			lo = x
+		} else {
+			hi = x
+		}
+	}
+	return 0.5 * (lo + hi)
+}
+
+// foretold reports whether the straight line through the last two
+// circulating attitudes of a walk reaches zero before d (or within one more
+// step): a failure at d is then expected.
+func foretold(good [][2]float64, d float64) bool {
+	n := len(good)
+	if n < 2 {
+		return false
+	}
+	p0, p1 := good[n-2], good[n-1]
+	if !(p0[1] > p1[1]) || !(p1[0] > p0[0]) {
+		return false
+	}
+	return p1[0]+p1[1]*(p1[0]-p0[0])/(p0[1]-p1[1]) < d+tiltStep
+}
+
 func (tl *TiltLimits) describe() string {
 	var parts []string
 	add := func(name string, v *float64) {
@@ -610,7 +793,7 @@ func (tl *TiltLimits) describe() string {
 	add("roll", tl.RollLeft)
 	add("roll", tl.RollRight)
 	if len(parts) == 0 {
-		return "none within ±90°"
+		return "none within half a turn"
 	}
 	out := parts[0]
 	for _, s := range parts[1:] {

@@ -200,13 +200,13 @@ type ChargeRange struct {
 }
 
 // TiltLimits are the attitudes, from the case's own, at which circulation
-// stops. A nil limit means none within ±90°.
+// stops. A nil limit means none within half a turn.
 type TiltLimits struct {
 	PitchUp   *float64 `json:"pitch_up,omitempty"`
 	PitchDown *float64 `json:"pitch_down,omitempty"`
 	RollLeft  *float64 `json:"roll_left,omitempty"`
 	RollRight *float64 `json:"roll_right,omitempty"`
-	Margin    float64  `json:"margin"` // smallest angle from the case to a limit, rad (π/2 when none)
+	Margin    float64  `json:"margin"` // smallest angle from the case to a limit, rad (π when none)
 }
 
 // Finding is one margin or estimate finding, with the case, the component,

@@ -361,18 +361,25 @@ func findRoots(E func(float64) float64, g []float64) ([]root, float64) {
 	return roots, e0
 }
 
-// circulates reports whether the single loop's excess head is positive
-// anywhere on the grid (a root exists, since it is negative at high flow).
-func (s *state) circulates(ev *eval) bool {
+// ringCirculation is the single loop's circulation condition: the excess
+// head at the bottom of the grid when positive, else the largest excess
+// head on the grid (positive when a balance exists higher up).
+func (s *state) ringCirculation(ev *eval) float64 {
 	f := []float64{0}
+	best := math.Inf(-1)
 	for _, m := range grid {
 		f[0] = m
 		s.evaluate(f, ev)
-		if ev.e[0] > 0 {
-			return true
+		if e := ev.e[0]; e > 0 {
+			return e
+		} else if e > best || math.IsInf(best, -1) {
+			best = e
 		}
 	}
-	return false
+	if math.IsNaN(best) || math.IsInf(best, -1) {
+		return -1
+	}
+	return best
 }
 
 var errNoConverge = errors.New("network solution did not converge")
@@ -381,17 +388,17 @@ var errNoConverge = errors.New("network solution did not converge")
 // a backtracking line search, started from one cycle at a time.
 func (s *state) solveNetwork(ev *eval, start []float64) ([]float64, int, error) {
 	if start != nil {
-		if f, it, err := s.newton(ev, append([]float64(nil), start...)); err == nil {
+		if f, it, err := s.newton(ev, append([]float64(nil), start...), nil); err == nil {
 			return f, it, nil
 		}
 	}
 	f := s.networkStart(ev)
-	f2, it, err := s.newton(ev, append([]float64(nil), f...))
+	f2, it, err := s.newton(ev, append([]float64(nil), f...), nil)
 	if err == nil || len(s.net.cycles) > 12 {
 		return f2, it, err
 	}
 	s.cycleSweeps(ev, f)
-	return s.newton(ev, f)
+	return s.newton(ev, f, nil)
 }
 
 // networkStart is the single-loop estimate of a network: the flow is split
@@ -622,8 +629,41 @@ func (s *state) jacobian(ev *eval, J *mat.Dense, w *sensitivity) {
 	}
 }
 
-// newton drives the cycle momentum balances to zero from f.
-func (s *state) newton(ev *eval, f []float64) ([]float64, int, error) {
+// jacobianCache is a factorised Jacobian of the cycle balances kept for
+// reuse: while a step with it still cuts the residual fast (the chord
+// method), Newton's iteration skips forming and factorising a new one. The
+// tilt search carries it from one attitude to the next, where the Jacobian
+// barely changes.
+type jacobianCache struct {
+	lu    mat.LU
+	valid bool
+}
+
+// staleCut is how much a step with a reused Jacobian must reduce the
+// squared residual (to a quarter: the residual halves) to be kept.
+const staleCut = 0.25
+
+// solveWarm solves the network from start, reusing jc, and failing that
+// (with cold) from the single-loop start. Unlike solveNetwork it does not
+// try the slow cycle sweeps: the tilt search calls it many times, some near
+// attitudes where no balance exists.
+func (s *state) solveWarm(ev *eval, start []float64, jc *jacobianCache, cold bool) ([]float64, error) {
+	if start != nil {
+		f, _, err := s.newton(ev, append([]float64(nil), start...), jc)
+		if err == nil || !cold {
+			return f, err
+		}
+	}
+	jc.valid = false
+	f, _, err := s.newton(ev, s.networkStart(ev), jc)
+	return f, err
+}
+
+// newton drives the cycle momentum balances to zero from f, with a
+// backtracking line search. jc, when not nil, holds a Jacobian to start
+// with, is reused while it cuts the residual fast, and receives the last
+// one factorised; without it every step forms a new Jacobian.
+func (s *state) newton(ev *eval, f []float64, jc *jacobianCache) ([]float64, int, error) {
 	n := s.net
 	nc := len(n.cycles)
 	scale := 1.0
@@ -635,6 +675,10 @@ func (s *state) newton(ev *eval, f []float64) ([]float64, int, error) {
 		rel = s.looseTol
 	}
 	tol := rel * scale
+	reuse := jc != nil
+	if !reuse {
+		jc = &jacobianCache{}
+	}
 	J := mat.NewDense(nc, nc, nil)
 	rhs := mat.NewVecDense(nc, nil)
 	var dx mat.VecDense
@@ -646,9 +690,17 @@ func (s *state) newton(ev *eval, f []float64) ([]float64, int, error) {
 		}
 		return s
 	}
-	sens := newSensitivity(len(n.branches), n.nj, nc)
-	for it := 0; it < 60; it++ {
-		s.evaluate(f, ev)
+	var sens *sensitivity
+	evaluated := false
+	steps, halvings := 60, 30
+	if s.newtonCap > 0 {
+		steps, halvings = s.newtonCap, min(s.newtonCap, 4)
+	}
+	for it := 0; it < steps; it++ {
+		if !evaluated {
+			s.evaluate(f, ev)
+		}
+		evaluated = false
 		r0 := norm(ev.e)
 		worst := 0.0
 		for _, v := range ev.e {
@@ -657,36 +709,64 @@ func (s *state) newton(ev *eval, f []float64) ([]float64, int, error) {
 		if worst <= tol {
 			return f, it, nil
 		}
-		s.jacobian(ev, J, sens)
+		fresh := !jc.valid
+		if fresh {
+			if sens == nil {
+				sens = newSensitivity(len(n.branches), n.nj, nc)
+			}
+			s.jacobian(ev, J, sens)
+			jc.lu.Factorize(J)
+			jc.valid = true
+		}
 		for k := 0; k < nc; k++ {
 			rhs.SetVec(k, ev.e[k])
 		}
-		if err := dx.SolveVec(J, rhs); err != nil {
-			return f, it, errNoConverge
+		if err := jc.lu.SolveVecTo(&dx, false, rhs); err != nil {
+			jc.valid = false
+			if fresh {
+				return f, it, errNoConverge
+			}
+			s.evaluate(f, ev) // the residual at f again, for a fresh Jacobian
+			evaluated = true
+			continue
 		}
 		lambda := 1.0
 		ok := false
-		for ls := 0; ls < 30; ls++ {
+		for ls := 0; ls < halvings; ls++ {
 			for k := range f {
 				trial[k] = f[k] + lambda*dx.AtVec(k)
 			}
 			s.evaluate(trial, ev)
-			if norm(ev.e) < r0*(1-1e-4*lambda) || norm(ev.e) == 0 {
+			r := norm(ev.e)
+			if !fresh {
+				// A reused Jacobian must earn its keep with the full step.
+				ok = r < staleCut*r0
+				break
+			}
+			if r < r0*(1-1e-4*lambda) || r == 0 {
 				ok = true
 				break
 			}
 			lambda /= 2
 		}
 		if !ok {
-			return f, it, errNoConverge
+			jc.valid = false
+			if fresh {
+				return f, it, errNoConverge
+			}
+			s.evaluate(f, ev)
+			evaluated = true
+			continue
 		}
 		copy(f, trial)
+		evaluated = true // ev holds the residual at the new f
+		jc.valid = jc.valid && reuse
 	}
 	s.evaluate(f, ev)
 	for _, v := range ev.e {
 		if math.Abs(v) > tol {
-			return f, 60, errNoConverge
+			return f, steps, errNoConverge
 		}
 	}
-	return f, 60, nil
+	return f, steps, nil
 }

@@ -402,7 +402,7 @@ func TiltSummary(t *flow.TiltLimits) string {
 	}
 	s := "circulation stops at "
 	if len(parts) == 0 {
-		s += "no attitude within ±90°"
+		s += "no attitude within half a turn"
 	} else {
 		s += strings.Join(parts, ", ")
 	}

@@ -24,7 +24,7 @@ type Tilt struct {
 	PitchSweep  []TiltPoint
 	RollSweep   []TiltPoint
 	// Critical attitudes found by the estimator's search from the case (nil:
-	// none within ±90° of it).
+	// none within half a turn of it).
 	PitchUp, PitchDown, RollLeft, RollRight *float64
 }
 
