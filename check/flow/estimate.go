@@ -154,8 +154,12 @@ func estimateLoop(m *lang.Model, l *lang.Loop, methods MethodsUsed, points []poi
 	}
 	lr.Cases = make([]CaseResult, len(points))
 	if p.net != nil && p.fl != nil {
-		runParallel(len(points), opts.Workers, func(i int) {
-			lr.Cases[i] = p.run(points[i], !opts.NoTilt && !points[i].grid)
+		// Each worker takes a run of consecutive points, so a network's
+		// Newton iteration starts from the previous point's balance.
+		runChunks(len(points), opts.Workers, func(i int, start []float64) []float64 {
+			var f []float64
+			lr.Cases[i], f = p.run(points[i], !opts.NoTilt && !points[i].grid, start)
+			return f
 		})
 	} else {
 		for i, pt := range points {
@@ -178,32 +182,30 @@ func caseName(c *lang.Case) string {
 	return c.Name
 }
 
-// runParallel calls f(0..n−1) on up to workers goroutines.
-func runParallel(n, workers int, f func(int)) {
+// runChunks splits 0..n−1 into up to workers runs of consecutive indices
+// and calls f on each run in order, on its own goroutine, passing what f
+// returned for the previous index of the run (nil for the first).
+func runChunks(n, workers int, f func(i int, prev []float64) []float64) {
 	if workers <= 0 {
 		workers = runtime.GOMAXPROCS(0)
 	}
-	if workers > n {
-		workers = n
-	}
-	if workers <= 1 {
+	workers = max(min(workers, n), 1)
+	if workers == 1 {
+		var prev []float64
 		for i := 0; i < n; i++ {
-			f(i)
+			prev = f(i, prev)
 		}
 		return
 	}
 	var wg sync.WaitGroup
-	next := make(chan int, n)
-	for i := 0; i < n; i++ {
-		next <- i
-	}
-	close(next)
 	for w := 0; w < workers; w++ {
+		lo, hi := w*n/workers, (w+1)*n/workers
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
-			for i := range next {
-				f(i)
+			var prev []float64
+			for i := lo; i < hi; i++ {
+				prev = f(i, prev)
 			}
 		}()
 	}

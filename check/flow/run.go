@@ -7,15 +7,17 @@ import (
 	"circa/lang"
 )
 
-// run estimates one case.
-func (p *prepared) run(pt point, tilt bool) CaseResult {
+// run estimates one case; a network's Newton iteration starts from start
+// when given (the previous case's cycle flows). It returns the case's cycle
+// flows when it circulates.
+func (p *prepared) run(pt point, tilt bool, start []float64) (CaseResult, []float64) {
 	cr := CaseResult{Case: caseName(pt.c), Grid: pt.grid, Yaw: pt.yaw, Pitch: pt.pitch, Roll: pt.roll,
 		Accel: [3]float64(pt.accel), pointCase: pt.c}
 	s, fs := p.newState(pt, &cr)
 	cr.Findings = append(cr.Findings, fs...)
 	if s == nil {
 		cr.Reason = "no operating state (see the findings)"
-		return cr
+		return cr, nil
 	}
 	cr.BodyForce = [3]float64(s.b)
 	ev := s.newEval()
@@ -41,7 +43,7 @@ func (p *prepared) run(pt point, tilt bool) CaseResult {
 	} else {
 		var it int
 		var err error
-		f, it, err = s.solveNetwork(ev, nil)
+		f, it, err = s.solveNetwork(ev, start)
 		cr.Iterations = it
 		if err != nil {
 			cr.Findings = append(cr.Findings, p.finding(RuleConverge, "error", cr.Case, "", float64(it), 60, "", "",
@@ -61,7 +63,7 @@ func (p *prepared) run(pt point, tilt bool) CaseResult {
 		}
 		p.pressureMargin(s, &cr)
 		p.heatPipeFlooding(s, &cr)
-		return cr
+		return cr, nil
 	}
 	s.evaluate(f, ev)
 	p.record(s, ev, f, &cr)
@@ -79,7 +81,10 @@ func (p *prepared) run(pt point, tilt bool) CaseResult {
 	if tilt {
 		p.tilt(s, pt, &cr, f)
 	}
-	return cr
+	if !cr.Circulates {
+		f = nil
+	}
+	return cr, f
 }
 
 // finding builds a finding for this loop.
