@@ -75,6 +75,12 @@ var marginRules = []marginRule{
 	{flow.RuleFluidRange, lang.Error, "the case's saturation temperature is outside the fluid's range or past its critical point",
 		"There is no two-phase state to estimate with above the critical temperature or outside the tabulated range.",
 		"saturation 200 °C", "Choose a fluid with a higher critical temperature or lower the saturation temperature."},
+	{flow.RuleNearCritical, lang.Warning, "the loop runs close to the fluid's critical point",
+		"Towards the critical temperature Tc the latent heat and the surface tension fall to zero (latent heat about as (1 − T/Tc)^0.38, Watson 1943, Ind. Eng. Chem. 35, 398; surface tension about as (1 − T/Tc)^(11/9), Guggenheim 1945, J. Chem. Phys. 13, 253; both from memory), and the liquid and vapour densities approach each other. The pool-boiling critical heat flux (Zuber) goes with latent heat, vapour density and surface tension, so the evaporator's capacity, the driving head and the estimate's correlations all degrade together. Reported from T/Tc = 0.95 (circa's choice, common practice), with the margin to Tc in kelvin.",
+		"fluid R134a   # Tc 101.1 °C\ncase hot { saturation 90 °C }", "Lower the saturation temperature (more condenser conductance, a colder sink) or choose a fluid with a higher critical temperature."},
+	{flow.RuleGeyser, lang.Warning, "a low-pressure fluid under a tall liquid column: geyser boiling at the evaporator",
+		"At a low saturation pressure (water below about 0.2 bar) the weight of the liquid column above the evaporator inlet adds a large share to the local pressure, so the liquid there must be heated well above the loop's saturation temperature before it boils. It then flashes in bursts that throw liquid up the riser and let it fall back: geyser boiling, with pressure and temperature swings (Casarosa, Latrofa and Shelginski 1983, Int. J. Heat Mass Transfer 26, 933; Aritomi et al. 1992, J. Nucl. Sci. Technol. 29, 631; both from memory). The rule takes the column from the highest condenser outlet to the evaporator inlet along the body force, and the local saturation temperature at p_sat + ρ_l·g·H; it warns when that is more than 5 K above the loop's saturation temperature (circa's choice, common practice).",
+		"fluid water; saturation 35 °C; condenser outlet 1.5 m above the evaporator inlet", "Shorten the liquid column (condenser closer above the evaporator), run at a higher saturation pressure, or choose a fluid with a higher vapour pressure at the operating temperature."},
 	{flow.RuleFluidSafety, lang.Info, "the working fluid is flammable or toxic (safety class other than A1)",
 		"Fluids of ASHRAE 34 / ISO 817 classes A2L, A2, A3, B1, B2L, ... carry charge limits, ventilation and detection requirements under local codes.",
 		"fluid R1234yf", "Follow the local codes for the fluid's safety class."},
@@ -236,7 +242,7 @@ func diagnostic(c *Context, f flow.Finding, others []string) lang.Diagnostic {
 	d := lang.Diagnostic{Rule: f.Rule, Severity: sev, Format: "%s", Args: []any{msg}}
 	l := c.Loop
 	switch {
-	case f.Rule == flow.RuleFluidSafety || f.Rule == flow.RuleFluidRange || f.Rule == flow.RuleFluidUnknown:
+	case f.Rule == flow.RuleFluidSafety || f.Rule == flow.RuleFluidRange || f.Rule == flow.RuleFluidUnknown || f.Rule == flow.RuleNearCritical:
 		d.Loc = l.Fluid.Loc()
 		if l.Fluid.File == "" {
 			d.Loc = l.NameLoc()

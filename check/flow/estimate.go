@@ -58,6 +58,7 @@ type prepared struct {
 	chfK     float64
 	chfFlow  bool // flow-boiling CHF (Katto–Ohno) instead of the pool-boiling form
 	limits   lang.Limits
+	lay      *geom.Layout // node positions, for liquid-column heights
 	findings []Finding
 }
 
@@ -331,7 +332,8 @@ func prepare(m *lang.Model, l *lang.Loop, mu MethodsUsed) *prepared {
 				Message: fmt.Sprintf("%s is safety class %s: flammability and toxicity rules, charge limits and local codes apply", p.info.Name, s)})
 		}
 	}
-	net, fs := buildNetwork(l, geom.Place(l))
+	p.lay = geom.Place(l)
+	net, fs := buildNetwork(l, p.lay)
 	for i := range fs {
 		fs[i].Loop = l.Name
 	}

@@ -40,6 +40,7 @@ type network struct {
 	comps    []comp
 	byIndex  []int // Component.Index → comps index, −1 for reservoirs and unused
 	res      []*lang.Component
+	resVap   []bool // by res index: hung from a vapour-line node, so it holds no liquid
 	branches []branch
 	nj       int         // junctions
 	cycles   [][]float64 // cycle k: coefficient of cycle flow k in each branch flow
@@ -57,10 +58,12 @@ func buildNetwork(l *lang.Loop, lay *geom.Layout) (*network, []Finding) {
 	}
 	n := &network{loop: l, byIndex: make([]int, len(l.Components))}
 	deg := make([]int, len(l.Nodes))
+	vap := l.VapourNodes()
 	for i, c := range l.Components {
 		n.byIndex[i] = -1
 		if c.Kind == lang.Reservoir {
 			n.res = append(n.res, c)
+			n.resVap = append(n.resVap, c.From != nil && c.From.Index >= 0 && c.From.Index < len(vap) && vap[c.From.Index])
 			continue
 		}
 		if c.From == nil || c.To == nil || c.From.Index < 0 || c.To.Index < 0 ||

@@ -66,3 +66,42 @@ func TestLossReserve(t *testing.T) {
 		}
 	}
 }
+
+// A reservoir hung from the vapour line holds vapour: it adds its volume at
+// vapour density to the inventory and nothing to the liquid the reservoirs
+// can store; the same reservoir on the downcomer stores 0.1 L of liquid.
+func TestReservoirOnVapourLine(t *testing.T) {
+	src := `
+loop l {
+  fluid R134a
+  saturation 30 °C
+  node a at (0, 0, 0) m
+  node b at (0, 0, 0.2) m
+  node t at (0, 0, 1.3) m
+  node c at (0, 0, 1.2) m
+  node d at (0, 0, 1.0) m
+  evaporator e from a to b { length 0.2 m; rise 0.2 m; bore 10 mm; heat 150 W }
+  pipe up from b to t { length 1.1 m; bore 10 mm }
+  pipe over from t to c { length 0.2 m; bore 10 mm }
+  condenser k from c to d { length 0.3 m; bore 10 mm }
+  pipe down from d to a { length 1.1 m; bore 10 mm }
+  reservoir tank at NODE { volume 0.1 L }
+}
+case run { heat e 150 W }
+`
+	vap := only(t, estimate(t, load(t, strings.Replace(src, "NODE", "t", 1)), Options{NoTilt: true}))
+	liq := only(t, estimate(t, load(t, strings.Replace(src, "NODE", "d", 1)), Options{NoTilt: true}))
+	if vap.Totals.Reservoirs != 0 {
+		t.Errorf("reservoir on the vapour line stores %g kg of liquid, want 0", vap.Totals.Reservoirs)
+	}
+	// R134a saturated liquid at 30 °C: 1187.5 kg/m³ (Tillner-Roth and Baehr
+	// 1994, from memory); 0.1 L holds about 0.119 kg.
+	if got := liq.Totals.Reservoirs; math.Abs(got-0.11875) > 0.002 {
+		t.Errorf("reservoir on the downcomer stores %g kg, want about 0.119 kg", got)
+	}
+	// The vapour in the tank (about 37.5 kg/m³ · 0.1 L = 3.75 g) is part of
+	// the inventory.
+	if d := vap.Totals.Inventory - liq.Totals.Inventory; d < 0.002 || d > 0.006 {
+		t.Errorf("vapour-line reservoir adds %g kg to the inventory, want about 0.004 kg", d)
+	}
+}

@@ -254,6 +254,8 @@ const (
 	RuleNoCondenser    = "estimate-no-condenser"
 	RuleSuperheatCells = "margin-superheat"
 	RuleNonFinite      = "estimate-non-finite"
+	RuleNearCritical   = "near-critical"
+	RuleGeyser         = "geyser-risk"
 )
 
 // Cautions printed with every estimate.

@@ -20,6 +20,7 @@ func (p *prepared) run(pt point, tilt bool, start []float64) (CaseResult, []floa
 		return cr, nil
 	}
 	cr.BodyForce = [3]float64(s.b)
+	p.phaseCautions(s, &cr)
 	ev := s.newEval()
 	var f []float64
 	ok := false
@@ -237,8 +238,14 @@ func (p *prepared) record(s *state, ev *eval, f []float64, cr *CaseResult) {
 		t.Budget.Total += w * c.Budget.Total
 		t.Inventory += c.Mass
 	}
-	for _, r := range n.res {
-		if r.Volume.SI > 0 {
+	for i, r := range n.res {
+		switch {
+		case !(r.Volume.SI > 0):
+		case n.resVap[i]:
+			// On the vapour line it fills with vapour: part of the
+			// inventory, no store of liquid.
+			t.Inventory += r.Volume.SI * s.p.RhoV
+		default:
 			t.Reservoirs += r.Volume.SI * s.p.RhoL
 		}
 	}

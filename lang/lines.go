@@ -1,0 +1,64 @@
+package lang
+
+// VapourNodes marks, by node index, the nodes of the vapour line: the
+// evaporators' outlets, the condensers' inlets, and every node on a path
+// from the one to the other that passes no evaporator or condenser (the
+// riser). In operation they hold vapour or a two-phase mix, not liquid.
+func (l *Loop) VapourNodes() []bool {
+	n := len(l.Nodes)
+	fwd, bwd := make([]bool, n), make([]bool, n)
+	valid := func(nd *Node) bool { return nd != nil && nd.Index >= 0 && nd.Index < n && l.Nodes[nd.Index] == nd }
+	var qf, qb []int
+	for _, c := range l.Components {
+		if !valid(c.From) || !valid(c.To) {
+			continue
+		}
+		if c.Kind == Evaporator && !fwd[c.To.Index] {
+			fwd[c.To.Index] = true
+			qf = append(qf, c.To.Index)
+		}
+		if c.Kind == Condenser && !bwd[c.From.Index] {
+			bwd[c.From.Index] = true
+			qb = append(qb, c.From.Index)
+		}
+	}
+	pass := func(c *Component) bool {
+		return c.Kind != Evaporator && c.Kind != Condenser && c.Kind != Reservoir && valid(c.From) && valid(c.To)
+	}
+	for len(qf) > 0 {
+		u := qf[0]
+		qf = qf[1:]
+		for _, c := range l.Components {
+			if pass(c) && c.From.Index == u && !fwd[c.To.Index] {
+				fwd[c.To.Index] = true
+				qf = append(qf, c.To.Index)
+			}
+		}
+	}
+	for len(qb) > 0 {
+		u := qb[0]
+		qb = qb[1:]
+		for _, c := range l.Components {
+			if pass(c) && c.To.Index == u && !bwd[c.From.Index] {
+				bwd[c.From.Index] = true
+				qb = append(qb, c.From.Index)
+			}
+		}
+	}
+	out := make([]bool, n)
+	for _, c := range l.Components {
+		if !valid(c.From) || !valid(c.To) {
+			continue
+		}
+		switch c.Kind {
+		case Evaporator:
+			out[c.To.Index] = true
+		case Condenser:
+			out[c.From.Index] = true
+		}
+	}
+	for i := range out {
+		out[i] = out[i] || (fwd[i] && bwd[i])
+	}
+	return out
+}
