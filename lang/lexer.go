@@ -73,12 +73,27 @@ func (l *sliceLexer) Next() (lexer.Token, error) {
 // Positions carry byte offsets; Line and Column are filled for participle's
 // messages only, every caller converts offsets through a Mapper.
 func scan(src []byte) ([]lexer.Token, []Comment) {
-	s := scanner{src: src, str: string(src), line: 1, lineStart: 0}
-	// A rough guess keeps reallocation rare: one token (blanks included) per
-	// two bytes.
-	s.toks = make([]lexer.Token, 0, len(src)/2+4)
-	s.run()
-	return s.toks, s.comments
+	s := newScanner(src)
+	var toks []lexer.Token
+	for s.nextLine() {
+		toks = append(toks, s.toks...)
+		s.toks = s.toks[:0]
+	}
+	return toks, s.comments
+}
+
+// newScanner returns a scanner over src that the parser drives one line at
+// a time (no token looks past its line's end), so the tokens of a large
+// file are never all held at once.
+func newScanner(src []byte) *scanner {
+	s := &scanner{src: src, str: string(src), line: 1, lineStart: 0}
+	if len(src) >= 3 && src[0] == 0xef && src[1] == 0xbb && src[2] == 0xbf {
+		// A byte-order mark at the start is a blank, not a character: the
+		// text is read as UTF-8 regardless.
+		s.pos = 3
+		s.emit(TokSpace, 0)
+	}
+	return s
 }
 
 type scanner struct {
@@ -87,8 +102,9 @@ type scanner struct {
 	pos       int
 	line      int
 	lineStart int
-	toks      []lexer.Token
+	toks      []lexer.Token // the current line's, appended by nextLine
 	comments  []Comment
+	done      bool // EOF emitted
 }
 
 func (s *scanner) position(off int) lexer.Position {
@@ -119,14 +135,14 @@ func (s *scanner) prevEndsValue() bool {
 	return false
 }
 
-func (s *scanner) run() {
-	src := s.src
-	if len(src) >= 3 && src[0] == 0xef && src[1] == 0xbb && src[2] == 0xbf {
-		// A byte-order mark at the start is a blank, not a character: the
-		// text is read as UTF-8 regardless.
-		s.pos = 3
-		s.emit(TokSpace, 0)
+// nextLine appends the tokens of the next line to s.toks, up to and
+// including its newline, or the EOF token after the last line. It reports
+// false when EOF was already emitted.
+func (s *scanner) nextLine() bool {
+	if s.done {
+		return false
 	}
+	src := s.src
 	for s.pos < len(src) {
 		c := src[s.pos]
 		start := s.pos
@@ -141,6 +157,7 @@ func (s *scanner) run() {
 			s.emit(TokNewline, start)
 			s.line++
 			s.lineStart = s.pos
+			return true
 		case c == '#':
 			for s.pos < len(src) && src[s.pos] != '\n' {
 				s.pos++
@@ -178,6 +195,8 @@ func (s *scanner) run() {
 		}
 	}
 	s.toks = append(s.toks, lexer.EOFToken(s.position(s.pos)))
+	s.done = true
+	return true
 }
 
 // signStartsNumber decides whether the '-' or '+' at s.pos is a number's

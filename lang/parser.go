@@ -23,20 +23,24 @@ func Parse(path string, src []byte) *File { return parse(path, src, false) }
 // its trees with the grammar's.
 func parse(path string, src []byte, grammarOnly bool) *File {
 	f := &File{Path: path, Src: src, Mapper: NewMapper(src)}
-	toks, comments := scan(src)
-	f.Comments = comments
-	p := &parser{f: f, toks: toks, grammarOnly: grammarOnly}
+	sc := newScanner(src)
+	sc.nextLine()
+	p := &parser{f: f, sc: sc, toks: sc.toks, grammarOnly: grammarOnly}
 	p.run()
+	f.Comments = sc.comments
 	return f
 }
 
 type parser struct {
-	f    *File
+	f  *File
+	sc *scanner
+	// toks are the tokens of the current line, through its newline (or the
+	// EOF token); the scanner fills them a line at a time.
 	toks []lexer.Token
-	cur  int // raw index of the next token, elided ones included
-	// lex is participle's view of toks, built only when a statement
-	// needs the grammar; it never runs ahead of cur between statements.
-	lex *lexer.PeekingLexer
+	cur  int // raw index in toks of the next token, elided ones included
+	// lexBase is the raw index in toks where the lexer lexAt last made
+	// starts.
+	lexBase int
 	// open blocks, innermost last
 	stack []*Stmt
 	// line of the last error, to keep one error per line
@@ -45,7 +49,14 @@ type parser struct {
 	deepBlocks  bool
 	nodes       nodes // the fast path's node chunks
 	grammarOnly bool  // parse every statement with the grammar
+	tooMany     bool  // MaxErrors reached: no more errors, no explanations
 }
+
+// MaxErrors bounds the syntax errors reported for one file. Past it the
+// text is most likely not a .loop file at all (a binary, a file of another
+// kind): one note says so, and bad statements are skipped without being
+// explained, which is also what keeps such input cheap.
+const MaxErrors = 100
 
 func (p *parser) errorf(span Span, format string, args ...any) {
 	line := p.f.Mapper.OffsetLine(span.Start)
@@ -53,6 +64,13 @@ func (p *parser) errorf(span Span, format string, args ...any) {
 		return
 	}
 	p.errLine = line
+	if p.tooMany {
+		return
+	}
+	if len(p.f.Errors) == MaxErrors {
+		p.tooMany = true
+		format, args = "more than %d syntax errors: the rest are not reported; this does not look like a .loop file", []any{MaxErrors}
+	}
 	p.f.Errors = append(p.f.Errors, Diagnostic{
 		Rule: "syntax", Severity: Error,
 		Loc:    Location{File: p.f.Path, Span: span},
@@ -73,8 +91,24 @@ func tokSpan(t *lexer.Token) Span { return Span{t.Pos.Offset, t.Pos.Offset + len
 
 func isPunctTok(t *lexer.Token, v string) bool { return t.Type == TokPunct && t.Value == v }
 
+// refill moves on to the next line once the current one is consumed. A
+// token pointer taken before it is not used after it.
+func (p *parser) refill() {
+	if p.cur < len(p.toks) {
+		return
+	}
+	p.sc.toks = p.sc.toks[:0]
+	if !p.sc.nextLine() {
+		// The EOF token is never consumed, so this does not happen; stay
+		// at the end regardless.
+		p.sc.toks = append(p.sc.toks, lexer.EOFToken(p.sc.position(p.sc.pos)))
+	}
+	p.toks, p.cur = p.sc.toks, 0
+}
+
 // peek returns the next token that is not elided.
 func (p *parser) peek() *lexer.Token {
+	p.refill()
 	j := p.cur
 	for p.toks[j].Type == TokSpace || p.toks[j].Type == TokComment {
 		j++
@@ -84,6 +118,7 @@ func (p *parser) peek() *lexer.Token {
 
 // next consumes the next token that is not elided; the end stays put.
 func (p *parser) next() *lexer.Token {
+	p.refill()
 	for p.toks[p.cur].Type == TokSpace || p.toks[p.cur].Type == TokComment {
 		p.cur++
 	}
@@ -94,20 +129,28 @@ func (p *parser) next() *lexer.Token {
 	return t
 }
 
-// lexAt returns participle's lexer positioned at cur.
+// lexAt returns participle's lexer over the tokens of the line from cur
+// on: a statement never continues onto the next line, and a lexer over the
+// whole file would copy every token of it for each bad statement. Raw
+// cursors of the lexer count from lexBase.
 func (p *parser) lexAt() *lexer.PeekingLexer {
-	if p.lex == nil {
-		lex, err := lexer.Upgrade(&sliceLexer{toks: p.toks}, TokSpace, TokComment)
-		if err != nil {
-			// sliceLexer never fails; keep a usable lexer regardless.
-			lex, _ = lexer.Upgrade(&sliceLexer{toks: p.toks[len(p.toks)-1:]})
-		}
-		p.lex = lex
+	end := p.cur
+	for p.toks[end].Type != TokNewline && p.toks[end].Type != TokEOF {
+		end++
 	}
-	if rc := int(p.lex.MakeCheckpoint().RawCursor()); rc < p.cur {
-		p.lex.FastForward(lexer.RawCursor(p.cur - 1))
+	window := p.toks[p.cur : end+1]
+	if p.toks[end].Type == TokNewline {
+		// Ends like the file would, after the newline.
+		nl := p.toks[end].Pos
+		window = append(window[:len(window):len(window)], lexer.EOFToken(lexer.Position{Offset: nl.Offset + 1, Line: nl.Line + 1, Column: 1}))
 	}
-	return p.lex
+	p.lexBase = p.cur
+	lex, err := lexer.Upgrade(&sliceLexer{toks: window}, TokSpace, TokComment)
+	if err != nil {
+		// sliceLexer never fails; keep a usable lexer regardless.
+		lex, _ = lexer.Upgrade(&sliceLexer{toks: p.toks[len(p.toks)-1:]})
+	}
+	return lex
 }
 
 func (p *parser) run() {
@@ -172,18 +215,26 @@ func (p *parser) statement() {
 	}
 	if !p.grammarOnly {
 		q := fastParser{toks: p.toks, i: start, nodes: &p.nodes}
+		mark := p.nodes.mark()
 		if stmt, ok := q.stmt(); ok {
 			p.cur = q.i
 			p.add(stmt)
 			p.terminator(stmt)
 			return
 		}
+		// Give back the nodes of the attempt: a file of bad lines would
+		// otherwise keep a half tree of each.
+		p.nodes.release(mark)
+	}
+	if p.tooMany {
+		p.skipBad(first)
+		return
 	}
 	lex := p.lexAt()
 	cp := lex.MakeCheckpoint()
 	stmt, err := parseStmt(lex)
 	if err == nil {
-		p.cur = int(lex.MakeCheckpoint().RawCursor())
+		p.cur = p.lexBase + int(lex.MakeCheckpoint().RawCursor())
 		p.add(stmt)
 		p.terminator(stmt)
 		return
@@ -268,7 +319,9 @@ func (p *parser) terminator(s *Stmt) {
 	// The statement is incomplete: keep its head but mark it Bad so no
 	// later pass reads half an expression as the whole value.
 	s.Bad = true
-	p.explainStop(t)
+	if !p.tooMany {
+		p.explainStop(t)
+	}
 	for {
 		t := p.peek()
 		if t.EOF() || t.Type == TokNewline || isPunctTok(t, "}") || isPunctTok(t, ";") {
@@ -431,6 +484,42 @@ type nodes struct {
 }
 
 type slab[T any] struct{ buf []T }
+
+// nodesMark records how much of each slab is in use.
+type nodesMark [12]int
+
+// mark returns the slabs' fill, for release.
+func (n *nodes) mark() nodesMark {
+	return nodesMark{len(n.stmts.buf), len(n.idents.buf), len(n.args.buf), len(n.exprs.buf),
+		len(n.exprOps.buf), len(n.terms.buf), len(n.termOps.buf), len(n.factors.buf),
+		len(n.powers.buf), len(n.atoms.buf), len(n.strs.buf), len(n.unitsT.buf)}
+}
+
+// release returns the nodes handed out since m to their slabs, zeroed. A
+// slab that moved to a new chunk since keeps those of the old chunk (they
+// are few and no longer in any tree).
+func (n *nodes) release(m nodesMark) {
+	n.stmts.release(m[0])
+	n.idents.release(m[1])
+	n.args.release(m[2])
+	n.exprs.release(m[3])
+	n.exprOps.release(m[4])
+	n.terms.release(m[5])
+	n.termOps.release(m[6])
+	n.factors.release(m[7])
+	n.powers.release(m[8])
+	n.atoms.release(m[9])
+	n.strs.release(m[10])
+	n.unitsT.release(m[11])
+}
+
+func (s *slab[T]) release(to int) {
+	if to > len(s.buf) {
+		return // a new chunk was started since the mark
+	}
+	clear(s.buf[to:])
+	s.buf = s.buf[:to]
+}
 
 // alloc returns a zeroed T from the current chunk.
 func (s *slab[T]) alloc() *T {

@@ -261,3 +261,33 @@ func TestByteOrderMark(t *testing.T) {
 		t.Errorf("U+FEFF inside the text: %d errors, want 1", len(mid.Errors))
 	}
 }
+
+// Past MaxErrors syntax errors a file is taken for something else than a
+// .loop file: one note says so and nothing more is reported.
+func TestTooManyErrors(t *testing.T) {
+	var b strings.Builder
+	for i := 0; i < 500; i++ {
+		fmt.Fprintf(&b, "param x%d = 3 $\n", i)
+	}
+	b.WriteString("param ok = 2 m\n")
+	f := Parse("many.loop", []byte(b.String()))
+	if len(f.Errors) != MaxErrors+1 {
+		t.Fatalf("%d errors, want %d", len(f.Errors), MaxErrors+1)
+	}
+	last := f.Errors[MaxErrors].Message()
+	if !strings.Contains(last, "more than 100 syntax errors") || !strings.Contains(last, "does not look like a .loop file") {
+		t.Errorf("last error %q", last)
+	}
+	// The statements after the cut are still parsed.
+	if s := f.Stmts[len(f.Stmts)-1]; s.Bad || s.Keyword() != "param" {
+		t.Errorf("last statement %+v", s)
+	}
+	// Binary input: the same cap.
+	bin := make([]byte, 1<<16)
+	for i := range bin {
+		bin[i] = byte(i*7919 + i/13)
+	}
+	if g := Parse("bin.loop", bin); len(g.Errors) > MaxErrors+1 {
+		t.Errorf("binary input: %d errors", len(g.Errors))
+	}
+}
