@@ -151,7 +151,7 @@ var (
 	}
 	CaseFields   = []string{"heat", "sink", "pitch", "roll", "yaw", "accel", "saturation"}
 	LimitFields  = []string{"exit_quality", "chf_ratio", "flooding", "tilt_margin", "wall_margin", "head_ratio", "saturation_max"}
-	MethodFields = []string{"void_fraction", "friction", "single_phase", "chf", "cells"}
+	MethodFields = []string{"void_fraction", "friction", "single_phase", "chf", "saturation_state", "cells"}
 )
 
 func (r *resolver) loopField(l *Loop, s *Stmt) {
@@ -544,5 +544,7 @@ func (r *resolver) methodField(file string, s *Stmt) {
 		m.SinglePhase = ch
 	case "chf":
 		m.CHF = ch
+	case "saturation_state":
+		m.SatState = ch
 	}
 }

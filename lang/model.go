@@ -289,6 +289,7 @@ type Methods struct {
 	Friction    Choice
 	SinglePhase Choice
 	CHF         Choice
+	SatState    Choice // "single" or "local"
 	Cells       int
 	CellsSet    bool
 }
@@ -303,10 +304,11 @@ type Choice struct {
 
 // MethodChoices lists the accepted names of each method field, default first.
 var MethodChoices = map[string][]string{
-	"void_fraction": {"rouhani_axelsson", "homogeneous", "zivi", "chisholm", "rouhani_axelsson_vertical", "rouhani_axelsson_horizontal"},
-	"friction":      {"muller_steinhagen_heck", "friedel", "lockhart_martinelli", "homogeneous_mcadams", "homogeneous_cicchitti", "homogeneous_dukler"},
-	"single_phase":  {"churchill", "colebrook"},
-	"chf":           {"lienhard_dhir", "zuber", "katto_ohno"},
+	"void_fraction":    {"rouhani_axelsson", "homogeneous", "zivi", "chisholm", "rouhani_axelsson_vertical", "rouhani_axelsson_horizontal"},
+	"friction":         {"muller_steinhagen_heck", "friedel", "lockhart_martinelli", "homogeneous_mcadams", "homogeneous_cicchitti", "homogeneous_dukler"},
+	"single_phase":     {"churchill", "colebrook"},
+	"chf":              {"lienhard_dhir", "zuber", "katto_ohno"},
+	"saturation_state": {"single", "local"},
 }
 
 // DefaultMethods returns the documented defaults.
@@ -316,6 +318,7 @@ func DefaultMethods() Methods {
 		Friction:    Choice{Name: "muller_steinhagen_heck"},
 		SinglePhase: Choice{Name: "churchill"},
 		CHF:         Choice{Name: "lienhard_dhir"},
+		SatState:    Choice{Name: "single"},
 		Cells:       40,
 	}
 }

@@ -144,6 +144,17 @@ func estimateLoop(m *lang.Model, l *lang.Loop, methods MethodsUsed, points []poi
 	}
 	if p.net != nil {
 		lr.Network = !p.net.ring
+		if p.methods.Saturation == "local" {
+			for i, a := range lr.Assumptions {
+				if strings.HasPrefix(a, "one saturation state") {
+					if p.net.ring {
+						lr.Assumptions[i] = "saturation at the local pressure, marched around the loop from the condenser outlet at the case's saturation pressure; liquid density and viscosity at the liquid's own temperature"
+					} else {
+						lr.Assumptions[i] = "one saturation state per loop and case for all properties (saturation at local pressure is estimated for single loops only)"
+					}
+				}
+			}
+		}
 		for _, cp := range p.net.comps {
 			if byGeometry(cp) {
 				lr.Assumptions = append(lr.Assumptions, "condensers given by geometry: laminar film condensation inside their tubes "+
@@ -254,7 +265,7 @@ func chooseMethods(ms lang.Methods, opts Options) (MethodsUsed, error) {
 	}
 	mu := MethodsUsed{
 		Void: pick(ms.Void, def.Void), Friction: pick(ms.Friction, def.Friction),
-		SinglePhase: pick(ms.SinglePhase, def.SinglePhase), CHF: pick(ms.CHF, def.CHF), Cells: def.Cells,
+		SinglePhase: pick(ms.SinglePhase, def.SinglePhase), CHF: pick(ms.CHF, def.CHF), Saturation: pick(ms.SatState, def.SatState), Cells: def.Cells,
 	}
 	if ms.CellsSet && ms.Cells > 0 {
 		mu.Cells = ms.Cells
@@ -279,6 +290,9 @@ func chooseMethods(ms lang.Methods, opts Options) (MethodsUsed, error) {
 	}
 	if mu.CHF != "lienhard_dhir" && mu.CHF != "zuber" && mu.CHF != "katto_ohno" {
 		return mu, fmt.Errorf("unknown critical heat flux method %q (want lienhard_dhir, zuber or katto_ohno)", mu.CHF)
+	}
+	if mu.Saturation != "single" && mu.Saturation != "local" {
+		return mu, fmt.Errorf("unknown saturation state %q (want single or local)", mu.Saturation)
 	}
 	if mu.Cells > 100000 {
 		mu.Cells = 100000
@@ -470,6 +484,9 @@ func (p *prepared) newState(pt point, cr *CaseResult) (*state, []Finding) {
 	}
 	s.sat = sat
 	cr.SatPressure = sat.P
+	s.fl = p.fl
+	s.local = p.methods.Saturation == "local" && net.ring
+	s.pIn = make([]float64, len(net.comps))
 	pr := 0.0
 	if p.info.Pc > 0 {
 		pr = sat.P / p.info.Pc

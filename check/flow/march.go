@@ -50,6 +50,13 @@ type state struct {
 	// newtonCap, when set, bounds the network Newton iteration's steps
 	// (60) and each line search's halvings (30) for solves that may fail.
 	newtonCap int
+	// local marches the pressure around a single loop from the condenser
+	// outlet, at the saturation pressure, and takes the phase state of each
+	// cell at its own pressure; x stays the enthalpy measured from the
+	// reference state, (h − h_f)/h_lv at the case's saturation temperature.
+	local bool
+	fl    fluid.Fluid
+	pIn   []float64 // by comps index: inlet pressure, Pa (local mode: set before each march)
 }
 
 // scaled applies the loss scale to a component's pressure-change parts.
@@ -146,6 +153,9 @@ func (s *state) cell(pf *correlate.PreparedFriction, cp *comp, G, x, cosInc floa
 // outlet quality and the pressure-change parts along the flow. rec, when not
 // nil, receives every cell.
 func (s *state) march(ci int, dir float64, m, xin float64, rec func(cellRec)) (float64, parts) {
+	if s.local {
+		return s.marchLocal(ci, dir, m, xin, rec)
+	}
 	cp := &s.net.comps[ci]
 	am := math.Abs(m)
 	G := am / cp.A

@@ -56,6 +56,7 @@ type MethodsUsed struct {
 	Friction    string `json:"friction"`
 	SinglePhase string `json:"single_phase"`
 	CHF         string `json:"chf"`
+	Saturation  string `json:"saturation"` // "single": one state per case; "local": at each cell's pressure
 	Cells       int    `json:"cells"`
 }
 
@@ -125,6 +126,27 @@ type ComponentState struct {
 	// acceleration split into its phase-change and flow-area parts.
 	Budget Budget  `json:"budget"`
 	Mass   float64 `json:"mass"` // fluid held, kg
+	// Local saturation along a single loop (omitted for networks), in either
+	// saturation state: the pressure marched from the condenser outlet (at
+	// the case's saturation pressure), the saturation temperature there,
+	// and the quality that the enthalpy has at the local saturation state.
+	// With saturation_state local these qualities are quality_in/out too.
+	Local *LocalState `json:"local,omitempty"`
+}
+
+// LocalState is a component's state at its local saturation.
+type LocalState struct {
+	PressureIn float64 `json:"pressure_in"`               // Pa, absolute
+	SatTempIn  float64 `json:"saturation_temperature_in"` // K, at pressure_in
+	SatTempOut float64 `json:"saturation_temperature_out"`
+	XIn        float64 `json:"quality_in"`
+	XOut       float64 `json:"quality_out"`
+	// Evaporators: the inlet liquid's subcooling below its local saturation
+	// temperature (K), and where boiling starts, m from the inlet along the
+	// flow (absent when the inlet is already two-phase or boiling never
+	// starts inside).
+	SubcoolingIn float64  `json:"subcooling_in,omitempty"`
+	BoilingOnset *float64 `json:"boiling_onset,omitempty"`
 }
 
 // Budget splits a pressure drop along the flow, p_in − p_out in Pa, by

@@ -201,6 +201,9 @@ func (p *prepared) record(s *state, ev *eval, f []float64, cr *CaseResult) {
 			states[ci] = cs
 		})
 	}
+	if n.ring {
+		s.localStates(ev.mb[0], states)
+	}
 	cr.Components = states
 	// The loop flow: through the condensers.
 	var mf float64

@@ -117,6 +117,9 @@ func (s *state) mix(ev *eval) {
 // xin and returns p_from − p_to along its reference direction. visit, when
 // not nil, receives every component's result in flow order.
 func (s *state) branchDP(bi int, m, xin float64, visit func(ci int, dir, m, xin, xout float64, q parts)) float64 {
+	if s.local {
+		return s.branchDPLocal(bi, m, visit)
+	}
 	b := &s.net.branches[bi]
 	x := xin
 	var loss float64

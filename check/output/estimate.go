@@ -68,8 +68,12 @@ func loopText(w io.Writer, l *flow.LoopResult) {
 		kind = "network"
 	}
 	fmt.Fprintf(w, ", %s\n", kind)
-	fmt.Fprintf(w, "methods: void %s, friction %s, single-phase %s, CHF %s, %d cells per heated component\n",
-		l.Methods.Void, l.Methods.Friction, l.Methods.SinglePhase, l.Methods.CHF, l.Methods.Cells)
+	sat := ""
+	if l.Methods.Saturation == "local" {
+		sat = ", saturation at local pressure"
+	}
+	fmt.Fprintf(w, "methods: void %s, friction %s, single-phase %s, CHF %s%s, %d cells per heated component\n",
+		l.Methods.Void, l.Methods.Friction, l.Methods.SinglePhase, l.Methods.CHF, sat, l.Methods.Cells)
 	fmt.Fprintf(w, "assumptions: %s\n", strings.Join(l.Assumptions, "; "))
 	for _, f := range l.Findings {
 		fmt.Fprintf(w, "%s: %s\n", f.Severity, f.Message)
@@ -199,6 +203,7 @@ func caseText(w io.Writer, l *flow.LoopResult, c *flow.CaseResult) {
 	} else {
 		fmt.Fprintf(w, "  mass flow %s g/s\n", fixed(c.MassFlow*1e3, 2))
 		stateTable(w, c)
+		localTable(w, l, c)
 		budgetTable(w, l, c)
 		t := c.Totals
 		fmt.Fprintf(w, "  heat in %s W, rejected %s W; gravity head at vanishing flow %s Pa; inventory %s kg (+ %s kg in reservoirs)\n",
@@ -229,6 +234,40 @@ func stateTable(w io.Writer, c *flow.CaseResult) {
 		fmt.Fprintf(tw, "  %s\t%s\t%s\t%s\t%s\t%s\t%s\t%s\t%s\t%s\t\n",
 			s.Component, s.Kind, fixed(s.MassFlow*1e3, 2), fixed(s.MassFlux, 0), fixed(s.XIn, 3), fixed(s.XOut, 3),
 			fixed(s.VoidOut, 3), fixed(s.VoidMean, 3), fixed(s.VelLiquid, 2), fixed(s.VelVapour, 2))
+	}
+	tw.Flush()
+}
+
+// localTable lists each component's local saturation: with saturation at
+// local pressure always, with the single state only where the two differ by
+// more than 1 K of evaporator-inlet subcooling.
+func localTable(w io.Writer, l *flow.LoopResult, c *flow.CaseResult) {
+	local := l.Methods.Saturation == "local"
+	if !local {
+		for _, s := range c.Components {
+			if s.Local != nil && s.Local.SubcoolingIn > 1 {
+				fmt.Fprintf(w, "  note: the liquid enters evaporator %s %.1f K below its local saturation temperature (%.1f °C at %s kPa), which the single saturation state ignores; methods { saturation_state local } follows it\n",
+					s.Component, s.Local.SubcoolingIn, s.Local.SatTempIn-273.15, sig(s.Local.PressureIn/1e3, 4))
+			}
+		}
+		return
+	}
+	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
+	fmt.Fprintln(tw, "  local saturation\tp in kPa\tT_sat in °C\tT_sat out °C\tinlet subcooling K\tboiling onset m\t")
+	for _, s := range c.Components {
+		if s.Local == nil {
+			continue
+		}
+		sub, onset := "", ""
+		if s.Kind == "evaporator" {
+			sub = fixed(s.Local.SubcoolingIn, 2)
+			onset = "—"
+			if s.Local.BoilingOnset != nil {
+				onset = fixed(*s.Local.BoilingOnset, 3)
+			}
+		}
+		fmt.Fprintf(tw, "  %s\t%s\t%s\t%s\t%s\t%s\t\n", s.Component, sig(s.Local.PressureIn/1e3, 4),
+			fixed(s.Local.SatTempIn-273.15, 2), fixed(s.Local.SatTempOut-273.15, 2), sub, onset)
 	}
 	tw.Flush()
 }

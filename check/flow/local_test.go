@@ -1,0 +1,245 @@
+package flow
+
+import (
+	"encoding/json"
+	"math"
+	"strings"
+	"testing"
+
+	"circa/check/fluid"
+	"circa/lang"
+)
+
+// vacuumLoop is a water loop under vacuum: saturation 40 °C at the
+// condenser (7.38 kPa), 1.3 m of liquid above the evaporator inlet.
+const vacuumLoop = `
+loop v {
+  fluid water
+  saturation 40 degC
+  node a at (0, 0, 0) m
+  node b at (0, 0, 0.3) m
+  node c at (0, 0, 1.3) m
+  node d at (-0.3, 0, 1.3) m
+  evaporator evap from a to b { length 0.3 m; bore 20 mm; heat HEAT }
+  pipe riser from b to c { length 1 m; bore 20 mm }
+  condenser cond from c to d { length 0.3 m; bore 20 mm }
+  pipe down from d to a { length 1.5 m; run (0.3, 0, -1.3) m; bore 20 mm }
+}
+case nominal { heat evap HEAT }
+`
+
+func component(t *testing.T, cr *CaseResult, name string) ComponentState {
+	t.Helper()
+	for _, c := range cr.Components {
+		if c.Component == name {
+			return c
+		}
+	}
+	t.Fatalf("no component %s", name)
+	return ComponentState{}
+}
+
+// TestSingleStateUnchanged: naming the single saturation state gives the
+// same estimate, to the bit, as saying nothing (the default every existing
+// reference test runs with).
+func TestSingleStateUnchanged(t *testing.T) {
+	for _, src := range []string{strings.ReplaceAll(ring, "HEAT", "800 W"), strings.ReplaceAll(vacuumLoop, "HEAT", "300 W")} {
+		a := estimate(t, load(t, src), Options{NoTilt: true})
+		b := estimate(t, load(t, src+"methods { saturation_state single }\n"), Options{NoTilt: true})
+		ja, _ := json.Marshal(a)
+		jb, _ := json.Marshal(b)
+		if string(ja) != string(jb) {
+			t.Errorf("saturation_state single differs from the default:\n%s\n%s", ja, jb)
+		}
+	}
+}
+
+// TestLocalSaturationVacuumLoop works the evaporator inlet of the vacuum
+// loop by hand. The liquid leaves the condenser saturated at 40 °C, at
+// p_sat = 7384.4 Pa (IF97 Eq. 30), density 992.18 kg/m³ (IF97 region 1),
+// and falls 1.3 m through the adiabatic downcomer: the hydrostatic gain is
+// 992.18 · 9.80665 · 1.3 = 12649.0 Pa, less the downcomer's friction (54 Pa
+// at the estimate's flow, taken from its own budget), so the evaporator
+// inlet is at 7384.4 + 12649.0 − 54 = 19979 Pa, where water saturates at
+// 60.04 °C (IF97 Eq. 31; python3-iapws 1.5.2 IAPWS97(P=0.01998, x=0)):
+// the liquid enters 20.0 K subcooled. The single state sees it saturated.
+func TestLocalSaturationVacuumLoop(t *testing.T) {
+	src := strings.ReplaceAll(vacuumLoop, "HEAT", "300 W")
+	single := only(t, estimate(t, load(t, src), Options{NoTilt: true}))
+	r := estimate(t, load(t, src+"methods { saturation_state local }\n"), Options{NoTilt: true})
+	if r.Loops[0].Methods.Saturation != "local" {
+		t.Fatalf("methods %+v", r.Loops[0].Methods)
+	}
+	cr := only(t, r)
+	if !cr.Circulates {
+		t.Fatalf("does not circulate: %s", cr.Reason)
+	}
+	ev, down := component(t, cr, "evap"), component(t, cr, "down")
+	if ev.Local == nil || down.Local == nil {
+		t.Fatal("no local state")
+	}
+	pin := 7384.4 + 992.18*gn*1.3 - down.Budget.Friction // hand-worked above
+	if math.Abs(ev.Local.PressureIn-pin) > 3 {
+		t.Errorf("evaporator inlet %.1f Pa, hand-worked %.1f Pa", ev.Local.PressureIn, pin)
+	}
+	if math.Abs(down.Budget.Friction-54) > 10 {
+		t.Errorf("downcomer friction %.1f Pa, the hand-worked figure used 54 Pa", down.Budget.Friction)
+	}
+	if math.Abs(ev.Local.SatTempIn-273.15-60.04) > 0.05 {
+		t.Errorf("local saturation at the evaporator inlet %.3f °C, want 60.04 °C", ev.Local.SatTempIn-273.15)
+	}
+	if math.Abs(ev.Local.SubcoolingIn-20.04) > 0.1 {
+		t.Errorf("inlet subcooling %.3f K, want 20.04 K", ev.Local.SubcoolingIn)
+	}
+	// The single state reports the same inlet as saturated liquid, but its
+	// diagnostic shows the subcooling it leaves out.
+	if sev := component(t, single, "evap"); math.Abs(sev.XIn) > 1e-9 || sev.Local == nil || !(sev.Local.SubcoolingIn > 15) {
+		t.Errorf("single state: x in %g, local %+v", sev.XIn, sev.Local)
+	}
+	// Under local saturation the evaporator stays subcooled at 300 W and the
+	// mixture flashes in the riser as the pressure falls toward the
+	// condenser: no heat is added there, yet the quality rises through zero.
+	ri := component(t, cr, "riser")
+	if !(ev.XOut < 0 && ri.XIn < 0 && ri.XOut > 0 && ri.VoidOut > 0.5) {
+		t.Errorf("evaporator x out %.4f, riser x %.4f → %.4f (void %.3f): want flashing in the riser", ev.XOut, ri.XIn, ri.XOut, ri.VoidOut)
+	}
+	if ev.Local.BoilingOnset != nil {
+		t.Errorf("boiling onset %g m inside a subcooled evaporator", *ev.Local.BoilingOnset)
+	}
+	// Energy still closes: the enthalpy march is the same.
+	if math.Abs(cr.Totals.Heat-cr.Totals.Rejected) > 1e-9*cr.Totals.Heat {
+		t.Errorf("heat in %g, rejected %g", cr.Totals.Heat, cr.Totals.Rejected)
+	}
+}
+
+// TestBoilingOnsetHeight puts the evaporator of the vacuum loop under only
+// 0.3 m of liquid and loads it so that boiling starts inside. At the onset
+// height z the liquid's enthalpy gain from the inlet, Q·z/L over the
+// uniformly heated length L, must equal the climb of the local saturated
+// liquid enthalpy from 40 °C: ṁ (h_f(p(z)) − h_f(40 °C)) = Q z/L, with p(z)
+// taken linear along the evaporator between its inlet and outlet pressures
+// and h_f from the water properties (IF97).
+func TestBoilingOnsetHeight(t *testing.T) {
+	src := strings.ReplaceAll(vacuumLoop, "HEAT", "3 kW")
+	src = strings.Replace(src, "node c at (0, 0, 1.3) m", "node c at (0, 0, 0.6) m", 1)
+	src = strings.Replace(src, "node d at (-0.3, 0, 1.3) m", "node d at (-0.3, 0, 0.6) m", 1)
+	src = strings.Replace(src, "length 1 m; bore 20 mm }", "length 0.3 m; bore 20 mm }", 1)
+	src = strings.Replace(src, "length 1.5 m; run (0.3, 0, -1.3) m", "length 0.8 m; run (0.3, 0, -0.6) m", 1)
+	cr := only(t, estimate(t, load(t, src+"methods { saturation_state local }\n"), Options{NoTilt: true}))
+	if !cr.Circulates {
+		t.Fatalf("does not circulate: %s", cr.Reason)
+	}
+	ev := component(t, cr, "evap")
+	if ev.Local == nil || ev.Local.BoilingOnset == nil {
+		t.Fatalf("no boiling onset: %+v", ev.Local)
+	}
+	z := *ev.Local.BoilingOnset
+	if !(z > 0 && z < 0.3) {
+		t.Fatalf("onset %g m outside the evaporator", z)
+	}
+	fl, _ := fluid.Lookup("water")
+	s0, _ := fl.AtT(313.15)
+	pz := ev.Local.PressureIn - ev.DpTotal*z/0.3
+	sz, _ := fl.AtP(pz)
+	m := math.Abs(ev.MassFlow)
+	gain, need := 3000*z/0.3, m*(sz.HL-s0.HL)
+	if math.Abs(gain-need) > 2e-3*need {
+		t.Errorf("onset %.4f m: heat added %.2f W, liquid enthalpy to saturate %.2f W", z, gain, need)
+	}
+}
+
+// TestHomogeneousFlowMaximum checks the circulation against heat load of a
+// homogeneous loop whose losses are one local loss K at the riser outlet.
+// With the heat added at the bottom of a riser of height L, the excess head
+// g L (ρf − ρm) − K G²/(2ρm) vanishes at G² = 2 g L ρm (ρf − ρm)/K; over the
+// exit quality it is largest where ρm = ρf/2, i.e. x = v_f/v_fg, giving
+// ṁ_max = A ρf √(g L/(2K)) (homogeneous-model loop analysis, worked here).
+// R134a at 40 °C: ρf 1146.7 kg/m³; A = π (0.02)²/4 = 3.1416e-4 m², L = 1 m,
+// K = 1000: ṁ_max = 3.1416e-4 · 1146.7 · √(9.80665/2000) = 25.22 g/s.
+// Friction (f L/D ≈ 1 against K = 1000) and acceleration are small; circa's
+// maximum over the load must be within 2 %.
+func TestHomogeneousFlowMaximum(t *testing.T) {
+	const src = `
+loop h {
+  fluid R134a
+  saturation 40 degC
+  node a at (0, 0, 0) m
+  node b at (0.05, 0, 0) m
+  node c at (0.05, 0, 1) m
+  node d at (-0.25, 0, 1) m
+  evaporator evap from a to b { length 0.05 m; bore 20 mm; heat HEAT }
+  pipe riser from b to c { length 1 m; bore 20 mm; loss 1000; roughness 0 m }
+  condenser cond from c to d { length 0.3 m; bore 20 mm }
+  pipe down from d to a { length 1.04 m; run (0.25, 0, -1) m; bore 20 mm; roughness 0 m }
+}
+case nominal { heat evap HEAT }
+methods { void_fraction homogeneous; friction homogeneous_mcadams }
+`
+	fl, _ := fluid.Lookup("R134a")
+	sat, _ := fl.AtT(313.15)
+	A := math.Pi * 0.02 * 0.02 / 4
+	want := A * sat.RhoL * math.Sqrt(gn*1/(2*1000))
+	flowAt := func(q float64) float64 {
+		c := only(t, estimate(t, load(t, strings.ReplaceAll(src, "HEAT", ftoa(q)+" W")), Options{NoTilt: true}))
+		if !c.Circulates {
+			return 0
+		}
+		return c.MassFlow
+	}
+	// Golden-section search for the largest flow over the load; the
+	// closed form's load is ṁ x h_lv with x = v_f/v_fg.
+	xs := (1 / sat.RhoL) / (1/sat.RhoV - 1/sat.RhoL)
+	q0 := want * xs * sat.Hlv
+	lo, hi := 0.2*q0, 5*q0
+	const r = 0.6180339887
+	a, b := hi-r*(hi-lo), lo+r*(hi-lo)
+	fa, fb := flowAt(a), flowAt(b)
+	for i := 0; i < 30; i++ {
+		if fa > fb {
+			hi, b, fb = b, a, fa
+			a = hi - r*(hi-lo)
+			fa = flowAt(a)
+		} else {
+			lo, a, fa = a, b, fb
+			b = lo + r*(hi-lo)
+			fb = flowAt(b)
+		}
+	}
+	got := math.Max(fa, fb)
+	if math.Abs(got-want) > 0.02*want {
+		t.Errorf("largest flow %.3f g/s at %.1f W, closed form %.3f g/s at %.1f W", got*1e3, (a+b)/2, want*1e3, q0)
+	}
+	t.Logf("largest flow %.3f g/s at %.1f W; closed form %.3f g/s at %.1f W", got*1e3, (a+b)/2, want*1e3, q0)
+}
+
+// TestShelterExample: the demo loop under vacuum shows the local-saturation
+// results it is written for.
+func TestShelterExample(t *testing.T) {
+	m := lang.Load("../../testdata/examples/shelter-rectifier.loop", lang.OSFS{})
+	r := estimate(t, m, Options{NoTilt: true})
+	if r.Loops[0].Methods.Saturation != "local" {
+		t.Fatalf("methods %+v", r.Loops[0].Methods)
+	}
+	for _, c := range r.Loops[0].Cases {
+		if !c.Circulates {
+			t.Fatalf("%s: no circulation: %s", c.Case, c.Reason)
+		}
+		pl := component(t, &c, "plate")
+		if pl.Local == nil || !(pl.Local.SubcoolingIn > 5) {
+			t.Errorf("%s: inlet subcooling %+v", c.Case, pl.Local)
+		}
+		onset := pl.Local.BoilingOnset != nil
+		switch c.Case {
+		case "summer":
+			if !onset || !(*pl.Local.BoilingOnset > 0.1 && *pl.Local.BoilingOnset < 0.25) || !(pl.XOut > 0) {
+				t.Errorf("summer: onset %v, exit quality %g", pl.Local.BoilingOnset, pl.XOut)
+			}
+		case "cool_night":
+			ri := component(t, &c, "riser")
+			if onset || !(pl.XOut < 0 && ri.XOut > 0) {
+				t.Errorf("cool night: onset %v, plate x out %g, riser x out %g", pl.Local.BoilingOnset, pl.XOut, ri.XOut)
+			}
+		}
+		t.Logf("%s: %.1f g/s, T_sat %.1f °C, inlet subcooling %.1f K", c.Case, c.MassFlow*1e3, c.SatTemperature-273.15, pl.Local.SubcoolingIn)
+	}
+}
