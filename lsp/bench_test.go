@@ -20,7 +20,7 @@ import (
 // benchSession opens one generated document and returns the client, its URI
 // and the line and column of a value to edit (the first param's number).
 func benchSession(b testing.TB, text []byte, debounce time.Duration, complete bool) (*testClient, string, int, int) {
-	c := newTestClient(b, Options{Debounce: debounce})
+	c := newTestClient(b, Options{Debounce: debounce, MemoryLimit: MemoryLimit})
 	c.initialize(nil)
 	uri := "file:///bench/gen.loop"
 	c.notify("textDocument/didOpen", map[string]any{"textDocument": map[string]any{"uri": uri, "languageId": "loop", "version": 1, "text": string(text)}})
@@ -196,4 +196,46 @@ func BenchmarkDiskStale(b *testing.B) {
 			b.Fatalf("nothing changed, stale reports %v", ch)
 		}
 	}
+}
+
+// largeText is a document of about n bytes: parameters between comment
+// lines with non-ASCII text.
+func largeText(n int) string {
+	var b strings.Builder
+	b.WriteString("param d = 12 mm\n")
+	for i := 0; b.Len() < n; i++ {
+		fmt.Fprintf(&b, "# filler line %d: µ ° ² 𝜃 keep the text honest\nparam p%d = %d mm\n", i, i, i)
+	}
+	return b.String()
+}
+
+// BenchmarkLargeDocument5MB is a 5 MB document: open → complete
+// diagnostics, a one-character edit → complete diagnostics, and the
+// document symbols.
+func BenchmarkLargeDocument5MB(b *testing.B) {
+	text := largeText(5 << 20)
+	// As circa serve runs.
+	defer debug.SetMemoryLimit(debug.SetMemoryLimit(MemoryLimit))
+	var open, edit, symbols []time.Duration
+	for i := 0; i < b.N; i++ {
+		c := newTestClient(b, Options{Debounce: -1, MemoryLimit: MemoryLimit})
+		c.initialize(nil)
+		uri := fmt.Sprintf("file:///bench/large%d.loop", i)
+		t0 := time.Now()
+		c.notify("textDocument/didOpen", map[string]any{"textDocument": map[string]any{"uri": uri, "languageId": "loop", "version": 1, "text": text}})
+		c.settle()
+		open = append(open, time.Since(t0))
+		t0 = time.Now()
+		c.notify("textDocument/didChange", map[string]any{"textDocument": map[string]any{"uri": uri, "version": 2},
+			"contentChanges": []any{map[string]any{"range": map[string]any{"start": map[string]int{"line": 0, "character": 10}, "end": map[string]int{"line": 0, "character": 11}}, "text": "3"}}})
+		c.settle()
+		edit = append(edit, time.Since(t0))
+		t0 = time.Now()
+		c.mustCall("textDocument/documentSymbol", map[string]any{"textDocument": map[string]any{"uri": uri}})
+		symbols = append(symbols, time.Since(t0))
+		c.conn.Close()
+	}
+	b.ReportMetric(float64(median(open).Microseconds())/1000, "ms-open")
+	b.ReportMetric(float64(median(edit).Microseconds())/1000, "ms-edit")
+	b.ReportMetric(float64(median(symbols).Microseconds())/1000, "ms-symbols")
 }

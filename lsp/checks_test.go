@@ -239,3 +239,14 @@ func TestAdaptiveDebounceCancelsStale(t *testing.T) {
 type writerFunc func([]byte) (int, error)
 
 func (f writerFunc) Write(p []byte) (int, error) { return f(p) }
+
+// The soft heap limit grows with the open documents, so a large file is
+// not analysed under a limit its live heap exceeds.
+func TestMemoryLimitFor(t *testing.T) {
+	if got := memoryLimitFor(MemoryLimit, 300<<10); got != MemoryLimit {
+		t.Errorf("limit for 300 kB of text: %d, want the least %d", got, MemoryLimit)
+	}
+	if got := memoryLimitFor(MemoryLimit, 5<<20); got < 2*93<<20 {
+		t.Errorf("limit for 5 MB of text: %d MB, below twice its live heap of 93 MB", got>>20)
+	}
+}

@@ -30,6 +30,10 @@ type Options struct {
 	// LogTiming logs, for every change, when its first and its complete
 	// diagnostics were published, counted from the change's arrival.
 	LogTiming bool
+	// MemoryLimit, when positive, is the least soft heap limit the server
+	// keeps the process under (runtime/debug.SetMemoryLimit), raised with
+	// the size of the open documents (see memoryLimitFor).
+	MemoryLimit int64
 }
 
 // MemoryLimit is the soft heap limit `circa serve` runs under unless the
@@ -37,6 +41,18 @@ type Options struct {
 // 45 MB live; without a limit the collector lets the heap grow to several
 // times that between cycles, which an editor's user sees as resident memory.
 const MemoryLimit = 128 << 20
+
+// heapPerTextByte is about how many bytes of heap an open document's
+// analysis keeps per byte of its text (93 MB for a 5 MB file), with room
+// for the old and the new analysis during an edit.
+const heapPerTextByte = 60
+
+// memoryLimitFor is the soft heap limit for open documents of textBytes
+// bytes in all: the least limit, or enough for their analyses. A limit
+// below the live heap would make the collector run without pause.
+func memoryLimitFor(least, textBytes int64) int64 {
+	return max(least, heapPerTextByte*textBytes)
+}
 
 // Server is one client's session.
 type Server struct {

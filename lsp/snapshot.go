@@ -4,6 +4,7 @@ import (
 	"context"
 	"os"
 	"path/filepath"
+	"runtime/debug"
 	"sort"
 	"sync"
 	"sync/atomic"
@@ -247,6 +248,13 @@ func (s *Server) changeLocked(docs map[string]*document, changed []string, setti
 	n := &snapshot{
 		id: s.nextID, at: time.Now(), ctx: ctx, cancel: cancel, docs: docs, enc: s.enc,
 		settings: s.settings, roots: map[string]*analysis{}, disk: &s.disk, srv: s,
+	}
+	if s.opts.MemoryLimit > 0 {
+		var size int64
+		for _, d := range docs {
+			size += int64(len(d.text))
+		}
+		debug.SetMemoryLimit(memoryLimitFor(s.opts.MemoryLimit, size))
 	}
 	fs := overlay{docs: docs, disk: &s.disk}
 	for path := range docs {

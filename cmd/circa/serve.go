@@ -36,12 +36,14 @@ func runServe(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		fmt.Fprintf(stderr, "circa serve: unexpected argument %q\n", fs.Arg(0))
 		return exitUsage
 	}
+	opts := lsp.Options{Log: stderr, LogTiming: *logTiming}
 	if os.Getenv("GOMEMLIMIT") == "" {
 		debug.SetMemoryLimit(lsp.MemoryLimit)
+		opts.MemoryLimit = lsp.MemoryLimit
 	}
 	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
 	defer stop()
-	return lsp.Serve(ctx, stdio{stdin, stdout}, lsp.Options{Log: stderr, LogTiming: *logTiming})
+	return lsp.Serve(ctx, stdio{stdin, stdout}, opts)
 }
 
 // stdio joins standard input and output into one stream.
