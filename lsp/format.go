@@ -3,6 +3,7 @@ package lsp
 import (
 	"bytes"
 	"context"
+	"sort"
 
 	"go.lsp.dev/jsonrpc2"
 	"go.lsp.dev/protocol"
@@ -41,9 +42,28 @@ func formatEdits(sn *snapshot, u uri.URI, rg *protocol.Range) (any, error) {
 	first, last := -1, -1
 	if rg != nil {
 		sp := d.mapper.RangeOffsets(toPos(rg.Start), toPos(rg.End), sn.enc)
-		first, last = d.mapper.OffsetLine(sp.Start), d.mapper.OffsetLine(sp.End)
+		starts := diffLineStarts(d.text)
+		first, last = diffLine(starts, sp.Start), diffLine(starts, sp.End)
 	}
 	return hunkEdits(d, sn.enc, hunks, first, last), nil
+}
+
+// diffLineStarts returns the byte offset of each line of lang.SplitLines,
+// the lines the formatting diff counts, which end at "\n" only (the mapper
+// also ends a line at a lone "\r").
+func diffLineStarts(text []byte) []int {
+	starts := []int{0}
+	for i, c := range text {
+		if c == '\n' {
+			starts = append(starts, i+1)
+		}
+	}
+	return starts
+}
+
+// diffLine is the diff line holding a byte offset.
+func diffLine(starts []int, off int) int {
+	return sort.Search(len(starts), func(i int) bool { return starts[i] > off }) - 1
 }
 
 // formatHunks formats a document and returns the changed line ranges.
@@ -64,6 +84,7 @@ func formatHunks(d *document) ([]hunk, error) {
 // touch lines first..last are kept.
 func hunkEdits(d *document, enc lang.Encoding, hunks []hunk, first, last int) []protocol.TextEdit {
 	edits := []protocol.TextEdit{}
+	starts := diffLineStarts(d.text)
 	for _, h := range hunks {
 		if first >= 0 {
 			hl := h.oldEnd - 1
@@ -74,10 +95,12 @@ func hunkEdits(d *document, enc lang.Encoding, hunks []hunk, first, last int) []
 				continue
 			}
 		}
-		start := d.mapper.LineStart(h.oldStart)
-		end := d.mapper.LineStart(h.oldEnd)
-		if h.oldEnd >= d.mapper.Lines() {
-			end = len(d.text)
+		start, end := len(d.text), len(d.text)
+		if h.oldStart < len(starts) {
+			start = starts[h.oldStart]
+		}
+		if h.oldEnd < len(starts) {
+			end = starts[h.oldEnd]
 		}
 		a, b := d.mapper.SpanRange(lang.Span{Start: start, End: end}, enc)
 		edits = append(edits, protocol.TextEdit{Range: protocol.Range{Start: fromPos(a), End: fromPos(b)}, NewText: h.text})

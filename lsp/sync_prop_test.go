@@ -3,6 +3,8 @@ package lsp
 import (
 	"fmt"
 	"math/rand/v2"
+	"reflect"
+	"sort"
 	"strings"
 	"testing"
 	"unicode/utf16"
@@ -208,4 +210,65 @@ func describeChanges(cs []protocol.TextDocumentContentChangeEvent) string {
 		}
 	}
 	return b.String()
+}
+
+// applyEdits applies edits given in one text's coordinates, as a client
+// does: from the last to the first.
+func (c *clientText) applyEdits(edits []protocol.TextEdit, enc lang.Encoding) {
+	type span struct {
+		s, e int
+		text string
+	}
+	var spans []span
+	for _, e := range edits {
+		spans = append(spans, span{c.index(e.Range.Start, enc), c.index(e.Range.End, enc), e.NewText})
+	}
+	sort.SliceStable(spans, func(i, j int) bool { return spans[i].s > spans[j].s })
+	all := []rune(c.String())
+	for _, sp := range spans {
+		all = append(append(append([]rune(nil), all[:sp.s]...), []rune(sp.text)...), all[sp.e:]...)
+	}
+	*c = *newClientText(string(all))
+}
+
+// TestFormattingEditsWithLoneCR formats documents whose comments hold a
+// lone CR (a line end for the client, a blank for the language) and checks
+// that the edits, applied by the client, give the formatter's output, for
+// the whole document and for a range, in the three encodings.
+func TestFormattingEditsWithLoneCR(t *testing.T) {
+	texts := []string{
+		"# one\rtwo\nparam   d = 12 mm\nloop l {\n fluid R134a\n  node a # x\r y\n node    b\n}\n",
+		"param a = 1 m # µ\r²\r\n\r\n\r\nparam    b = 2 m\r\n# 𝜃\r\rc\nparam  c = 3 m",
+	}
+	for _, enc := range allEncodings {
+		for _, text := range texts {
+			want, err := lang.Format(lang.Parse("/f.loop", []byte(text)))
+			if err != nil {
+				t.Fatal(err)
+			}
+			d := newDocument("file:///f.loop", "/f.loop", 1, []byte(text))
+			hunks, err := formatHunks(d)
+			if err != nil {
+				t.Fatal(err)
+			}
+			client := newClientText(text)
+			client.applyEdits(hunkEdits(d, enc, hunks, -1, -1), enc)
+			if got := client.String(); got != string(want) {
+				t.Errorf("enc %d: formatting edits on %q give %q, want %q", enc, text, got, want)
+			}
+			// A range on one line of the diff takes the hunks touching it.
+			sn := &snapshot{docs: map[string]*document{d.path: d}, enc: enc}
+			starts := diffLineStarts(d.text)
+			for k, off := range starts {
+				p := fromPos(d.mapper.OffsetPosition(off, enc))
+				got, err := formatEdits(sn, d.uri, &protocol.Range{Start: p, End: p})
+				if err != nil {
+					t.Fatal(err)
+				}
+				if w := hunkEdits(d, enc, hunks, k, k); !reflect.DeepEqual(got, w) {
+					t.Errorf("enc %d: formatting line %d of %q gives %v, want %v", enc, k, text, got, w)
+				}
+			}
+		}
+	}
 }
