@@ -3,6 +3,7 @@ package check
 import (
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 
 	"circa/lang"
@@ -97,4 +98,21 @@ func insertBeforeClose(m *lang.Model, d lang.Decl, indent, stmt string) (lang.Ed
 		return lang.Edit{Loc: lang.Location{File: d.File, Span: lang.Span{Start: start, End: start}}, NewText: indent + stmt + "\n"}, true
 	}
 	return lang.Edit{Loc: lang.Location{File: d.File, Span: lang.Span{Start: d.BlockClose, End: d.BlockClose}}, NewText: "; " + stmt + " "}, true
+}
+
+// sigAs formats an SI value to three significant figures in the unit a
+// value was written in (as written), else in unit.
+func sigAs(si float64, v lang.Value, unit string) string {
+	text := unit
+	if v.Unit != "" {
+		text = v.Unit
+	}
+	u, err := units.Parse(text)
+	if err != nil {
+		if u, err = units.Parse(unit); err != nil {
+			return fmt.Sprintf("%.3g", si)
+		}
+		text = unit
+	}
+	return strconv.FormatFloat(u.FromSI(si), 'g', 3, 64) + " " + text
 }

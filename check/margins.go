@@ -2,6 +2,7 @@ package check
 
 import (
 	"fmt"
+	"math"
 	"strings"
 
 	"circa/check/flow"
@@ -180,9 +181,13 @@ func reportEstimate(c *Context, id string) {
 				continue
 			}
 			c.NoteMargin(Margin{Rule: id, Case: m.Case, Component: m.Component, Used: m.Use,
-				Message: fmt.Sprintf("%s %.3g of %.3g", marginLabel(m.Margin, c.Model.Limits.HeadRatio.SI), m.Value, m.Limit),
+				Message: marginText(c, m, cr),
 				Loc:     componentLoc(c.Loop, m.Component)})
 		}
+	}
+	if id == flow.RuleCharge {
+		reportCharge(c, lr)
+		return
 	}
 	for _, comp := range order {
 		g := groups[comp]
@@ -289,4 +294,56 @@ func limitValue(m *lang.Model, l *lang.Loop, f flow.Finding) (lang.Value, bool) 
 		}
 	}
 	return lang.Value{}, false
+}
+
+// reportCharge reports the charge findings of every case as one finding at
+// the charge: per case whether the loop is short or over and by how much,
+// and the charge that suits every case, if one does.
+func reportCharge(c *Context, lr *flow.LoopResult) {
+	l := c.Loop
+	kg := func(v float64) string { return sigAs(v, l.Charge, "kg") }
+	var worst *flow.Finding
+	var others, parts []string
+	for i := range lr.Cases {
+		cr := &lr.Cases[i]
+		for j := range cr.Findings {
+			f := &cr.Findings[j]
+			if f.Rule != flow.RuleCharge || cr.ChargeRange == nil {
+				continue
+			}
+			r := cr.ChargeRange
+			switch {
+			case r.Charge < r.Low:
+				parts = append(parts, fmt.Sprintf("short by %s in case %s (it needs at least %s)", kg(r.Low-r.Charge), cr.Case, kg(r.Low)))
+			default:
+				parts = append(parts, fmt.Sprintf("over by %s in case %s (it takes at most %s)", kg(r.Charge-r.High), cr.Case, kg(r.High)))
+			}
+			switch {
+			case worst == nil:
+				worst = f
+			case worse(*f, *worst):
+				others = append(others, worst.Case)
+				worst = f
+			default:
+				others = append(others, f.Case)
+			}
+		}
+	}
+	if worst == nil {
+		return
+	}
+	msg := worst.Message
+	if len(parts) > 1 {
+		msg = fmt.Sprintf("charge %s is %s", kg(l.Charge.SI), strings.Join(parts, ", "))
+	}
+	if r := lr.ChargeRange; r != nil {
+		if r.Low > r.High {
+			msg += fmt.Sprintf("; no single charge suits every case: case %s needs at least %s, case %s takes at most %s", r.LowCase, kg(r.Low), r.HighCase, kg(r.High))
+		} else {
+			msg += fmt.Sprintf("; a charge from %s to %s suits every case", kg(math.Max(r.Low, 0)), kg(r.High))
+		}
+	}
+	d := diagnostic(c, *worst, others)
+	d.Args = []any{msg + " (early-design estimate)"}
+	c.Report(d)
 }
