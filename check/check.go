@@ -103,7 +103,7 @@ type Margin struct {
 	Rule      string
 	Case      string
 	Component string
-	Message   string  // e.g. "exit quality 0.42 of 0.5"
+	Message   string  // value and limit in the file's units, and how far inside or past it: "exit quality 0.42 at plate, limit 0.5: 84 % of the limit"
 	Used      float64 // fraction of the limit used: 1 is at the limit, above 1 fails
 	Loc       lang.Location
 }

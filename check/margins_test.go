@@ -133,3 +133,29 @@ func TestMarginsSharedEstimate(t *testing.T) {
 		}
 	}
 }
+
+// The summary's margin texts give values in the units the file wrote, and
+// one measure of how far inside or past the limit they are.
+func TestMarginTexts(t *testing.T) {
+	m := lang.Load("../testdata/examples/rack-door.loop", lang.OSFS{})
+	rep := RunReport(m, Options{NoTilt: true})
+	texts := map[string]string{}
+	for _, mg := range rep.Margins {
+		texts[mg.Rule] = mg.Message
+	}
+	// The example writes design_pressure 4 bar(g) and wall_limit 80 °C.
+	if s := texts["margin-design-pressure"]; !strings.Contains(s, "bar(g)") || !strings.Contains(s, "4 bar(g): ") || !strings.Contains(s, "% of the limit") {
+		t.Errorf("design pressure margin %q", s)
+	}
+	if s := texts["margin-wall-temperature"]; !strings.Contains(s, "limit 80 °C") || !strings.Contains(s, "K to spare") {
+		t.Errorf("wall margin %q", s)
+	}
+	if s := texts["margin-chf"]; !strings.Contains(s, "times the minimum") {
+		t.Errorf("chf margin %q", s)
+	}
+	for rule, s := range texts {
+		if strings.Contains(s, "Inf") || strings.Contains(s, "e+0") {
+			t.Errorf("%s: raw number in %q", rule, s)
+		}
+	}
+}

@@ -69,11 +69,10 @@ func Summary(files []File, counts map[lang.Severity]int) string {
 		}
 	}
 	if worst != nil {
-		s += fmt.Sprintf("; worst margin: %s (%.0f %% of the limit", worst.Message, 100*worst.Used)
+		s += "; worst margin: " + worst.Message
 		if worst.Case != "" {
-			s += ", case " + worst.Case
+			s += " (case " + worst.Case + ")"
 		}
-		s += ")"
 	}
 	return s
 }

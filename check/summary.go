@@ -1,0 +1,80 @@
+package check
+
+import (
+	"fmt"
+	"math"
+	"strconv"
+
+	"circa/check/flow"
+	"circa/lang"
+)
+
+// marginText describes a margin for the summary line: the value and the
+// limit in the units the file wrote them in (temperatures in °C, angles in
+// degrees otherwise), and one measure of how far inside or past the limit
+// the value is.
+func marginText(c *Context, m flow.Margin, cr *flow.CaseResult) string {
+	l, lim := c.Loop, c.Model.Limits
+	at := ""
+	if m.Component != "" {
+		at = " at " + m.Component
+	}
+	num := func(v float64) string { return strconv.FormatFloat(v, 'g', 3, 64) }
+	pct := func(v, limit float64) string {
+		if !(limit > 0) || math.IsInf(v/limit, 0) {
+			return "far past the limit"
+		}
+		return fmt.Sprintf("%.0f %% of the limit", 100*v/limit)
+	}
+	temp := func(k float64, v lang.Value) string { return sigAs(k, v, "°C") }
+	over := func(d float64, unit string) string {
+		if d > 0 {
+			return fmt.Sprintf("%s over", fmt.Sprintf("%.1f %s", d, unit))
+		}
+		return fmt.Sprintf("%.1f %s to spare", -d, unit)
+	}
+	switch m.Margin {
+	case flow.MarginExitQuality, flow.MarginFlooding:
+		return fmt.Sprintf("%s %s%s, limit %s: %s", marginLabel(m.Margin, 0), num(m.Value), at, num(m.Limit), pct(m.Value, m.Limit))
+	case flow.MarginHead:
+		return fmt.Sprintf("exit quality %s%s with the losses ×%s, limit %s: %s", num(m.Value), at, num(lim.HeadRatio.SI), num(m.Limit), pct(m.Value, m.Limit))
+	case flow.MarginCHF:
+		return fmt.Sprintf("critical heat flux ratio %s%s, at least %s: %s times the minimum", num(m.Value), at, num(m.Limit), num(m.Value/m.Limit))
+	case flow.MarginWall:
+		wl := lang.Value{}
+		if comp := c.Model.Component(m.Component); comp != nil {
+			wl = comp.WallLimit
+		}
+		return fmt.Sprintf("wall temperature %s%s, limit %s: %s", temp(m.Value, wl), at, temp(m.Limit, wl), over(m.Value-m.Limit, "K"))
+	case flow.MarginPressure:
+		dp := l.DesignPressure
+		return fmt.Sprintf("saturation pressure %s, design pressure %s: %s", sigAs(m.Value, dp, "bar"), sigAs(m.Limit, dp, "bar"), pct(m.Value, m.Limit))
+	case flow.MarginCondenser:
+		if m.Unit == "K" {
+			return fmt.Sprintf("saturation temperature %s, allowed %s: %s", temp(m.Value, lim.SaturationMax), temp(m.Limit, lim.SaturationMax), over(m.Value-m.Limit, "K"))
+		}
+		return fmt.Sprintf("condenser capacity %.0f W for a load of %.0f W: %s", m.Value, m.Limit, pct(m.Limit, m.Value))
+	case flow.MarginCharge:
+		kg := func(v float64) string { return sigAs(v, l.Charge, "kg") }
+		if cr == nil || cr.ChargeRange == nil {
+			return fmt.Sprintf("charge %s, limit %s", kg(m.Value), kg(m.Limit))
+		}
+		r := cr.ChargeRange
+		s := fmt.Sprintf("charge %s, the case accepts %s to %s: ", kg(r.Charge), kg(math.Max(r.Low, 0)), kg(r.High))
+		switch {
+		case r.Charge < r.Low:
+			return s + kg(r.Low-r.Charge) + " short"
+		case r.Charge > r.High:
+			return s + kg(r.Charge-r.High) + " over"
+		}
+		return s + kg(math.Min(r.Charge-r.Low, r.High-r.Charge)) + " inside"
+	case flow.MarginTilt:
+		d := (m.Value - m.Limit) * 180 / math.Pi
+		msg := fmt.Sprintf("%.1f° from an attitude where circulation stops, margin %.1f°: ", m.Value*180/math.Pi, m.Limit*180/math.Pi)
+		if d < 0 {
+			return msg + fmt.Sprintf("%.1f° inside the margin", -d)
+		}
+		return msg + fmt.Sprintf("%.1f° to spare", d)
+	}
+	return fmt.Sprintf("%s %s%s, limit %s", marginLabel(m.Margin, lim.HeadRatio.SI), num(m.Value), at, num(m.Limit))
+}
