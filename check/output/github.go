@@ -10,11 +10,22 @@ import (
 )
 
 func ghData(s string) string {
-	return strings.NewReplacer("%", "%25", "\r", "%0D", "\n", "%0A").Replace(s)
+	return strings.NewReplacer("%", "%25", "\r", "%0D", "\n", "%0A").Replace(printableLines(s))
+}
+
+// printableLines is Printable on each line of s, keeping its line ends,
+// which the workflow command encodes.
+func printableLines(s string) string {
+	lines := strings.SplitAfter(s, "\n")
+	for i, l := range lines {
+		body := strings.TrimRight(l, "\r\n")
+		lines[i] = Printable(body) + l[len(body):]
+	}
+	return strings.Join(lines, "")
 }
 
 func ghProp(s string) string {
-	return strings.NewReplacer("%", "%25", "\r", "%0D", "\n", "%0A", ":", "%3A", ",", "%2C").Replace(s)
+	return strings.NewReplacer("%", "%25", "\r", "%0D", "\n", "%0A", ":", "%3A", ",", "%2C").Replace(printableLines(s))
 }
 
 // GitHub writes one workflow-command annotation per finding; related

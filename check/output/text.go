@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"io"
 	"strings"
+	"unicode/utf8"
 
 	"circa/lang"
 )
@@ -41,22 +42,23 @@ func Text(w io.Writer, files []File, fs []Finding, colour bool) error {
 		case lang.Warning:
 			code = ansiYel
 		}
+		file, msg := Printable(d.Loc.File), Printable(d.Message())
 		if ok {
-			fmt.Fprintf(&b, "%s: %s: %s [%s]\n", paint(ansiBold, fmt.Sprintf("%s:%d:%d", d.Loc.File, s.Line, s.Char)), paint(code, d.Severity.String()), d.Message(), d.Rule)
+			fmt.Fprintf(&b, "%s: %s: %s [%s]\n", paint(ansiBold, fmt.Sprintf("%s:%d:%d", file, s.Line, s.Char)), paint(code, d.Severity.String()), msg, d.Rule)
 			caret(&b, f.Model, d.Loc, s, e, func(x string) string { return paint(ansiGreen, x) })
 		} else {
-			fmt.Fprintf(&b, "%s: %s: %s [%s]\n", paint(ansiBold, d.Loc.File), paint(code, d.Severity.String()), d.Message(), d.Rule)
+			fmt.Fprintf(&b, "%s: %s: %s [%s]\n", paint(ansiBold, file), paint(code, d.Severity.String()), msg, d.Rule)
 		}
 		for _, r := range d.Related {
 			rs, _, rok := Span(f.Model, r.Loc)
 			if rok {
-				fmt.Fprintf(&b, "    %s %s:%d:%d: %s\n", paint(ansiCyan, "note:"), r.Loc.File, rs.Line, rs.Char, r.Message)
+				fmt.Fprintf(&b, "    %s %s:%d:%d: %s\n", paint(ansiCyan, "note:"), Printable(r.Loc.File), rs.Line, rs.Char, Printable(r.Message))
 			} else {
-				fmt.Fprintf(&b, "    %s %s\n", paint(ansiCyan, "note:"), r.Message)
+				fmt.Fprintf(&b, "    %s %s\n", paint(ansiCyan, "note:"), Printable(r.Message))
 			}
 		}
 		for _, fx := range d.Fixes {
-			fmt.Fprintf(&b, "    %s %s\n", paint(ansiGreen, "fix:"), fx.Title)
+			fmt.Fprintf(&b, "    %s %s\n", paint(ansiGreen, "fix:"), Printable(fx.Title))
 		}
 	}
 	fmt.Fprintln(&b, Summary(files, counts))
@@ -65,30 +67,41 @@ func Text(w io.Writer, files []File, fs []Finding, colour bool) error {
 }
 
 // caret prints the source line and a caret line under the span; tabs
-// before the span are kept so the caret lines up.
+// before the span are kept so the caret lines up. Characters a terminal
+// would act on are printed escaped (see Printable), the caret widened to
+// match.
 func caret(b *strings.Builder, m *lang.Model, loc lang.Location, s, e Pos, paint func(string) string) {
 	f := m.Files[loc.File]
 	if f == nil || f.Mapper == nil {
 		return
 	}
 	text := f.Mapper.LineText(s.Line - 1)
-	fmt.Fprintf(b, "  %s\n", text)
-	var pad strings.Builder
-	i := 0
-	for _, r := range text {
-		if i >= s.Char-1 {
-			break
-		}
-		if r == '\t' {
-			pad.WriteByte('\t')
-		} else {
-			pad.WriteByte(' ')
-		}
-		i++
-	}
-	n := 1
+	var line, pad strings.Builder
+	n := 0 // printed width of the span
+	last := s.Char
 	if e.Line == s.Line && e.Char > s.Char {
-		n = e.Char - s.Char
+		last = e.Char - 1
 	}
+	char := 1 // 1-based character of text being printed
+	for i := 0; i < len(text); char++ {
+		r, size := utf8.DecodeRuneInString(text[i:])
+		shown := escaped(r, size, text[i])
+		if shown == "" {
+			shown = text[i : i+size]
+		}
+		line.WriteString(shown)
+		width := utf8.RuneCountInString(shown)
+		switch {
+		case char < s.Char && r == '\t':
+			pad.WriteByte('\t')
+		case char < s.Char:
+			pad.WriteString(strings.Repeat(" ", width))
+		case char <= last:
+			n += width
+		}
+		i += size
+	}
+	n = max(n, 1)
+	fmt.Fprintf(b, "  %s\n", line.String())
 	fmt.Fprintf(b, "  %s%s\n", pad.String(), paint("^"+strings.Repeat("~", n-1)))
 }

@@ -9,6 +9,7 @@ import (
 	"os/signal"
 	"syscall"
 
+	"circa/check/output"
 	"circa/lang"
 	"circa/textfile"
 )
@@ -117,7 +118,7 @@ func fmtOne(name string, src []byte, onDisk bool, o fmtOptions, stdout, stderr i
 	if len(f.Errors) > 0 {
 		for _, d := range f.Errors {
 			pos := f.Mapper.OffsetPosition(d.Loc.Span.Start, lang.UTF8)
-			fmt.Fprintf(stderr, "%s:%d:%d: %s: %s [%s]\n", name, pos.Line+1, pos.Col+1, d.Severity, d.Message(), d.Rule)
+			fmt.Fprintf(stderr, "%s:%d:%d: %s: %s [%s]\n", output.Printable(name), pos.Line+1, pos.Col+1, d.Severity, output.Printable(d.Message()), d.Rule)
 		}
 		return exitFindings
 	}

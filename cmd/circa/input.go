@@ -9,6 +9,7 @@ import (
 	"path/filepath"
 	"strings"
 
+	"circa/check/output"
 	"circa/textfile"
 )
 
@@ -20,7 +21,7 @@ func readError(path string, err error) string {
 	if errors.As(err, &pe) {
 		err = pe.Err
 	}
-	return fmt.Sprintf("cannot read %s: %v", path, err)
+	return output.Printable(fmt.Sprintf("cannot read %s: %v", path, err))
 }
 
 // readInput reads a file named on the command line through the shared

@@ -146,7 +146,7 @@ func loadClean(file, cmd, nothing string, stderr io.Writer) (m *lang.Model, rc i
 	bad := false
 	for _, d := range m.Diags {
 		if d.Severity == lang.Error {
-			fmt.Fprintf(stderr, "%s: %s: %s\n", output.Where(m, d.Loc), d.Severity, d.Message())
+			fmt.Fprintf(stderr, "%s: %s: %s\n", output.Printable(output.Where(m, d.Loc)), d.Severity, output.Printable(d.Message()))
 			bad = true
 		}
 	}
