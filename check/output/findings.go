@@ -15,6 +15,14 @@ type File struct {
 	Report *check.Report
 }
 
+// Problem is a path that could not be read (missing, not a regular file,
+// too large): no finding can be reported for it, so it is reported
+// alongside the findings, where a tool reading the output sees it.
+type Problem struct {
+	File    string
+	Message string // "cannot read PATH: reason"
+}
+
 // Finding is a diagnostic with the model that can locate it.
 type Finding struct {
 	Diagnostic lang.Diagnostic
@@ -81,16 +89,18 @@ func Summary(files []File, counts map[lang.Severity]int) string {
 var Formats = []string{"text", "json", "sarif", "github"}
 
 // Write writes the findings in the named format; colour applies to text.
-func Write(w io.Writer, format string, files []File, findings []Finding, colour bool) error {
+// Problems go into the JSON, SARIF and GitHub outputs; the text output
+// leaves them to the command's standard error.
+func Write(w io.Writer, format string, files []File, findings []Finding, colour bool, problems ...Problem) error {
 	switch format {
 	case "text":
 		return Text(w, files, findings, colour)
 	case "json":
-		return JSON(w, files, findings)
+		return JSON(w, files, findings, problems...)
 	case "sarif":
-		return SARIF(w, findings)
+		return SARIF(w, findings, problems...)
 	case "github":
-		return GitHub(w, findings)
+		return GitHub(w, findings, problems...)
 	}
 	return fmt.Errorf("unknown format %q", format)
 }

@@ -30,8 +30,11 @@ func ghProp(s string) string {
 
 // GitHub writes one workflow-command annotation per finding; related
 // locations are appended to the message as notes.
-func GitHub(w io.Writer, fs []Finding) error {
+func GitHub(w io.Writer, fs []Finding, problems ...Problem) error {
 	var b strings.Builder
+	for _, p := range problems {
+		fmt.Fprintf(&b, "::error file=%s,title=file-unreadable::%s\n", ghProp(filepath.ToSlash(p.File)), ghData(p.Message))
+	}
 	for _, f := range fs {
 		d := f.Diagnostic
 		cmd := "notice"

@@ -44,9 +44,15 @@ type jsonFinding struct {
 	Fixes   []jsonFix     `json:"fixes"`
 }
 
+type jsonProblem struct {
+	File    string `json:"file"`
+	Message string `json:"message"`
+}
+
 type jsonReport struct {
 	Version  int           `json:"version"`
 	Findings []jsonFinding `json:"findings"`
+	Errors   []jsonProblem `json:"errors"`
 	Summary  struct {
 		Files    int `json:"files"`
 		Errors   int `json:"errors"`
@@ -62,10 +68,13 @@ func jloc(m *lang.Model, loc lang.Location) jsonLoc {
 		End:   jsonPos{e.Line, e.Byte, e.UTF16, max(loc.Span.End, loc.Span.Start)}}
 }
 
-// JSON writes the findings and a summary as one JSON document
-// (docs/check-json.md).
-func JSON(w io.Writer, runs []File, fs []Finding) error {
-	rep := jsonReport{Version: 1, Findings: []jsonFinding{}}
+// JSON writes the findings, the paths that could not be read and a summary
+// as one JSON document (docs/check-json.md).
+func JSON(w io.Writer, runs []File, fs []Finding, problems ...Problem) error {
+	rep := jsonReport{Version: 1, Findings: []jsonFinding{}, Errors: []jsonProblem{}}
+	for _, p := range problems {
+		rep.Errors = append(rep.Errors, jsonProblem{p.File, p.Message})
+	}
 	rep.Summary.Files = len(runs)
 	for _, f := range fs {
 		d := f.Diagnostic

@@ -117,9 +117,24 @@ func sregion(m *lang.Model, loc lang.Location) *sarifRegion {
 	return &sarifRegion{s.Line, s.UTF16, e.Line, e.UTF16}
 }
 
+// sarifNotification is a tool execution notification: a path that could
+// not be read.
+type sarifNotification struct {
+	Level     string          `json:"level"`
+	Message   sarifText       `json:"message"`
+	Locations []sarifLocation `json:"locations,omitempty"`
+}
+
+type sarifInvocation struct {
+	ExecutionSuccessful        bool                `json:"executionSuccessful"`
+	ToolExecutionNotifications []sarifNotification `json:"toolExecutionNotifications"`
+}
+
 // SARIF writes the findings as a SARIF 2.1.0 log with the rule registry as
-// the driver's rules; columns count UTF-16 code units.
-func SARIF(w io.Writer, fs []Finding) error {
+// the driver's rules; columns count UTF-16 code units. The run's invocation
+// says whether every path could be read, each one that could not being a
+// tool execution notification.
+func SARIF(w io.Writer, fs []Finding, problems ...Problem) error {
 	rules := check.Rules()
 	index := map[string]int{}
 	srules := make([]sarifRule, 0, len(rules))
@@ -176,6 +191,14 @@ func SARIF(w io.Writer, fs []Finding) error {
 		}
 		results = append(results, res)
 	}
+	inv := sarifInvocation{ExecutionSuccessful: len(problems) == 0, ToolExecutionNotifications: []sarifNotification{}}
+	for _, p := range problems {
+		n := sarifNotification{Level: "error", Message: sarifText{p.Message}}
+		if p.File != "" && p.File != "standard input" {
+			n.Locations = []sarifLocation{{PhysicalLocation: sarifPhysical{ArtifactLocation: sarifArtifact{sarifURI(p.File)}}}}
+		}
+		inv.ToolExecutionNotifications = append(inv.ToolExecutionNotifications, n)
+	}
 	doc := map[string]any{
 		"$schema": "https://docs.oasis-open.org/sarif/sarif/v2.1.0/errata01/os/schemas/sarif-schema-2.1.0.json",
 		"version": "2.1.0",
@@ -184,8 +207,9 @@ func SARIF(w io.Writer, fs []Finding) error {
 				"name":  "circa",
 				"rules": srules,
 			}},
-			"columnKind": "utf16CodeUnits",
-			"results":    results,
+			"columnKind":  "utf16CodeUnits",
+			"invocations": []sarifInvocation{inv},
+			"results":     results,
 		}},
 	}
 	enc := json.NewEncoder(w)

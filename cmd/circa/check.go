@@ -100,6 +100,10 @@ func runCheck(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	status := exitOK
 	var runs []output.File
 	stdinRead := false
+	// Read errors are printed and also go into the JSON, SARIF and GitHub
+	// outputs.
+	problems := &problemLog{Writer: stderr}
+	stderr = problems
 	for _, p := range paths {
 		if p == "-" {
 			if stdinRead {
@@ -130,7 +134,7 @@ func runCheck(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		}
 	}
 	findings := output.Collect(runs)
-	if err := output.Write(stdout, *format, runs, findings, useColour(stdout)); err != nil {
+	if err := output.Write(stdout, *format, runs, findings, useColour(stdout), problems.list...); err != nil {
 		fmt.Fprintf(stderr, "circa check: writing output: %v\n", err)
 		return exitUsage
 	}

@@ -24,6 +24,24 @@ func readError(path string, err error) string {
 	return output.Printable(fmt.Sprintf("cannot read %s: %v", path, err))
 }
 
+// reportRead prints readError for a command. When stderr is a problemLog
+// (check's, whose JSON and SARIF outputs carry such errors too) the error
+// is also recorded.
+func reportRead(cmd, path string, err error, stderr io.Writer) {
+	msg := readError(path, err)
+	fmt.Fprintf(stderr, "circa %s: %s\n", cmd, msg)
+	if l, ok := stderr.(*problemLog); ok {
+		l.list = append(l.list, output.Problem{File: path, Message: msg})
+	}
+}
+
+// problemLog is a command's standard error that also keeps the read errors
+// printed on it.
+type problemLog struct {
+	io.Writer
+	list []output.Problem
+}
+
 // readInput reads a file named on the command line through the shared
 // reader (regular files only, size-capped). On failure it prints readError
 // for the command and ok is false; the command's status is then exitUsage,
@@ -32,7 +50,7 @@ func readError(path string, err error) string {
 func readInput(cmd, path string, stderr io.Writer) (src []byte, ok bool) {
 	src, err := textfile.Read(path)
 	if err != nil {
-		fmt.Fprintf(stderr, "circa %s: %s\n", cmd, readError(path, err))
+		reportRead(cmd, path, err, stderr)
 		return nil, false
 	}
 	return src, true
@@ -42,7 +60,7 @@ func readInput(cmd, path string, stderr io.Writer) (src []byte, ok bool) {
 func readStdin(cmd string, stdin io.Reader, stderr io.Writer) ([]byte, bool) {
 	src, err := textfile.ReadAll("standard input", stdin)
 	if err != nil {
-		fmt.Fprintf(stderr, "circa %s: %s\n", cmd, readError("standard input", err))
+		reportRead(cmd, "standard input", err, stderr)
 		return nil, false
 	}
 	return src, true
@@ -70,7 +88,7 @@ func readSource(cmd, path string, stdin io.Reader, stderr io.Writer) ([]byte, bo
 func loopFiles(cmd, p string, stderr io.Writer) (files []string, ok bool) {
 	info, err := os.Stat(p)
 	if err != nil {
-		fmt.Fprintf(stderr, "circa %s: %s\n", cmd, readError(p, err))
+		reportRead(cmd, p, err, stderr)
 		return nil, false
 	}
 	if !info.IsDir() {
@@ -79,7 +97,7 @@ func loopFiles(cmd, p string, stderr io.Writer) (files []string, ok bool) {
 	ok = true
 	err = filepath.WalkDir(p, func(path string, d fs.DirEntry, err error) error {
 		if err != nil {
-			fmt.Fprintf(stderr, "circa %s: %s\n", cmd, readError(path, err))
+			reportRead(cmd, path, err, stderr)
 			ok = false
 			return nil
 		}
@@ -92,7 +110,7 @@ func loopFiles(cmd, p string, stderr io.Writer) (files []string, ok bool) {
 		return nil
 	})
 	if err != nil {
-		fmt.Fprintf(stderr, "circa %s: %s\n", cmd, readError(p, err))
+		reportRead(cmd, p, err, stderr)
 		ok = false
 	}
 	return files, ok

@@ -2,11 +2,14 @@ package main
 
 import (
 	"bytes"
+	"encoding/json"
 	"os"
 	"path/filepath"
 	"strings"
 	"syscall"
 	"testing"
+
+	"github.com/santhosh-tekuri/jsonschema/v6"
 )
 
 // Every command that reads a file refuses a missing one with the same
@@ -203,4 +206,83 @@ func TestByteOrderMarkFile(t *testing.T) {
 	if b, _ := os.ReadFile(tidy); string(b) != "param a = 2 m\n" {
 		t.Errorf("after fmt -w: %q", b)
 	}
+}
+
+// With --format json, sarif or github a path that cannot be read is in the
+// output too, not only in the exit status; the SARIF log still validates.
+func TestReadErrorsInMachineOutputs(t *testing.T) {
+	missing := filepath.Join(t.TempDir(), "nowhere.loop")
+	msg := "cannot read " + missing + ": no such file or directory"
+
+	code, out, _ := circa(t, "", "check", "--no-estimates", "--format", "json", missing)
+	var rep struct {
+		Errors []struct{ File, Message string }
+	}
+	if err := json.Unmarshal([]byte(out), &rep); err != nil {
+		t.Fatalf("json: %v\n%s", err, out)
+	}
+	if code != exitUsage || len(rep.Errors) != 1 || rep.Errors[0].File != missing || rep.Errors[0].Message != msg {
+		t.Errorf("json: %d %+v", code, rep.Errors)
+	}
+
+	code, out, _ = circa(t, good, "check", "--no-estimates", "--format", "sarif", "-", missing)
+	var log struct {
+		Runs []struct {
+			Invocations []struct {
+				ExecutionSuccessful        bool
+				ToolExecutionNotifications []struct {
+					Level   string
+					Message struct{ Text string }
+				}
+			}
+		}
+	}
+	if err := json.Unmarshal([]byte(out), &log); err != nil {
+		t.Fatalf("sarif: %v", err)
+	}
+	inv := log.Runs[0].Invocations
+	if code != exitUsage || len(inv) != 1 || inv[0].ExecutionSuccessful || len(inv[0].ToolExecutionNotifications) != 1 ||
+		inv[0].ToolExecutionNotifications[0].Message.Text != msg || inv[0].ToolExecutionNotifications[0].Level != "error" {
+		t.Errorf("sarif: %d %+v", code, inv)
+	}
+	sch := sarifSchema(t)
+	inst, err := jsonschema.UnmarshalJSON(strings.NewReader(out))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := sch.Validate(inst); err != nil {
+		t.Errorf("SARIF with a notification does not validate: %v", err)
+	}
+	// A clean run says it succeeded.
+	_, out, _ = circa(t, good, "check", "--no-estimates", "--format", "sarif")
+	if !strings.Contains(out, `"executionSuccessful": true`) {
+		t.Errorf("clean run:\n%s", out)
+	}
+
+	_, out, _ = circa(t, "", "check", "--format", "github", missing)
+	if !strings.HasPrefix(out, "::error file="+missing+",title=file-unreadable::"+msg) {
+		t.Errorf("github: %q", out)
+	}
+}
+
+func sarifSchema(t *testing.T) *jsonschema.Schema {
+	f, err := os.Open("../../testdata/sarif-2.1.0.json")
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	doc, err := jsonschema.UnmarshalJSON(f)
+	if err != nil {
+		t.Fatal(err)
+	}
+	c := jsonschema.NewCompiler()
+	c.AssertFormat()
+	if err := c.AddResource("sarif-2.1.0.json", doc); err != nil {
+		t.Fatal(err)
+	}
+	sch, err := c.Compile("sarif-2.1.0.json")
+	if err != nil {
+		t.Fatal(err)
+	}
+	return sch
 }
