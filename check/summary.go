@@ -34,10 +34,17 @@ func marginText(c *Context, m flow.Margin, cr *flow.CaseResult) string {
 		return fmt.Sprintf("%.1f %s to spare", -d, unit)
 	}
 	switch m.Margin {
-	case flow.MarginExitQuality, flow.MarginFlooding:
+	case flow.MarginExitQuality, flow.MarginHead:
+		with := ""
+		if m.Margin == flow.MarginHead {
+			with = " with the losses ×" + num(lim.HeadRatio.SI)
+		}
+		if m.Value > 1.005 {
+			return fmt.Sprintf("dryout%s%s: the vapour superheats, taking in %s times the heat that evaporates the flow (exit-quality limit %s)", at, with, num(m.Value), num(m.Limit))
+		}
+		return fmt.Sprintf("exit quality %s%s%s, limit %s: %s", num(m.Value), at, with, num(m.Limit), pct(m.Value, m.Limit))
+	case flow.MarginFlooding:
 		return fmt.Sprintf("%s %s%s, limit %s: %s", marginLabel(m.Margin, 0), num(m.Value), at, num(m.Limit), pct(m.Value, m.Limit))
-	case flow.MarginHead:
-		return fmt.Sprintf("exit quality %s%s with the losses ×%s, limit %s: %s", num(m.Value), at, num(lim.HeadRatio.SI), num(m.Limit), pct(m.Value, m.Limit))
 	case flow.MarginCHF:
 		return fmt.Sprintf("critical heat flux ratio %s%s, at least %s: %s times the minimum", num(m.Value), at, num(m.Limit), num(m.Value/m.Limit))
 	case flow.MarginWall:

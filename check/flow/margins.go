@@ -97,11 +97,11 @@ func (p *prepared) margins(s *state, cr *CaseResult, f []float64) {
 			case x >= 1:
 				m.Status = "error"
 				cr.Findings = append(cr.Findings, p.finding(RuleDryout, "error", cr.Case, cp.name, x, 1, "", "exit_quality",
-					"dryout: exit quality %.2f at evaporator %s in case %s reaches 1 (the outlet is dry vapour)", x, cp.name, cr.Case))
+					"dryout: evaporator %s in case %s %s%s", cp.name, cr.Case, dryText(x), p.starvedNote(cr, ci)))
 			case x > xl:
 				m.Status = "warning"
 				cr.Findings = append(cr.Findings, p.finding(RuleExitQuality, "warning", cr.Case, cp.name, x, xl, "", "exit_quality",
-					"exit quality %.2f at evaporator %s in case %s exceeds the limit %.2f", x, cp.name, cr.Case, xl))
+					"exit quality %.2f at evaporator %s in case %s exceeds the limit %.2f%s", x, cp.name, cr.Case, xl, p.starvedNote(cr, ci)))
 			default:
 				m.Status = "ok"
 			}
@@ -150,7 +150,7 @@ func (p *prepared) margins(s *state, cr *CaseResult, f []float64) {
 		}
 		if cp.kind != lang.Evaporator && (cs.XIn > 1 || cs.XOut > 1) {
 			cr.Findings = append(cr.Findings, p.finding(RuleSuperheatCells, "warning", cr.Case, cp.name, math.Max(cs.XIn, cs.XOut), 1, "", "",
-				"%s %s carries dry vapour (quality %.2f above 1) in case %s; its properties are taken as saturated vapour", cp.kind, cp.name, math.Max(cs.XIn, cs.XOut), cr.Case))
+				"%s %s carries superheated vapour in case %s (the heat added upstream is %.2f times what evaporates its flow); its properties are taken as saturated vapour", cp.kind, cp.name, cr.Case, math.Max(cs.XIn, cs.XOut)))
 		}
 		// Flooding where vapour and liquid flow counter-current: two-phase
 		// flow running along the body force whose vapour drift against it
@@ -211,7 +211,7 @@ func (p *prepared) lossReserve(s *state, cr *CaseResult, f []float64) {
 	case xk >= 1:
 		m.Status = "warning"
 		cr.Findings = append(cr.Findings, p.finding(RuleHead, "warning", cr.Case, where, xk, xl, "", "head_ratio",
-			"with friction and local losses %.2g times the estimate, evaporator %s dries out (exit quality %.2f) in case %s: the gravity head has little reserve over the losses", k, where, xk, cr.Case))
+			"with friction and local losses %.2g times the estimate, evaporator %s dries out in case %s: it %s; the gravity head has little reserve over the losses", k, where, cr.Case, dryText(xk)))
 	case xk > xl:
 		m.Status = "warning"
 		// Already above the limit as estimated: the exit-quality margin
@@ -873,4 +873,14 @@ func (c *CaseResult) PointLabel() string {
 		s += ", acceleration (" + g(a[0]) + ", " + g(a[1]) + ", " + g(a[2]) + ") gn"
 	}
 	return s
+}
+
+// dryText describes an evaporator outlet at quality x ≥ 1: dry saturated
+// vapour at 1, superheated above it, where x is the heat added over the
+// latent heat the flow can take up.
+func dryText(x float64) string {
+	if x <= 1.005 {
+		return "evaporates all its flow (exit quality 1, dry vapour at the outlet)"
+	}
+	return fmt.Sprintf("evaporates all its flow and superheats the vapour, taking in %.2f times the heat that evaporates the flow", x)
 }
