@@ -34,8 +34,10 @@
 //     component's local loss K·G²/(2ρ_h) on its outlet state. Components
 //     without heat keep one state along their length and are evaluated once.
 //   - A single loop has one unknown mass flow. Its excess head
-//     E(ṁ) = −Σ(p_in − p_out) is bracketed on a logarithmic grid, finer
-//     over the boiling band (between the flows at which the heat just dries
+//     E(ṁ) = −Σ(p_in − p_out) is bracketed on a logarithmic grid from
+//     1e-6 to 10 kg/s, continued above it while E stays positive (a
+//     boiler-scale loop circulates more) up to 1e5 kg/s, finer over the
+//     boiling band (between the flows at which the heat just dries
 //     out and just saturates a subcooled return, where E need not be
 //     monotone), and refined by Brent's method; a root with dE/dṁ < 0 is stable, one with
 //     dE/dṁ > 0 statically unstable (Ledinegg) and flagged. The stable root

@@ -4,6 +4,7 @@ import (
 	"encoding/json"
 	"fmt"
 	"math"
+	"os"
 	"strings"
 	"testing"
 
@@ -209,6 +210,64 @@ func TestHandWorkedHomogeneous(t *testing.T) {
 	}
 	if x := c.Components[0].XOut; math.Abs(x-0.1) > 0.001 {
 		t.Errorf("heater exit quality %g, want 0.1", x)
+	}
+}
+
+// TestHandWorkedAboveGrid checks testdata/flow/hand-large.loop, the loop
+// above at 1 m bore and 2 MW, whose flow lies above the 10 kg/s top of the
+// coarse grid, against the same arithmetic:
+//
+//	at ṁ = 20 kg/s the heater's 2 MW gives x = 2e6/(20·1e6) = 0.1, so the
+//	head is again 8906.96 Pa. A = π/4·1² = 0.78540 m², G = 25.465 kg/(m²s),
+//	riser loss K·G²·v_h/2 = K·3.5341 Pa, so K = 8906.96/3.5341 = 2520.3
+//	balances at 20 kg/s. Friction over 2.2 m of 1 m tube at Re ≈ 25000
+//	is below 0.5 Pa (< 0.01 %).
+func TestHandWorkedAboveGrid(t *testing.T) {
+	m := lang.Load("../../testdata/flow/hand-large.loop", lang.OSFS{})
+	for _, d := range m.Diags {
+		t.Fatalf("hand-large.loop: %s", d.Message())
+	}
+	c := only(t, estimate(t, m, Options{NoTilt: true}))
+	const want = 20.0 // kg/s, the arithmetic above
+	if math.Abs(c.MassFlow-want) > 0.01*want {
+		t.Fatalf("hand-worked loop above the grid: %g kg/s (%s), want %g within 1 %%", c.MassFlow, c.Reason, want)
+	}
+	for _, f := range c.Findings {
+		if f.Rule == RuleNoCirculation {
+			t.Errorf("finding %s", f.Message)
+		}
+	}
+}
+
+// TestFlowBeyondRange: a loop whose excess head is still positive at the
+// largest flow searched is reported as beyond the range, not as one that
+// does not circulate.
+func TestFlowBeyondRange(t *testing.T) {
+	src, err := os.ReadFile("../../testdata/flow/hand-large.loop")
+	if err != nil {
+		t.Fatal(err)
+	}
+	// A 100 m bore and no losses: far above any flow searched.
+	text := strings.NewReplacer("1000 mm", "100 m", "loss 2520.3; ", "").Replace(string(src))
+	m := lang.LoadSource("../../testdata/flow/wide.loop", []byte(text), lang.OSFS{})
+	for _, d := range m.Diags {
+		t.Fatalf("wide.loop: %s", d.Message())
+	}
+	c := only(t, estimate(t, m, Options{NoTilt: true}))
+	if c.Circulates {
+		t.Fatalf("circulates at %g kg/s: not beyond the range", c.MassFlow)
+	}
+	found := false
+	for _, f := range c.Findings {
+		if f.Rule == RuleNoCirculation {
+			found = true
+			if strings.Contains(f.Message, "no circulation") || !strings.Contains(f.Message, "beyond the range searched") {
+				t.Errorf("message %q", f.Message)
+			}
+		}
+	}
+	if !found {
+		t.Errorf("no finding; reason %q", c.Reason)
 	}
 }
 

@@ -3,6 +3,7 @@ package flow
 import (
 	"fmt"
 	"math"
+	"strings"
 
 	"circa/lang"
 )
@@ -55,7 +56,13 @@ func (p *prepared) run(pt point, tilt bool, start []float64) (CaseResult, []floa
 		}
 	}
 	if !ok {
-		if cr.Heat > 0 {
+		switch {
+		case cr.Heat > 0 && strings.HasPrefix(cr.Reason, beyondRange):
+			// Not "no circulation": the loop circulates, faster than any
+			// flow the model was asked to try.
+			cr.Findings = append(cr.Findings, p.finding(RuleNoCirculation, "error", cr.Case, "", 0, 0, "", "",
+				"no estimate in case %s: %s", cr.Case, cr.Reason))
+		case cr.Heat > 0:
 			cr.Findings = append(cr.Findings, p.finding(RuleNoCirculation, "error", cr.Case, "", 0, 0, "", "",
 				"no circulation in case %s: %s", cr.Case, cr.Reason))
 		}
@@ -94,6 +101,10 @@ func (p *prepared) finding(rule, sev, cs, comp string, v, lim float64, unit, fie
 		Unit: unit, LimitField: field, Message: fmt.Sprintf(format, args...)}
 }
 
+// beyondRange starts the reason given when the flow is above every flow the
+// search tries.
+const beyondRange = "the flow is beyond the range searched"
+
 // noFlowReason explains why a single loop has no balance.
 func (p *prepared) noFlowReason(s *state, ev *eval, heat, e0 float64) string {
 	if heat == 0 {
@@ -104,7 +115,7 @@ func (p *prepared) noFlowReason(s *state, ev *eval, heat, e0 float64) string {
 		return fmt.Sprintf("the gravity head is %.3g Pa even with the riser full of vapour: the condenser is not above the evaporator along the body force", head)
 	}
 	if e0 > 0 {
-		return fmt.Sprintf("the excess head stays positive up to %g kg/s", flowMax)
+		return fmt.Sprintf("%s: the excess head is still positive at %g kg/s, the largest flow searched", beyondRange, flowCeiling)
 	}
 	return fmt.Sprintf("the losses exceed the gravity head (at most %.3g Pa) at every flow", head)
 }

@@ -11,10 +11,13 @@ import (
 	"circa/lang"
 )
 
-// Bracketing grid for the single-loop mass flow, kg/s.
+// Bracketing grid for the single-loop mass flow, kg/s. The grid ends at
+// flowMax; a loop whose excess head is still positive there is searched
+// further, a decade at a time, up to flowCeiling (see ringRoots).
 const (
 	flowMin       = 1e-6
 	flowMax       = 10.0
+	flowCeiling   = 1e5
 	gridPerDecade = 5
 )
 
@@ -274,7 +277,10 @@ var grid = flowGrid()
 
 // ringRoots brackets and refines every root of the single loop's excess
 // head on the flow grid; it also returns the excess head at the bottom of
-// the grid.
+// the grid. When the excess head is still positive at the top of the grid
+// (a boiler-scale loop circulates more than 10 kg/s), the search goes on
+// above it on the same logarithmic steps until the excess head turns
+// negative or the flow reaches flowCeiling.
 func (s *state) ringRoots(ev *eval) ([]root, float64) {
 	f := []float64{0}
 	E := func(m float64) float64 {
@@ -282,7 +288,32 @@ func (s *state) ringRoots(ev *eval) ([]root, float64) {
 		s.evaluate(f, ev)
 		return ev.e[0]
 	}
-	return findRoots(E, s.ringGrid())
+	g := s.ringGrid()
+	roots, e0 := findRoots(E, g)
+	top := g[len(g)-1]
+	if E(top) > 0 {
+		roots = append(roots, extendRoots(E, top)...)
+	}
+	return roots, e0
+}
+
+// extendRoots continues findRoots above the grid's top m (where the excess
+// head is positive) until a balance is found or flowCeiling is passed.
+func extendRoots(E func(float64) float64, m float64) []root {
+	step := math.Pow(10, 1.0/gridPerDecade)
+	for m < flowCeiling {
+		next := m * step
+		en := E(next)
+		if !finite(en) {
+			return nil
+		}
+		if en <= 0 {
+			roots, _ := findRoots(E, []float64{m, next})
+			return roots
+		}
+		m = next
+	}
+	return nil
 }
 
 // refinePerDecade is the density of the bracketing grid over the boiling
