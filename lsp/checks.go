@@ -34,7 +34,7 @@ func checkModel(ctx context.Context, m *lang.Model, mode marginMode) ([]lang.Dia
 	}
 	est := &estimates{tilt: mode == marginsFull}
 	t0 := time.Now()
-	est.flow, est.flowErr = flow.Estimate(m, flow.Options{NoTilt: !est.tilt})
+	est.flow, est.flowErr = flow.Estimate(m, flow.Options{NoTilt: !est.tilt, Cancel: ctx.Done()})
 	est.took = time.Since(t0)
 	if ctx.Err() != nil {
 		return nil, nil

@@ -28,6 +28,10 @@ type Options struct {
 	Sweep *Sweep
 	// Workers bounds the parallel evaluations (0: GOMAXPROCS).
 	Workers int
+	// Cancel, when closed, stops the estimate early (between cases and
+	// between the tilt search's steps); the result is then incomplete and
+	// is to be dropped.
+	Cancel <-chan struct{}
 }
 
 // Sweep is a grid of attitudes (radians) and accelerations (m/s², equipment
@@ -60,6 +64,17 @@ type prepared struct {
 	limits   lang.Limits
 	lay      *geom.Layout // node positions, for liquid-column heights
 	findings []Finding
+	cancel   <-chan struct{}
+}
+
+// cancelled reports whether the caller has given up on the estimate.
+func (p *prepared) cancelled() bool {
+	select {
+	case <-p.cancel:
+		return true
+	default:
+		return false
+	}
 }
 
 // Estimate evaluates every loop of m in every case (or the one named in
@@ -136,6 +151,7 @@ func casePoints(cases []*lang.Case, sw *Sweep) []point {
 
 func estimateLoop(m *lang.Model, l *lang.Loop, methods MethodsUsed, points []point, opts Options) LoopResult {
 	p := prepare(m, l, methods)
+	p.cancel = opts.Cancel
 	lr := LoopResult{Loop: l.Name, Fluid: l.Fluid.Name, Methods: p.methods, Assumptions: assumptions(),
 		Findings: p.findings}
 	if p.fl != nil {
@@ -169,6 +185,9 @@ func estimateLoop(m *lang.Model, l *lang.Loop, methods MethodsUsed, points []poi
 		// Each worker takes a run of consecutive points, so a network's
 		// Newton iteration starts from the previous point's balance.
 		runChunks(len(points), opts.Workers, func(i int, start []float64) []float64 {
+			if p.cancelled() {
+				return nil
+			}
 			var f []float64
 			lr.Cases[i], f = p.run(points[i], !opts.NoTilt && !points[i].grid, start)
 			return f

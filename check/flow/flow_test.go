@@ -616,3 +616,17 @@ func TestTiltLimitExact(t *testing.T) {
 		}
 	}
 }
+
+// A cancelled estimate stops early: with the cancel channel closed before
+// it starts, no case is evaluated.
+func TestEstimateCancelled(t *testing.T) {
+	m := lang.Load("../../testdata/examples/ferry-cabinet.loop", lang.OSFS{})
+	stop := make(chan struct{})
+	close(stop)
+	r := estimate(t, m, Options{Cancel: stop})
+	for _, c := range r.Loops[0].Cases {
+		if c.Circulates || c.Tilt != nil {
+			t.Errorf("case %q evaluated after cancellation", c.Case)
+		}
+	}
+}

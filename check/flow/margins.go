@@ -675,6 +675,9 @@ func (p *prepared) tilt(s *state, pt point, cr *CaseResult, start []float64) {
 		}
 		lo, clo, hlo := 0.0, math.Inf(1), 0.0
 		for i := 1; float64(i-1)*tiltStep < tiltReach-1e-9; i++ {
+			if p.cancelled() {
+				return nil
+			}
 			d := math.Min(float64(i)*tiltStep, tiltReach)
 			// A failure the trend of the condition does not foretell may be
 			// the warm start's: Newton's iteration is tried again without
