@@ -63,7 +63,10 @@ func TestEstimateOncePerVersion(t *testing.T) {
 		defer mu.Unlock()
 		return runs
 	}
-	c.initialize(nil)
+	// "always": under load the first run may be slow enough for "auto" to
+	// defer the tilt search of the next (TestSlowEstimateDefersTilt).
+	c.initialize(map[string]any{"processId": nil, "rootUri": nil, "capabilities": map[string]any{},
+		"initializationOptions": map[string]any{"marginChecks": "always"}})
 	uri := "file:///tmp/tilt.loop"
 	c.notify("textDocument/didOpen", map[string]any{"textDocument": map[string]any{"uri": uri, "languageId": "loop", "version": 1, "text": tiltLoop}})
 	c.settle()
