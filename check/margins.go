@@ -3,10 +3,12 @@ package check
 import (
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 
 	"circa/check/flow"
 	"circa/lang"
+	"circa/units"
 )
 
 // The margin rules run the flow estimate once per loop (shared through the
@@ -247,7 +249,17 @@ func diagnostic(c *Context, f flow.Finding, others []string) lang.Diagnostic {
 	d := lang.Diagnostic{Rule: f.Rule, Severity: sev, Format: "%s", Args: []any{msg}}
 	l := c.Loop
 	switch {
-	case f.Rule == flow.RuleFluidSafety || f.Rule == flow.RuleFluidRange || f.Rule == flow.RuleFluidUnknown || f.Rule == flow.RuleNearCritical:
+	case f.Rule == flow.RuleFluidRange || f.Rule == flow.RuleNearCritical:
+		// The cause is the value that sets the saturation temperature.
+		d.Loc = l.Fluid.Loc()
+		if v, what := saturationSource(c.Model, l, c.Model.Case(f.Case)); v.Set && v.File != "" {
+			d.Loc = v.Loc()
+			d.Related = append(d.Related, lang.Related{Loc: l.Fluid.Loc(), Message: "the fluid " + l.Fluid.Name})
+			if f.Rule == flow.RuleFluidRange {
+				meantHint(&d, v, what, f)
+			}
+		}
+	case f.Rule == flow.RuleFluidSafety || f.Rule == flow.RuleFluidUnknown:
 		d.Loc = l.Fluid.Loc()
 		if l.Fluid.File == "" {
 			d.Loc = l.NameLoc()
@@ -346,4 +358,74 @@ func reportCharge(c *Context, lr *flow.LoopResult) {
 	d := diagnostic(c, *worst, others)
 	d.Args = []any{msg + " (early-design estimate)"}
 	c.Report(d)
+}
+
+// saturationSource returns the written value that sets a case's saturation
+// temperature, in the order the estimate takes them: the case's, the
+// loop's, a condenser outlet, else the sink of the first condenser with a
+// conductance (the case's per-condenser sink, the case's sink, the
+// condenser's own).
+func saturationSource(m *lang.Model, l *lang.Loop, cs *lang.Case) (lang.Value, string) {
+	if cs != nil && cs.Saturation.Set {
+		return cs.Saturation, "saturation"
+	}
+	if l.Saturation.Set {
+		return l.Saturation, "saturation"
+	}
+	for _, comp := range l.Components {
+		if comp.Kind == lang.Condenser && comp.Outlet.Set {
+			return comp.Outlet, "outlet"
+		}
+	}
+	for _, comp := range l.Components {
+		if comp.Kind != lang.Condenser {
+			continue
+		}
+		if cs != nil {
+			for _, sv := range cs.Sinks {
+				if sv.Comp == comp && sv.Value.Set {
+					return sv.Value, "sink"
+				}
+			}
+			if cs.Sink.Set {
+				return cs.Sink, "sink"
+			}
+		}
+		if comp.Sink.Set {
+			return comp.Sink, "sink"
+		}
+	}
+	return lang.Value{}, ""
+}
+
+// meantHint adds "probably meant" to a fluid-range finding when the value
+// that sets the saturation temperature is far outside any sensible range
+// and the same number in the other temperature scale is inside the fluid's
+// range (sink 35 K for 35 °C), with the fix.
+func meantHint(d *lang.Diagnostic, v lang.Value, what string, f flow.Finding) {
+	u, err := units.Parse(v.Unit)
+	if err != nil || u.Dim != units.Temperature {
+		return
+	}
+	n := u.FromSI(v.SI)
+	var alt string
+	var altSI float64
+	switch {
+	case u.Text == "K" && n < 150:
+		alt, altSI = "°C", n+273.15
+	case u.Affine && u.Text == "degC" && n > 200:
+		alt, altSI = "K", n
+	default:
+		return
+	}
+	// f.Value is the saturation temperature, f.Limit the top of the range;
+	// only hint when the other reading is plausible for a loop (−50 to
+	// 150 °C) and the written one is not.
+	if altSI < 223.15 || altSI > 423.15 {
+		return
+	}
+	num := strconv.FormatFloat(n, 'g', -1, 64)
+	d.Args = []any{fmt.Sprintf("%s; %s %s %s is probably meant as %s %s", d.Args[0], what, num, v.Unit, num, alt)}
+	d.Fixes = append(d.Fixes, lang.Fix{Title: fmt.Sprintf("Write %s %s", num, alt),
+		Edits: []lang.Edit{{Loc: v.Loc(), NewText: num + " " + alt}}})
 }

@@ -3,6 +3,7 @@ package flow
 import (
 	"errors"
 	"fmt"
+	"math"
 	"runtime"
 	"strings"
 	"sync"
@@ -498,7 +499,7 @@ func (p *prepared) newState(pt point, cr *CaseResult) (*state, []Finding) {
 		if T >= p.info.Tc && p.info.Tc > 0 {
 			why = "at or above the critical temperature " + fmt.Sprintf("%.2f °C", p.info.Tc-273.15)
 		}
-		find(RuleFluidRange, "error", "", T, p.info.Tmax, "K", "saturation temperature %.2f °C in case %s is %s of %s (%.2f to %.2f °C): no estimate", T-273.15, cname, why, p.info.Name, p.info.Tmin-273.15, p.info.Tmax-273.15)
+		find(RuleFluidRange, "error", "", T, p.info.Tmax, "K", "saturation temperature %s in case %s is %s of %s (%.2f to %.2f °C): no estimate", TempText(T), cname, why, p.info.Name, p.info.Tmin-273.15, p.info.Tmax-273.15)
 		return nil, fs
 	}
 	s.sat = sat
@@ -513,7 +514,7 @@ func (p *prepared) newState(pt point, cr *CaseResult) (*state, []Finding) {
 	s.p = correlate.Props{RhoL: sat.RhoL, RhoV: sat.RhoV, MuL: sat.MuL, MuV: sat.MuV, Sigma: sat.Sigma,
 		KL: sat.KL, CpL: sat.CpL, Hlv: sat.Hlv, ReducedPressure: pr, MolarMass: p.info.MolarMass}
 	if err := s.p.Validate(); err != nil {
-		find(RuleFluidRange, "error", "", T, p.info.Tmax, "K", "the properties of %s at %.2f °C are unusable (%v): no estimate", p.info.Name, T-273.15, err)
+		find(RuleFluidRange, "error", "", T, p.info.Tmax, "K", "the properties of %s at %s are unusable (%v): no estimate", p.info.Name, TempText(T), err)
 		return nil, fs
 	}
 	// Subcooled-liquid table.
@@ -582,4 +583,18 @@ func (s *state) withBody(b geom.Vec3) *state {
 	c.bDisp, c.cosInc = nil, nil
 	c.setBody(b)
 	return &c
+}
+
+// TempText writes an absolute temperature (K) in °C, or says it is out of
+// any physical range instead of printing a meaningless number.
+func TempText(T float64) string {
+	switch {
+	case math.IsNaN(T):
+		return "undefined"
+	case T < 0:
+		return "below absolute zero"
+	case T > 1e4:
+		return "far above 10000 °C"
+	}
+	return fmt.Sprintf("%.2f °C", T-273.15)
 }
