@@ -44,6 +44,9 @@ type Circulation struct {
 	Case  string // the swept case
 	Sweep []LoadPoint
 	Cases []CasePoint
+	// ExitQualityLimit is the exit-quality limit the margins use (0 when
+	// no case has one).
+	ExitQualityLimit float64
 }
 
 // LoadPoint is the estimate at one fraction of the swept case's loads.
@@ -172,6 +175,11 @@ func CirculationOf(m *lang.Model, l *lang.Loop, o Options) (*Circulation, error)
 			cp.ExitQuality = exitQuality(cr)
 		}
 		out.Cases = append(out.Cases, cp)
+		for _, mg := range cr.Margins {
+			if mg.Margin == flow.MarginExitQuality && mg.Limit > 0 {
+				out.ExitQualityLimit = finite(mg.Limit)
+			}
+		}
 	}
 	return out, nil
 }
@@ -200,8 +208,9 @@ func (c *Circulation) Figure() (*Figure, error) {
 	qs, qu := scaleOf(maxQ, "W", "kW")
 	xlabel := fmt.Sprintf("heat load Q (%s)", qu)
 
-	top := newPanel("", xlabel, "mass flow ṁ (g/s)")
-	bottom := newPanel("", xlabel, "exit quality x (–)")
+	top, topRec := newPanel("", xlabel, "mass flow ṁ (g/s)")
+	bottom, bottomRec := newPanel("", xlabel, "exit quality x (–)")
+	topLeg, bottomLeg := newLegend(topRec, 0, 1, 3, 2), newLegend(bottomRec, 0, 1, 3, 2)
 
 	// Stable estimate, in runs of consecutive circulating points.
 	var flowRuns, qualRuns []plotter.XYs
@@ -234,9 +243,11 @@ func (c *Circulation) Figure() (*Figure, error) {
 		lq.Color, lq.Width = style(0), vg.Points(1.8)
 		bottom.Add(lq)
 		if i == 0 {
-			top.Legend.Add(fmt.Sprintf("estimate, loads of %s scaled", c.Case), lf)
-			bottom.Legend.Add(fmt.Sprintf("estimate, loads of %s scaled", c.Case), lq)
+			topLeg.Add(fmt.Sprintf("estimate, loads of %s scaled", c.Case), lf)
+			bottomLeg.Add(fmt.Sprintf("estimate, loads of %s scaled", c.Case), lq)
 		}
+		topLeg.Avoid(flowRuns[i])
+		bottomLeg.Avoid(qualRuns[i])
 	}
 	// Unstable balances: dashed through the first unstable root of each load.
 	var un plotter.XYs
@@ -256,7 +267,8 @@ func (c *Circulation) Figure() (*Figure, error) {
 		}
 		lu.Color, lu.Width, lu.Dashes = style(1), vg.Points(1.4), dashed
 		top.Add(lu)
-		top.Legend.Add("unstable balance (dE/dṁ > 0)", lu)
+		topLeg.Add("unstable balance (dE/dṁ > 0)", lu)
+		topLeg.Avoid(un, unAll)
 		if len(unAll) > len(un) {
 			su, err := plotter.NewScatter(unAll)
 			if err != nil {
@@ -282,7 +294,8 @@ func (c *Circulation) Figure() (*Figure, error) {
 		}
 		so.Color, so.Radius = style(0), vg.Points(1.5)
 		top.Add(so)
-		top.Legend.Add("other stable balance", so)
+		topLeg.Add("other stable balance", so)
+		topLeg.Avoid(other)
 	}
 	// Cases.
 	var pf, pq plotter.XYs
@@ -295,26 +308,28 @@ func (c *Circulation) Figure() (*Figure, error) {
 		pq = append(pq, plotter.XY{X: p.Heat * qs, Y: p.ExitQuality})
 		names = append(names, p.Case)
 	}
+	// The exit-quality limit, kept inside the axes.
+	if lim := c.ExitQualityLimit; lim > 0 {
+		bottom.Add(&limitLine{rec: bottomRec, at: lim, name: fmt.Sprintf("exit-quality limit %g", lim),
+			line: limitStyle, style: textStyle(8), legend: bottomLeg})
+	}
+	var caseLabels []*labels
 	if len(pf) > 0 {
 		for _, pair := range []struct {
 			panel *plot.Plot
+			rec   *PanelLayout
+			leg   *legendBox
 			xy    plotter.XYs
-		}{{top, pf}, {bottom, pq}} {
+		}{{top, topRec, topLeg, pf}, {bottom, bottomRec, bottomLeg, pq}} {
 			s, err := plotter.NewScatter(pair.xy)
 			if err != nil {
 				return nil, err
 			}
 			s.Color, s.Shape, s.Radius = style(2), draw.BoxGlyph{}, vg.Points(3)
-			lb, err := plotter.NewLabels(plotter.XYLabels{XYs: pair.xy, Labels: names})
-			if err != nil {
-				return nil, err
-			}
-			for i := range lb.TextStyle {
-				lb.TextStyle[i].Font.Size = vg.Points(8)
-			}
-			lb.Offset = vg.Point{X: vg.Points(4), Y: vg.Points(3)}
-			pair.panel.Add(s, lb)
-			pair.panel.Legend.Add("cases", s)
+			pair.panel.Add(s)
+			pair.leg.Add("cases", s)
+			pair.leg.Avoid(pair.xy)
+			caseLabels = append(caseLabels, &labels{rec: pair.rec, pts: pair.xy, texts: names, style: textStyle(8), mark: 3, legend: pair.leg})
 		}
 	}
 	if len(flowRuns) == 0 && len(pf) == 0 {
@@ -338,13 +353,22 @@ func (c *Circulation) Figure() (*Figure, error) {
 	if !(maxX > 0) {
 		maxX = 0.1
 	}
+	maxX = math.Max(maxX, c.ExitQualityLimit)
 	for _, p := range []*plot.Plot{top, bottom} {
 		p.X.Min, p.X.Max = 0, maxQ*qs*1.12 // room for the case labels
 		p.Y.Min = 0
 	}
-	top.Y.Max, bottom.Y.Max = maxF*1.15, maxX*1.15
-	top.Legend.Top = false // the curve is high at low load: legend at the bottom right
-	bottom.Legend.Top, bottom.Legend.Left = true, true
+	// Headroom for the legend and the labels of cases that share a load.
+	top.Y.Max, bottom.Y.Max = maxF*1.3, maxX*1.3
+	for _, lb := range caseLabels {
+		if lb.rec == topRec {
+			top.Add(lb)
+		} else {
+			bottom.Add(lb)
+		}
+	}
+	top.Add(topLeg)
+	bottom.Add(bottomLeg)
 	return &Figure{Name: "circulation", Title: fmt.Sprintf("Circulation of loop %s", c.Loop),
-		rows: [][]*plot.Plot{{top}, {bottom}}, width: 18 * vg.Centimeter, height: 18 * vg.Centimeter}, nil
+		rows: [][]*plot.Plot{{top}, {bottom}}, recs: []*PanelLayout{topRec, bottomRec}, width: 18 * vg.Centimeter, height: 18 * vg.Centimeter}, nil
 }

@@ -27,6 +27,7 @@ type Figure struct {
 	Name   string
 	Title  string
 	rows   [][]*plot.Plot
+	recs   []*PanelLayout // filled as the panels are drawn
 	width  vg.Length
 	height vg.Length
 }
@@ -84,9 +85,11 @@ func (f *Figure) Render(w io.Writer, format string) error {
 }
 
 // newPanel returns a plot with the house look: labelled axes, a grid and a
-// legend at the top right.
-func newPanel(title, xlabel, ylabel string) *plot.Plot {
+// legend at the top right; rec receives its layout when it is drawn.
+func newPanel(title, xlabel, ylabel string) (*plot.Plot, *PanelLayout) {
 	p := plot.New()
+	rec := &PanelLayout{}
+	p.Add(recorder{rec})
 	p.Title.Text = title
 	p.X.Label.Text = xlabel
 	p.Y.Label.Text = ylabel
@@ -97,13 +100,17 @@ func newPanel(title, xlabel, ylabel string) *plot.Plot {
 	p.Legend.Left = false
 	p.Legend.TextStyle.Font.Size = vg.Points(9)
 	p.Legend.Padding = vg.Points(1.5)
-	return p
+	return p, rec
 }
 
 // style returns the i-th line colour of the default palette.
 func style(i int) color.Color { return plotutil.Color(i) }
 
 var dashed = []vg.Length{vg.Points(6), vg.Points(4)}
+
+// limitStyle draws a design limit: solid and dark red, since dashes mark
+// statically unstable balances.
+var limitStyle = draw.LineStyle{Color: color.RGBA{R: 170, A: 255}, Width: vg.Points(1.2)}
 
 // finite replaces NaN and ±Inf by 0 so no non-finite number reaches a
 // figure or a caller.

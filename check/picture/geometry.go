@@ -80,8 +80,8 @@ func (g *Geometry) Figure() (*Figure, error) {
 	if g == nil || len(g.Nodes) == 0 {
 		return nil, fmt.Errorf("no geometry")
 	}
-	side := newPanel("side view (from the right)", "x, forward (m)", "z, up (m)")
-	front := newPanel("front view (from ahead)", "y, left (m)", "z, up (m)")
+	side, sideRec := newPanel("side view (from the right)", "x, forward (m)", "z, up (m)")
+	front, frontRec := newPanel("front view (from ahead)", "y, left (m)", "z, up (m)")
 	// Common scale: the largest extent of x, y and z.
 	lo, hi := [3]float64{math.Inf(1), math.Inf(1), math.Inf(1)}, [3]float64{math.Inf(-1), math.Inf(-1), math.Inf(-1)}
 	for _, n := range g.Nodes {
@@ -109,11 +109,16 @@ func (g *Geometry) Figure() (*Figure, error) {
 		{"bend", 1.5, style(3), "bend"},
 		{"fitting", 1.5, style(4), "fitting"},
 	}
+	leg := newLegend(sideRec, 0, 1, 2, 3)
 	for vi, view := range []struct {
 		p    *plot.Plot
+		rec  *PanelLayout
 		h, v int
-	}{{side, 0, 2}, {front, 1, 2}} {
+	}{{side, sideRec, 0, 2}, {front, frontRec, 1, 2}} {
 		seen := map[string]bool{}
+		var names []string
+		var mids plotter.XYs
+		var segs []plotter.XYs
 		for _, c := range g.Components {
 			if c.Kind == "reservoir" {
 				s, err := plotter.NewScatter(plotter.XYs{{X: c.From[view.h], Y: c.From[view.v]}})
@@ -123,8 +128,9 @@ func (g *Geometry) Figure() (*Figure, error) {
 				s.Shape, s.Radius, s.Color = draw.BoxGlyph{}, vg.Points(5), style(5)
 				view.p.Add(s)
 				if !seen["reservoir"] && vi == 0 {
-					view.p.Legend.Add("reservoir", s)
+					leg.Add("reservoir", s)
 				}
+				segs = append(segs, plotter.XYs{{X: c.From[view.h], Y: c.From[view.v]}})
 				seen["reservoir"] = true
 				continue
 			}
@@ -134,25 +140,21 @@ func (g *Geometry) Figure() (*Figure, error) {
 					k = kk
 				}
 			}
-			ln, err := plotter.NewLine(plotter.XYs{{X: c.From[view.h], Y: c.From[view.v]}, {X: c.To[view.h], Y: c.To[view.v]}})
+			seg := plotter.XYs{{X: c.From[view.h], Y: c.From[view.v]}, {X: c.To[view.h], Y: c.To[view.v]}}
+			segs = append(segs, seg)
+			ln, err := plotter.NewLine(seg)
 			if err != nil {
 				return nil, err
 			}
 			ln.Color, ln.Width = k.color, vg.Points(float64(k.width))
 			view.p.Add(ln)
 			if !seen[c.Kind] && vi == 0 {
-				view.p.Legend.Add(k.label, ln)
+				leg.Add(k.label, ln)
 			}
 			seen[c.Kind] = true
 			if c.Kind == "evaporator" || c.Kind == "condenser" {
-				mid := plotter.XYs{{X: (c.From[view.h] + c.To[view.h]) / 2, Y: (c.From[view.v] + c.To[view.v]) / 2}}
-				lb, err := plotter.NewLabels(plotter.XYLabels{XYs: mid, Labels: []string{c.Name}})
-				if err != nil {
-					return nil, err
-				}
-				lb.TextStyle[0].Font.Size = vg.Points(8)
-				lb.Offset = vg.Point{X: vg.Points(5)}
-				view.p.Add(lb)
+				mids = append(mids, plotter.XY{X: (c.From[view.h] + c.To[view.h]) / 2, Y: (c.From[view.v] + c.To[view.v]) / 2})
+				names = append(names, c.Name)
 			}
 		}
 		// Nodes.
@@ -167,14 +169,16 @@ func (g *Geometry) Figure() (*Figure, error) {
 		s.Radius = vg.Points(2)
 		view.p.Add(s)
 		if vi == 0 {
-			view.p.Legend.Add("node", s)
+			leg.Add("node", s)
+			leg.Avoid(segs...)
+			view.p.Add(leg)
 		}
+		view.p.Add(&labels{rec: view.rec, pts: mids, texts: names, style: textStyle(8), mark: 3, legend: map[bool]*legendBox{true: leg}[vi == 0]})
 		ch := (lo[view.h] + hi[view.h]) / 2
 		cv := (lo[view.v] + hi[view.v]) / 2
 		view.p.X.Min, view.p.X.Max = ch-span/2, ch+span/2
 		view.p.Y.Min, view.p.Y.Max = cv-span/2, cv+span/2
 	}
-	side.Legend.Top, side.Legend.Left = true, true
 	return &Figure{Name: "geometry", Title: fmt.Sprintf("Geometry of loop %s", g.Loop),
-		rows: [][]*plot.Plot{{side, front}}, width: 24 * vg.Centimeter, height: 13 * vg.Centimeter}, nil
+		rows: [][]*plot.Plot{{side, front}}, recs: []*PanelLayout{sideRec, frontRec}, width: 24 * vg.Centimeter, height: 13 * vg.Centimeter}, nil
 }

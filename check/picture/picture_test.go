@@ -171,6 +171,17 @@ func TestBudgetMatchesEstimator(t *testing.T) {
 		if !(g > 0) || math.Abs(g-losses) > 1e-3*g {
 			t.Errorf("%s: gravity gain %g Pa does not balance the losses %g Pa around the loop", name, g, losses)
 		}
+		// The drawn budget: every term a drop, as the estimator's budget,
+		// the whole loop's adding up to zero.
+		for i, it := range b.Items {
+			if it.Drops != cr.Components[i].Budget {
+				t.Errorf("%s: drawn drops %+v, estimator %+v", name, it.Drops, cr.Components[i].Budget)
+			}
+		}
+		d := b.Total.Drops
+		if sum := d.Friction + d.Gravity + d.Acceleration + d.AreaChange + d.Local; math.Abs(sum) > 1e-6*(math.Abs(d.Friction)+math.Abs(d.Gravity)) {
+			t.Errorf("%s: whole-loop drops add up to %g Pa, not zero", name, sum)
+		}
 	}
 }
 
@@ -328,6 +339,7 @@ func TestShippedExamples(t *testing.T) {
 				t.Errorf("%s: %v", fg.Name, err)
 			}
 			svgTexts(t, b.Bytes())
+			checkLayout(t, filepath.Base(f)+" "+fg.Name, fg)
 		}
 	}
 }
@@ -336,7 +348,7 @@ func TestShippedExamples(t *testing.T) {
 func TestFiguresRender(t *testing.T) {
 	wantText := map[string][]string{
 		"circulation": {"heat load Q (W)", "mass flow ṁ (g/s)", "exit quality x (–)", "hot_aisle"},
-		"budget":      {"pressure change along the flow (kPa)", "friction loss", "whole loop", "downcomer"},
+		"budget":      {"pressure drop along the flow (kPa)", "friction", "gravity (hydrostatic)", "flow-area change", "whole loop", "downcomer"},
 		"tilt":        {"angle (°)", "mass flow ṁ (g/s)", "worst margin use (–)", "pitch swept", "roll swept"},
 		"geometry":    {"x, forward (m)", "z, up (m)", "y, left (m)", "plate", "coil"},
 	}
@@ -354,6 +366,7 @@ func TestFiguresRender(t *testing.T) {
 				t.Fatalf("%s: %v", f.Name, err)
 			}
 			text := svgTexts(t, svg.Bytes())
+			checkLayout(t, name+" "+f.Name, f)
 			if name == "rack-door" {
 				kind := f.Name[strings.LastIndex(f.Name, "-")+1:]
 				for _, w := range wantText[kind] {

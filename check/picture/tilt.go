@@ -121,9 +121,10 @@ func (t *Tilt) Figure() (*Figure, error) {
 	if t == nil || len(t.PitchSweep) == 0 {
 		return nil, fmt.Errorf("no tilt data")
 	}
-	top := newPanel(fmt.Sprintf("around case %s (pitch %.1f°, roll %.1f°)", t.Case, deg(t.Pitch), deg(t.Roll)),
+	top, topRec := newPanel(fmt.Sprintf("around case %s (pitch %.1f°, roll %.1f°)", t.Case, deg(t.Pitch), deg(t.Roll)),
 		"angle (°)", "mass flow ṁ (g/s)")
-	bottom := newPanel("", "angle (°)", "worst margin use (–)")
+	bottom, bottomRec := newPanel("", "angle (°)", "worst margin use (–)")
+	topLeg, bottomLeg := newLegend(topRec, 1, 0, 3, 2), newLegend(bottomRec, 1, 0, 3, 2)
 	bottom.Title.Text = "exit quality, CHF, flooding and wall temperature margins"
 	bottom.Title.TextStyle.Font.Size = vg.Points(9)
 	maxFlow, maxUse := 0.0, 1.0
@@ -146,7 +147,8 @@ func (t *Tilt) Figure() (*Figure, error) {
 		}
 		lf.Color, lf.Width = style(k), vg.Points(1.8)
 		top.Add(lf)
-		top.Legend.Add(sw.name+" swept", lf)
+		topLeg.Add(sw.name+" swept", lf)
+		topLeg.Avoid(fl)
 		if len(use) > 0 {
 			su, err := plotter.NewScatter(use)
 			if err != nil {
@@ -157,7 +159,12 @@ func (t *Tilt) Figure() (*Figure, error) {
 				su.Shape = draw.RingGlyph{}
 			}
 			bottom.Add(su)
-			bottom.Legend.Add(sw.name+" swept", su)
+			bottomLeg.Add(sw.name+" swept", su)
+			clipped := make(plotter.XYs, len(use))
+			for i, u := range use {
+				clipped[i] = plotter.XY{X: u.X, Y: math.Min(u.Y, 5)}
+			}
+			bottomLeg.Avoid(clipped)
 		}
 	}
 	if maxFlow <= 0 {
@@ -166,36 +173,14 @@ func (t *Tilt) Figure() (*Figure, error) {
 	if maxUse > 5 {
 		maxUse = 5 // keep the limit line readable; larger uses are off the chart
 	}
-	// Critical angles.
+	// Critical angles, named at the top of their lines.
 	for k, crit := range [][2]*float64{{t.PitchUp, t.PitchDown}, {t.RollLeft, t.RollRight}} {
 		for _, a := range crit {
 			if a == nil {
 				continue
 			}
-			v, err := plotter.NewLine(plotter.XYs{{X: deg(*a), Y: 0}, {X: deg(*a), Y: maxFlow * 1.08}})
-			if err != nil {
-				return nil, err
-			}
-			v.Color, v.Dashes, v.Width = style(k), dashed, vg.Points(1)
-			lb, err := plotter.NewLabels(plotter.XYLabels{XYs: plotter.XYs{{X: deg(*a), Y: maxFlow * 1.08}},
-				Labels: []string{fmt.Sprintf("%.1f°", deg(*a))}})
-			if err != nil {
-				return nil, err
-			}
-			lb.TextStyle[0].Font.Size = vg.Points(8)
-			// Keep labels near the ±90° edges inside the panel.
-			switch {
-			case deg(*a) > 75:
-				lb.TextStyle[0].XAlign = draw.XRight
-				lb.Offset = vg.Point{X: vg.Points(-3), Y: vg.Points(2)}
-			case deg(*a) < -75:
-				lb.TextStyle[0].XAlign = draw.XLeft
-				lb.Offset = vg.Point{X: vg.Points(3), Y: vg.Points(2)}
-			default:
-				lb.TextStyle[0].XAlign = draw.XCenter
-				lb.Offset = vg.Point{Y: vg.Points(2)}
-			}
-			top.Add(v, lb)
+			top.Add(&limitLine{rec: topRec, at: deg(*a), vertical: true, name: fmt.Sprintf("%.1f°", deg(*a)),
+				line: draw.LineStyle{Color: style(k), Width: vg.Points(1), Dashes: dashed}, style: textStyle(8), legend: topLeg})
 		}
 	}
 	// The case's attitude.
@@ -203,26 +188,21 @@ func (t *Tilt) Figure() (*Figure, error) {
 		{X: deg(t.Roll), Y: flowAt(t.RollSweep, t.Roll) * 1e3}}); err == nil {
 		cp.Shape, cp.Radius, cp.Color = draw.BoxGlyph{}, vg.Points(3), style(2)
 		top.Add(cp)
-		top.Legend.Add("case "+t.Case, cp)
+		topLeg.Add("case "+t.Case, cp)
 	}
-	limit, err := plotter.NewLine(plotter.XYs{{X: -90, Y: 1}, {X: 90, Y: 1}})
-	if err != nil {
-		return nil, err
-	}
-	limit.Dashes, limit.Width = dashed, vg.Points(1)
-	bottom.Add(limit)
-	bottom.Legend.Add("limit reached", limit)
+	bottom.Add(&limitLine{rec: bottomRec, at: 1, name: "limit reached (use 1)",
+		line: limitStyle, style: textStyle(8), legend: bottomLeg})
 	for _, p := range []*plot.Plot{top, bottom} {
 		p.X.Min, p.X.Max = -90, 90
 		p.X.Tick.Marker = angleTicks{}
 		p.Y.Min = 0
 	}
 	top.Y.Max = maxFlow * 1.45 // room for the legend and the angle labels
-	top.Legend.Top, top.Legend.Left = true, false
-	top.Legend.XOffs = -vg.Points(60)
-	bottom.Y.Max = maxUse * 1.1
+	bottom.Y.Max = maxUse * 1.3
+	top.Add(topLeg)
+	bottom.Add(bottomLeg)
 	return &Figure{Name: "tilt", Title: fmt.Sprintf("Tilt envelope of loop %s", t.Loop),
-		rows: [][]*plot.Plot{{top}, {bottom}}, width: 18 * vg.Centimeter, height: 18 * vg.Centimeter}, nil
+		rows: [][]*plot.Plot{{top}, {bottom}}, recs: []*PanelLayout{topRec, bottomRec}, width: 18 * vg.Centimeter, height: 18 * vg.Centimeter}, nil
 }
 
 // flowAt returns the swept mass flow at the angle nearest a.

@@ -21,9 +21,12 @@ const plotUsage = `Usage: circa plot FILE [--case NAME] [--out DIR] [--format sv
 Draws, for each loop in FILE:
   LOOP-circulation  mass flow and exit quality against heat load (the case's
                     loads from 5 % to 150 %), the cases' operating points,
-                    statically unstable balances dashed
-  LOOP-budget       the case's pressure budget per component: gravity gain
-                    against friction, local and acceleration losses
+                    statically unstable balances dashed, the exit-quality
+                    limit
+  LOOP-budget       the case's pressure budget per component, each bar with
+                    its value: the pressure drop along the flow by friction,
+                    gravity, phase-change acceleration, flow-area change and
+                    local losses (the whole loop's adds up to zero)
   LOOP-tilt         mass flow and worst margin against pitch and roll around
                     the case, with the critical angles
   LOOP-geometry     side and front views of the loop
