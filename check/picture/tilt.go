@@ -176,8 +176,8 @@ func (t *Tilt) Figure() (*Figure, error) {
 	// Critical angles, named at the top of their lines.
 	for k, crit := range [][2]*float64{{t.PitchUp, t.PitchDown}, {t.RollLeft, t.RollRight}} {
 		for _, a := range crit {
-			if a == nil {
-				continue
+			if a == nil || math.Abs(deg(*a)) > 90 {
+				continue // beyond the axes: the estimate's text names it
 			}
 			top.Add(&limitLine{rec: topRec, at: deg(*a), vertical: true, name: fmt.Sprintf("%.1f°", deg(*a)),
 				line: draw.LineStyle{Color: style(k), Width: vg.Points(1), Dashes: dashed}, style: textStyle(8), legend: topLeg})
