@@ -151,6 +151,7 @@ func init() {
 		{"conflicting-fields", "fields that cannot be given together", "Two fields say the same thing in different ways and may disagree.", "(see the message)", "Keep one of them."},
 		{"missing-field", "a required field is missing", "The loop cannot be estimated without it (for example its working fluid).", "loop l { node a }", "Add the field named in the message."},
 		{"missing-value", "a field without its value", "A field written without a value says nothing.", "length", "Write the value."},
+		{"model-range", "a value far outside what the estimate is built for", "Magnitudes past 1e12 in SI units (a terawatt, a thousand kilometres) overflow the estimate's arithmetic into meaningless numbers; no passive loop comes near them.", "conductance 1e308 W/K", "Check the value and its unit."},
 		{"bad-value", "a value outside its allowed range", "The value cannot be used as given.", "methods { cells 2 }", "Use a value in the range the message gives."},
 		{"duplicate-name", "a name declared twice", "References to the name would be ambiguous.", "node a\nnode a", "Rename one of them."},
 		{"duplicate-nominal", "more than one case marked nominal", "Exactly one case is the nominal one.", "case a nominal { }\ncase b nominal { }", "Mark one case nominal."},

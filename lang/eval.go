@@ -50,8 +50,19 @@ func (r *resolver) expr(file string, e *Expr, need units.Need) Value {
 		r.unitFix(d, file, e, q, need)
 		return Value{Bad: true, File: file, Span: e.Span()}
 	}
+	if math.Abs(q.SI) > ModelRange || math.IsNaN(q.SI) {
+		r.errorf("model-range", file, e.Span(), "%s is out of the model's range: the estimate works with values below 1e12 in SI units (here %s)",
+			src(r.m.Files[file], e.Span()), strconv.FormatFloat(q.SI, 'g', 4, 64))
+		return Value{Bad: true, File: file, Span: e.Span()}
+	}
 	return Value{SI: q.SI, Set: true, File: file, Span: e.Span(), Unit: unitText}
 }
+
+// ModelRange bounds the magnitude, in SI units, of every value a field
+// takes. Past it the estimate's arithmetic overflows into numbers that mean
+// nothing (a conductance of 1e308 W/K gave a temperature of 309 digits);
+// no passive loop comes near it (a terawatt, a thousand kilometres).
+const ModelRange = 1e12
 
 // unitFix suggests a mechanical repair of a unit error when there is one.
 func (r *resolver) unitFix(d *Diagnostic, file string, e *Expr, q units.Quantity, need units.Need) {
