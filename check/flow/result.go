@@ -89,7 +89,10 @@ type CaseResult struct {
 	// ChargeRange is the fill charge against the range this case accepts.
 	ChargeRange *ChargeRange `json:"charge_range,omitempty"`
 	Tilt        *TiltLimits  `json:"tilt,omitempty"`
-	Findings    []Finding    `json:"findings,omitempty"`
+	// Stability holds the static and dynamic stability indicators at the
+	// operating point.
+	Stability *Stability `json:"stability,omitempty"`
+	Findings  []Finding  `json:"findings,omitempty"`
 
 	pointCase *lang.Case
 }
@@ -250,34 +253,36 @@ type Finding struct {
 
 // Rule identifiers of the findings.
 const (
-	RuleGeometry       = "estimate-geometry"
-	RuleFluidRange     = "fluid-range"
-	RuleNoSink         = "estimate-no-sink"
-	RuleNoCirculation  = "no-circulation"
-	RuleUnstable       = "ledinegg-unstable"
-	RuleConverge       = "network-not-converged"
-	RuleReverse        = "reverse-flow"
-	RuleExitQuality    = "margin-exit-quality"
-	RuleDryout         = "margin-dryout"
-	RuleCHF            = "margin-chf"
-	RuleFlooding       = "margin-flooding"
-	RuleWall           = "margin-wall-temperature"
-	RulePressure       = "margin-design-pressure"
-	RuleCondenser      = "margin-condenser"
-	RuleCharge         = "margin-charge"
-	RuleHead           = "margin-loss-reserve"
-	RuleTilt           = "margin-tilt"
-	RuleFluidSafety    = "fluid-safety"
-	RuleEnergyClosure  = "estimate-energy-closure"
-	RuleUnknownCase    = "estimate-unknown-case"
-	RuleNegativeHeat   = "estimate-negative-heat"
-	RuleMethod         = "estimate-method"
-	RuleFluidUnknown   = "estimate-fluid"
-	RuleNoCondenser    = "estimate-no-condenser"
-	RuleSuperheatCells = "margin-superheat"
-	RuleNonFinite      = "estimate-non-finite"
-	RuleNearCritical   = "near-critical"
-	RuleGeyser         = "geyser-risk"
+	RuleGeometry        = "estimate-geometry"
+	RuleFluidRange      = "fluid-range"
+	RuleNoSink          = "estimate-no-sink"
+	RuleNoCirculation   = "no-circulation"
+	RuleUnstable        = "ledinegg-unstable"
+	RuleConverge        = "network-not-converged"
+	RuleReverse         = "reverse-flow"
+	RuleExitQuality     = "margin-exit-quality"
+	RuleDryout          = "margin-dryout"
+	RuleCHF             = "margin-chf"
+	RuleFlooding        = "margin-flooding"
+	RuleWall            = "margin-wall-temperature"
+	RulePressure        = "margin-design-pressure"
+	RuleCondenser       = "margin-condenser"
+	RuleCharge          = "margin-charge"
+	RuleHead            = "margin-loss-reserve"
+	RuleTilt            = "margin-tilt"
+	RuleFluidSafety     = "fluid-safety"
+	RuleEnergyClosure   = "estimate-energy-closure"
+	RuleUnknownCase     = "estimate-unknown-case"
+	RuleNegativeHeat    = "estimate-negative-heat"
+	RuleMethod          = "estimate-method"
+	RuleFluidUnknown    = "estimate-fluid"
+	RuleNoCondenser     = "estimate-no-condenser"
+	RuleSuperheatCells  = "margin-superheat"
+	RuleNonFinite       = "estimate-non-finite"
+	RuleNearCritical    = "near-critical"
+	RuleGeyser          = "geyser-risk"
+	RuleDensityWave     = "density-wave-risk"
+	RuleMaldistribution = "parallel-maldistribution"
 )
 
 // Cautions printed with every estimate.

@@ -85,6 +85,9 @@ func (p *prepared) run(pt point, tilt bool, start []float64) (CaseResult, []floa
 		}
 	}
 	cr.Circulates = cr.MassFlow > 0
+	if cr.Circulates && !pt.grid {
+		p.stability(s, ev, &cr)
+	}
 	p.margins(s, &cr, f)
 	if tilt {
 		p.tilt(s, pt, &cr, f)

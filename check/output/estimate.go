@@ -209,6 +209,7 @@ func caseText(w io.Writer, l *flow.LoopResult, c *flow.CaseResult) {
 		fmt.Fprintf(w, "  heat in %s W, rejected %s W; gravity head at vanishing flow %s Pa; inventory %s kg (+ %s kg in reservoirs)\n",
 			fixed(t.Heat, 1), fixed(t.Rejected, 1), fixed(t.HeadMax, 0), sig(t.Inventory, 3), sig(t.Reservoirs, 3))
 		rootsText(w, c)
+		stabilityText(w, c)
 	}
 	if c.Tilt != nil {
 		fmt.Fprintf(w, "  tilt: %s\n", TiltSummary(c.Tilt))
@@ -483,4 +484,41 @@ func Limiting(c *flow.CaseResult) (flow.Margin, bool) {
 		}
 	}
 	return best, ok
+}
+
+// stabilityText summarises the stability indicators of a case in a line or
+// two: the static state of a network's branches, each evaporator's
+// density-wave numbers against Ishii's boundary, geysering and
+// maldistribution.
+func stabilityText(w io.Writer, c *flow.CaseResult) {
+	st := c.Stability
+	if st == nil {
+		return
+	}
+	var parts []string
+	if n := len(st.Branches); n > 0 {
+		bad := 0
+		for _, b := range st.Branches {
+			if !b.Stable {
+				bad++
+			}
+		}
+		if bad == 0 {
+			parts = append(parts, fmt.Sprintf("all %d branches statically stable (Ledinegg)", n))
+		} else {
+			parts = append(parts, fmt.Sprintf("%d of %d branches statically unstable (Ledinegg)", bad, n))
+		}
+	}
+	for _, ch := range st.Channels {
+		s := fmt.Sprintf("%s N_pch − N_sub %s against the density-wave boundary %s", ch.Component, sig(ch.Npch-ch.Nsub, 3), sig(ch.Boundary, 3))
+		if !ch.Stable {
+			s += " (beyond it)"
+		}
+		if ch.Geysering {
+			s += ", geysering likely"
+		}
+		parts = append(parts, s)
+	}
+	parts = append(parts, st.Maldistribution...)
+	fmt.Fprintf(w, "  stability: %s\n", strings.Join(parts, "; "))
 }

@@ -1,0 +1,288 @@
+package flow
+
+import (
+	"fmt"
+	"math"
+	"strings"
+
+	"gonum.org/v1/gonum/mat"
+
+	"circa/lang"
+)
+
+// Stability indicators at the operating point. They are indicators for early
+// design, not a dynamic analysis.
+//
+// Static (Ledinegg) stability of a network branch: the branch's own
+// pressure-drop curve, slope S = d(p_from − p_to)/dṁ at its inlet state, is
+// set against the external curve of the rest of the network seen from the
+// branch's two junctions, slope −R_ext, where R_ext is the effective slope
+// of all the other branches (combined as a linear network of slopes). The
+// branch is statically stable when S + R_ext > 0; for two parallel channels
+// A, B closed by the rest R of the loop, R_ext = S_B S_R/(S_B + S_R).
+//
+// Density-wave oscillations: the phase-change and subcooling numbers of
+// Ishii (1971, Ph.D. thesis, Georgia Institute of Technology; Saha, Ishii and
+// Zuber 1976, J. Heat Transfer 98:616), N_pch = Q/(ṁ h_fg)·Δρ/ρ_g and
+// N_sub = Δh_sub/h_fg·Δρ/ρ_g, against Ishii's simplified boundary
+// N_pch − N_sub = 2 (K_i + f L/2D + K_e)/(1 + ½ (f L/2D + 2 K_e)), with the
+// inlet (liquid side) and exit (two-phase side) losses and the heated
+// channel's friction as coefficients on the liquid velocity head of the
+// channel (the boundary as quoted from memory).
+//
+// Geysering reuses the geyser-risk caution of the case. The density-wave
+// indicator is reported in the stability output only, not as a finding:
+// Ishii's boundary holds for channels under a fixed pressure difference, and
+// most thermosiphons with a saturated inlet lie beyond it without
+// oscillating.
+
+// Stability of one case.
+type Stability struct {
+	Branches []BranchStability  `json:"branches,omitempty"` // networks: every branch
+	Channels []ChannelStability `json:"channels,omitempty"` // every heated evaporator
+	// Maldistribution lists groups of parallel heated branches whose flow
+	// per unit heat differs by more than MaldistributionRatio, or one of
+	// which is statically unstable.
+	Maldistribution []string `json:"maldistribution,omitempty"`
+}
+
+// BranchStability is the static stability of one network branch.
+type BranchStability struct {
+	Components []string `json:"components"`
+	MassFlow   float64  `json:"mass_flow"`
+	Slope      float64  `json:"slope"`          // d(p_from − p_to)/dṁ of the branch, Pa/(kg/s)
+	External   float64  `json:"external_slope"` // slope of the rest of the network's curve at the branch, Pa/(kg/s)
+	Stable     bool     `json:"stable"`
+}
+
+// ChannelStability is the density-wave and geysering indicator of one
+// evaporator.
+type ChannelStability struct {
+	Component string  `json:"component"`
+	Npch      float64 `json:"phase_change_number"`
+	Nsub      float64 `json:"subcooling_number"`
+	Boundary  float64 `json:"boundary"` // Ishii's N_pch − N_sub at the stability boundary
+	Stable    bool    `json:"stable"`   // N_pch − N_sub below the boundary
+	Geysering bool    `json:"geysering,omitempty"`
+}
+
+// MaldistributionRatio is the largest ratio of flow per unit heat between
+// parallel heated branches before the estimate flags maldistribution
+// (circa's choice, common practice).
+const MaldistributionRatio = 2.0
+
+// stability fills cr.Stability at the solution f.
+func (p *prepared) stability(s *state, ev *eval, cr *CaseResult) {
+	st := &Stability{}
+	n := s.net
+	if !n.ring {
+		p.branchStability(s, ev, cr, st)
+	}
+	p.channelStability(s, cr, st)
+	if len(st.Branches)+len(st.Channels) > 0 {
+		cr.Stability = st
+	}
+}
+
+// branchSlope is d(p_from − p_to)/dṁ of branch bi at its inlet state.
+func (s *state) branchSlope(bi int, ev *eval) float64 {
+	b := &s.net.branches[bi]
+	m := ev.mb[bi]
+	up := b.from
+	if m < 0 {
+		up = b.to
+	}
+	h := math.Max(1e-4*math.Abs(m), 1e-9)
+	return (s.branchDP(bi, m+h, ev.xj[up], nil) - s.branchDP(bi, m-h, ev.xj[up], nil)) / (2 * h)
+}
+
+// externalSlope is the effective slope of every branch but skip between
+// junctions a and b, taking each as a linear element of slope S_j: the
+// pressure rise from a to b needed to push a unit of flow in at b and out
+// at a.
+func externalSlope(nj int, from, to []int, slopes []float64, skip, a, b int) float64 {
+	if a == b {
+		return 0
+	}
+	L := mat.NewDense(nj, nj, nil)
+	for j, S := range slopes {
+		if j == skip || from[j] == to[j] {
+			continue
+		}
+		if math.Abs(S) < 1e-9 {
+			S = math.Copysign(1e-9, S)
+		}
+		g := 1 / S
+		u, v := from[j], to[j]
+		L.Set(u, u, L.At(u, u)+g)
+		L.Set(v, v, L.At(v, v)+g)
+		L.Set(u, v, L.At(u, v)-g)
+		L.Set(v, u, L.At(v, u)-g)
+	}
+	// Ground junction a; inject a unit at b.
+	idx := make([]int, 0, nj-1)
+	for k := 0; k < nj; k++ {
+		if k != a {
+			idx = append(idx, k)
+		}
+	}
+	r := len(idx)
+	A := mat.NewDense(r, r, nil)
+	rhs := mat.NewVecDense(r, nil)
+	for i, u := range idx {
+		for k, v := range idx {
+			A.Set(i, k, L.At(u, v))
+		}
+		if u == b {
+			rhs.SetVec(i, 1)
+		}
+	}
+	var x mat.VecDense
+	if err := x.SolveVec(A, rhs); err != nil {
+		return math.Inf(1) // the rest does not connect the two junctions
+	}
+	for i, u := range idx {
+		if u == b {
+			return x.AtVec(i)
+		}
+	}
+	return 0
+}
+
+func (p *prepared) branchStability(s *state, ev *eval, cr *CaseResult, st *Stability) {
+	n := s.net
+	nb := len(n.branches)
+	slopes := make([]float64, nb)
+	from, to := make([]int, nb), make([]int, nb)
+	for bi, b := range n.branches {
+		slopes[bi] = s.branchSlope(bi, ev)
+		from[bi], to[bi] = b.from, b.to
+	}
+	type group struct {
+		names    []string
+		perHeat  []float64
+		unstable bool
+	}
+	groups := map[[2]int]*group{}
+	for bi, b := range n.branches {
+		ext := -externalSlope(n.nj, from, to, slopes, bi, b.from, b.to)
+		bs := BranchStability{MassFlow: ev.mb[bi], Slope: slopes[bi], External: ext, Stable: slopes[bi] > ext}
+		var heat float64
+		for _, lg := range b.legs {
+			bs.Components = append(bs.Components, n.comps[lg.ci].name)
+			heat += s.heat[lg.ci]
+		}
+		st.Branches = append(st.Branches, bs)
+		name := strings.Join(bs.Components, " → ")
+		if !bs.Stable {
+			cr.Findings = append(cr.Findings, p.finding(RuleUnstable, "warning", cr.Case, bs.Components[0], slopes[bi], ext, "Pa/(kg/s)", "",
+				"branch %s in case %s is statically unstable (Ledinegg): its pressure drop changes by %.4g Pa per kg/s, less than the %.4g Pa per kg/s of the rest of the network at its junctions, so a small disturbance moves its flow away from the balance",
+				name, cr.Case, slopes[bi], ext))
+		}
+		if heat > 0 {
+			k := [2]int{min(b.from, b.to), max(b.from, b.to)}
+			g := groups[k]
+			if g == nil {
+				g = &group{}
+				groups[k] = g
+			}
+			g.names = append(g.names, name)
+			g.perHeat = append(g.perHeat, ev.mb[bi]/heat)
+			g.unstable = g.unstable || !bs.Stable
+		}
+	}
+	for _, g := range groups {
+		if len(g.names) < 2 {
+			continue
+		}
+		lo, hi := math.Inf(1), math.Inf(-1)
+		for _, v := range g.perHeat {
+			lo, hi = math.Min(lo, v), math.Max(hi, v)
+		}
+		ratio := math.Inf(1)
+		if lo > 0 {
+			ratio = hi / lo
+		}
+		if ratio > MaldistributionRatio || g.unstable {
+			msg := fmt.Sprintf("parallel heated branches %s: flow per unit heat differs by a factor %.2f", strings.Join(g.names, "; "), ratio)
+			if g.unstable {
+				msg += ", and one of them is statically unstable"
+			}
+			st.Maldistribution = append(st.Maldistribution, msg)
+			cr.Findings = append(cr.Findings, p.finding(RuleMaldistribution, "warning", cr.Case, "", ratio, MaldistributionRatio, "", "",
+				"%s in case %s (limit %.2f): the weaker channels run at higher quality and nearer dryout", msg, cr.Case, MaldistributionRatio))
+		}
+	}
+}
+
+// channelStability evaluates Ishii's density-wave numbers for every heated
+// evaporator, and marks those with a geyser-risk caution.
+func (p *prepared) channelStability(s *state, cr *CaseResult, st *Stability) {
+	n := s.net
+	geyser := map[string]bool{}
+	for _, f := range cr.Findings {
+		if f.Rule == RuleGeyser {
+			geyser[f.Component] = true
+		}
+	}
+	// Flow order around a single loop; in a network, the evaporator's own
+	// branch.
+	var orders [][]int
+	if n.ring {
+		var seq []int
+		for _, ld := range s.ringOrder(0, cr.MassFlow) {
+			seq = append(seq, ld.ci)
+		}
+		orders = append(orders, seq)
+	} else {
+		for _, b := range n.branches {
+			var seq []int
+			for _, lg := range b.legs {
+				seq = append(seq, lg.ci)
+			}
+			orders = append(orders, seq)
+		}
+	}
+	dRho := s.p.RhoL - s.p.RhoV
+	for _, seq := range orders {
+		for k, ci := range seq {
+			cp := &n.comps[ci]
+			cs := cr.Components[ci]
+			if cp.kind != lang.Evaporator || !(s.heat[ci] > 0) || !(math.Abs(cs.MassFlow) > 0) {
+				continue
+			}
+			m := math.Abs(cs.MassFlow)
+			G := m / cp.A
+			vh := G * G / (2 * s.p.RhoL) // liquid velocity head of the channel
+			var ki, ke float64
+			for j := 0; j < k; j++ {
+				c := cr.Components[seq[j]]
+				if n.comps[seq[j]].kind == lang.Condenser {
+					ki = 0 // the inlet side starts at the condenser outlet
+					continue
+				}
+				ki += (c.DpFriction + c.DpLocal) / vh
+			}
+			for j := k + 1; j < len(seq); j++ {
+				if n.comps[seq[j]].kind == lang.Condenser {
+					break
+				}
+				c := cr.Components[seq[j]]
+				ke += (c.DpFriction + c.DpLocal) / vh
+			}
+			fl := cs.DpFriction / (2 * vh) // f L/(2D)
+			ke += cs.DpLocal / vh
+			dhSub := math.Max(0, -cs.XIn) * s.p.Hlv
+			if cs.Local != nil {
+				dhSub = cs.Local.SubcoolingIn * s.p.CpL
+			}
+			ch := ChannelStability{Component: cp.name,
+				Npch:      s.heat[ci] / (m * s.p.Hlv) * dRho / s.p.RhoV,
+				Nsub:      dhSub / s.p.Hlv * dRho / s.p.RhoV,
+				Boundary:  2 * (ki + fl + ke) / (1 + 0.5*(fl+2*ke)),
+				Geysering: geyser[cp.name]}
+			ch.Stable = ch.Npch-ch.Nsub < ch.Boundary
+			st.Channels = append(st.Channels, ch)
+		}
+	}
+}
