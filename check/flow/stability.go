@@ -160,10 +160,12 @@ func (p *prepared) branchStability(s *state, ev *eval, cr *CaseResult, st *Stabi
 	}
 	type group struct {
 		names    []string
+		first    []string
 		perHeat  []float64
 		unstable bool
 	}
 	groups := map[[2]int]*group{}
+	var keys [][2]int // in order of first appearance, for a stable output
 	for bi, b := range n.branches {
 		ext := -externalSlope(n.nj, from, to, slopes, bi, b.from, b.to)
 		bs := BranchStability{MassFlow: ev.mb[bi], Slope: slopes[bi], External: ext, Stable: slopes[bi] > ext}
@@ -185,18 +187,25 @@ func (p *prepared) branchStability(s *state, ev *eval, cr *CaseResult, st *Stabi
 			if g == nil {
 				g = &group{}
 				groups[k] = g
+				keys = append(keys, k)
 			}
 			g.names = append(g.names, name)
+			g.first = append(g.first, bs.Components[0])
 			g.perHeat = append(g.perHeat, ev.mb[bi]/heat)
 			g.unstable = g.unstable || !bs.Stable
 		}
 	}
-	for _, g := range groups {
+	for _, k := range keys {
+		g := groups[k]
 		if len(g.names) < 2 {
 			continue
 		}
 		lo, hi := math.Inf(1), math.Inf(-1)
-		for _, v := range g.perHeat {
+		weak := ""
+		for i, v := range g.perHeat {
+			if v < lo {
+				weak = g.first[i]
+			}
 			lo, hi = math.Min(lo, v), math.Max(hi, v)
 		}
 		ratio := math.Inf(1)
@@ -209,7 +218,7 @@ func (p *prepared) branchStability(s *state, ev *eval, cr *CaseResult, st *Stabi
 				msg += ", and one of them is statically unstable"
 			}
 			st.Maldistribution = append(st.Maldistribution, msg)
-			cr.Findings = append(cr.Findings, p.finding(RuleMaldistribution, "warning", cr.Case, "", ratio, MaldistributionRatio, "", "",
+			cr.Findings = append(cr.Findings, p.finding(RuleMaldistribution, "warning", cr.Case, weak, ratio, MaldistributionRatio, "", "",
 				"%s in case %s (limit %.2f): the weaker channels run at higher quality and nearer dryout", msg, cr.Case, MaldistributionRatio))
 		}
 	}
