@@ -96,6 +96,12 @@ case nominal { heat evap 500 W }
 	if !strings.Contains(c.Reason, "not above") {
 		t.Errorf("reason %q should say the condenser is not above the evaporator", c.Reason)
 	}
+	// The head is quoted at the flow 500 W just evaporates: R134a's latent
+	// heat at 28.3 °C is about 174.8 kJ/kg (Tillner-Roth and Baehr 1994,
+	// from memory), so 2.86 g/s; not at a vanishing flow.
+	if !strings.Contains(c.Reason, "at 2.86 g/s") {
+		t.Errorf("reason %q should quote the head at 2.86 g/s", c.Reason)
+	}
 }
 
 func flowOf(t testing.TB, src string) float64 {

@@ -113,14 +113,36 @@ func (p *prepared) noFlowReason(s *state, ev *eval, heat, e0 float64) string {
 	if heat == 0 {
 		return "no heat input"
 	}
-	head := s.headAtVanishingFlow(nil, 0)
-	if head <= 0 {
-		return fmt.Sprintf("the gravity head is %.3g Pa even with the riser full of vapour: the condenser is not above the evaporator along the body force", head)
-	}
 	if e0 > 0 {
 		return fmt.Sprintf("%s: the excess head is still positive at %g kg/s, the largest flow searched", beyondRange, flowCeiling)
 	}
-	return fmt.Sprintf("the losses exceed the gravity head (at most %.3g Pa) at every flow", head)
+	// The numbers are quoted at the flow the heat just evaporates (exit
+	// quality about 1): below it the evaporator would dry out, and at a
+	// vanishing flow the quality is meaningless.
+	m1 := heat / s.p.Hlv
+	head, losses := s.ringParts(ev, m1)
+	at := fmt.Sprintf("at %.3g g/s, the flow the heat just evaporates (exit quality about 1)", m1*1e3)
+	if head <= 0 {
+		return fmt.Sprintf("the gravity head is %.3g Pa %s, with the riser full of vapour: the condenser is not above the evaporator along the body force", head, at)
+	}
+	return fmt.Sprintf("the losses exceed the gravity head at every flow searched: %s the gravity head is %.3g Pa and the friction, local and acceleration losses %.3g Pa", at, head, losses)
+}
+
+// ringParts returns a single loop's gravity head and its friction, local
+// and acceleration losses at loop flow m.
+func (s *state) ringParts(ev *eval, m float64) (head, losses float64) {
+	s.evaluate([]float64{m}, ev)
+	for bi, b := range s.net.branches {
+		up := b.from
+		if ev.mb[bi] < 0 {
+			up = b.to
+		}
+		s.branchDP(bi, ev.mb[bi], ev.xj[up], func(ci int, dir, m, xin, xout float64, q parts) {
+			head += q.grav
+			losses += q.fric + q.local + q.acc
+		})
+	}
+	return head, losses
 }
 
 // headAtVanishingFlow is the net gravity head with the flow pattern f (of
