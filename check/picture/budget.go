@@ -60,6 +60,10 @@ func BudgetOf(m *lang.Model, l *lang.Loop, caseName string) (*Budget, error) {
 		return nil, fmt.Errorf("loop %s cannot be estimated: %s", l.Name, findingText(lr.Findings))
 	}
 	cr := lr.Cases[0]
+	if !cr.Circulates {
+		// A budget of no flow is an empty figure.
+		return nil, fmt.Errorf("case %s does not circulate (%s): no pressure budget to draw", cr.Case, cr.Reason)
+	}
 	b := &Budget{Loop: l.Name, Case: cr.Case, Network: lr.Network, Circulates: cr.Circulates, MassFlow: finite(cr.MassFlow), Reason: cr.Reason}
 	for _, cs := range cr.Components {
 		b.Items = append(b.Items, BudgetItem{Name: cs.Component, Kind: cs.Kind, Gravity: finite(cs.DpGravity),

@@ -3,6 +3,7 @@ package picture
 import (
 	"fmt"
 	"math"
+	"slices"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
@@ -166,6 +167,10 @@ func CirculationOf(m *lang.Model, l *lang.Loop, o Options) (*Circulation, error)
 			}
 		}
 		out.Sweep = append(out.Sweep, lp)
+	}
+	if !slices.ContainsFunc(out.Sweep, func(p LoadPoint) bool { return p.Circulates }) {
+		return nil, fmt.Errorf("the loop circulates at no load from %.0f %% to %.0f %% of case %s: no circulation curve to draw",
+			100*scales[0], 100*scales[len(scales)-1], base.Name)
 	}
 	all := flow.EstimateLoop(m, l, flow.Options{NoTilt: true})
 	for _, cr := range all.Cases {

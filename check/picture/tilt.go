@@ -3,6 +3,7 @@ package picture
 import (
 	"fmt"
 	"math"
+	"slices"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
@@ -99,6 +100,10 @@ func TiltOf(m *lang.Model, l *lang.Loop, caseName string, step float64) (*Tilt, 
 	}
 	if t.RollSweep, _, err = sweep(&flow.Sweep{Roll: angles}); err != nil {
 		return nil, err
+	}
+	circ := func(p TiltPoint) bool { return p.Circulates }
+	if !slices.ContainsFunc(t.PitchSweep, circ) && !slices.ContainsFunc(t.RollSweep, circ) {
+		return nil, fmt.Errorf("case %s circulates at no pitch or roll: no tilt figure to draw", c.Name)
 	}
 	if tl := base.Tilt; tl != nil {
 		t.PitchUp, t.PitchDown, t.RollLeft, t.RollRight = finitePtr(tl.PitchUp), finitePtr(tl.PitchDown), finitePtr(tl.RollLeft), finitePtr(tl.RollRight)

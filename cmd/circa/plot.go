@@ -33,7 +33,8 @@ Draws, for each loop in FILE:
 The case is the nominal one unless --case names another. Figures are written
 to DIR (default: the current directory) in each format given, and their
 paths printed. Exit status 1 when the file has errors or a figure cannot be
-drawn, 2 for usage errors.
+drawn (a figure with nothing to show, such as the budget of a case that does
+not circulate, is not written), 2 for usage and I/O errors.
 
 Options:
 `

@@ -74,3 +74,44 @@ func TestPlotUsage(t *testing.T) {
 		t.Errorf("--help = %d", code)
 	}
 }
+
+// A file with errors, or a loop that circulates in no case drawn, gives a
+// non-zero status and no empty figure: only the geometry of the loop that
+// does not circulate (its condenser below its evaporator) is drawn.
+func TestPlotDrawsNoEmptyFigure(t *testing.T) {
+	dir := t.TempDir()
+	bad := filepath.Join(dir, "bad.loop")
+	os.WriteFile(bad, []byte("loop l {\n  pipe p from a to b\n}\n"), 0o644)
+	out := filepath.Join(dir, "out")
+	if code, stdout, _ := runPlotCmd(t, bad, "--out", out); code != exitFindings || stdout != "" {
+		t.Errorf("file with errors: %d %q", code, stdout)
+	}
+	if ents, _ := os.ReadDir(out); len(ents) != 0 {
+		t.Errorf("figures written for a file with errors: %v", ents)
+	}
+
+	src, err := os.ReadFile("../../testdata/flow/hand.loop")
+	if err != nil {
+		t.Fatal(err)
+	}
+	down := strings.NewReplacer("node c at (0.1, 0, 1) m", "node c at (0.1, 0, -1) m", "node d at (0, 0, 1) m", "node d at (0, 0, -1) m").Replace(string(src))
+	table, err := os.ReadFile("../../testdata/flow/constant.csv")
+	if err != nil {
+		t.Fatal(err)
+	}
+	os.WriteFile(filepath.Join(dir, "constant.csv"), table, 0o644)
+	p := filepath.Join(dir, "down.loop")
+	if err := os.WriteFile(p, []byte(down), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	code, stdout, errs := runPlotCmd(t, p, "--out", filepath.Join(dir, "figs"))
+	if code != exitFindings {
+		t.Errorf("loop that does not circulate: status %d", code)
+	}
+	if got := strings.Fields(stdout); len(got) != 1 || !strings.HasSuffix(got[0], "hand-geometry.svg") {
+		t.Errorf("figures %v, want the geometry only\n%s", got, errs)
+	}
+	if !strings.Contains(errs, "no pressure budget to draw") {
+		t.Errorf("stderr %q", errs)
+	}
+}
