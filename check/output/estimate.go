@@ -4,12 +4,15 @@ import (
 	"encoding/json"
 	"fmt"
 	"io"
+	"math"
 	"sort"
 	"strings"
 	"text/tabwriter"
 
 	"circa/check/flow"
 	"circa/check/geom"
+	"circa/check/picture"
+	"circa/lang"
 )
 
 // BudgetConvention says how every pressure budget is signed; the text, CSV
@@ -28,7 +31,9 @@ func EstimateJSON(w io.Writer, res *flow.Result) error {
 // its methods and assumptions, every case's operating point, pressure
 // budget and margins, sweep points as one table per case, and the worst
 // case per margin.
-func EstimateText(w io.Writer, res *flow.Result) error {
+// env, when not nil, holds tilt envelopes whose first margin failures the
+// tilt lines name.
+func EstimateText(w io.Writer, res *flow.Result, env Envelopes) error {
 	ew := &errWriter{w: w}
 	for _, c := range res.Cautions {
 		fmt.Fprintln(ew, "caution:", c)
@@ -37,7 +42,7 @@ func EstimateText(w io.Writer, res *flow.Result) error {
 		fmt.Fprintf(ew, "%s: %s\n", f.Severity, f.Message)
 	}
 	for i := range res.Loops {
-		loopText(ew, &res.Loops[i])
+		loopText(ew, &res.Loops[i], env)
 	}
 	return ew.err
 }
@@ -58,7 +63,7 @@ func (e *errWriter) Write(p []byte) (int, error) {
 	return n, nil
 }
 
-func loopText(w io.Writer, l *flow.LoopResult) {
+func loopText(w io.Writer, l *flow.LoopResult, env Envelopes) {
 	fmt.Fprintf(w, "\nloop %s: fluid %s", l.Loop, l.Fluid)
 	if l.Safety != "" {
 		fmt.Fprintf(w, " (safety class %s)", l.Safety)
@@ -83,7 +88,7 @@ func loopText(w io.Writer, l *flow.LoopResult) {
 		for j < len(l.Cases) && l.Cases[j].Grid {
 			j++
 		}
-		caseText(w, l, &l.Cases[i])
+		caseText(w, l, &l.Cases[i], env[[2]string{l.Loop, l.Cases[i].Case}])
 		if j > i+1 {
 			sweepText(w, l, l.Cases[i].Case, l.Cases[i+1:j])
 		}
@@ -192,7 +197,7 @@ func caseHeader(c *flow.CaseResult) string {
 	return s
 }
 
-func caseText(w io.Writer, l *flow.LoopResult, c *flow.CaseResult) {
+func caseText(w io.Writer, l *flow.LoopResult, c *flow.CaseResult, tilt *picture.Tilt) {
 	fmt.Fprintf(w, "\n%s: heat %s W", caseHeader(c), fixed(c.Heat, 0))
 	if c.SatSource != "" {
 		fmt.Fprintf(w, ", saturation %s, %s (%s)", temperature(c.SatTemperature), pressureAs(c.SatPressure, l.DesignPressureUnit), c.SatSource)
@@ -212,7 +217,11 @@ func caseText(w io.Writer, l *flow.LoopResult, c *flow.CaseResult) {
 		stabilityText(w, c)
 	}
 	if c.Tilt != nil {
-		fmt.Fprintf(w, "  tilt: %s\n", TiltSummary(c.Tilt))
+		fmt.Fprintf(w, "  tilt: %s", TiltSummary(c.Tilt))
+		if tilt != nil {
+			fmt.Fprintf(w, "; first margin to fail: %s", FailureText(tilt.FirstFailures(), TiltEnvelopeStep))
+		}
+		fmt.Fprintln(w)
 	}
 	if len(c.Margins) > 0 {
 		tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
@@ -521,4 +530,52 @@ func stabilityText(w io.Writer, c *flow.CaseResult) {
 	}
 	parts = append(parts, st.Maldistribution...)
 	fmt.Fprintf(w, "  stability: %s\n", strings.Join(parts, "; "))
+}
+
+// Envelopes are tilt envelopes by loop and case name.
+type Envelopes map[[2]string]*picture.Tilt
+
+// TiltEnvelopeStep is the angle step of the envelopes the estimate's tilt
+// lines come from, rad.
+const TiltEnvelopeStep = 5 * math.Pi / 180
+
+// TiltEnvelopes sweeps pitch and roll around every case of res whose tilt
+// limits were searched (not sweep points), so the tilt lines can say where
+// the first margin fails. progress, when set, is told each case.
+func TiltEnvelopes(m *lang.Model, res *flow.Result, progress func(string)) Envelopes {
+	env := Envelopes{}
+	for _, lr := range res.Loops {
+		l := loopNamed(m, lr.Loop)
+		if l == nil {
+			continue
+		}
+		for _, c := range lr.Cases {
+			if c.Grid || c.Tilt == nil || m.Case(c.Case) == nil {
+				continue
+			}
+			if progress != nil {
+				progress(fmt.Sprintf("loop %s, case %s: sweeping pitch and roll for the margins", lr.Loop, c.Case))
+			}
+			if t, err := picture.TiltOf(m, l, c.Case, TiltEnvelopeStep); err == nil {
+				env[[2]string{lr.Loop, c.Case}] = t
+			}
+		}
+	}
+	return env
+}
+
+// FailureText says where the first margin fails in each direction.
+func FailureText(fs []picture.TiltFailure, step float64) string {
+	var parts []string
+	for _, f := range fs {
+		if f.AtCase {
+			return "already at the case's attitude (" + f.What + ")"
+		}
+		if !f.Found {
+			parts = append(parts, fmt.Sprintf("%s none as far as %s", f.Axis, angle(f.Angle)))
+			continue
+		}
+		parts = append(parts, fmt.Sprintf("%s %s (%s)", f.Axis, angle(f.Angle), f.What))
+	}
+	return strings.Join(parts, ", ") + fmt.Sprintf(" (%s° steps)", sig(deg(step), 3))
 }

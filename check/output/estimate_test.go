@@ -62,7 +62,7 @@ func TestBudgetAddsUp(t *testing.T) {
 			if err := EstimateCSV(&cs, res); err != nil {
 				t.Fatal(err)
 			}
-			if err := EstimateText(&txt, res); err != nil {
+			if err := EstimateText(&txt, res, nil); err != nil {
 				t.Fatal(err)
 			}
 			n := checkJSONBudget(t, js.Bytes())
@@ -295,7 +295,7 @@ func TestNoNegativeZero(t *testing.T) {
 	for _, path := range exampleFiles(t) {
 		res := estimateFile(t, path, flow.Options{NoTilt: true})
 		for name, write := range map[string]func(*bytes.Buffer) error{
-			"text": func(b *bytes.Buffer) error { return EstimateText(b, res) },
+			"text": func(b *bytes.Buffer) error { return EstimateText(b, res, nil) },
 			"json": func(b *bytes.Buffer) error { return EstimateJSON(b, res) },
 			"csv":  func(b *bytes.Buffer) error { return EstimateCSV(b, res) },
 		} {
@@ -361,7 +361,7 @@ func TestPressureAsWritten(t *testing.T) {
 	}
 	res := estimateFile(t, "../../testdata/examples/rack-door.loop", flow.Options{NoTilt: true})
 	var b bytes.Buffer
-	EstimateText(&b, res)
+	EstimateText(&b, res, nil)
 	if !regexp.MustCompile(`design_pressure\s+\S+ bar\(g\)\s+4\.00 bar\(g\)`).MatchString(b.String()) {
 		t.Errorf("design pressure not as written (4 bar(g)):\n%s", b.String())
 	}
@@ -390,7 +390,7 @@ func TestChargeSummary(t *testing.T) {
 func TestSeveralOperatingPoints(t *testing.T) {
 	res := estimateFile(t, "../../testdata/flow/ledinegg.loop", flow.Options{NoTilt: true})
 	var b bytes.Buffer
-	EstimateText(&b, res)
+	EstimateText(&b, res, nil)
 	out := b.String()
 	c := res.Loops[0].Cases[0]
 	if len(StableRoots(&c)) < 2 {
@@ -408,7 +408,7 @@ func TestSweepTable(t *testing.T) {
 	sw := &flow.Sweep{Pitch: []float64{0, 20 * math.Pi / 180, 40 * math.Pi / 180}}
 	res := estimateFile(t, "../../testdata/examples/forestry-inverter.loop", flow.Options{NoTilt: true, Case: "level_work", Sweep: sw})
 	var b bytes.Buffer
-	EstimateText(&b, res)
+	EstimateText(&b, res, nil)
 	out := b.String()
 	if strings.Count(out, "\ncase ") != 1 || !strings.Contains(out, "sweep of case level_work: 3 points") {
 		t.Fatalf("sweep not a table:\n%s", out)
@@ -422,5 +422,23 @@ func TestSweepTable(t *testing.T) {
 	// less flow): the worst table names that point, not the base case.
 	if !regexp.MustCompile(`exit_quality\s+level_work at pitch 40°, roll 0°`).MatchString(out) {
 		t.Errorf("worst exit quality not attributed to the sweep point:\n%s", out)
+	}
+}
+
+// The tilt lines say where the first margin fails, not only where the flow
+// stops.
+func TestTiltLineFirstFailure(t *testing.T) {
+	path := "../../testdata/examples/forestry-inverter.loop"
+	m := lang.Load(path, lang.OSFS{})
+	res := estimateFile(t, path, flow.Options{Case: "level_work"})
+	var stages []string
+	env := TiltEnvelopes(m, res, func(s string) { stages = append(stages, s) })
+	var b bytes.Buffer
+	if err := EstimateText(&b, res, env); err != nil {
+		t.Fatal(err)
+	}
+	line := regexp.MustCompile(`(?m)^  tilt: circulation stops at .*; first margin to fail: pitch \+\d+\.\d° \(exit_quality cold_plate\), pitch -\d+\.\d° .*\(5° steps\)$`)
+	if !line.MatchString(b.String()) || len(stages) != 1 {
+		t.Errorf("tilt line (stages %v):\n%s", stages, b.String())
 	}
 }

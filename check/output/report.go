@@ -9,7 +9,6 @@ import (
 	"io"
 	"math"
 	"regexp"
-	"sort"
 	"strings"
 
 	"circa/check"
@@ -295,6 +294,10 @@ func loopReport(m *lang.Model, l *lang.Loop, lr *flow.LoopResult, o ReportOption
 		return g.Figure()
 	})
 	var tilt *picture.Tilt
+	tiltStep := o.TiltStep
+	if !(tiltStep > 0) {
+		tiltStep = TiltEnvelopeStep
+	}
 	if len(m.Cases) > 0 {
 		into = &d.Curves
 		figure("circulation curve", "Circulation curve: mass flow and exit quality against heat load, with every case", func() (*picture.Figure, error) {
@@ -311,13 +314,9 @@ func loopReport(m *lang.Model, l *lang.Loop, lr *flow.LoopResult, o ReportOption
 			}
 			return b.Figure()
 		})
-		step := o.TiltStep
-		if !(step > 0) {
-			step = 5 * math.Pi / 180
-		}
 		into = &d.Envelope
 		figure("tilt envelope", "Tilt envelope around the nominal case", func() (*picture.Figure, error) {
-			t, err := picture.TiltOf(m, l, "", step)
+			t, err := picture.TiltOf(m, l, "", tiltStep)
 			if err != nil {
 				return nil, err
 			}
@@ -334,7 +333,7 @@ func loopReport(m *lang.Model, l *lang.Loop, lr *flow.LoopResult, o ReportOption
 		}
 		row := tiltRow{Case: c.Case, Stops: TiltSummary(c.Tilt)}
 		if tilt != nil && c.Case == tilt.Case {
-			row.FirstFailure = FirstFailure(tilt)
+			row.FirstFailure = FailureText(tilt.FirstFailures(), tiltStep)
 		}
 		for _, mg := range c.Margins {
 			if mg.Margin == flow.MarginTilt {
@@ -394,42 +393,6 @@ func accelEnvelope(m *lang.Model, l *lang.Loop, nominal string) ([]accelRow, str
 		rows = append(rows, row)
 	}
 	return rows, fmt.Sprintf("Case %s under steady accelerations of the equipment frame, in standard gravities (9.80665 m/s²), the attitude kept; the body force is g − a. The loss reserve is not evaluated here.", lr.Cases[0].Case)
-}
-
-// FirstFailure says, from a tilt envelope, where along each direction from
-// the case's attitude the first attitude-dependent margin reaches its limit
-// or circulation stops, whichever comes first.
-func FirstFailure(t *picture.Tilt) string {
-	var parts []string
-	for _, sw := range []struct {
-		name string
-		pts  []picture.TiltPoint
-		from float64
-	}{{"pitch", t.PitchSweep, t.Pitch}, {"roll", t.RollSweep, t.Roll}} {
-		for _, dir := range []float64{1, -1} {
-			found := false
-			pts := append([]picture.TiltPoint(nil), sw.pts...)
-			sort.Slice(pts, func(i, j int) bool { return dir*pts[i].Angle < dir*pts[j].Angle })
-			for _, p := range pts {
-				if dir*(p.Angle-sw.from) < -1e-9 {
-					continue
-				}
-				if !p.Circulates || p.WorstUse >= 1 {
-					what := "a margin fails"
-					if !p.Circulates {
-						what = "circulation stops"
-					}
-					parts = append(parts, fmt.Sprintf("%s %s (%s)", sw.name, angle(p.Angle), what))
-					found = true
-					break
-				}
-			}
-			if !found {
-				parts = append(parts, fmt.Sprintf("%s %s: none to %s", sw.name, map[float64]string{1: "up", -1: "down"}[dir], angle(dir*math.Pi/2)))
-			}
-		}
-	}
-	return strings.Join(parts, "; ")
 }
 
 var xmlHead = regexp.MustCompile(`^\s*<\?xml[^>]*\?>\s*(<!--.*?-->\s*)?`)

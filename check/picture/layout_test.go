@@ -158,3 +158,52 @@ func TestNiceTicks(t *testing.T) {
 		}
 	}
 }
+
+// The first failure in each direction is the first swept angle past the
+// case's attitude where a margin reaches its limit or circulation stops:
+// every angle between passes, and the failure comes no later than where
+// circulation stops.
+func TestFirstFailures(t *testing.T) {
+	m := loadExample(t, "forestry-inverter")
+	tl, err := TiltOf(m, m.Loops[0], "level_work", 5*math.Pi/180)
+	if err != nil {
+		t.Fatal(err)
+	}
+	fs := tl.FirstFailures()
+	if len(fs) != 4 {
+		t.Fatalf("%d directions", len(fs))
+	}
+	for _, f := range fs {
+		pts, from := tl.PitchSweep, tl.Pitch
+		if f.Axis == "roll" {
+			pts, from = tl.RollSweep, tl.Roll
+		}
+		if !f.Found || f.AtCase {
+			t.Errorf("%+v: the inverter's nominal case fails within ±90° in every direction (exit quality)", f)
+			continue
+		}
+		for _, p := range pts {
+			s := float64(f.Sign)
+			switch {
+			case s*(p.Angle-from) >= 0 && s*(p.Angle-f.Angle) < -1e-9:
+				if !p.Circulates || p.WorstUse >= 1 {
+					t.Errorf("%s %+d: %.1f° fails before the reported %.1f°", f.Axis, f.Sign, deg(p.Angle), deg(f.Angle))
+				}
+			case math.Abs(p.Angle-f.Angle) < 1e-9:
+				if p.Circulates && p.WorstUse < 1 {
+					t.Errorf("%s %+d: the reported %.1f° passes", f.Axis, f.Sign, deg(f.Angle))
+				}
+			}
+		}
+		if f.Axis == "pitch" && f.Sign > 0 && tl.PitchUp != nil && f.Angle > *tl.PitchUp+1e-9 {
+			t.Errorf("first failure %.1f° beyond where circulation stops, %.1f°", deg(f.Angle), deg(*tl.PitchUp))
+		}
+	}
+	// A case that already fails says so in every direction.
+	tl.CaseFails = "exit_quality cold_plate"
+	for _, f := range tl.FirstFailures() {
+		if !f.AtCase || f.What != tl.CaseFails {
+			t.Errorf("%+v", f)
+		}
+	}
+}

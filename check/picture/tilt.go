@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"math"
 	"slices"
+	"sort"
+	"strings"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
@@ -27,6 +29,9 @@ type Tilt struct {
 	// Critical attitudes found by the estimator's search from the case (nil:
 	// none within half a turn of it).
 	PitchUp, PitchDown, RollLeft, RollRight *float64
+	// CaseFails names the attitude-dependent margin that already reaches
+	// its limit at the case's own attitude ("" when none does).
+	CaseFails string
 }
 
 // TiltPoint is the estimate at one angle.
@@ -40,6 +45,8 @@ type TiltPoint struct {
 	// margins do not change with attitude and are left out, and the loss
 	// reserve (a second solve per point) is not evaluated on sweeps.
 	WorstUse float64
+	// Worst names that margin and its component ("exit_quality cold_plate").
+	Worst string
 }
 
 // AttitudeMargins are the margins TiltPoint.WorstUse takes into account.
@@ -88,7 +95,10 @@ func TiltOf(m *lang.Model, l *lang.Loop, caseName string, step float64) (*Tilt, 
 				if !attitudeMargin(mg.Margin) {
 					continue
 				}
-				tp.WorstUse = math.Max(tp.WorstUse, finite(mg.Use))
+				if u := finite(mg.Use); u > tp.WorstUse || tp.Worst == "" {
+					tp.WorstUse = math.Max(tp.WorstUse, u)
+					tp.Worst = strings.TrimSpace(mg.Margin + " " + mg.Component)
+				}
 			}
 			pts = append(pts, tp)
 		}
@@ -104,6 +114,15 @@ func TiltOf(m *lang.Model, l *lang.Loop, caseName string, step float64) (*Tilt, 
 	circ := func(p TiltPoint) bool { return p.Circulates }
 	if !slices.ContainsFunc(t.PitchSweep, circ) && !slices.ContainsFunc(t.RollSweep, circ) {
 		return nil, fmt.Errorf("case %s circulates at no pitch or roll: no tilt figure to draw", c.Name)
+	}
+	worst := 0.0
+	for _, mg := range base.Margins {
+		if attitudeMargin(mg.Margin) && mg.Use >= 1 && mg.Use > worst {
+			worst, t.CaseFails = mg.Use, strings.TrimSpace(mg.Margin+" "+mg.Component)
+		}
+	}
+	if !base.Circulates {
+		t.CaseFails = "circulation stops"
 	}
 	if tl := base.Tilt; tl != nil {
 		t.PitchUp, t.PitchDown, t.RollLeft, t.RollRight = finitePtr(tl.PitchUp), finitePtr(tl.PitchDown), finitePtr(tl.RollLeft), finitePtr(tl.RollRight)
@@ -237,4 +256,54 @@ func (angleTicks) Ticks(min, max float64) []plot.Tick {
 		ts = append(ts, t)
 	}
 	return ts
+}
+
+// TiltFailure is where, going one way from a case's attitude, the first
+// attitude-dependent margin reaches its limit or circulation stops.
+type TiltFailure struct {
+	Axis   string  // "pitch" or "roll"
+	Sign   int     // +1: increasing angle, −1: decreasing
+	Angle  float64 // rad; the first swept angle that fails
+	What   string  // the margin and component, or "circulation stops"
+	Found  bool    // false: nothing fails up to ±90°
+	AtCase bool    // the case's own attitude already fails
+}
+
+// FirstFailures scans the envelope outward from the case's attitude, in
+// both directions of pitch and of roll, to the first swept angle where a
+// margin reaches its limit (use ≥ 1) or circulation stops. The answer is
+// as fine as the sweep's step.
+func (t *Tilt) FirstFailures() []TiltFailure {
+	var out []TiltFailure
+	for _, sw := range []struct {
+		axis string
+		pts  []TiltPoint
+		from float64
+	}{{"pitch", t.PitchSweep, t.Pitch}, {"roll", t.RollSweep, t.Roll}} {
+		for _, sign := range []int{1, -1} {
+			f := TiltFailure{Axis: sw.axis, Sign: sign, Angle: float64(sign) * math.Pi / 2}
+			if t.CaseFails != "" {
+				f.Found, f.AtCase, f.Angle, f.What = true, true, sw.from, t.CaseFails
+				out = append(out, f)
+				continue
+			}
+			pts := append([]TiltPoint(nil), sw.pts...)
+			sort.Slice(pts, func(i, j int) bool { return float64(sign)*pts[i].Angle < float64(sign)*pts[j].Angle })
+			for _, p := range pts {
+				if float64(sign)*(p.Angle-sw.from) < -1e-9 {
+					continue
+				}
+				if !p.Circulates || p.WorstUse >= 1 {
+					f.Found, f.Angle = true, p.Angle
+					f.What = p.Worst
+					if !p.Circulates {
+						f.What = "circulation stops"
+					}
+					break
+				}
+			}
+			out = append(out, f)
+		}
+	}
+	return out
 }

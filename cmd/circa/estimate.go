@@ -79,6 +79,11 @@ func runEstimate(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 	}
 	pr := startProgress(stderr, "estimate", fmt.Sprintf("solving %d operating points and their margins", points(m, opts)))
 	res, err := flow.Estimate(m, opts)
+	var env output.Envelopes
+	if err == nil && format == "text" && !opts.NoTilt {
+		// The tilt lines say where the first margin fails as well.
+		env = output.TiltEnvelopes(m, res, pr.Set)
+	}
 	pr.Stop()
 	if err != nil {
 		fmt.Fprintf(stderr, "circa estimate: %v\n", err)
@@ -90,7 +95,7 @@ func runEstimate(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 	case "csv":
 		err = output.EstimateCSV(stdout, res)
 	default:
-		err = output.EstimateText(stdout, res)
+		err = output.EstimateText(stdout, res, env)
 	}
 	if err != nil {
 		fmt.Fprintf(stderr, "circa estimate: writing output: %v\n", err)
