@@ -243,3 +243,17 @@ func TestShelterExample(t *testing.T) {
 		t.Logf("%s: %.1f g/s, T_sat %.1f °C, inlet subcooling %.1f K", c.Case, c.MassFlow*1e3, c.SatTemperature-273.15, pl.Local.SubcoolingIn)
 	}
 }
+
+// TestLocalWallTemperature: with saturation at local pressure the wall of
+// the vacuum demo's cold plate boils at the plate's own saturation
+// temperature (its inlet's, under the liquid column), not the loop's.
+func TestLocalWallTemperature(t *testing.T) {
+	m := lang.Load("../../testdata/examples/shelter-rectifier.loop", lang.OSFS{})
+	r := estimate(t, m, Options{NoTilt: true})
+	c := r.Loops[0].Cases[0]
+	pl := component(t, &c, "plate")
+	tw := margin(&c, MarginWall)
+	if !(tw > pl.Local.SatTempIn) || !(pl.Local.SatTempIn > c.SatTemperature+5) {
+		t.Errorf("wall %.2f °C, local saturation %.2f °C, loop %.2f °C", tw-273.15, pl.Local.SatTempIn-273.15, c.SatTemperature-273.15)
+	}
+}

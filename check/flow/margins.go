@@ -130,11 +130,21 @@ func (p *prepared) margins(s *state, cr *CaseResult, f []float64) {
 					if cp.c.BoilRoughness.Set && cp.c.BoilRoughness.SI > 0 {
 						rp = cp.c.BoilRoughness.SI * 1e6
 					}
-					tw := s.sat.T + correlate.CooperSuperheat(s.p.ReducedPressure, s.p.MolarMass, rp, qw)
+					// With saturation at local pressure the wall boils at the
+					// evaporator's own saturation temperature, highest at its
+					// inlet (the bottom of the liquid column).
+					ts, pr := s.sat.T, s.p.ReducedPressure
+					if s.local && cs.Local != nil {
+						ts = cs.Local.SatTempIn
+						if p.info.Pc > 0 {
+							pr = cs.Local.PressureIn / p.info.Pc
+						}
+					}
+					tw := ts + correlate.CooperSuperheat(pr, s.p.MolarMass, rp, qw)
 					tl := cp.c.WallLimit.SI - lim.WallMargin.SI
 					use := math.MaxFloat64
-					if tl > s.sat.T {
-						use = (tw - s.sat.T) / (tl - s.sat.T)
+					if tl > ts {
+						use = (tw - ts) / (tl - ts)
 					}
 					m := Margin{Margin: MarginWall, Component: cp.name, Value: tw, Limit: tl, Unit: "K", Use: use}
 					m.Status = "ok"
@@ -142,7 +152,7 @@ func (p *prepared) margins(s *state, cr *CaseResult, f []float64) {
 						m.Status = "error"
 						cr.Findings = append(cr.Findings, p.finding(RuleWall, "error", cr.Case, cp.name, tw, tl, "K", "wall_limit",
 							"wall temperature %.1f °C at evaporator %s in case %s exceeds the limit %.1f °C (saturation %.1f °C plus Cooper nucleate-boiling superheat)",
-							tw-273.15, cp.name, cr.Case, tl-273.15, s.sat.T-273.15))
+							tw-273.15, cp.name, cr.Case, tl-273.15, ts-273.15))
 					}
 					cr.add(m)
 				}
