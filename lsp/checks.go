@@ -28,11 +28,19 @@ type estimates struct {
 // once: the margin rules report that estimate, which hover and inlay hints
 // show too. The mode says whether the margin rules run and whether the
 // estimate searches the tilt limits.
-func checkModel(ctx context.Context, m *lang.Model, mode marginMode) ([]lang.Diagnostic, *estimates) {
+func (s *Server) checkModel(ctx context.Context, m *lang.Model, mode marginMode) (diags []lang.Diagnostic, est *estimates) {
 	if ctx.Err() != nil {
 		return nil, nil
 	}
-	est := &estimates{tilt: mode == marginsFull}
+	defer func() {
+		if r := recover(); r != nil {
+			diags, est = failedChecks(s.recovered(m.Root, "checking the loop", r), mode)
+		}
+	}()
+	if s.beforeCheck != nil {
+		s.beforeCheck(m.Root)
+	}
+	est = &estimates{tilt: mode == marginsFull}
 	t0 := time.Now()
 	est.flow, est.flowErr = flow.Estimate(m, flow.Options{NoTilt: !est.tilt, Cancel: ctx.Done()})
 	est.took = time.Since(t0)

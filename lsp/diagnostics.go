@@ -214,7 +214,7 @@ func (s *Server) runFullChecks(snap *snapshot, a *analysis) {
 	if s.onEstimate != nil {
 		s.onEstimate(a.root, true)
 	}
-	diags, est := checkModel(snap.ctx, a.Model(), marginsFull)
+	diags, est := s.checkModel(snap.ctx, a.Model(), marginsFull)
 	if snap.ctx.Err() != nil || est == nil {
 		return
 	}
@@ -243,7 +243,7 @@ func (s *Server) runChecks(snap *snapshot, a *analysis) {
 		s.onEstimate(a.root, mode == marginsFull)
 	}
 	t0 := time.Now()
-	diags, est := checkModel(snap.ctx, a.Model(), mode)
+	diags, est := s.checkModel(snap.ctx, a.Model(), mode)
 	if snap.ctx.Err() != nil || est == nil {
 		return
 	}

@@ -96,6 +96,8 @@ type Server struct {
 	// testing hooks
 	beforeReply func(ctx context.Context, method string)
 	beforeNote  func(method string) // before a notification's handler
+	beforeLoad  func(root string)   // before a root file's model is computed
+	beforeCheck func(root string)   // before a root file's checks and estimate run
 	onPublish   func(path string, version int32, full bool, n int)
 	onAnalysed  func(snapID uint64) // quick checks and estimates published
 	onComplete  func(snapID uint64) // complete checks published

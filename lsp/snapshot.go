@@ -57,6 +57,7 @@ type analysis struct {
 	root     string
 	fs       overlay
 	settings Settings
+	srv      *Server // logs a stage that fails; nil in tests that build analyses alone
 
 	once  sync.Once
 	model *lang.Model
@@ -73,6 +74,15 @@ type analysis struct {
 // Model returns the resolved model, computing it on first use.
 func (a *analysis) Model() *lang.Model {
 	a.once.Do(func() {
+		defer func() {
+			if r := recover(); r != nil {
+				a.model = failedModel(a.root, a.srv.recovered(a.root, "reading the file", r))
+				a.ready.Store(true)
+			}
+		}()
+		if a.srv != nil && a.srv.beforeLoad != nil {
+			a.srv.beforeLoad(a.root)
+		}
 		var m *lang.Model
 		if d, ok := a.fs.docs[a.root]; ok {
 			m = lang.LoadSource(a.root, d.text, a.fs)
@@ -262,7 +272,7 @@ func (s *Server) changeLocked(docs map[string]*document, changed []string, setti
 			n.roots[path] = a
 			continue
 		}
-		n.roots[path] = &analysis{root: path, fs: fs, settings: s.settings}
+		n.roots[path] = &analysis{root: path, fs: fs, settings: s.settings, srv: s}
 	}
 	// Publishing takes pubMu; switching under it means a cancelled snapshot
 	// can never publish after this point.
