@@ -231,7 +231,7 @@ func tiltLimits(c *Context) {
 	if cen.partial {
 		note = "; horizontal positions partly unknown (rises only), taken as no horizontal offset"
 	}
-	c.Reportf(c.Loop.NameLoc(), "loop %s: critical pitch %s, roll %s%s; beyond them the condensers' centre is no longer above the evaporators'%s",
+	c.Reportf(c.Loop.NameLoc(), "loop %s: critical pitch %s, roll %s%s; beyond them the condensers' centre is no longer above the evaporators'%s (geometry only: the estimate's margin-tilt finds where circulation stops, which also depends on the liquid and vapour columns and the losses)",
 		c.Loop.Name, pair(pu, pd, opu, opd), pair(ru, rd, oru, ord), about, note)
 }
 
@@ -241,6 +241,9 @@ func tiltMargin(c *Context) {
 		return
 	}
 	for _, cs := range c.Model.Cases {
+		if estimateTilt(c, cs) {
+			continue // margin-tilt reports the estimate's own angles for the case
+		}
 		cen, ok := loopCentres(c, cs)
 		if !ok {
 			return
@@ -270,4 +273,22 @@ func tiltMargin(c *Context) {
 				axis.name, degrees(axis.a0), cs.Name, gap*180/math.Pi, c.Loop.Name, axis.name, degrees(near), margin*180/math.Pi)
 		}
 	}
+}
+
+// estimateTilt reports whether the estimate runs in this check and found
+// the attitudes at which circulation stops for case cs: margin-tilt then
+// reports the case's margin, and tilt-margin would say the same fact again
+// with the geometric angle, a different number.
+func estimateTilt(c *Context, cs *lang.Case) bool {
+	o := c.Options
+	if o.SkipEstimates || o.NoTilt || o.Disabled["margin-tilt"] || !c.Loop.Fluid.Set || c.Loop.Fluid.Bad {
+		return false
+	}
+	lr := loopEstimate(c)
+	for i := range lr.Cases {
+		if cr := &lr.Cases[i]; cr.Case == cs.Name && !cr.Grid && cr.Tilt != nil {
+			return true
+		}
+	}
+	return false
 }

@@ -99,6 +99,15 @@ case climb { heat plate 500 W; pitch -10 deg }
 	if !quick["margin-exit-quality"] {
 		t.Error("exit-quality margin lost with NoTilt")
 	}
+	// One fact, one number: with the estimate's tilt search the case's tilt
+	// margin comes from margin-tilt alone; without it, from the geometric
+	// tilt-margin rule.
+	if full["tilt-margin"] {
+		t.Error("tilt-margin repeats margin-tilt with a different angle")
+	}
+	if !quick["tilt-margin"] {
+		t.Error("no geometric tilt-margin without the tilt search")
+	}
 }
 
 // A caller's estimate is what the margin rules report: the same findings

@@ -738,7 +738,7 @@ func (p *prepared) tilt(s *state, pt point, cr *CaseResult, start []float64) {
 	if tl.Margin < lim {
 		m.Status = "warning"
 		cr.Findings = append(cr.Findings, p.finding(RuleTilt, "warning", cr.Case, "", tl.Margin, lim, "rad", "tilt_margin",
-			"case %s is %.1f° from an attitude where circulation stops (%s), within the tilt margin %.1f°",
+			"case %s is %.1f° from an attitude where circulation stops (%s), within the tilt margin %.1f°; these are the angles at which the estimate's circulation stops, weighing the whole liquid and vapour columns and the losses, not tilt-limits' angles between thermal centres",
 			cr.Case, tl.Margin*180/math.Pi, tl.describe(), lim*180/math.Pi))
 	}
 	cr.add(m)
