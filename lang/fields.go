@@ -132,7 +132,7 @@ var FieldNeeds = map[string]units.Need{
 	"heat": needPower, "heated_length": needLength, "wetted_area": needArea, "heat_flux": needFlux,
 	"wall_limit": needTemp, "roughness_boiling": needLength, "conductance": needUA, "sink": needTemp,
 	"outlet": needTemp, "subcool": needTempDiff, "volume": needVolume,
-	"tubes": needNumber, "coolant_htc": needHTC,
+	"tubes": needNumber, "coolant_htc": needHTC, "channels": needNumber,
 	"pitch": needAngle, "roll": needAngle, "yaw": needAngle, "accel": needAccel,
 	"exit_quality": needNumber, "chf_ratio": needNumber, "flooding": needNumber, "tilt_margin": needAngle,
 	"wall_margin": needTempDiff, "head_ratio": needNumber, "saturation_max": needTemp,
@@ -142,11 +142,11 @@ var FieldNeeds = map[string]units.Need{
 var (
 	LoopFields      = []string{"fluid", "charge", "design_pressure", "saturation"}
 	ComponentFields = map[Kind][]string{
-		Pipe:       {"use", "length", "rise", "run", "bore", "flow_area", "hydraulic_diameter", "roughness", "loss"},
-		Bend:       {"use", "length", "rise", "run", "bore", "flow_area", "hydraulic_diameter", "roughness", "loss"},
-		Fitting:    {"use", "length", "rise", "run", "bore", "flow_area", "hydraulic_diameter", "roughness", "loss"},
-		Evaporator: {"use", "length", "rise", "run", "bore", "flow_area", "hydraulic_diameter", "roughness", "loss", "heat", "heated_length", "wetted_area", "heat_flux", "wall_limit", "roughness_boiling"},
-		Condenser:  {"use", "length", "rise", "run", "bore", "flow_area", "hydraulic_diameter", "roughness", "loss", "conductance", "sink", "outlet", "subcool", "tubes", "coolant_htc"},
+		Pipe:       {"use", "length", "rise", "run", "bore", "flow_area", "hydraulic_diameter", "roughness", "loss", "channels"},
+		Bend:       {"use", "length", "rise", "run", "bore", "flow_area", "hydraulic_diameter", "roughness", "loss", "channels"},
+		Fitting:    {"use", "length", "rise", "run", "bore", "flow_area", "hydraulic_diameter", "roughness", "loss", "channels"},
+		Evaporator: {"use", "length", "rise", "run", "bore", "flow_area", "hydraulic_diameter", "roughness", "loss", "channels", "heat", "heated_length", "wetted_area", "heat_flux", "wall_limit", "roughness_boiling"},
+		Condenser:  {"use", "length", "rise", "run", "bore", "flow_area", "hydraulic_diameter", "roughness", "loss", "channels", "conductance", "sink", "outlet", "subcool", "tubes", "coolant_htc"},
 		Reservoir:  {"use", "volume", "rise", "length", "bore"},
 	}
 	CaseFields   = []string{"heat", "sink", "pitch", "roll", "yaw", "accel", "saturation"}
@@ -298,6 +298,7 @@ func (r *resolver) conflicts(c *Component) {
 		{"conductance", "outlet", c.Conductance.Set, c.Outlet.Set, c.Outlet.Span, c.Outlet.File},
 		{"conductance", "coolant_htc", c.Conductance.Set, c.CoolantHTC.Set, c.CoolantHTC.Span, c.CoolantHTC.File},
 		{"conductance", "tubes", c.Conductance.Set, c.Tubes.Set, c.Tubes.Span, c.Tubes.File},
+		{"channels", "tubes", c.Channels.Set, c.Tubes.Set, c.Tubes.Span, c.Tubes.File},
 	}
 	for _, p := range pairs {
 		if p.va && p.vb {
@@ -369,6 +370,8 @@ func (r *resolver) componentField(c *Component, file string, s *Stmt) {
 		dst = &c.Subcool
 	case "tubes":
 		dst = &c.Tubes
+	case "channels":
+		dst = &c.Channels
 	case "coolant_htc":
 		dst = &c.CoolantHTC
 	case "volume":
@@ -378,9 +381,15 @@ func (r *resolver) componentField(c *Component, file string, s *Stmt) {
 		return
 	}
 	v := r.qty(file, s, FieldNeeds[kw])
-	if kw == "tubes" && v.Set && !(v.SI >= 1 && v.SI <= 1e6 && v.SI == math.Floor(v.SI)) {
-		r.errorf("bad-value", file, v.Span, "tubes must be a whole number of at least 1, not %s", strconv.FormatFloat(v.SI, 'g', -1, 64))
+	if (kw == "tubes" || kw == "channels") && v.Set && !(v.SI >= 1 && v.SI <= MaxChannels && v.SI == math.Floor(v.SI)) {
+		if v.SI > MaxChannels {
+			r.errorf("bad-value", file, v.Span, "%s must be at most %s, not %s", kw, strconv.FormatFloat(MaxChannels, 'f', -1, 64), strconv.FormatFloat(v.SI, 'g', -1, 64))
+		} else {
+			r.errorf("bad-value", file, v.Span, "%s must be a whole number of at least 1, not %s", kw, strconv.FormatFloat(v.SI, 'g', -1, 64))
+		}
 		v.Set = false
+		// A wrong channel count would scale every flow; nothing is computed from it.
+		v.Bad = kw == "channels"
 	}
 	if v.Set || !dst.Set {
 		if !v.Set {

@@ -162,6 +162,10 @@ type Component struct {
 	HydDiameter Value
 	Roughness   Value // default 1.5 µm
 	Loss        Value // local loss coefficient K
+	// Channels is the number of identical parallel channels the component
+	// stands for (default 1): its geometry fields describe one channel, its
+	// heat, conductance and the flow through it are the whole component's.
+	Channels Value
 
 	Heat          Value // evaporator: default load
 	HeatedLength  Value
@@ -189,7 +193,7 @@ type Component struct {
 func (c *Component) anyBad() bool {
 	for _, v := range []*Value{&c.Length, &c.Rise, &c.Bore, &c.FlowArea, &c.HydDiameter, &c.Roughness, &c.Loss,
 		&c.Heat, &c.HeatedLength, &c.WettedArea, &c.HeatFlux, &c.WallLimit, &c.BoilRoughness,
-		&c.Conductance, &c.Sink, &c.Outlet, &c.Subcool, &c.Volume} {
+		&c.Conductance, &c.Sink, &c.Outlet, &c.Subcool, &c.Volume, &c.Channels} {
 		if v.Bad {
 			return true
 		}
@@ -211,7 +215,19 @@ func (c *Component) Diameter() float64 {
 	return 0
 }
 
-// Area returns the flow area: flow_area, else from the bore or hydraulic diameter.
+// ChannelCount returns the number of identical parallel channels: the
+// channels field when it is a whole number of at least 1, else 1.
+func (c *Component) ChannelCount() float64 {
+	if n := c.Channels.SI; c.Channels.Set && n >= 1 && n <= MaxChannels && n == float64(int64(n)) {
+		return n
+	}
+	return 1
+}
+
+// MaxChannels is the most parallel channels (or tubes) one component may have.
+const MaxChannels = 1e6
+
+// Area returns one channel's flow area: flow_area, else from the bore or hydraulic diameter.
 func (c *Component) Area() float64 {
 	if c.FlowArea.Set {
 		return c.FlowArea.SI

@@ -256,6 +256,7 @@ func (s *Server) componentHover(c *cursor, comp *lang.Component) string {
 		rows = append(rows, [2]string{"hydraulic diameter", units.Format(d, units.MustParse("mm"))})
 	}
 	add("loss K", comp.Loss, "")
+	add("identical channels", comp.Channels, "")
 	add("heat", comp.Heat, "W")
 	add("conductance", comp.Conductance, "W/K")
 	add("tubes", comp.Tubes, "")

@@ -22,12 +22,13 @@ func byGeometry(cp comp) bool {
 	return cp.kind == lang.Condenser && !cp.c.Conductance.Set && !cp.c.Outlet.Set && cp.D > 0 && cp.L > 0
 }
 
-// tubeCount is a condenser's number of parallel tubes (default 1).
+// tubeCount is a condenser's number of parallel tubes: tubes, else its
+// channels (default 1).
 func tubeCount(c *lang.Component) float64 {
 	if c.Tubes.Set && c.Tubes.SI >= 1 && finite(c.Tubes.SI) {
 		return math.Floor(c.Tubes.SI)
 	}
-	return 1
+	return c.ChannelCount()
 }
 
 // filmRejection is the heat (W) a geometry condenser rejects at saturation

@@ -42,7 +42,8 @@ func (cr *CaseResult) add(m Margin) {
 	cr.Margins = append(cr.Margins, m)
 }
 
-// wallFlux is an evaporator's wall heat flux, W/m², at heat q.
+// wallFlux is an evaporator's wall heat flux, W/m², at heat q; wetted_area
+// is one channel's, so the heat spreads over every channel's wall.
 func wallFlux(c *lang.Component, q, D, L float64) float64 {
 	switch {
 	case c.HeatFlux.Set && c.HeatFlux.SI > 0:
@@ -51,14 +52,14 @@ func wallFlux(c *lang.Component, q, D, L float64) float64 {
 		}
 		return c.HeatFlux.SI
 	case c.WettedArea.Set && c.WettedArea.SI > 0:
-		return q / c.WettedArea.SI
+		return q / (c.WettedArea.SI * c.ChannelCount())
 	}
 	lh := L
 	if c.HeatedLength.Set && c.HeatedLength.SI > 0 {
 		lh = c.HeatedLength.SI
 	}
 	if D > 0 && lh > 0 {
-		return q / (math.Pi * D * lh)
+		return q / (math.Pi * D * lh * c.ChannelCount())
 	}
 	return 0
 }

@@ -73,7 +73,7 @@ func buildNetwork(l *lang.Loop, lay *geom.Layout) (*network, []Finding) {
 		}
 		L := c.Length.SI
 		D := c.Diameter()
-		A := c.Area()
+		A := c.Area() * c.ChannelCount() // identical channels in parallel: one channel's mass flux
 		short := c.Kind == lang.Bend || c.Kind == lang.Fitting
 		switch {
 		case !finite(L) || L < 0:
