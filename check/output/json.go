@@ -9,7 +9,8 @@ import (
 
 type jsonPos struct {
 	Line   int `json:"line"`
-	Column int `json:"column"`
+	Column int `json:"column"` // bytes
+	Char   int `json:"char"`   // characters (code points), as the text format prints
 	UTF16  int `json:"utf16"`
 	Offset int `json:"offset"`
 }
@@ -64,8 +65,8 @@ type jsonReport struct {
 func jloc(m *lang.Model, loc lang.Location) jsonLoc {
 	s, e, _ := Span(m, loc)
 	return jsonLoc{File: loc.File,
-		Start: jsonPos{s.Line, s.Byte, s.UTF16, loc.Span.Start},
-		End:   jsonPos{e.Line, e.Byte, e.UTF16, max(loc.Span.End, loc.Span.Start)}}
+		Start: jsonPos{s.Line, s.Byte, s.Char, s.UTF16, loc.Span.Start},
+		End:   jsonPos{e.Line, e.Byte, e.Char, e.UTF16, max(loc.Span.End, loc.Span.Start)}}
 }
 
 // JSON writes the findings, the paths that could not be read and a summary

@@ -117,3 +117,23 @@ func TestRangeClip(t *testing.T) {
 		t.Errorf("whole %v", b)
 	}
 }
+
+// JSON positions carry the character column the text format prints beside
+// the byte column: after "é😀" (2 + 4 bytes, 2 characters, 3 UTF-16 units)
+// the x is byte column 7, character 3, UTF-16 unit 4.
+func TestJSONCharColumn(t *testing.T) {
+	src := "é😀x\nab"
+	m := lang.LoadSource("p.loop", []byte(src), nil)
+	loc := jloc(m, lang.Location{File: "p.loop", Span: lang.Span{Start: strings.Index(src, "x"), End: strings.Index(src, "x") + 1}})
+	if loc.Start.Column != 7 || loc.Start.Char != 3 || loc.Start.UTF16 != 4 || loc.End.Char != 4 {
+		t.Errorf("start %+v end %+v", loc.Start, loc.End)
+	}
+	var b strings.Builder
+	fs := files(t, bad)
+	if err := JSON(&b, fs, Collect(fs)); err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(b.String(), `"char":`) {
+		t.Error("no char column in the JSON")
+	}
+}
