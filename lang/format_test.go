@@ -31,6 +31,7 @@ func checkFormat(t testing.TB, name string, src []byte) []byte {
 	if err != nil {
 		t.Fatalf("%s: Format: %v", name, err)
 	}
+	checkSameTokens(t, name, src, out)
 	g := Parse(name, out)
 	if len(g.Errors) > 0 {
 		t.Fatalf("%s: formatted text has syntax errors: %s\n%s", name, g.Errors[0].Message(), out)

@@ -15,7 +15,8 @@ import (
 // meaningTokens is the token sequence of src as it bears on meaning: every
 // token but blanks, with newlines and ';' (both end a statement) written as
 // one separator, runs of them collapsed, none at the start or end or next to
-// a brace (where the layout adds or removes them). Comments are a sequence
+// a brace (where the layout adds or removes them; a '}' ends a statement
+// by itself). Comments are a sequence
 // of their own: a trailing comment may move to the first statement of its
 // line, but never past another comment.
 func meaningTokens(src []byte) (toks, comments []string) {
@@ -30,7 +31,7 @@ func meaningTokens(src []byte) (toks, comments []string) {
 			continue
 		}
 		brace := t.Type == TokPunct && (t.Value == "{" || t.Value == "}")
-		if sep && len(toks) > 0 && !brace && toks[len(toks)-1] != "P{" {
+		if sep && len(toks) > 0 && !brace && toks[len(toks)-1] != "P{" && toks[len(toks)-1] != "P}" {
 			toks = append(toks, "SEP")
 		}
 		sep = false
