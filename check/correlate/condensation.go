@@ -23,7 +23,7 @@ func Shah1979(G, x, D float64, p Props) float64 {
 
 // FilmVertical is the mean coefficient of laminar film condensation on a
 // vertical surface of height L (m) of Nusselt (1916), W/(m²K):
-// h = 0.943 [ρl (ρl−ρv) a kl³ h'lv / (μl L ΔT)]^¼, with the latent heat
+// h = (2√2/3) [ρl (ρl−ρv) a kl³ h'lv / (μl L ΔT)]^¼ (2√2/3 ≈ 0.943), with the latent heat
 // corrected for subcooling of the film, h'lv = hlv + 0.68 cpl ΔT
 // (Rohsenow 1956). a is the body force along the surface (m/s²) and
 // dT = Tsat − Twall (K). It reads RhoL, RhoV, KL, MuL, CpL and Hlv.
@@ -31,7 +31,7 @@ func FilmVertical(L, a, dT float64, p Props) float64 {
 	if !(L > 0) {
 		return 0
 	}
-	return filmCoef(0.943, L, a, dT, 0.68, p)
+	return filmCoef(2*math.Sqrt2/3, L, a, dT, 0.68, p)
 }
 
 // FilmHorizontalTube is the mean coefficient of stratified film

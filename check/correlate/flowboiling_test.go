@@ -88,6 +88,13 @@ func TestFilmCondensation(t *testing.T) {
 	// h ∝ ΔT^-¼ and L^-¼ (Nusselt's film analysis).
 	near(t, "ΔT scaling", FilmVertical(1, gn, 50/16.0, p)/FilmVertical(1, gn, 50, p), 2, 0.02)
 	near(t, "L scaling", FilmVertical(1.0/16, gn, 50, p)/FilmVertical(1, gn, 50, p), 2, 1e-9)
+	// Hewitt, Shires & Bott, Process Heat Transfer (1994) p. 578, as
+	// reproduced in the open-source ht library (Bell), Nusselt_laminar:
+	// Tsat − Tw = 20 K, ρv 7.0, ρl 585 kg/m³, kl 0.091 W/(m·K),
+	// μl 158.9e-6 Pa·s, hlv 776.9 kJ/kg, plate 0.1 m → 1482.2064 W/(m²K).
+	// That worked example has no subcooling correction: cpl = 0 drops it.
+	worked := Props{RhoL: 585, RhoV: 7, MuL: 158.9e-6, KL: 0.091, Hlv: 776900}
+	near(t, "Nusselt, Process Heat Transfer p. 578", FilmVertical(0.1, gn, 20, worked), 1482.206403453679, 1e-6)
 	if FilmVertical(1, 0, 50, p) != 0 || FilmVertical(1, gn, 0, p) != 0 || FilmHorizontalTube(0, gn, 5, p) != 0 {
 		t.Error("degenerate film inputs give a coefficient")
 	}
