@@ -22,6 +22,9 @@ type testClient struct {
 	conn   net.Conn
 	srv    *Server
 	exitCh chan int
+	// patience is how long a reply or a settled analysis may take before
+	// the test calls the server hung (20 s unless a test sets it).
+	patience time.Duration
 
 	wmu      sync.Mutex
 	mu       sync.Mutex
@@ -201,7 +204,7 @@ func (c *testClient) callID(id string, method string, params any) (json.RawMessa
 	select {
 	case r := <-ch:
 		return r.result, r.err
-	case <-time.After(20 * time.Second):
+	case <-time.After(c.timeout()):
 		c.t.Fatalf("%s: no reply", method)
 		return nil, nil
 	}
@@ -278,7 +281,7 @@ func (c *testClient) wait(done map[uint64]bool) {
 	c.srv.mu.Lock()
 	id := c.srv.snap.id
 	c.srv.mu.Unlock()
-	deadline := time.Now().Add(20 * time.Second)
+	deadline := time.Now().Add(c.timeout())
 	c.mu.Lock()
 	for !done[id] && id != 0 {
 		if time.Now().After(deadline) {
@@ -316,4 +319,12 @@ func (c *testClient) shutdownExit() int {
 		c.t.Fatal("server did not exit")
 		return -1
 	}
+}
+
+// timeout is the client's patience with the server.
+func (c *testClient) timeout() time.Duration {
+	if c.patience > 0 {
+		return c.patience
+	}
+	return 20 * time.Second
 }
