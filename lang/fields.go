@@ -149,7 +149,7 @@ var (
 		Condenser:  {"use", "length", "rise", "run", "bore", "flow_area", "hydraulic_diameter", "roughness", "loss", "channels", "conductance", "sink", "outlet", "subcool", "tubes", "coolant_htc"},
 		Reservoir:  {"use", "volume", "rise", "length", "bore"},
 	}
-	CaseFields   = []string{"heat", "sink", "pitch", "roll", "yaw", "accel", "saturation"}
+	CaseFields   = []string{"heat", "sink", "conductance", "pitch", "roll", "yaw", "accel", "saturation"}
 	LimitFields  = []string{"exit_quality", "chf_ratio", "flooding", "tilt_margin", "wall_margin", "head_ratio", "saturation_max"}
 	MethodFields = []string{"void_fraction", "friction", "single_phase", "chf", "saturation_state", "cells"}
 )
@@ -413,6 +413,8 @@ func (r *resolver) caseField(c *Case, s *Stmt) {
 	file := c.File
 	r.noBlock(file, s)
 	switch kw := s.Keyword(); kw {
+	case "conductance":
+		r.caseConductance(c, s)
 	case "heat", "sink":
 		need := FieldNeeds[kw]
 		if kw == "sink" && len(s.Args) == 1 {
@@ -478,6 +480,58 @@ func (r *resolver) caseField(c *Case, s *Stmt) {
 	default:
 		r.unknownWord(file, s, CaseFields, "in a case")
 	}
+}
+
+// caseConductance reads "conductance CONDENSER UA": the condenser's
+// conductance in this case only.
+func (r *resolver) caseConductance(c *Case, s *Stmt) {
+	file := c.File
+	var id *Ident
+	if len(s.Args) == 2 && s.Args[1].Expr != nil {
+		id = nameOf(s.Args[0].Expr)
+	}
+	if id == nil {
+		r.shapeError(file, s, "conductance in a case names its condenser: conductance CONDENSER 40 W/K")
+		c.Unresolved = true
+		return
+	}
+	comp, ok := r.comps[id.Name]
+	if !ok {
+		var cands []string
+		for n, cc := range r.comps {
+			if cc.Kind == Condenser {
+				cands = append(cands, n)
+			}
+		}
+		r.unknownName(file, id, Condenser.String(), cands, "")
+		c.Unresolved = true
+		return
+	}
+	r.ref(RefComponent, id.Name, comp.Loop, file, id.Span(), false)
+	if comp.Kind != Condenser {
+		r.errorf("wrong-kind", file, id.Span(), "%s is a %s, not a condenser", id.Name, comp.Kind)
+		c.Unresolved = true
+		return
+	}
+	v := r.expr(file, s.Args[1].Expr, needUA)
+	if v.Set && !(v.SI >= 0) {
+		r.errorf("bad-value", file, v.Span, "a conductance must be zero or more, not %s W/K", strconv.FormatFloat(v.SI, 'g', 6, 64))
+		v.Set, v.Bad = false, true
+	}
+	if comp.Outlet.Set {
+		d := r.errorf("conflicting-fields", file, id.Span(), "condenser %s has a fixed outlet temperature, so a conductance in case %s would not be used", id.Name, c.Name)
+		d.Related = append(d.Related, Related{Loc: comp.Outlet.Loc(), Message: "outlet given here"})
+		c.Unresolved = true
+		return
+	}
+	for _, prev := range c.Conductances {
+		if prev.Comp == comp {
+			d := r.errorf("duplicate-name", file, id.Span(), "the conductance of %s is given twice in case %s", id.Name, c.Name)
+			d.Related = append(d.Related, Related{Loc: Location{File: prev.File, Span: prev.NameSpan}, Message: "first given here"})
+			return
+		}
+	}
+	c.Conductances = append(c.Conductances, CompValue{Comp: comp, NameSpan: id.Span(), File: file, Value: v})
 }
 
 func (r *resolver) limitField(file string, s *Stmt) {

@@ -239,15 +239,18 @@ func (c *Component) Area() float64 {
 // Case is an operating case.
 type Case struct {
 	Decl
-	Nominal    bool
-	Heat       []CompValue // per evaporator
-	Sink       Value       // every condenser's sink
-	Sinks      []CompValue // per condenser
-	Pitch      Value
-	Roll       Value
-	Yaw        Value
-	Accel      Vec
-	Saturation Value
+	Nominal bool
+	Heat    []CompValue // per evaporator
+	Sink    Value       // every condenser's sink
+	Sinks   []CompValue // per condenser
+	// Conductances replace condensers' conductance UA in this case (a fan
+	// off, a vehicle standing or running).
+	Conductances []CompValue
+	Pitch        Value
+	Roll         Value
+	Yaw          Value
+	Accel        Vec
+	Saturation   Value
 	// Unresolved is true when a field could not be resolved; the estimate
 	// skips the case.
 	Unresolved bool
@@ -260,7 +263,7 @@ func (c *Case) anyBad() bool {
 			return true
 		}
 	}
-	for _, cv := range append(append([]CompValue(nil), c.Heat...), c.Sinks...) {
+	for _, cv := range append(append(append([]CompValue(nil), c.Heat...), c.Sinks...), c.Conductances...) {
 		if cv.Value.Bad {
 			return true
 		}

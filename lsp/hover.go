@@ -271,6 +271,15 @@ func (s *Server) componentHover(c *cursor, comp *lang.Component) string {
 	return b.String()
 }
 
+// ownValue is " (own X)" for a component value a case replaces, "" when the
+// component gives none.
+func ownValue(v lang.Value, unit string) string {
+	if !v.Set {
+		return ""
+	}
+	return " (own " + units.Format(v.SI, units.MustParse(unit)) + ")"
+}
+
 func (s *Server) caseHover(c *cursor, cs *lang.Case) string {
 	var b strings.Builder
 	fmt.Fprintf(&b, "case `%s`", cs.Name)
@@ -280,7 +289,7 @@ func (s *Server) caseHover(c *cursor, cs *lang.Case) string {
 	b.WriteString("\n\n")
 	for _, h := range cs.Heat {
 		if h.Comp != nil {
-			fmt.Fprintf(&b, "- heat on `%s`: %s\n", h.Comp.Name, units.Format(h.Value.SI, units.MustParse("W")))
+			fmt.Fprintf(&b, "- heat on `%s`: %s%s\n", h.Comp.Name, units.Format(h.Value.SI, units.MustParse("W")), ownValue(h.Comp.Heat, "W"))
 		}
 	}
 	if cs.Sink.Set {
@@ -288,7 +297,16 @@ func (s *Server) caseHover(c *cursor, cs *lang.Case) string {
 	}
 	for _, sk := range cs.Sinks {
 		if sk.Comp != nil {
-			fmt.Fprintf(&b, "- sink at `%s`: %s\n", sk.Comp.Name, units.Format(sk.Value.SI, units.MustParse("degC")))
+			fmt.Fprintf(&b, "- sink at `%s`: %s%s\n", sk.Comp.Name, units.Format(sk.Value.SI, units.MustParse("degC")), ownValue(sk.Comp.Sink, "degC"))
+		}
+	}
+	for _, g := range cs.Conductances {
+		if g.Comp != nil {
+			own := ownValue(g.Comp.Conductance, "W/K")
+			if own == "" {
+				own = " (own: by geometry)"
+			}
+			fmt.Fprintf(&b, "- conductance of `%s`: %s%s\n", g.Comp.Name, units.Format(g.Value.SI, units.MustParse("W/K")), own)
 		}
 	}
 	for _, at := range []struct {

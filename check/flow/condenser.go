@@ -22,6 +22,69 @@ func byGeometry(cp comp) bool {
 	return cp.kind == lang.Condenser && !cp.c.Conductance.Set && !cp.c.Outlet.Set && cp.D > 0 && cp.L > 0
 }
 
+// conductanceIn is a condenser's conductance UA in case c: the case's
+// value when it gives one, else the component's; set is false when neither does.
+func conductanceIn(c *lang.Case, cp comp) (ua float64, set bool) {
+	if c != nil {
+		for _, cv := range c.Conductances {
+			if cv.Comp == cp.c {
+				return cv.Value.SI, true
+			}
+		}
+	}
+	return cp.c.Conductance.SI, cp.c.Conductance.Set
+}
+
+// byGeometryIn reports whether a condenser rejects by its geometry in case
+// c: by geometry, and the case gives it no conductance.
+func byGeometryIn(c *lang.Case, cp comp) bool {
+	_, set := conductanceIn(c, cp)
+	return !set && byGeometry(cp)
+}
+
+// overrides lists what case c replaces of the loop's components: an
+// evaporator's heat or a condenser's sink where the component gives its own,
+// and every conductance the case gives.
+func overrides(c *lang.Case, comps []comp) []Override {
+	if c == nil {
+		return nil
+	}
+	var out []Override
+	own := func(v lang.Value) *float64 {
+		if !v.Set {
+			return nil
+		}
+		x := v.SI
+		return &x
+	}
+	for _, cp := range comps {
+		switch cp.kind {
+		case lang.Evaporator:
+			for _, h := range c.Heat {
+				if h.Comp == cp.c && cp.c.Heat.Set && h.Value.SI != cp.c.Heat.SI {
+					out = append(out, Override{Component: cp.name, Field: "heat", Value: h.Value.SI, Own: own(cp.c.Heat)})
+				}
+			}
+		case lang.Condenser:
+			sink, set := c.Sink.SI, c.Sink.Set
+			for _, sv := range c.Sinks {
+				if sv.Comp == cp.c {
+					sink, set = sv.Value.SI, true
+				}
+			}
+			if set && cp.c.Sink.Set && sink != cp.c.Sink.SI {
+				out = append(out, Override{Component: cp.name, Field: "sink", Value: sink, Own: own(cp.c.Sink)})
+			}
+			for _, cv := range c.Conductances {
+				if cv.Comp == cp.c {
+					out = append(out, Override{Component: cp.name, Field: "conductance", Value: cv.Value.SI, Own: own(cp.c.Conductance)})
+				}
+			}
+		}
+	}
+	return out
+}
+
 // tubeCount is a condenser's number of parallel tubes: tubes, else its
 // channels (default 1).
 func tubeCount(c *lang.Component) float64 {
@@ -69,10 +132,10 @@ func filmRejection(cp comp, b geom.Vec3, T, ts float64, p correlate.Props) float
 }
 
 // geometrySaturation finds the saturation temperature at which the
-// condensers reject qTot: conductance condensers by UA·(T − T_sink),
+// condensers reject qTot in case c: conductance condensers by UA·(T − T_sink),
 // geometry condensers by their film. It bisects on T between the highest
 // sink and the fluid's top; ok is false when even the top cannot reject it.
-func geometrySaturation(fl fluid.Fluid, info fluid.Info, conds []comp, sinks []float64, b geom.Vec3, qTot float64) (float64, bool) {
+func geometrySaturation(fl fluid.Fluid, info fluid.Info, c *lang.Case, conds []comp, sinks []float64, b geom.Vec3, qTot float64) (float64, bool) {
 	lo := info.Tmin
 	for _, ts := range sinks {
 		lo = math.Max(lo, ts)
@@ -86,10 +149,11 @@ func geometrySaturation(fl fluid.Fluid, info fluid.Info, conds []comp, sinks []f
 		p := correlate.Props{RhoL: sat.RhoL, RhoV: sat.RhoV, MuL: sat.MuL, KL: sat.KL, CpL: sat.CpL, Hlv: sat.Hlv}
 		var q float64
 		for i, cp := range conds {
-			if byGeometry(cp) {
+			if byGeometryIn(c, cp) {
 				q += filmRejection(cp, b, T, sinks[i], p)
 			} else {
-				q += cp.c.Conductance.SI * (T - sinks[i])
+				ua, _ := conductanceIn(c, cp)
+				q += ua * (T - sinks[i])
 			}
 		}
 		return q

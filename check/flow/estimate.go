@@ -454,21 +454,22 @@ func (p *prepared) newState(pt point, cr *CaseResult) (*state, []Finding) {
 			outletT, outletSet = cp.c.Outlet.SI, true
 		}
 		ts, ok := sinkOf(cp)
-		if ok && byGeometry(cp) {
+		if ok && byGeometryIn(pt.c, cp) {
 			conds, sinks, film = append(conds, cp), append(sinks, ts), true
 			continue
 		}
-		if ok && cp.c.Conductance.Set {
+		g, gSet := conductanceIn(pt.c, cp)
+		if ok && gSet {
 			conds, sinks = append(conds, cp), append(sinks, ts)
 		}
-		if !cp.c.Conductance.Set || !ok {
+		if !gSet || !ok {
 			if !cp.c.Outlet.Set && missing == "" {
 				missing = cp.name
 			}
 			continue
 		}
-		ua += cp.c.Conductance.SI
-		uaT += cp.c.Conductance.SI * ts
+		ua += g
+		uaT += g * ts
 	}
 	switch {
 	case pt.c != nil && pt.c.Saturation.Set:
@@ -479,7 +480,7 @@ func (p *prepared) newState(pt point, cr *CaseResult) (*state, []Finding) {
 		T, cr.SatSource = outletT, "condenser outlet"
 	case film && missing == "":
 		var ok bool
-		T, ok = geometrySaturation(p.fl, p.info, conds, sinks, geom.BodyForceAt(pt.yaw, pt.pitch, pt.roll, pt.accel), qTot)
+		T, ok = geometrySaturation(p.fl, p.info, pt.c, conds, sinks, geom.BodyForceAt(pt.yaw, pt.pitch, pt.roll, pt.accel), qTot)
 		cr.SatSource = "condenser balance"
 		if !ok {
 			find(RuleCondenser, "error", conds[0].name, T, p.info.Tmax, "K", "the condensers cannot reject %.0f W in case %s below the top of the fluid's range (%.2f °C): no estimate", qTot, cname, p.info.Tmax-273.15)
@@ -487,6 +488,9 @@ func (p *prepared) newState(pt point, cr *CaseResult) (*state, []Finding) {
 		}
 	case ua > 0 && missing == "":
 		T, cr.SatSource = (qTot+uaT)/ua, "condenser balance"
+	case len(conds) > 0 && missing == "" && qTot > 0:
+		find(RuleCondenser, "error", conds[0].name, 0, qTot, "W", "the condensers have no conductance in case %s, so they cannot reject %.0f W: no estimate", cname, qTot)
+		return nil, fs
 	default:
 		name := missing
 		find(RuleNoSink, "error", name, 0, 0, "", "no saturation temperature in case %s: give condenser %s a conductance and a sink temperature (or an outlet temperature), or give the loop or the case a saturation", cname, name)

@@ -362,8 +362,9 @@ func (p *prepared) pressureMargin(s *state, cr *CaseResult) {
 func (p *prepared) condenserMargin(s *state, cr *CaseResult) {
 	var ua, uaT float64
 	for _, cp := range s.net.comps {
-		geo := byGeometry(cp)
-		if cp.kind != lang.Condenser || !cp.c.Conductance.Set && !geo {
+		geo := byGeometryIn(cr.pointCase, cp)
+		g, gSet := conductanceIn(cr.pointCase, cp)
+		if cp.kind != lang.Condenser || !gSet && !geo {
 			continue
 		}
 		ts, ok := cp.c.Sink.SI, cp.c.Sink.Set
@@ -380,7 +381,6 @@ func (p *prepared) condenserMargin(s *state, cr *CaseResult) {
 		if !ok {
 			continue
 		}
-		g := cp.c.Conductance.SI
 		if geo {
 			g = 0
 			if dT := s.sat.T - ts; dT > 0 {

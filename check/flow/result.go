@@ -83,6 +83,9 @@ type CaseResult struct {
 	Roots      []Root  `json:"roots,omitempty"`  // single loop: every balance found on the flow grid
 	Iterations int     `json:"iterations,omitempty"`
 
+	// Overrides lists the component values this case replaces (a heat, a
+	// sink, a conductance), with the component's own.
+	Overrides  []Override       `json:"overrides,omitempty"`
 	Components []ComponentState `json:"components,omitempty"`
 	Totals     Totals           `json:"totals"`
 	Margins    []Margin         `json:"margins,omitempty"`
@@ -95,6 +98,17 @@ type CaseResult struct {
 	Findings  []Finding  `json:"findings,omitempty"`
 
 	pointCase *lang.Case
+}
+
+// Override is a component's value that a case gives in place of the
+// component's own.
+type Override struct {
+	Component string  `json:"component"`
+	Field     string  `json:"field"` // "heat" (W), "sink" (K) or "conductance" (W/K)
+	Value     float64 `json:"value"` // in this case, SI
+	// Own is the component's own value (SI), absent when it has none (a
+	// condenser given by its geometry has no conductance of its own).
+	Own *float64 `json:"own,omitempty"`
 }
 
 // Root is one balance of a single loop's excess head.

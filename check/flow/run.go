@@ -14,6 +14,9 @@ import (
 func (p *prepared) run(pt point, tilt bool, start []float64) (CaseResult, []float64) {
 	cr := CaseResult{Case: caseName(pt.c), Grid: pt.grid, Yaw: pt.yaw, Pitch: pt.pitch, Roll: pt.roll,
 		Accel: [3]float64(pt.accel), pointCase: pt.c}
+	if !pt.grid {
+		cr.Overrides = overrides(pt.c, p.net.comps)
+	}
 	s, fs := p.newState(pt, &cr)
 	cr.Findings = append(cr.Findings, fs...)
 	if s == nil {

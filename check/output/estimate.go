@@ -197,12 +197,41 @@ func caseHeader(c *flow.CaseResult) string {
 	return s
 }
 
+// OverridesText lists the component values a case replaces, each with the
+// component's own: "conductance coil 35 W/K (own 180 W/K); sink coil 45.0 °C (own 35.0 °C)".
+func OverridesText(ovs []flow.Override) string {
+	parts := make([]string, 0, len(ovs))
+	for _, o := range ovs {
+		show := func(v float64) string {
+			switch o.Field {
+			case "sink":
+				return temperature(v)
+			case "conductance":
+				return sig(v, 3) + " W/K"
+			}
+			return fixed(v, 0) + " W"
+		}
+		t := fmt.Sprintf("%s %s %s", o.Field, o.Component, show(o.Value))
+		switch {
+		case o.Own != nil:
+			t += " (own " + show(*o.Own) + ")"
+		case o.Field == "conductance":
+			t += " (own: by geometry)"
+		}
+		parts = append(parts, t)
+	}
+	return strings.Join(parts, "; ")
+}
+
 func caseText(w io.Writer, l *flow.LoopResult, c *flow.CaseResult, tilt *picture.Tilt) {
 	fmt.Fprintf(w, "\n%s: heat %s W", caseHeader(c), fixed(c.Heat, 0))
 	if c.SatSource != "" {
 		fmt.Fprintf(w, ", saturation %s, %s (%s)", temperature(c.SatTemperature), pressureAs(c.SatPressure, l.DesignPressureUnit), c.SatSource)
 	}
 	fmt.Fprintln(w)
+	if len(c.Overrides) > 0 {
+		fmt.Fprintf(w, "  this case: %s\n", OverridesText(c.Overrides))
+	}
 	if !c.Circulates {
 		fmt.Fprintf(w, "  no circulation: %s\n", c.Reason)
 	} else {
