@@ -80,7 +80,7 @@ func (r *resolver) unitFix(d *Diagnostic, file string, e *Expr, q units.Quantity
 	case a.Unit != nil && need.Difference && q.AbsTemp:
 		repl := "K"
 		if strings.Contains(a.Unit.Text, "F") {
-			repl = "delta_degF"
+			repl = "degF_diff"
 		}
 		d.Fixes = append(d.Fixes, Fix{Title: "Write the difference in " + repl, Edits: []Edit{{Loc: Location{File: file, Span: a.Unit.Span()}, NewText: repl}}})
 	}

@@ -205,7 +205,7 @@ func (b *itemList) value(c *cursor, field, prev string) {
 				continue
 			}
 			if need.Dim == units.Temperature {
-				if need.Difference && u.Affine || !need.Difference && strings.HasPrefix(u.Text, "delta_") {
+				if need.Difference && u.Affine || !need.Difference && u.IsDifference() {
 					continue
 				}
 			}

@@ -124,7 +124,7 @@ func quantityHover(fac *lang.Factor, at *lang.Atom, field string) (string, bool)
 		difference = need.Difference
 	}
 	if u.Dim == units.Temperature && !u.Affine && !difference {
-		difference = strings.HasPrefix(u.Text, "delta_")
+		difference = u.IsDifference()
 	}
 	return quantityTable(q.SI, u, difference), true
 }
@@ -140,7 +140,7 @@ func quantityTable(si float64, u units.Unit, difference bool) string {
 	shown := 0
 	for i, cu := range common {
 		if u.Dim == units.Temperature {
-			if difference && cu.Affine || !difference && strings.HasPrefix(cu.Text, "delta_") {
+			if difference && cu.Affine || !difference && cu.IsDifference() {
 				continue
 			}
 		}
@@ -179,7 +179,7 @@ func (s *Server) refHover(c *cursor, r lang.Ref) string {
 				if err != nil {
 					u = units.Unit{}
 				}
-				return fmt.Sprintf("param `%s`\n\n", p.Name) + quantityTable(p.Value.SI, siUnit(u), strings.HasPrefix(p.Value.Unit, "delta_"))
+				return fmt.Sprintf("param `%s`\n\n", p.Name) + quantityTable(p.Value.SI, siUnit(u), isDifferenceText(p.Value.Unit))
 			}
 		}
 	case lang.RefComponent:
@@ -405,4 +405,11 @@ func ruleHover(id string) string {
 		return t
 	}
 	return fmt.Sprintf("`%s`: no rule has this name", id)
+}
+
+// isDifferenceText reports whether a unit as written writes only
+// temperature differences.
+func isDifferenceText(text string) bool {
+	u, err := units.Parse(text)
+	return err == nil && u.IsDifference()
 }

@@ -89,8 +89,8 @@ var atomList = []*atom{
 	{canon: "degC", dim: dTemp, factor: 1, offset: celsiusOffset, affine: true, aliases: []string{"°C", "℃"}},
 	{canon: "degF", dim: dTemp, factor: rankine, offset: fahrenheitOff, affine: true, aliases: []string{"°F", "℉"}},
 	{canon: "degR", dim: dTemp, factor: rankine, aliases: []string{"°R"}},
-	{canon: "delta_degC", dim: dTemp, factor: 1, aliases: []string{"Δ°C", "ΔdegC"}},
-	{canon: "delta_degF", dim: dTemp, factor: rankine, aliases: []string{"Δ°F", "ΔdegF"}},
+	{canon: "degC_diff", dim: dTemp, factor: 1, aliases: []string{"Δ°C", "ΔdegC"}},
+	{canon: "degF_diff", dim: dTemp, factor: rankine, aliases: []string{"Δ°F", "ΔdegF"}},
 	// pressure
 	{canon: "Pa", dim: dPressure, factor: 1, prefixable: true, pressure: true, known: "h k M"},
 	{canon: "bar", dim: dPressure, factor: 1e5, prefixable: true, pressure: true, known: "m"},

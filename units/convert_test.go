@@ -109,8 +109,8 @@ func TestConversions(t *testing.T) {
 		{"1", 1, exact},
 		// temperature differences and plain scales
 		{"K", 1, exact},
-		{"delta_degC", 1, exact},         // ITS-90 / SI: a Celsius degree equals a kelvin
-		{"delta_degF", 5.0 / 9.0, 1e-15}, // NIST SP 811 (2008) B.8: degree Fahrenheit (interval) = 5/9 K
+		{"degC_diff", 1, exact},         // ITS-90 / SI: a Celsius degree equals a kelvin
+		{"degF_diff", 5.0 / 9.0, 1e-15}, // NIST SP 811 (2008) B.8: degree Fahrenheit (interval) = 5/9 K
 		{"degR", 5.0 / 9.0, 1e-15},       // NIST SP 811 (2008) B.8: degree Rankine = 5/9 K
 	}
 	for _, tc := range tests {
@@ -156,7 +156,7 @@ func TestTemperatureScales(t *testing.T) {
 	if !MustParse("degC").Affine || !MustParse("degF").Affine {
 		t.Error("degC and degF must be affine")
 	}
-	for _, s := range []string{"K", "degR", "delta_degC", "delta_degF", "W/(m*degC)"} {
+	for _, s := range []string{"K", "degR", "degC_diff", "degF_diff", "W/(m*degC)"} {
 		if u := MustParse(s); u.Affine || u.Offset != 0 {
 			t.Errorf("%s: Affine=%v Offset=%g, want a plain scale", s, u.Affine, u.Offset)
 		}

@@ -29,8 +29,8 @@
 // ms, mK, hPa kPa MPa, mbar, mW kW MW, kJ MJ, kWh MWh, mN kN, cP, mrad, kHz.
 //
 // Not prefixable: kg, in (inch), ft, mil (0.001 in), lb (also lbm), oz, min,
-// h (also hr), degC (°C ℃), degF (°F ℉), degR (°R), delta_degC (Δ°C ΔdegC),
-// delta_degF (Δ°F ΔdegF), psi, atm, Btu (International Table), lbf, gn (standard
+// h (also hr), degC (°C ℃), degF (°F ℉), degR (°R), degC_diff (Δ°C ΔdegC),
+// degF_diff (Δ°F ΔdegF), psi, atm, Btu (International Table), lbf, gn (standard
 // gravity, also g0 g_n), deg (°), % and ppm.
 //
 // Pressure references: bar(g) barg, bar(a) bara, psig psia, and a (g) or (a)
@@ -43,8 +43,10 @@
 //
 // degC and degF alone are offset scales (Affine): 20 degC is the absolute
 // temperature 293.15 K. K and degR are plain scales, usable for an absolute
-// temperature or a difference. delta_degC (1 K) and delta_degF (5/9 K) are
-// differences. Inside a compound unit a scale stands for its degree, an
+// temperature or a difference. degC_diff (1 K) and degF_diff (5/9 K) are
+// differences, read "degree Celsius difference" as engineers say it; their
+// Unicode forms Δ°C and Δ°F follow the ΔT notation. SI itself writes a
+// temperature difference in kelvin, which is always the safe choice. Inside a compound unit a scale stands for its degree, an
 // interval: W/(m*degC) equals W/(m*K).
 //
 // Parse caches successful results, so a repeated unit costs one map lookup.

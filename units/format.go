@@ -70,7 +70,7 @@ var commonTexts = map[Dim][]string{
 	Volume:                  {"m3", "L", "mL", "cm3", "in3", "ft3"},
 	Mass:                    {"kg", "g", "mg", "lb", "oz"},
 	Time:                    {"s", "ms", "min", "h"},
-	Temperature:             {"K", "degC", "degF", "degR", "delta_degC", "delta_degF"},
+	Temperature:             {"K", "degC", "degF", "degR", "degC_diff", "degF_diff"},
 	Pressure:                {"Pa", "kPa", "bar", "MPa", "mbar", "hPa", "psi", "atm", "bar(g)", "kPa(g)", "psig", "bar(a)", "psia"},
 	Power:                   {"W", "kW", "MW", "mW", "Btu/h"},
 	Energy:                  {"J", "kJ", "MJ", "Wh", "kWh", "Btu"},

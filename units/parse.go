@@ -34,6 +34,10 @@ func (u Unit) scale() float64 {
 	return u.Factor
 }
 
+// IsDifference reports whether u writes only temperature differences
+// (degC_diff, degF_diff and their Unicode forms), not absolute temperatures.
+func (u Unit) IsDifference() bool { return u.Text == "degC_diff" || u.Text == "degF_diff" }
+
 // Quantity returns the quantity that v written in u denotes.
 func (u Unit) Quantity(v float64) Quantity {
 	return Quantity{SI: u.ToSI(v), Dim: u.Dim, AbsTemp: u.Affine}

@@ -42,7 +42,7 @@ func Add(a, b Quantity) (Quantity, error) {
 		return Quantity{}, fmt.Errorf("cannot add %s and %s", Name(a.Dim), Name(b.Dim))
 	}
 	if a.AbsTemp && b.AbsTemp {
-		return Quantity{}, errors.New("cannot add two absolute temperatures; subtract them for a difference, or write one in K or delta_degC")
+		return Quantity{}, errors.New("cannot add two absolute temperatures; subtract them for a difference, or write one in K or degC_diff")
 	}
 	return result(Quantity{SI: a.SI + b.SI, Dim: a.Dim, AbsTemp: a.AbsTemp || b.AbsTemp})
 }
@@ -187,15 +187,15 @@ func Check(q Quantity, u string, need Need) error {
 	}
 	if !need.Difference && need.Dim == Temperature && !q.AbsTemp {
 		// A value written in a difference-only unit cannot be an absolute
-		// temperature: "sink 20 delta_degC" means nothing.
-		if uu, err := Parse(u); err == nil && (uu.Text == "delta_degC" || uu.Text == "delta_degF") {
+		// temperature: "sink 20 degC_diff" means nothing.
+		if uu, err := Parse(u); err == nil && (uu.Text == "degC_diff" || uu.Text == "degF_diff") {
 			return fmt.Errorf("expected an absolute temperature, found a temperature difference (%s); write K, degC or degF", u)
 		}
 	}
 	if need.Difference && need.Dim == Temperature && q.AbsTemp {
-		alt := "delta_degC"
+		alt := "degC_diff"
 		if uu, err := Parse(u); err == nil && uu.Text == "degF" {
-			alt = "delta_degF"
+			alt = "degF_diff"
 		}
 		return fmt.Errorf("expected a temperature difference, found %s; write K or %s", found, alt)
 	}

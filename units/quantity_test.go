@@ -19,7 +19,7 @@ func TestArithmetic(t *testing.T) {
 	if err != nil || d.AbsTemp || !near(d.SI, 10, 1e-12) {
 		t.Errorf("30 degC - 20 degC = %+v, %v", d, err)
 	}
-	// 86 degF - 68 degF = 18 delta_degF = 10 K (NIST SP 811 (2008) B.9: 1 degF interval = 5/9 K).
+	// 86 degF - 68 degF = 18 degF_diff = 10 K (NIST SP 811 (2008) B.9: 1 degF interval = 5/9 K).
 	d, err = Sub(q(86, "degF"), q(68, "degF"))
 	if err != nil || d.AbsTemp || !near(d.SI, 10, 1e-12) {
 		t.Errorf("86 degF - 68 degF = %+v, %v", d, err)
@@ -92,16 +92,16 @@ func TestCheck(t *testing.T) {
 		{q(1, "m"), "m", Need{Dim: Length}, ""},
 		{q(1, "bar"), "bar", Need{Dim: Length}, "expected a length, found a pressure (bar)"},
 		{q(20, "degC"), "degC", Need{Dim: Temperature, Difference: true},
-			"expected a temperature difference, found an absolute temperature (degC); write K or delta_degC"},
+			"expected a temperature difference, found an absolute temperature (degC); write K or degC_diff"},
 		{q(20, "degF"), "°F", Need{Dim: Temperature, Difference: true},
-			"expected a temperature difference, found an absolute temperature (°F); write K or delta_degF"},
+			"expected a temperature difference, found an absolute temperature (°F); write K or degF_diff"},
 		{q(5, "K"), "K", Need{Dim: Temperature, Difference: true}, ""},
-		{q(5, "delta_degC"), "delta_degC", Need{Dim: Temperature, Difference: true}, ""},
+		{q(5, "degC_diff"), "degC_diff", Need{Dim: Temperature, Difference: true}, ""},
 		{q(20, "degC"), "degC", Need{Dim: Temperature}, ""},
 		{q(300, "K"), "K", Need{Dim: Temperature}, ""},
-		{q(20, "delta_degC"), "delta_degC", Need{Dim: Temperature},
-			"expected an absolute temperature, found a temperature difference (delta_degC); write K, degC or degF"},
-		{q(20, "delta_degF"), "Δ°F", Need{Dim: Temperature},
+		{q(20, "degC_diff"), "degC_diff", Need{Dim: Temperature},
+			"expected an absolute temperature, found a temperature difference (degC_diff); write K, degC or degF"},
+		{q(20, "degF_diff"), "Δ°F", Need{Dim: Temperature},
 			"expected an absolute temperature, found a temperature difference (Δ°F); write K, degC or degF"},
 		{q(3, ""), "", Need{Dim: Length}, "expected a length, found a dimensionless number; add a unit such as m"},
 		{q(3, "W/m2"), "W/m2", Need{Dim: HeatTransferCoefficient},

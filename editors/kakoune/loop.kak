@@ -48,8 +48,8 @@ add-highlighter shared/loop/code/ regex '\bnominal\b' 0:keyword
 # Numbers and their units (a unit runs to the first blank outside
 # parentheses), and the unit after a vector's closing parenthesis.
 add-highlighter shared/loop/code/ regex '[-+*/^=]' 0:operator
-add-highlighter shared/loop/code/ regex '(?<![\w.])(\d+(?:\.\d*)?(?:[eE][+-]?\d+)?|\.\d+(?:[eE][+-]?\d+)?)(?:\h*((?!from\W)(?!to\W)(?!at\W)(?!nominal\W)[A-Za-z_%°µμ](?:[^\s#,;{}="()]|\([^()#\n]*\))*))?' 1:value 2:type
-add-highlighter shared/loop/code/ regex '(?<=\))\h*((?!from\W)(?!to\W)(?!at\W)(?!nominal\W)[A-Za-z_%°µμ](?:[^\s#,;{}="()]|\([^()#\n]*\))*)' 1:type
+add-highlighter shared/loop/code/ regex '(?<![\w.])(\d+(?:\.\d*)?(?:[eE][+-]?\d+)?|\.\d+(?:[eE][+-]?\d+)?)(?:\h*((?!from\W)(?!to\W)(?!at\W)(?!nominal\W)[A-Za-z_%°µμΔ](?:[^\s#,;{}="()]|\([^()#\n]*\))*))?' 1:value 2:type
+add-highlighter shared/loop/code/ regex '(?<=\))\h*((?!from\W)(?!to\W)(?!at\W)(?!nominal\W)[A-Za-z_%°µμΔ](?:[^\s#,;{}="()]|\([^()#\n]*\))*)' 1:type
 
 define-command -hidden loop-trim-indent %{
     # remove trailing white spaces

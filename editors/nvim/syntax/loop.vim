@@ -31,8 +31,8 @@ syn match   loopFluid     "\v\h\w*(\([A-Z]\))?" contained
 " unit after a vector's closing parenthesis.
 syn match   loopNumber    "\v<\d+(\.\d*)?([eE][+-]?\d+)?" nextgroup=loopUnit skipwhite
 syn match   loopNumber    "\v(\w|\.)@<!\.\d+([eE][+-]?\d+)?" nextgroup=loopUnit skipwhite
-syn match   loopUnit      "\v(from>|to>|at>|nominal>)@![[:alpha:]_%°µμ]([^[:space:]#,;{}="()]|\([^()#]*\))*" contained
-syn match   loopUnit      "\v\)@<=\s*\zs(from>|to>|at>|nominal>)@![[:alpha:]_%°µμ]([^[:space:]#,;{}="()]|\([^()#]*\))*"
+syn match   loopUnit      "\v(from>|to>|at>|nominal>)@![[:alpha:]_%°µμΔ]([^[:space:]#,;{}="()]|\([^()#]*\))*" contained
+syn match   loopUnit      "\v\)@<=\s*\zs(from>|to>|at>|nominal>)@![[:alpha:]_%°µμΔ]([^[:space:]#,;{}="()]|\([^()#]*\))*"
 
 syn region  loopString    start=+"+ skip=+\\\\\|\\"+ end=+"\|$+ contains=loopEscape oneline
 syn match   loopEscape    +\\[\\"]+ contained
