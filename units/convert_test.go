@@ -111,7 +111,7 @@ func TestConversions(t *testing.T) {
 		{"K", 1, exact},
 		{"degC_diff", 1, exact},         // ITS-90 / SI: a Celsius degree equals a kelvin
 		{"degF_diff", 5.0 / 9.0, 1e-15}, // NIST SP 811 (2008) B.8: degree Fahrenheit (interval) = 5/9 K
-		{"degR", 5.0 / 9.0, 1e-15},       // NIST SP 811 (2008) B.8: degree Rankine = 5/9 K
+		{"degR", 5.0 / 9.0, 1e-15},      // NIST SP 811 (2008) B.8: degree Rankine = 5/9 K
 	}
 	for _, tc := range tests {
 		u, err := Parse(tc.unit)
