@@ -239,3 +239,25 @@ func BenchmarkLargeDocument5MB(b *testing.B) {
 	b.ReportMetric(float64(median(edit).Microseconds())/1000, "ms-edit")
 	b.ReportMetric(float64(median(symbols).Microseconds())/1000, "ms-symbols")
 }
+
+// BenchmarkDocumentSymbols5MB is request → reply for the document symbols
+// of an open 5 MB document (about 100,000 parameters), the reply decoded
+// as the test client decodes every message.
+func BenchmarkDocumentSymbols5MB(b *testing.B) {
+	text := largeText(5 << 20)
+	defer debug.SetMemoryLimit(debug.SetMemoryLimit(MemoryLimit))
+	c := newTestClient(b, Options{Debounce: -1, MemoryLimit: MemoryLimit})
+	c.initialize(nil)
+	uri := "file:///bench/symbols.loop"
+	c.notify("textDocument/didOpen", map[string]any{"textDocument": map[string]any{"uri": uri, "languageId": "loop", "version": 1, "text": text}})
+	c.settle()
+	params := map[string]any{"textDocument": map[string]any{"uri": uri}}
+	var size int
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		size = len(c.mustCall("textDocument/documentSymbol", params))
+	}
+	b.StopTimer()
+	b.ReportMetric(float64(size)/(1<<20), "reply-MB")
+}
