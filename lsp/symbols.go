@@ -4,6 +4,7 @@ import (
 	"context"
 	"strings"
 
+	"go.lsp.dev/jsonrpc2"
 	"go.lsp.dev/protocol"
 
 	"circa/lang"
@@ -19,73 +20,147 @@ func documentSymbolRequest(ctx context.Context, s *Server, sn *snapshot, params 
 	if a == nil {
 		return protocol.DocumentSymbolSlice{}, nil
 	}
-	return sn.outline(a.Model(), path), nil
+	out := sn.outline(a.Model(), path)
+	// A large file has tens of thousands of symbols: encode them into one
+	// buffer of about the right size rather than growing it many times.
+	b, err := protocol.AppendMarshal(make([]byte, 0, symbolBytes(out)), out)
+	if err != nil {
+		return nil, err
+	}
+	return jsonrpc2.RawMessage(b), nil
+}
+
+// symbolBytes is about the encoded size of symbols: 240 bytes for one
+// symbol's fixed text and ranges, plus its name and children.
+func symbolBytes(symbols []protocol.DocumentSymbol) int {
+	n := 2
+	for i := range symbols {
+		n += 240 + len(symbols[i].Name)
+		if len(symbols[i].Children) > 0 {
+			n += 12 + symbolBytes(symbols[i].Children)
+		}
+	}
+	return n
+}
+
+// The details an outline shows, shared by every symbol of their kind.
+var (
+	detailLoop, detailNode, detailJunction = "loop", "node", "junction"
+	detailPart, detailCase, detailNominal  = "part", "case", "nominal case"
+	detailParam                            = "param"
+)
+
+// outliner makes the symbols of one file, whose mapper it looks up once.
+type outliner struct {
+	m   *lang.Mapper
+	enc lang.Encoding
+}
+
+func (o outliner) rangeOf(sp lang.Span, clip bool) protocol.Range {
+	if o.m == nil {
+		return protocol.Range{}
+	}
+	return toRange(o.m, sp, o.enc, clip)
 }
 
 // declRange is a declaration's whole extent: head through closing brace.
-func (sn *snapshot) declRange(d lang.Decl) protocol.Range {
+func (o outliner) declRange(d lang.Decl) protocol.Range {
 	end := d.Span.End
 	if d.BlockClose >= 0 {
 		end = d.BlockClose + 1
 	}
-	return sn.rangeIn(d.File, lang.Span{Start: d.Span.Start, End: end}, false)
+	return o.rangeOf(lang.Span{Start: d.Span.Start, End: end}, false)
 }
 
-func (sn *snapshot) symbol(d lang.Decl, kind protocol.SymbolKind, detail string) protocol.DocumentSymbol {
-	ds := protocol.DocumentSymbol{
+func (o outliner) symbol(d lang.Decl, kind protocol.SymbolKind, detail *string) protocol.DocumentSymbol {
+	return protocol.DocumentSymbol{
 		Name:           d.Name,
+		Detail:         detail,
 		Kind:           kind,
-		Range:          sn.declRange(d),
-		SelectionRange: sn.rangeIn(d.File, d.NameSpan, true),
+		Range:          o.declRange(d),
+		SelectionRange: o.rangeOf(d.NameSpan, true),
 	}
-	if detail != "" {
-		ds.Detail = &detail
-	}
-	return ds
 }
 
 // outline lists a file's loops (with their nodes and components), parts,
 // cases and parameters.
 func (sn *snapshot) outline(m *lang.Model, path string) protocol.DocumentSymbolSlice {
-	out := protocol.DocumentSymbolSlice{}
+	o := outliner{m: sn.mapperFor(path), enc: sn.enc}
+	n := 0
+	for _, l := range m.Loops {
+		if l.File == path {
+			n++
+		}
+	}
+	for _, p := range m.Parts {
+		if p.File == path {
+			n++
+		}
+	}
+	for _, c := range m.Cases {
+		if c.File == path {
+			n++
+		}
+	}
+	for _, p := range m.Params {
+		if p.File == path {
+			n++
+		}
+	}
+	out := make(protocol.DocumentSymbolSlice, 0, n)
 	for _, l := range m.Loops {
 		if l.File != path {
 			continue
 		}
-		ls := sn.symbol(l.Decl, protocol.SymbolKindNamespace, "loop")
+		ls := o.symbol(l.Decl, protocol.SymbolKindNamespace, &detailLoop)
+		k := 0
 		for _, n := range l.Nodes {
 			if n.File == path {
-				kind := "node"
-				if n.Junction {
-					kind = "junction"
-				}
-				ls.Children = append(ls.Children, sn.symbol(n.Decl, protocol.SymbolKindConstant, kind))
+				k++
 			}
 		}
 		for _, c := range l.Components {
 			if c.File == path {
-				ls.Children = append(ls.Children, sn.symbol(c.Decl, protocol.SymbolKindObject, c.Kind.String()))
+				k++
+			}
+		}
+		if k > 0 {
+			ls.Children = make([]protocol.DocumentSymbol, 0, k)
+		}
+		for _, n := range l.Nodes {
+			if n.File == path {
+				kind := &detailNode
+				if n.Junction {
+					kind = &detailJunction
+				}
+				ls.Children = append(ls.Children, o.symbol(n.Decl, protocol.SymbolKindConstant, kind))
+			}
+		}
+		for _, c := range l.Components {
+			if c.File == path {
+				kind := c.Kind.String()
+				ls.Children = append(ls.Children, o.symbol(c.Decl, protocol.SymbolKindObject, &kind))
 			}
 		}
 		out = append(out, ls)
 	}
 	for _, p := range m.Parts {
 		if p.File == path {
-			out = append(out, sn.symbol(p.Decl, protocol.SymbolKindStruct, "part"))
+			out = append(out, o.symbol(p.Decl, protocol.SymbolKindStruct, &detailPart))
 		}
 	}
 	for _, c := range m.Cases {
 		if c.File == path {
-			d := "case"
+			d := &detailCase
 			if c == m.Nominal {
-				d = "nominal case"
+				d = &detailNominal
 			}
-			out = append(out, sn.symbol(c.Decl, protocol.SymbolKindEvent, d))
+			out = append(out, o.symbol(c.Decl, protocol.SymbolKindEvent, d))
 		}
 	}
 	for _, p := range m.Params {
 		if p.File == path {
-			out = append(out, sn.symbol(p.Decl, protocol.SymbolKindConstant, "param"))
+			out = append(out, o.symbol(p.Decl, protocol.SymbolKindConstant, &detailParam))
 		}
 	}
 	return out
