@@ -194,28 +194,28 @@ func (s *Server) componentEstimate(c *cursor, comp *lang.Component) string {
 		b.WriteString(": no state for this component\n")
 		return b.String()
 	}
-	fmt.Fprintf(&b, " (saturation %s, %s)\n\n", units.Format(cr.SatTemperature, uDegC), cr.SatSource)
+	fmt.Fprintf(&b, " (saturation %s, %s)\n\n", prettyFormat(cr.SatTemperature, uDegC), cr.SatSource)
 	if mu, ok := est.methods(comp.Loop.Name); ok {
 		fmt.Fprintf(&b, "void fraction %s, friction %s\n\n", mu.Void, mu.Friction)
 	}
 	b.WriteString("| | |\n|---|---|\n")
-	fmt.Fprintf(&b, "| mass flow | %s |\n", units.Format(st.MassFlow, uGs))
+	fmt.Fprintf(&b, "| mass flow | %s |\n", prettyFormat(st.MassFlow, uGs))
 	fmt.Fprintf(&b, "| quality in → out | %.3f → %.3f |\n", st.XIn, st.XOut)
 	fmt.Fprintf(&b, "| void fraction outlet / mean | %.3f / %.3f |\n", st.VoidOut, st.VoidMean)
 	if st.Heat != 0 {
-		fmt.Fprintf(&b, "| heat | %s |\n", units.Format(st.Heat, uW))
+		fmt.Fprintf(&b, "| heat | %s |\n", prettyFormat(st.Heat, uW))
 	}
 	// One sign convention, as every estimate output: each term is a drop
 	// along the flow, and they add up to p_in − p_out.
 	bu := st.Budget
-	fmt.Fprintf(&b, "| pressure drop: friction | %s |\n", units.Format(bu.Friction, uPa))
-	fmt.Fprintf(&b, "| pressure drop: gravity | %s |\n", units.Format(bu.Gravity, uPa))
-	fmt.Fprintf(&b, "| pressure drop: acceleration (phase change) | %s |\n", units.Format(bu.Acceleration, uPa))
+	fmt.Fprintf(&b, "| pressure drop: friction | %s |\n", prettyFormat(bu.Friction, uPa))
+	fmt.Fprintf(&b, "| pressure drop: gravity | %s |\n", prettyFormat(bu.Gravity, uPa))
+	fmt.Fprintf(&b, "| pressure drop: acceleration (phase change) | %s |\n", prettyFormat(bu.Acceleration, uPa))
 	if bu.AreaChange != 0 {
-		fmt.Fprintf(&b, "| pressure drop: flow-area change at the inlet | %s |\n", units.Format(bu.AreaChange, uPa))
+		fmt.Fprintf(&b, "| pressure drop: flow-area change at the inlet | %s |\n", prettyFormat(bu.AreaChange, uPa))
 	}
-	fmt.Fprintf(&b, "| pressure drop: local | %s |\n", units.Format(bu.Local, uPa))
-	fmt.Fprintf(&b, "| pressure drop p_in − p_out | %s |\n", units.Format(bu.Total, uPa))
+	fmt.Fprintf(&b, "| pressure drop: local | %s |\n", prettyFormat(bu.Local, uPa))
+	fmt.Fprintf(&b, "| pressure drop p_in − p_out | %s |\n", prettyFormat(bu.Total, uPa))
 	for _, mg := range cr.Margins {
 		if mg.Component == comp.Name {
 			fmt.Fprintf(&b, "| margin %s | %s of %s (%.0f %% used, %s) |\n", mg.Margin, fmtNum(mg.Value), fmtLimit(mg.Limit, mg.Unit), 100*mg.Use, mg.Status)
@@ -251,8 +251,8 @@ func (s *Server) caseEstimate(c *cursor, cs *lang.Case) string {
 			fmt.Fprintf(&b, "no circulation — %s\n", cr.Reason)
 			continue
 		}
-		fmt.Fprintf(&b, "mass flow %s, saturation %s (%s, %s)\n", units.Format(cr.MassFlow, uGs),
-			units.Format(cr.SatTemperature, uDegC), units.Format(cr.SatPressure, uBar), cr.SatSource)
+		fmt.Fprintf(&b, "mass flow %s, saturation %s (%s, %s)\n", prettyFormat(cr.MassFlow, uGs),
+			prettyFormat(cr.SatTemperature, uDegC), prettyFormat(cr.SatPressure, uBar), cr.SatSource)
 		ms := append([]flow.Margin(nil), cr.Margins...)
 		sort.SliceStable(ms, func(i, j int) bool { return ms[i].Use > ms[j].Use })
 		if len(ms) > 0 {
@@ -287,7 +287,7 @@ func componentHint(c *cursor, est *estimates, comp *lang.Component) string {
 	if !ok {
 		return ""
 	}
-	return fmt.Sprintf("ṁ %s, x_out %.2f", units.Format(st.MassFlow, uGs), st.XOut)
+	return fmt.Sprintf("ṁ %s, x_out %.2f", prettyFormat(st.MassFlow, uGs), st.XOut)
 }
 
 // ruleText explains a rule by its registry entry.

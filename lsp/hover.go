@@ -69,7 +69,11 @@ func hoverRequest(ctx context.Context, s *Server, sn *snapshot, params []byte) (
 		return nil, nil
 	}
 	r := sn.rangeIn(c.path, sp, true)
-	return &protocol.Hover{Contents: &protocol.MarkupContent{Kind: protocol.MarkupKindMarkdown, Value: text}, Range: &r}, nil
+	kind := protocol.MarkupKindMarkdown
+	if s.caps.hoverPlain {
+		kind = protocol.MarkupKindPlainText
+	}
+	return &protocol.Hover{Contents: &protocol.MarkupContent{Kind: kind, Value: shapeHover(text, s.caps.hoverPlain)}, Range: &r}, nil
 }
 
 func (s *Server) hoverText(c *cursor) (string, lang.Span, bool) {
@@ -134,7 +138,7 @@ func quantityHover(fac *lang.Factor, at *lang.Atom, field string) (string, bool)
 func quantityTable(si float64, u units.Unit, difference bool) string {
 	var b strings.Builder
 	name := units.Name(u.Dim)
-	fmt.Fprintf(&b, "**%s** — %s\n\n", units.Format(si, u), name)
+	fmt.Fprintf(&b, "**%s** — %s\n\n", prettyFormat(si, u), name)
 	common := units.Common(u.Dim)
 	b.WriteString("| unit | value |\n|---|---|\n")
 	shown := 0
@@ -144,7 +148,7 @@ func quantityTable(si float64, u units.Unit, difference bool) string {
 				continue
 			}
 		}
-		label := cu.Text
+		label := units.Pretty(cu.Text)
 		if i == 0 {
 			label += " (SI)"
 		}
@@ -152,11 +156,11 @@ func quantityTable(si float64, u units.Unit, difference bool) string {
 		if u.Dim == units.Temperature && difference {
 			// A difference converts by scale alone.
 			val = si
-			fmt.Fprintf(&b, "| %s | %s %s |\n", label, fmtNum(cu.FromSI(val)-cu.FromSI(0)), cu.Text)
+			fmt.Fprintf(&b, "| %s | %s %s |\n", label, fmtNum(cu.FromSI(val)-cu.FromSI(0)), units.Pretty(cu.Text))
 			shown++
 			continue
 		}
-		fmt.Fprintf(&b, "| %s | %s |\n", label, units.Format(val, cu))
+		fmt.Fprintf(&b, "| %s | %s |\n", label, prettyFormat(val, cu))
 		shown++
 	}
 	if shown == 0 {
@@ -277,7 +281,7 @@ func ownValue(v lang.Value, unit string) string {
 	if !v.Set {
 		return ""
 	}
-	return " (own " + units.Format(v.SI, units.MustParse(unit)) + ")"
+	return " (own " + asWritten(v, unit) + ")"
 }
 
 func (s *Server) caseHover(c *cursor, cs *lang.Case) string {
@@ -289,15 +293,15 @@ func (s *Server) caseHover(c *cursor, cs *lang.Case) string {
 	b.WriteString("\n\n")
 	for _, h := range cs.Heat {
 		if h.Comp != nil {
-			fmt.Fprintf(&b, "- heat on `%s`: %s%s\n", h.Comp.Name, units.Format(h.Value.SI, units.MustParse("W")), ownValue(h.Comp.Heat, "W"))
+			fmt.Fprintf(&b, "- heat on `%s`: %s%s\n", h.Comp.Name, asWritten(h.Value, "W"), ownValue(h.Comp.Heat, "W"))
 		}
 	}
 	if cs.Sink.Set {
-		fmt.Fprintf(&b, "- sink: %s\n", units.Format(cs.Sink.SI, units.MustParse("degC")))
+		fmt.Fprintf(&b, "- sink: %s\n", asWritten(cs.Sink, "degC"))
 	}
 	for _, sk := range cs.Sinks {
 		if sk.Comp != nil {
-			fmt.Fprintf(&b, "- sink at `%s`: %s%s\n", sk.Comp.Name, units.Format(sk.Value.SI, units.MustParse("degC")), ownValue(sk.Comp.Sink, "degC"))
+			fmt.Fprintf(&b, "- sink at `%s`: %s%s\n", sk.Comp.Name, asWritten(sk.Value, "degC"), ownValue(sk.Comp.Sink, "degC"))
 		}
 	}
 	for _, g := range cs.Conductances {
@@ -306,7 +310,7 @@ func (s *Server) caseHover(c *cursor, cs *lang.Case) string {
 			if own == "" {
 				own = " (own: by geometry)"
 			}
-			fmt.Fprintf(&b, "- conductance of `%s`: %s%s\n", g.Comp.Name, units.Format(g.Value.SI, units.MustParse("W/K")), own)
+			fmt.Fprintf(&b, "- conductance of `%s`: %s%s\n", g.Comp.Name, asWritten(g.Value, "W/K"), own)
 		}
 	}
 	for _, at := range []struct {
@@ -314,11 +318,11 @@ func (s *Server) caseHover(c *cursor, cs *lang.Case) string {
 		v lang.Value
 	}{{"pitch", cs.Pitch}, {"roll", cs.Roll}, {"yaw", cs.Yaw}} {
 		if at.v.Set {
-			fmt.Fprintf(&b, "- %s: %s\n", at.n, units.Format(at.v.SI, units.MustParse("deg")))
+			fmt.Fprintf(&b, "- %s: %s\n", at.n, asWritten(at.v, "deg"))
 		}
 	}
 	if cs.Saturation.Set {
-		fmt.Fprintf(&b, "- saturation: %s\n", units.Format(cs.Saturation.SI, units.MustParse("degC")))
+		fmt.Fprintf(&b, "- saturation: %s\n", asWritten(cs.Saturation, "degC"))
 	}
 	diags, _, _ := c.a.checks()
 	b.WriteString(caseTiltHover(diags, c.m, cs))

@@ -3,6 +3,7 @@ package lsp
 import (
 	"context"
 	"runtime/debug"
+	"slices"
 
 	"go.lsp.dev/jsonrpc2"
 	"go.lsp.dev/protocol"
@@ -36,6 +37,9 @@ func (s *Server) initialize(params []byte) (any, error) {
 	}
 	if t := p.Capabilities.TextDocument; t != nil && t.DocumentSymbol != nil && t.DocumentSymbol.HierarchicalDocumentSymbolSupport != nil {
 		s.caps.hierarchicalDS = *t.DocumentSymbol.HierarchicalDocumentSymbolSupport
+	}
+	if t := p.Capabilities.TextDocument; t != nil && t.Hover != nil && len(t.Hover.ContentFormat) > 0 {
+		s.caps.hoverPlain = !slices.Contains(t.Hover.ContentFormat, protocol.MarkupKindMarkdown)
 	}
 	if len(p.InitializationOptions) > 0 {
 		set, err := parseSettings(p.InitializationOptions, s.settings)

@@ -110,6 +110,7 @@ type clientCaps struct {
 	configPull     bool // answers workspace/configuration
 	relatedInfo    bool
 	hierarchicalDS bool
+	hoverPlain     bool // the client declares hover content formats and Markdown is not among them
 }
 
 type pubState struct {

@@ -317,3 +317,58 @@ func editDistance(a, b string) int {
 	}
 	return prev[m]
 }
+
+// Pretty writes a unit's canonical ASCII text with the symbols people write
+// and read: degC as °C, um as µm, m2 as m², * as ·, degC_diff as Δ°C. It is
+// for display; Parse reads both forms.
+func Pretty(text string) string {
+	var b strings.Builder
+	prevWord := false // the previous character ends a unit word or a group
+	for i := 0; i < len(text); {
+		c := text[i]
+		switch {
+		case isWordByte(c):
+			j := i
+			for j < len(text) && isWordByte(text[j]) {
+				j++
+			}
+			b.WriteString(prettyWord(text[i:j]))
+			i, prevWord = j, true
+			continue
+		case prevWord && (c == '2' || c == '3') && (i+1 == len(text) || !isDigitByte(text[i+1])):
+			b.WriteString(map[byte]string{'2': "²", '3': "³"}[c])
+		case c == '*':
+			b.WriteString("·")
+		default:
+			b.WriteByte(c)
+		}
+		prevWord = c == ')'
+		i++
+	}
+	return b.String()
+}
+
+func isWordByte(c byte) bool {
+	return c == '_' || (c >= 'a' && c <= 'z') || (c >= 'A' && c <= 'Z')
+}
+
+func isDigitByte(c byte) bool { return c >= '0' && c <= '9' }
+
+// prettyWord maps one unit word (letters and underscores) to its symbol.
+func prettyWord(w string) string {
+	switch w {
+	case "degC":
+		return "°C"
+	case "degF":
+		return "°F"
+	case "degR":
+		return "°R"
+	case "degC_diff":
+		return "Δ°C"
+	case "degF_diff":
+		return "Δ°F"
+	case "um", "us", "uL", "ug", "uW", "uPa":
+		return "µ" + w[1:]
+	}
+	return w
+}

@@ -1,0 +1,37 @@
+package lsp
+
+import (
+	"strings"
+	"testing"
+	"unicode/utf8"
+)
+
+// A hover for a plain-text client keeps its first line as the answer, drops
+// the Markdown marks and the table scaffolding, and no line is longer than
+// 80 characters; a Markdown client keeps its tables.
+func TestShapeHover(t *testing.T) {
+	md := "**80 °C** — a temperature\n\n| unit | value |\n|---|---|\n| K (SI) | 353.15 K |\n| °F | 176 °F |\n\n" +
+		"_Estimate (from version 3; version 4 is being checked)_\n" +
+		strings.Repeat("a long explanation that goes on ", 5) + "`code`\n"
+	plain := shapeHover(md, true)
+	lines := strings.Split(plain, "\n")
+	if lines[0] != "80 °C — a temperature" {
+		t.Errorf("first line %q", lines[0])
+	}
+	for _, l := range lines {
+		if n := utf8.RuneCountInString(l); n > hoverWidth {
+			t.Errorf("line of %d characters: %q", n, l)
+		}
+		if strings.ContainsAny(l, "`*|") || strings.HasPrefix(l, "---") {
+			t.Errorf("Markdown left in %q", l)
+		}
+	}
+	for _, want := range []string{"K (SI): 353.15 K", "°F: 176 °F", "Estimate (from version 3; version 4 is being checked)"} {
+		if !strings.Contains(plain, want) {
+			t.Errorf("plain hover lacks %q:\n%s", want, plain)
+		}
+	}
+	if got := shapeHover(md, false); !strings.Contains(got, "| K (SI) | 353.15 K |") {
+		t.Errorf("Markdown hover lost its table:\n%s", got)
+	}
+}
