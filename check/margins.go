@@ -48,6 +48,9 @@ var marginRules = []marginRule{
 	{flow.RuleWall, lang.Error, "the estimated wall temperature exceeds the device limit",
 		"The wall runs at the saturation temperature plus the nucleate-boiling superheat (Cooper); above wall_limit minus wall_margin the device overheats.",
 		"wall_limit 50 °C", "Lower the saturation temperature (more condenser conductance, colder sink) or the heat flux."},
+	{flow.RuleJunction, lang.Error, "the estimated junction temperature of a device exceeds its limit",
+		"The device's heat crosses its thermal stack in series — junction to case, the interface material, the plate's spreading resistance — above the boiling wall, so T_junction = T_wall + Q·(R_jc + R_interface + R_spreading), with the wall at the saturation temperature plus the nucleate-boiling superheat (Cooper). The resistances are the device maker's and the assembly's figures; above junction_limit the device is outside its rating. The device case and the plate run hot: guard surfaces people can touch as local codes require.",
+		"junction_limit 90 °C", "Lower the stack resistance (thinner interface, better spreading), the saturation temperature or the load."},
 	{flow.RulePressure, lang.Error, "the saturation pressure exceeds the design pressure",
 		"The loop holds the saturation pressure of its hottest case; pressure equipment must satisfy local pressure-equipment codes and be approved by licensed engineers.",
 		"design_pressure 2 bar(g)", "Rate the loop for the pressure, or lower the saturation temperature."},
@@ -140,7 +143,7 @@ func loopEstimate(c *Context) *flow.LoopResult {
 
 var marginRuleOf = map[string]string{
 	flow.MarginExitQuality: flow.RuleExitQuality, flow.MarginCHF: flow.RuleCHF, flow.MarginFlooding: flow.RuleFlooding,
-	flow.MarginWall: flow.RuleWall, flow.MarginPressure: flow.RulePressure, flow.MarginCondenser: flow.RuleCondenser,
+	flow.MarginWall: flow.RuleWall, flow.MarginJunction: flow.RuleJunction, flow.MarginPressure: flow.RulePressure, flow.MarginCondenser: flow.RuleCondenser,
 	flow.MarginCharge: flow.RuleCharge, flow.MarginHead: flow.RuleHead, flow.MarginTilt: flow.RuleTilt,
 }
 

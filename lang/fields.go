@@ -122,6 +122,7 @@ var (
 	needHTC      = units.Need{Dim: units.HeatTransferCoefficient}
 	needAngle    = units.Need{Dim: units.Angle}
 	needAccel    = units.Need{Dim: units.Acceleration}
+	needRth      = units.Need{Dim: units.ThermalResistance}
 )
 
 // FieldNeeds maps each field to the dimension it needs, for completion.
@@ -133,6 +134,7 @@ var FieldNeeds = map[string]units.Need{
 	"wall_limit": needTemp, "roughness_boiling": needLength, "conductance": needUA, "sink": needTemp,
 	"outlet": needTemp, "subcool": needTempDiff, "volume": needVolume,
 	"tubes": needNumber, "coolant_htc": needHTC, "channels": needNumber,
+	"junction_to_case": needRth, "interface_resistance": needRth, "spreading_resistance": needRth, "junction_limit": needTemp,
 	"pitch": needAngle, "roll": needAngle, "yaw": needAngle, "accel": needAccel,
 	"exit_quality": needNumber, "chf_ratio": needNumber, "flooding": needNumber, "tilt_margin": needAngle,
 	"wall_margin": needTempDiff, "head_ratio": needNumber, "saturation_max": needTemp,
@@ -145,7 +147,7 @@ var (
 		Pipe:       {"use", "length", "rise", "run", "bore", "flow_area", "hydraulic_diameter", "roughness", "loss", "channels"},
 		Bend:       {"use", "length", "rise", "run", "bore", "flow_area", "hydraulic_diameter", "roughness", "loss", "channels"},
 		Fitting:    {"use", "length", "rise", "run", "bore", "flow_area", "hydraulic_diameter", "roughness", "loss", "channels"},
-		Evaporator: {"use", "length", "rise", "run", "bore", "flow_area", "hydraulic_diameter", "roughness", "loss", "channels", "heat", "heated_length", "wetted_area", "heat_flux", "wall_limit", "roughness_boiling"},
+		Evaporator: {"use", "length", "rise", "run", "bore", "flow_area", "hydraulic_diameter", "roughness", "loss", "channels", "heat", "heated_length", "wetted_area", "heat_flux", "wall_limit", "roughness_boiling", "junction_to_case", "interface_resistance", "spreading_resistance", "junction_limit"},
 		Condenser:  {"use", "length", "rise", "run", "bore", "flow_area", "hydraulic_diameter", "roughness", "loss", "channels", "conductance", "sink", "outlet", "subcool", "tubes", "coolant_htc"},
 		Reservoir:  {"use", "volume", "rise", "length", "bore"},
 	}
@@ -372,6 +374,14 @@ func (r *resolver) componentField(c *Component, file string, s *Stmt) {
 		dst = &c.Tubes
 	case "channels":
 		dst = &c.Channels
+	case "junction_to_case":
+		dst = &c.JunctionToCase
+	case "interface_resistance":
+		dst = &c.InterfaceRes
+	case "spreading_resistance":
+		dst = &c.SpreadingRes
+	case "junction_limit":
+		dst = &c.JunctionLimit
 	case "coolant_htc":
 		dst = &c.CoolantHTC
 	case "volume":
@@ -390,6 +400,10 @@ func (r *resolver) componentField(c *Component, file string, s *Stmt) {
 		v.Set = false
 		// A wrong channel count would scale every flow; nothing is computed from it.
 		v.Bad = kw == "channels"
+	}
+	if need := FieldNeeds[kw]; need.Dim == units.ThermalResistance && v.Set && !(v.SI >= 0) {
+		r.errorf("bad-value", file, v.Span, "%s must be zero or more, not %s K/W", kw, strconv.FormatFloat(v.SI, 'g', 6, 64))
+		v.Set, v.Bad = false, true
 	}
 	if v.Set || !dst.Set {
 		if !v.Set {

@@ -173,6 +173,13 @@ type Component struct {
 	HeatFlux      Value
 	WallLimit     Value
 	BoilRoughness Value // default 1 µm
+	// The device's thermal stack above the boiling wall, K/W each, and the
+	// junction's limit: T_junction = T_wall + Q·(junction_to_case +
+	// interface_resistance + spreading_resistance).
+	JunctionToCase Value
+	InterfaceRes   Value
+	SpreadingRes   Value
+	JunctionLimit  Value
 
 	Conductance Value // condenser UA
 	Sink        Value
@@ -193,7 +200,8 @@ type Component struct {
 func (c *Component) anyBad() bool {
 	for _, v := range []*Value{&c.Length, &c.Rise, &c.Bore, &c.FlowArea, &c.HydDiameter, &c.Roughness, &c.Loss,
 		&c.Heat, &c.HeatedLength, &c.WettedArea, &c.HeatFlux, &c.WallLimit, &c.BoilRoughness,
-		&c.Conductance, &c.Sink, &c.Outlet, &c.Subcool, &c.Volume, &c.Channels} {
+		&c.Conductance, &c.Sink, &c.Outlet, &c.Subcool, &c.Volume, &c.Channels,
+		&c.JunctionToCase, &c.InterfaceRes, &c.SpreadingRes, &c.JunctionLimit} {
 		if v.Bad {
 			return true
 		}
@@ -213,6 +221,20 @@ func (c *Component) Diameter() float64 {
 		return sqrt(4 * c.FlowArea.SI / 3.141592653589793)
 	}
 	return 0
+}
+
+// StackResistance returns the device's series thermal resistance from
+// junction to boiling wall, K/W, and whether the component gives any of it.
+func (c *Component) StackResistance() (float64, bool) {
+	var r float64
+	set := false
+	for _, v := range []Value{c.JunctionToCase, c.InterfaceRes, c.SpreadingRes} {
+		if v.Set {
+			r += v.SI
+			set = true
+		}
+	}
+	return r, set
 }
 
 // ChannelCount returns the number of identical parallel channels: the

@@ -262,6 +262,10 @@ func (s *Server) componentHover(c *cursor, comp *lang.Component) string {
 	add("loss K", comp.Loss, "")
 	add("identical channels", comp.Channels, "")
 	add("heat", comp.Heat, "W")
+	if r, ok := comp.StackResistance(); ok {
+		rows = append(rows, [2]string{"junction to wall", units.Format(r, units.MustParse("K/W"))})
+	}
+	add("junction limit", comp.JunctionLimit, "degC")
 	add("conductance", comp.Conductance, "W/K")
 	add("tubes", comp.Tubes, "")
 	add("coolant side", comp.CoolantHTC, "W/(m2*K)")

@@ -17,6 +17,7 @@ const (
 	MarginCHF         = "chf_ratio"
 	MarginFlooding    = "flooding"
 	MarginWall        = "wall_temperature"
+	MarginJunction    = "junction_temperature"
 	MarginPressure    = "design_pressure"
 	MarginCondenser   = "condenser"
 	MarginCharge      = "charge"
@@ -83,6 +84,55 @@ func (p *prepared) chf(s *state, cp *comp, cs ComponentState) (float64, string) 
 	return q, fmt.Sprintf("pool-boiling CHF %.3g W/cm² at |b| = %.2f m/s²", q/1e4, s.bmag)
 }
 
+// wallTemperature is an evaporator's boiling wall temperature at wall flux
+// qw: its saturation temperature plus Cooper's nucleate-boiling superheat.
+// With saturation at local pressure the wall boils at the evaporator's own
+// saturation temperature, highest at its inlet (the bottom of the liquid
+// column).
+func (p *prepared) wallTemperature(s *state, cp *comp, cs ComponentState, qw float64) (tw, ts float64) {
+	rp := 1.0
+	if cp.c.BoilRoughness.Set && cp.c.BoilRoughness.SI > 0 {
+		rp = cp.c.BoilRoughness.SI * 1e6
+	}
+	ts, pr := s.sat.T, s.p.ReducedPressure
+	if s.local && cs.Local != nil {
+		ts = cs.Local.SatTempIn
+		if p.info.Pc > 0 {
+			pr = cs.Local.PressureIn / p.info.Pc
+		}
+	}
+	return ts + correlate.CooperSuperheat(pr, s.p.MolarMass, rp, qw), ts
+}
+
+// junctionMargin carries the device's heat q from the boiling wall at tw
+// through its series stack (junction to case, interface, spreading) to the
+// junction, reports it on the component and checks it against the
+// junction limit.
+func (p *prepared) junctionMargin(cr *CaseResult, ci int, cp *comp, tw, ts, q float64) {
+	c := cp.c
+	js := &Junction{Wall: tw}
+	js.Resistance, _ = c.StackResistance()
+	js.Case = tw + q*(c.InterfaceRes.SI+c.SpreadingRes.SI)
+	js.Junction = tw + q*js.Resistance
+	cr.Components[ci].Junction = js
+	if !c.JunctionLimit.Set {
+		return
+	}
+	tl := c.JunctionLimit.SI
+	use := math.MaxFloat64
+	if tl > ts {
+		use = (js.Junction - ts) / (tl - ts)
+	}
+	m := Margin{Margin: MarginJunction, Component: cp.name, Value: js.Junction, Limit: tl, Unit: "K", Use: use, Status: "ok"}
+	if js.Junction > tl {
+		m.Status = "error"
+		cr.Findings = append(cr.Findings, p.finding(RuleJunction, "error", cr.Case, cp.name, js.Junction, tl, "K", "junction_limit",
+			"junction temperature %.1f °C of the device on evaporator %s in case %s exceeds its limit %.1f °C (wall %.1f °C plus %.0f W through %.3g K/W)",
+			js.Junction-273.15, cp.name, cr.Case, tl-273.15, tw-273.15, q, js.Resistance))
+	}
+	cr.add(m)
+}
+
 // margins evaluates every margin of a circulating case.
 func (p *prepared) margins(s *state, cr *CaseResult, f []float64) {
 	lim := p.limits
@@ -125,37 +175,29 @@ func (p *prepared) margins(s *state, cr *CaseResult, f []float64) {
 						"critical heat flux ratio %.2f at evaporator %s in case %s is below the limit %.2f (wall flux %.3g W/cm², %s)",
 						ratio, cp.name, cr.Case, rl, qw/1e4, form))
 				}
-				// Wall temperature.
-				if cp.c.WallLimit.Set {
-					rp := 1.0
-					if cp.c.BoilRoughness.Set && cp.c.BoilRoughness.SI > 0 {
-						rp = cp.c.BoilRoughness.SI * 1e6
-					}
-					// With saturation at local pressure the wall boils at the
-					// evaporator's own saturation temperature, highest at its
-					// inlet (the bottom of the liquid column).
-					ts, pr := s.sat.T, s.p.ReducedPressure
-					if s.local && cs.Local != nil {
-						ts = cs.Local.SatTempIn
-						if p.info.Pc > 0 {
-							pr = cs.Local.PressureIn / p.info.Pc
+				// Wall temperature, and the device's junction above it.
+				_, stack := cp.c.StackResistance()
+				if cp.c.WallLimit.Set || stack {
+					tw, ts := p.wallTemperature(s, cp, cs, qw)
+					if cp.c.WallLimit.Set {
+						tl := cp.c.WallLimit.SI - lim.WallMargin.SI
+						use := math.MaxFloat64
+						if tl > ts {
+							use = (tw - ts) / (tl - ts)
 						}
+						m := Margin{Margin: MarginWall, Component: cp.name, Value: tw, Limit: tl, Unit: "K", Use: use}
+						m.Status = "ok"
+						if tw > tl {
+							m.Status = "error"
+							cr.Findings = append(cr.Findings, p.finding(RuleWall, "error", cr.Case, cp.name, tw, tl, "K", "wall_limit",
+								"wall temperature %.1f °C at evaporator %s in case %s exceeds the limit %.1f °C (saturation %.1f °C plus Cooper nucleate-boiling superheat)",
+								tw-273.15, cp.name, cr.Case, tl-273.15, ts-273.15))
+						}
+						cr.add(m)
 					}
-					tw := ts + correlate.CooperSuperheat(pr, s.p.MolarMass, rp, qw)
-					tl := cp.c.WallLimit.SI - lim.WallMargin.SI
-					use := math.MaxFloat64
-					if tl > ts {
-						use = (tw - ts) / (tl - ts)
+					if stack {
+						p.junctionMargin(cr, ci, cp, tw, ts, s.heat[ci])
 					}
-					m := Margin{Margin: MarginWall, Component: cp.name, Value: tw, Limit: tl, Unit: "K", Use: use}
-					m.Status = "ok"
-					if tw > tl {
-						m.Status = "error"
-						cr.Findings = append(cr.Findings, p.finding(RuleWall, "error", cr.Case, cp.name, tw, tl, "K", "wall_limit",
-							"wall temperature %.1f °C at evaporator %s in case %s exceeds the limit %.1f °C (saturation %.1f °C plus Cooper nucleate-boiling superheat)",
-							tw-273.15, cp.name, cr.Case, tl-273.15, ts-273.15))
-					}
-					cr.add(m)
 				}
 			}
 		}

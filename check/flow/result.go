@@ -149,6 +149,18 @@ type ComponentState struct {
 	// and the quality that the enthalpy has at the local saturation state.
 	// With saturation_state local these qualities are quality_in/out too.
 	Local *LocalState `json:"local,omitempty"`
+	// Junction is the device on an evaporator that gives its thermal stack.
+	Junction *Junction `json:"junction,omitempty"`
+}
+
+// Junction is a device's temperatures above an evaporator's boiling wall,
+// K, with its heat through the series stack junction → case → interface →
+// spreading → wall.
+type Junction struct {
+	Wall       float64 `json:"wall"`       // boiling wall
+	Case       float64 `json:"case"`       // device case (below junction_to_case)
+	Junction   float64 `json:"junction"`   // junction
+	Resistance float64 `json:"resistance"` // junction to wall, K/W
 }
 
 // LocalState is a component's state at its local saturation.
@@ -279,6 +291,7 @@ const (
 	RuleCHF             = "margin-chf"
 	RuleFlooding        = "margin-flooding"
 	RuleWall            = "margin-wall-temperature"
+	RuleJunction        = "margin-junction-temperature"
 	RulePressure        = "margin-design-pressure"
 	RuleCondenser       = "margin-condenser"
 	RuleCharge          = "margin-charge"

@@ -37,6 +37,8 @@ func specificCautions(m *lang.Model, res *flow.Result) []string {
 		var pMax, tWall, tSat float64
 		pMin := math.Inf(1)
 		pCase, wCase, minCase := "", "", ""
+		var tDev float64 // hottest device case above an evaporator
+		dCase, dComp := "", ""
 		for _, c := range l.Cases {
 			if c.SatPressure > pMax {
 				pMax, pCase = c.SatPressure, c.Case
@@ -48,6 +50,11 @@ func specificCautions(m *lang.Model, res *flow.Result) []string {
 			for _, mg := range c.Margins {
 				if mg.Margin == flow.MarginWall && mg.Value > tWall {
 					tWall, wCase = mg.Value, c.Case
+				}
+			}
+			for _, cs := range c.Components {
+				if j := cs.Junction; j != nil && j.Case > tDev {
+					tDev, dCase, dComp = j.Case, c.Case, cs.Component
 				}
 			}
 		}
@@ -69,10 +76,13 @@ func specificCautions(m *lang.Model, res *flow.Result) []string {
 		if l.Safety != "" {
 			out = append(out, fmt.Sprintf("Loop %s: fluid %s, safety class %s. Charge limits, ventilation, leak detection and marking follow local refrigerant-safety codes.", l.Loop, l.Fluid, SafetyClassMeaning(l.Safety)))
 		}
-		if wCase != "" || tSat > 0 {
+		if wCase != "" || tSat > 0 || dCase != "" {
 			s := fmt.Sprintf("Loop %s: hot surfaces —", l.Loop)
 			if wCase != "" {
 				s += fmt.Sprintf(" the evaporator wall reaches about %s in case %s;", temperature(tWall), wCase)
+			}
+			if dCase != "" {
+				s += fmt.Sprintf(" the device case on evaporator %s about %s in case %s;", dComp, temperature(tDev), dCase)
 			}
 			if tSat > 0 {
 				s += fmt.Sprintf(" vapour lines and condensers run at up to %s.", temperature(tSat))
