@@ -91,7 +91,9 @@ func complete(c *cursor) []protocol.CompletionItem {
 	sc := scopeAt(c)
 	b := &itemList{rng: c.snap.rangeIn(c.path, repl, true)}
 	if len(words) == 0 {
-		b.words(statementWords(sc), protocol.CompletionItemKindKeyword)
+		for _, w := range statementWords(sc) {
+			b.add(w, protocol.CompletionItemKindKeyword, wordDoc(sc.kind, w))
+		}
 		return b.items
 	}
 	kw := words[0]
@@ -208,6 +210,11 @@ func (b *itemList) value(c *cursor, field, prev string) {
 				if need.Difference && u.Affine || !need.Difference && u.IsDifference() {
 					continue
 				}
+			}
+			// The symbol people write (°C, µm, m²) first, then the ASCII
+			// spelling: "35 °" completes to °C.
+			if p := units.Pretty(u.Text); p != u.Text {
+				b.add(p, protocol.CompletionItemKindUnit, units.Name(u.Dim)+" ("+u.Text+")")
 			}
 			b.add(u.Text, protocol.CompletionItemKindUnit, units.Name(u.Dim))
 		}

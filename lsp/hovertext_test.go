@@ -4,6 +4,8 @@ import (
 	"strings"
 	"testing"
 	"unicode/utf8"
+
+	"circa/lang"
 )
 
 // A hover for a plain-text client keeps its first line as the answer, drops
@@ -33,5 +35,24 @@ func TestShapeHover(t *testing.T) {
 	}
 	if got := shapeHover(md, false); !strings.Contains(got, "| K (SI) | 353.15 K |") {
 		t.Errorf("Markdown hover lost its table:\n%s", got)
+	}
+}
+
+// Every statement word completion offers, in every scope, has a one-line
+// description.
+func TestWordDocs(t *testing.T) {
+	for _, sc := range []scope{{kind: ""}, {kind: "loop"}, {kind: "part"}, {kind: "case"}, {kind: "limits"}, {kind: "methods"}} {
+		for _, w := range statementWords(sc) {
+			if d := wordDoc(sc.kind, w); d == "" || strings.Contains(d, "\n") {
+				t.Errorf("%s %q: description %q", sc.kind, w, d)
+			}
+		}
+	}
+	for k := lang.Pipe; k <= lang.Reservoir; k++ {
+		for _, w := range lang.ComponentFields[k] {
+			if wordDoc("component", w) == "" {
+				t.Errorf("component field %q has no description", w)
+			}
+		}
 	}
 }
