@@ -38,8 +38,8 @@ func (r *resolver) expr(file string, e *Expr, need units.Need) Value {
 	if singleAtom(e) != nil {
 		// A lone quantity: a misspelt unit's suggestions can be narrowed to
 		// the dimension the field needs.
-		r.unitHint = &need
-		defer func() { r.unitHint = nil }()
+		r.unitHint, r.hinted = need, true
+		defer func() { r.hinted = false }()
 	}
 	q, unitText, ok := r.eval(file, e)
 	if !ok {
@@ -176,7 +176,7 @@ func (r *resolver) fitting(sugg []string) []string {
 			continue
 		}
 		valid = append(valid, sg)
-		if r.unitHint != nil && u.Dim == r.unitHint.Dim {
+		if r.hinted && u.Dim == r.unitHint.Dim {
 			keep = append(keep, sg)
 		}
 	}

@@ -99,8 +99,9 @@ type resolver struct {
 	limStmts  []fileStmt
 	methStmts []fileStmt
 	// unitHint is the dimension the quantity being evaluated must have,
-	// when it is a lone quantity.
-	unitHint *units.Need
+	// when it is a lone quantity (hinted).
+	unitHint units.Need
+	hinted   bool
 }
 
 type fileStmt struct {

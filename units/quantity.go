@@ -172,12 +172,16 @@ func Check(q Quantity, u string, need Need) error {
 	if !finite(q.SI) {
 		return errors.New("value is not a finite number")
 	}
-	found := describe(q)
-	if u != "" {
-		found += " (" + u + ")"
+	// What was found is only spelt out for a message: a value that fits
+	// costs no allocation.
+	found := func() string {
+		if u == "" {
+			return describe(q)
+		}
+		return describe(q) + " (" + u + ")"
 	}
 	if q.Dim != need.Dim {
-		msg := fmt.Sprintf("expected %s, found %s", needName(need), found)
+		msg := fmt.Sprintf("expected %s, found %s", needName(need), found())
 		if u == "" && q.Dim.IsZero() {
 			if c := Common(need.Dim); len(c) > 0 && c[0].Text != "" {
 				msg += "; add a unit such as " + c[0].Text
@@ -197,7 +201,7 @@ func Check(q Quantity, u string, need Need) error {
 		if uu, err := Parse(u); err == nil && uu.Text == "degF" {
 			alt = "degF_diff"
 		}
-		return fmt.Errorf("expected a temperature difference, found %s; write K or %s", found, alt)
+		return fmt.Errorf("expected a temperature difference, found %s; write K or %s", found(), alt)
 	}
 	return nil
 }
