@@ -43,6 +43,9 @@ type parser struct {
 	lexBase int
 	// open blocks, innermost last
 	stack []*Stmt
+	// the statements of each open block so far, carved into the block's
+	// Stmts when it closes
+	open [][]*Stmt
 	// line of the last error, to keep one error per line
 	errLine int
 	// deepBlocks is set once nesting too deep has been reported
@@ -80,11 +83,19 @@ func (p *parser) errorf(span Span, format string, args ...any) {
 
 func (p *parser) add(s *Stmt) {
 	if n := len(p.stack); n > 0 {
-		b := p.stack[n-1].Block
-		b.Stmts = append(b.Stmts, s)
+		p.open[n-1] = append(p.open[n-1], s)
 		return
 	}
 	p.f.Stmts = append(p.f.Stmts, s)
+}
+
+// shut gives the innermost open block the statements gathered for it.
+func (p *parser) shut() {
+	n := len(p.stack)
+	p.stack[n-1].Block.Stmts = p.nodes.stmtPtrs.carve(p.open[n-1])
+	clear(p.open[n-1])
+	p.open[n-1] = p.open[n-1][:0]
+	p.stack = p.stack[:n-1]
 }
 
 func tokSpan(t *lexer.Token) Span { return Span{t.Pos.Offset, t.Pos.Offset + len(t.Value)} }
@@ -182,6 +193,9 @@ func (p *parser) push(s *Stmt) {
 		p.errorf(Span{s.Block.Open, s.Block.Open + 1}, "blocks nested too deeply: more than %d levels", MaxNesting)
 	}
 	p.stack = append(p.stack, s)
+	if len(p.open) < len(p.stack) {
+		p.open = append(p.open, nil)
+	}
 }
 
 // close ends the innermost block at the '}' at span sp.
@@ -192,7 +206,7 @@ func (p *parser) close(sp Span) {
 		return
 	}
 	p.stack[n-1].Block.Close = sp.Start
-	p.stack = p.stack[:n-1]
+	p.shut()
 }
 
 func (p *parser) closeAll(eof Span) {
@@ -200,6 +214,9 @@ func (p *parser) closeAll(eof Span) {
 		s := p.stack[i]
 		p.errLine = -1
 		p.errorf(Span{s.Block.Open, s.Block.Open + 1}, "block of %q opened here is never closed: add '}'", s.Keyword())
+	}
+	for len(p.stack) > 0 {
+		p.shut()
 	}
 	p.stack = nil
 }
@@ -481,6 +498,30 @@ type nodes struct {
 	atoms   slab[Atom]
 	strs    slab[Str]
 	unitsT  slab[UnitTok]
+
+	// A statement's arguments are gathered in argTmp and carved out of
+	// argPtrs once the statement parses: one allocation per few hundred
+	// arguments instead of a growing slice per statement.
+	argTmp   []*Arg
+	argPtrs  ptrs[Arg]
+	stmtPtrs ptrs[Stmt]
+}
+
+// ptrs hands out pointer slices from chunks.
+type ptrs[T any] struct{ buf []*T }
+
+// carve returns a copy of src from the current chunk, with no room to grow
+// into its neighbour (nil for an empty src).
+func (p *ptrs[T]) carve(src []*T) []*T {
+	if len(src) == 0 {
+		return nil
+	}
+	if cap(p.buf)-len(p.buf) < len(src) {
+		p.buf = make([]*T, 0, max(256, len(src)))
+	}
+	i := len(p.buf)
+	p.buf = append(p.buf, src...)
+	return p.buf[i:len(p.buf):len(p.buf)]
 }
 
 type slab[T any] struct{ buf []T }
@@ -570,6 +611,8 @@ func (q *fastParser) stmt() (*Stmt, bool) {
 	q.next()
 	s.Word = q.idents.alloc()
 	*s.Word = Ident{Pos: at(t.Pos), EndPos: q.end(), Name: t.Value}
+	args := q.argTmp[:0]
+	defer func() { q.argTmp = args[:0] }()
 	for {
 		t := q.peek()
 		if endsStatement(t) {
@@ -589,8 +632,9 @@ func (q *fastParser) stmt() (*Stmt, bool) {
 			a.Expr = e
 		}
 		a.EndPos = q.end()
-		s.Args = append(s.Args, a)
+		args = append(args, a)
 	}
+	s.Args = q.argPtrs.carve(args)
 	s.EndPos = q.end()
 	return s, true
 }
