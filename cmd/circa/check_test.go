@@ -145,7 +145,7 @@ func TestCheckDirectories(t *testing.T) {
 // error or warning in them; each loop gets its tilt-limits note.
 func TestCheckExamples(t *testing.T) {
 	code, out, errs := circa(t, "", "check", "--no-estimates", "../../testdata/examples")
-	if code != exitOK || !strings.Contains(out, "0 errors, 0 warnings") || strings.Count(out, "[tilt-limits]") != 4 {
+	if code != exitOK || !strings.Contains(out, "0 errors, 0 warnings") || strings.Count(out, "[tilt-limits]") != 5 {
 		t.Errorf("exit %d\n%s%s", code, out, errs)
 	}
 }
