@@ -251,7 +251,7 @@ func (s *Server) componentHover(c *cursor, comp *lang.Component) string {
 	var rows [][2]string
 	add := func(name string, v lang.Value, u string) {
 		if v.Set {
-			rows = append(rows, [2]string{name, units.Format(v.SI, units.MustParse(u))})
+			rows = append(rows, [2]string{name, asWritten(v, u)})
 		}
 	}
 	add("length", comp.Length, "m")

@@ -207,9 +207,12 @@ func estimateLoop(m *lang.Model, l *lang.Loop, methods MethodsUsed, points []poi
 	return lr
 }
 
+// NoCase names the single point estimated for a model without cases.
+const NoCase = "(no case)"
+
 func caseName(c *lang.Case) string {
 	if c == nil {
-		return "(no case)"
+		return NoCase
 	}
 	return c.Name
 }

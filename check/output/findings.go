@@ -5,6 +5,7 @@ import (
 	"io"
 
 	"circa/check"
+	"circa/check/flow"
 	"circa/lang"
 )
 
@@ -78,7 +79,7 @@ func Summary(files []File, counts map[lang.Severity]int) string {
 	}
 	if worst != nil {
 		s += "; worst margin: " + worst.Message
-		if worst.Case != "" {
+		if worst.Case != "" && worst.Case != flow.NoCase {
 			s += " (case " + worst.Case + ")"
 		}
 	}
