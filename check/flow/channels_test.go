@@ -50,6 +50,14 @@ func TestChannelsScaleFlow(t *testing.T) {
 		if rel := math.Abs(c.Totals.Inventory/(float64(n)*one.Totals.Inventory) - 1); rel > 1e-5 {
 			t.Errorf("%d channels: inventory %.6g kg, want %d × %.6g", n, c.Totals.Inventory, n, one.Totals.Inventory)
 		}
+		// Each channel holds 1/N of the inventory and carries 1/N of the
+		// flow: the time round the loop does not depend on N.
+		if rel := math.Abs(c.Totals.Transit/one.Totals.Transit - 1); !(one.Totals.Transit > 0) || rel > 1e-5 {
+			t.Errorf("%d channels: transit time %.6g s, one channel %.6g s", n, c.Totals.Transit, one.Totals.Transit)
+		}
+		if rel := math.Abs(c.Totals.Transit*c.MassFlow/c.Totals.Inventory - 1); rel > 1e-9 {
+			t.Errorf("%d channels: transit time %.6g s is not the inventory %.6g kg over the flow %.6g kg/s", n, c.Totals.Transit, c.Totals.Inventory, c.MassFlow)
+		}
 		for i, cs := range c.Components {
 			o := one.Components[i]
 			if rel := math.Abs(cs.MassFlux/o.MassFlux - 1); rel > 1e-6 {

@@ -214,6 +214,11 @@ type Totals struct {
 	HeadMax    float64 `json:"head_available"`   // gravity head at vanishing flow
 	Inventory  float64 `json:"inventory"`        // fluid in the flow path at the operating point, kg
 	Reservoirs float64 `json:"reservoir_liquid"` // reservoirs full of liquid, kg
+	// Transit is the time the fluid takes round a single loop, s: each
+	// component's mass over the loop flow, summed (absent for networks). A
+	// change of attitude or acceleration faster than this is beyond a
+	// quasi-static estimate.
+	Transit float64 `json:"transit_time,omitempty"`
 }
 
 // Margin is one design margin in one case. Use is the fraction of the limit

@@ -279,6 +279,9 @@ func (p *prepared) record(s *state, ev *eval, f []float64, cr *CaseResult) {
 		t.Budget.Local += w * c.Budget.Local
 		t.Budget.Total += w * c.Budget.Total
 		t.Inventory += c.Mass
+		if n.ring && mf > 0 {
+			t.Transit += c.Mass / mf
+		}
 	}
 	for i, r := range n.res {
 		switch {

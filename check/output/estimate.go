@@ -242,6 +242,9 @@ func caseText(w io.Writer, l *flow.LoopResult, c *flow.CaseResult, tilt *picture
 		t := c.Totals
 		fmt.Fprintf(w, "  heat in %s W, rejected %s W; gravity head at vanishing flow %s Pa; inventory %s kg (+ %s kg in reservoirs)\n",
 			fixed(t.Heat, 1), fixed(t.Rejected, 1), fixed(t.HeadMax, 0), sig(t.Inventory, 3), sig(t.Reservoirs, 3))
+		if t.Transit > 0 {
+			fmt.Fprintf(w, "  transit time round the loop %s s: attitude or acceleration changing faster than this is beyond this quasi-static estimate; a transient model or a test is needed\n", sig(t.Transit, 3))
+		}
 		for _, cs := range c.Components {
 			if j := cs.Junction; j != nil {
 				fmt.Fprintf(w, "  junction on %s: %s (device case %s, wall %s; %s K/W)\n",
