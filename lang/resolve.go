@@ -51,11 +51,20 @@ func resolveRoot(m *Model, root string, src []byte, fsys FS) *Model {
 	r.read(root, src, nil, Location{})
 	// About one name is used or declared per statement: sizing the list
 	// once spares a large file the copies of a growing one.
-	n := 0
+	n, params := 0, 0
 	for _, f := range m.Files {
 		n += countStmts(f.Stmts)
+		for _, s := range f.Stmts {
+			if s.Keyword() == "param" {
+				params++
+			}
+		}
 	}
 	m.Refs = make([]Ref, 0, n+n/8+16)
+	if params > 0 {
+		r.params = make(map[string]*paramState, params)
+		m.Params = make([]*Param, 0, params)
+	}
 	r.declare()
 	r.fill()
 	r.allows()
@@ -93,6 +102,11 @@ func dedupe(ds []Diagnostic) []Diagnostic {
 	return out
 }
 
+type paramEntry struct {
+	param Param
+	state paramState
+}
+
 type paramState struct {
 	p     *Param
 	state int // 0 unevaluated, 1 evaluating, 2 done
@@ -119,6 +133,8 @@ type resolver struct {
 	// when it is a lone quantity (hinted).
 	unitHint units.Need
 	hinted   bool
+	// paramSlab holds the declared parameters with their state.
+	paramSlab slab[paramEntry]
 }
 
 type fileStmt struct {
