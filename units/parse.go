@@ -434,6 +434,13 @@ func (p *parser) atom() (val, error) {
 		if res.badPrefix != "" {
 			return val{}, p.errf(start, end, "the prefix %q cannot be used with %q", res.badPrefix, res.canon)
 		}
+		if name == "delta_degC" || name == "delta_degF" {
+			// Differences are written as SI does (K) or as degC_diff.
+			alt := name[len("delta_"):] + "_diff"
+			e := p.errf(start, end, "unknown unit %q; a temperature difference is written K or %s", name, alt)
+			e.Suggestions = []string{alt, "K"}
+			return val{}, e
+		}
 		e := p.errf(start, end, "unknown unit %q", name)
 		e.Suggestions = Suggest(name)
 		if len(e.Suggestions) > 0 {

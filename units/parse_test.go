@@ -125,6 +125,7 @@ func TestParseErrors(t *testing.T) {
 	}{
 		{"kgs", 0, 3, `unknown unit "kgs"; did you mean "kg/s"?`, "kg/s"},
 		{"W/(m2 Kx)", 6, 8, `unknown unit "Kx"`, ""},
+		{"delta_degC", 0, 10, `unknown unit "delta_degC"; a temperature difference is written K or degC_diff`, "degC_diff"},
 		{"KPA", 0, 3, `did you mean "kPa"?`, "kPa"},
 		{"kPag", 0, 4, `did you mean "kPa(g)"?`, "kPa(g)"},
 		{"degc", 0, 4, `did you mean "degC"?`, "degC"},
