@@ -171,7 +171,29 @@ func (r *resolver) declareLoop(file string, st *Stmt) {
 		// Still being written: the unclosed block is the finding.
 		l.Unresolved = true
 	}
-	nodes := map[string]*Node{}
+	// The loop's nodes and components come from one array each, sized by
+	// a count of their statements: a loop of thousands of components costs
+	// a few allocations, not one per component.
+	nNodes, nComps := 0, 0
+	for _, s := range st.Block.Stmts {
+		if s.Bad {
+			continue
+		}
+		if kw := s.Keyword(); kw == "node" || kw == "junction" {
+			nNodes++
+		} else if _, isComp := kindOf(kw); isComp {
+			nComps++
+		}
+	}
+	nodes := make(map[string]*Node, nNodes)
+	if nNodes > 0 {
+		l.Nodes = make([]*Node, 0, nNodes)
+	}
+	if nComps > 0 {
+		l.Components = make([]*Component, 0, nComps)
+	}
+	nodeBuf := make([]Node, 0, nNodes)
+	r.compBuf = make([]Component, 0, nComps)
 	// Nodes first, so components may name nodes declared after them.
 	for _, s := range st.Block.Stmts {
 		if s.Bad {
@@ -194,7 +216,8 @@ func (r *resolver) declareLoop(file string, st *Stmt) {
 			l.Unresolved = true
 			continue
 		}
-		n := &Node{Decl: r.decl(file, s, nm), Loop: l, Junction: s.Keyword() == "junction", Index: len(l.Nodes)}
+		nodeBuf = append(nodeBuf, Node{Decl: r.decl(file, s, nm), Loop: l, Junction: s.Keyword() == "junction", Index: len(l.Nodes)})
+		n := &nodeBuf[len(nodeBuf)-1]
 		nodes[nm.Name] = n
 		l.Nodes = append(l.Nodes, n)
 		r.ref(RefNode, nm.Name, l, file, nm.Span(), true)
@@ -237,7 +260,13 @@ func (r *resolver) declareComponent(file string, s *Stmt, l *Loop, k Kind, nodes
 		return
 	}
 	nm := nameOf(parts[0].Expr)
-	c := &Component{Decl: r.decl(file, s, nm), Kind: k, Loop: l, Index: len(l.Components)}
+	var c *Component
+	if len(r.compBuf) < cap(r.compBuf) {
+		r.compBuf = append(r.compBuf, Component{Decl: r.decl(file, s, nm), Kind: k, Loop: l, Index: len(l.Components)})
+		c = &r.compBuf[len(r.compBuf)-1]
+	} else {
+		c = &Component{Decl: r.decl(file, s, nm), Kind: k, Loop: l, Index: len(l.Components)}
+	}
 	c.Roughness = Value{SI: 1.5e-6}
 	c.BoilRoughness = Value{SI: 1e-6}
 	node := func(p *Arg) (*Node, Span) {

@@ -135,6 +135,8 @@ type resolver struct {
 	hinted   bool
 	// paramSlab holds the declared parameters with their state.
 	paramSlab slab[paramEntry]
+	// compBuf holds the components of the loop being declared.
+	compBuf []Component
 }
 
 type fileStmt struct {
