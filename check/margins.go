@@ -307,9 +307,12 @@ func limitValue(m *lang.Model, l *lang.Loop, f flow.Finding) (lang.Value, bool) 
 		return lim.TiltMargin, true
 	case "saturation_max":
 		return lim.SaturationMax, true
-	case "wall_limit":
+	case "wall_limit", "junction_limit":
 		for _, comp := range l.Components {
 			if comp.Name == f.Component {
+				if f.LimitField == "junction_limit" {
+					return comp.JunctionLimit, true
+				}
 				return comp.WallLimit, true
 			}
 		}

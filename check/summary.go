@@ -53,6 +53,12 @@ func marginText(c *Context, m flow.Margin, cr *flow.CaseResult) string {
 			wl = comp.WallLimit
 		}
 		return fmt.Sprintf("wall temperature %s%s, limit %s: %s", temp(m.Value, wl), at, temp(m.Limit, wl), over(m.Value-m.Limit, "K"))
+	case flow.MarginJunction:
+		jl := lang.Value{}
+		if comp := c.Model.Component(m.Component); comp != nil {
+			jl = comp.JunctionLimit
+		}
+		return fmt.Sprintf("junction temperature %s%s, limit %s: %s", temp(m.Value, jl), at, temp(m.Limit, jl), over(m.Value-m.Limit, "K"))
 	case flow.MarginPressure:
 		dp := l.DesignPressure
 		return fmt.Sprintf("saturation pressure %s, design pressure %s: %s", sigAs(m.Value, dp, "bar"), sigAs(m.Limit, dp, "bar"), pct(m.Value, m.Limit))

@@ -50,7 +50,7 @@ type TiltPoint struct {
 }
 
 // AttitudeMargins are the margins TiltPoint.WorstUse takes into account.
-var AttitudeMargins = []string{flow.MarginExitQuality, flow.MarginCHF, flow.MarginFlooding, flow.MarginWall}
+var AttitudeMargins = []string{flow.MarginExitQuality, flow.MarginCHF, flow.MarginFlooding, flow.MarginWall, flow.MarginJunction}
 
 func attitudeMargin(name string) bool {
 	for _, m := range AttitudeMargins {
