@@ -64,6 +64,7 @@ func resolveRoot(m *Model, root string, src []byte, fsys FS) *Model {
 	if params > 0 {
 		r.params = make(map[string]*paramState, params)
 		m.Params = make([]*Param, 0, params)
+		r.paramSlab.buf = make([]paramEntry, 0, params)
 	}
 	r.declare()
 	r.fill()
