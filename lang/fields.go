@@ -449,22 +449,8 @@ func (r *resolver) caseField(c *Case, s *Stmt) {
 		if kw == "sink" {
 			want = Condenser
 		}
-		comp, ok := r.comps[id.Name]
-		if !ok {
-			var cands []string
-			for n, cc := range r.comps {
-				if cc.Kind == want {
-					cands = append(cands, n)
-				}
-			}
-			r.unknownName(file, id, want.String(), cands, "")
-			c.Unresolved = true
-			return
-		}
-		r.ref(RefComponent, id.Name, comp.Loop, file, id.Span(), false)
-		if comp.Kind != want {
-			r.errorf("wrong-kind", file, id.Span(), "%s is a %s, not a %s", id.Name, comp.Kind, want)
-			c.Unresolved = true
+		comp := r.caseComponent(c, file, id, want)
+		if comp == nil {
 			return
 		}
 		v := r.expr(file, s.Args[1].Expr, need)
@@ -509,22 +495,8 @@ func (r *resolver) caseConductance(c *Case, s *Stmt) {
 		c.Unresolved = true
 		return
 	}
-	comp, ok := r.comps[id.Name]
-	if !ok {
-		var cands []string
-		for n, cc := range r.comps {
-			if cc.Kind == Condenser {
-				cands = append(cands, n)
-			}
-		}
-		r.unknownName(file, id, Condenser.String(), cands, "")
-		c.Unresolved = true
-		return
-	}
-	r.ref(RefComponent, id.Name, comp.Loop, file, id.Span(), false)
-	if comp.Kind != Condenser {
-		r.errorf("wrong-kind", file, id.Span(), "%s is a %s, not a condenser", id.Name, comp.Kind)
-		c.Unresolved = true
+	comp := r.caseComponent(c, file, id, Condenser)
+	if comp == nil {
 		return
 	}
 	v := r.expr(file, s.Args[1].Expr, needUA)
@@ -546,6 +518,32 @@ func (r *resolver) caseConductance(c *Case, s *Stmt) {
 		}
 	}
 	c.Conductances = append(c.Conductances, CompValue{Comp: comp, NameSpan: id.Span(), File: file, Value: v})
+}
+
+// caseComponent resolves the component a case statement names, which must
+// be of kind want. An unknown name or a component of another kind is
+// reported, with the components of that kind as suggestions, and marks the
+// case unresolved: it returns nil then.
+func (r *resolver) caseComponent(c *Case, file string, id *Ident, want Kind) *Component {
+	comp, ok := r.comps[id.Name]
+	if !ok {
+		var cands []string
+		for n, cc := range r.comps {
+			if cc.Kind == want {
+				cands = append(cands, n)
+			}
+		}
+		r.unknownName(file, id, want.String(), cands, "")
+		c.Unresolved = true
+		return nil
+	}
+	r.ref(RefComponent, id.Name, comp.Loop, file, id.Span(), false)
+	if comp.Kind != want {
+		r.errorf("wrong-kind", file, id.Span(), "%s is a %s, not a %s", id.Name, comp.Kind, want)
+		c.Unresolved = true
+		return nil
+	}
+	return comp
 }
 
 func (r *resolver) limitField(file string, s *Stmt) {
