@@ -197,27 +197,9 @@ func (s *state) march(ci int, dir float64, m, xin float64, rec func(cellRec)) (f
 	n := s.cells
 	ds := cp.L / float64(n)
 	dg := bd / float64(n)
-	// Quality at the cell faces: linear in the heated fraction passed.
-	face := func(k int) float64 {
-		f := float64(k) / float64(n)
-		if cp.kind == lang.Evaporator {
-			lo, hi := cp.heatedFrom, cp.heatedTo
-			if dir < 0 {
-				lo, hi = 1-hi, 1-lo
-			}
-			switch {
-			case f <= lo:
-				return xin
-			case f >= hi:
-				return xout
-			}
-			return xin + (xout-xin)*(f-lo)/(hi-lo)
-		}
-		return xin + (xout-xin)*f
-	}
 	xa := xin
 	for k := 0; k < n; k++ {
-		xb := face(k + 1)
+		xb := s.faceX(cp, dir, xin, xout, k+1, n)
 		xm := 0.5 * (xa + xb)
 		if xa < 0 && xb > 0 || xa > 0 && xb < 0 || xa < 1 && xb > 1 || xa > 1 && xb < 1 {
 			// The cell spans a phase boundary: average its two parts.
