@@ -78,21 +78,62 @@ const HorizontalCos = 0.08715574274765817 // cos 85°
 // fall back to no slip). The result lies in [0, 1]; x ≤ 0 gives 0
 // and x ≥ 1 gives 1.
 func VoidFraction(m VoidMethod, x, G float64, p Props, accel, cosIncl float64) float64 {
+	pv := PrepareVoid(m, p, accel)
+	return pv.At(x, G, cosIncl)
+}
+
+// PreparedVoid is a void-fraction method bound to one property set and
+// body-force magnitude, with the parts that depend on neither quality nor
+// flow computed once. The estimator prepares once per case and attitude and
+// calls At per cell; the result equals VoidFraction exactly.
+type PreparedVoid struct {
+	m VoidMethod
+	p Props
+	// drift is [a σ (ρl−ρv)]^¼/ρl^½ of the drift-flux methods' V_gj, 0
+	// without a body force or surface tension.
+	drift float64
+	zivi  float64 // Zivi's (ρv/ρl)^(2/3) factor's cube root (ρv/ρl)^(1/3)
+}
+
+// PrepareVoid binds m to properties p and body-force magnitude accel (see
+// VoidFraction).
+func PrepareVoid(m VoidMethod, p Props, accel float64) PreparedVoid {
+	pv := PreparedVoid{m: m, p: p}
+	if !(p.RhoL > 0) || !(p.RhoV > 0) {
+		return pv
+	}
+	switch m {
+	case Homogeneous, ChisholmSlip:
+	case Zivi:
+		pv.zivi = math.Cbrt(p.RhoV / p.RhoL)
+	default:
+		if d := math.Abs(accel) * p.Sigma * (p.RhoL - p.RhoV); d > 0 {
+			pv.drift = math.Sqrt(math.Sqrt(d) / p.RhoL)
+		}
+	}
+	return pv
+}
+
+// At is the void fraction at quality x, mass flux G and cosIncl, the
+// cosine of the angle between the tube axis and the body force.
+func (pv *PreparedVoid) At(x, G, cosIncl float64) float64 {
 	if !(x > 0) {
 		return 0
 	}
 	if x >= 1 {
 		return 1
 	}
+	p := &pv.p
 	if !(p.RhoL > 0) || !(p.RhoV > 0) {
 		return 0
 	}
+	m := pv.m
 	var a float64
 	switch m {
 	case Homogeneous:
 		a = 1 / (1 + (1-x)/x*(p.RhoV/p.RhoL))
 	case Zivi:
-		c := math.Cbrt(p.RhoV / p.RhoL)
+		c := pv.zivi
 		a = 1 / (1 + (1-x)/x*c*c)
 	case ChisholmSlip:
 		s := math.Sqrt(1 - x*(1-p.RhoL/p.RhoV))
@@ -102,7 +143,7 @@ func VoidFraction(m VoidMethod, x, G float64, p Props, accel, cosIncl float64) f
 		if m == RouhaniAxelssonHorizontal || (m == RouhaniAxelsson && math.Abs(cosIncl) < HorizontalCos) {
 			c = 0.12
 		}
-		a = rouhaniAxelsson(x, G, p, accel, c)
+		a = rouhaniAxelsson(x, G, p, pv.drift, c)
 	}
 	return clampQuality(a)
 }
@@ -110,11 +151,12 @@ func VoidFraction(m VoidMethod, x, G float64, p Props, accel, cosIncl float64) f
 // rouhaniAxelsson is the Zuber–Findlay drift-flux void fraction with
 // C0 = 1 + c(1−x) and V_gj = 1.18(1−x)[a σ (ρl−ρv)]^¼/ρl^½, written as
 // α = G x/ρv / [C0 G (x/ρv + (1−x)/ρl) + V_gj] so that G = 0 is finite.
-func rouhaniAxelsson(x, G float64, p Props, accel, c float64) float64 {
+// drift is [a σ (ρl−ρv)]^¼/ρl^½ (see PrepareVoid).
+func rouhaniAxelsson(x, G float64, p *Props, drift, c float64) float64 {
 	G = math.Abs(G)
 	var vgj float64
-	if d := math.Abs(accel) * p.Sigma * (p.RhoL - p.RhoV); d > 0 {
-		vgj = 1.18 * (1 - x) * math.Sqrt(math.Sqrt(d)/p.RhoL)
+	if drift > 0 {
+		vgj = 1.18 * (1 - x) * drift
 	}
 	num := G * x / p.RhoV
 	den := (1+c*(1-x))*G*(x/p.RhoV+(1-x)/p.RhoL) + vgj

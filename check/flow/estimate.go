@@ -400,6 +400,7 @@ func (p *prepared) newState(pt point, cr *CaseResult) (*state, []Finding) {
 	s := &state{net: net, void: p.void, fric: p.fric, sp: p.fric.SinglePhase, cells: p.methods.Cells, info: p.info}
 	s.heat = make([]float64, len(net.comps))
 	s.xCond = make([]float64, len(net.comps))
+	s.pfc = &frictionCache{}
 	var fs []Finding
 	cname := caseName(pt.c)
 	find := func(rule, sev, comp string, v, lim float64, unit, format string, args ...any) {
@@ -553,6 +554,7 @@ func (p *prepared) newState(pt point, cr *CaseResult) (*state, []Finding) {
 func (s *state) setBody(b geom.Vec3) {
 	s.b = b
 	s.bmag = b.Norm()
+	s.vp = correlate.PrepareVoid(s.void, s.p, s.bmag)
 	n := len(s.net.comps)
 	if len(s.bDisp) != n {
 		s.bDisp = make([]float64, n)

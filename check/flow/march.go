@@ -25,6 +25,7 @@ type state struct {
 	b      geom.Vec3
 	bmag   float64
 	void   correlate.VoidMethod
+	vp     correlate.PreparedVoid // void with p and bmag (set with the body force)
 	fric   correlate.Friction
 	sp     correlate.SinglePhase
 	cells  int
@@ -40,6 +41,11 @@ type state struct {
 	// one bore at one flow share it.
 	lqKey [5]float64
 	lqVal float64
+	// pfc caches prepared friction by tube and mass flux: Newton's
+	// iteration and its Jacobian march a branch again and again at the same
+	// flow, and consecutive tubes of one bore in a branch share it. Copies
+	// of the state share the cache (one goroutine's).
+	pfc *frictionCache
 	// lossScale multiplies every component's friction and local losses
 	// (0 or 1: as estimated); the loss-reserve margin solves with it.
 	lossScale float64
@@ -77,6 +83,46 @@ func (s *state) liquidGradient(G, D, rr, rho, mu float64) float64 {
 	v := correlate.SinglePhaseGradient(s.sp, G, D, rr, rho, mu)
 	s.lqKey, s.lqVal = k, v
 	return v
+}
+
+// frictionCache holds the most recent friction preparations, each with
+// the inputs it was prepared from.
+type frictionCache struct {
+	key  [frictionEntries]frictionKey
+	pf   [frictionEntries]correlate.PreparedFriction
+	next int // the entry the next miss replaces
+}
+
+// frictionEntries covers a network's distinct tube-and-flow pairs between
+// two evaluations and its Jacobian's perturbed flows.
+const frictionEntries = 8
+
+type frictionKey struct {
+	ok            bool
+	G, D, rr, acc float64
+	p             correlate.Props
+}
+
+// preparedFriction is s.fric prepared for tube cp at mass flux G with the
+// state's properties and body force, from the cache when it holds the same
+// inputs: the very value a fresh preparation gives. The result is valid
+// until the next call.
+func (s *state) preparedFriction(cp *comp, G float64) *correlate.PreparedFriction {
+	c := s.pfc
+	if c == nil {
+		pf := s.fric.Prepare(G, cp.D, cp.rr, s.p, s.bmag)
+		return &pf
+	}
+	k := frictionKey{ok: true, G: G, D: cp.D, rr: cp.rr, acc: s.bmag, p: s.p}
+	for i := range c.key {
+		if c.key[i] == k {
+			return &c.pf[i]
+		}
+	}
+	i := c.next
+	c.next = (i + 1) % frictionEntries
+	c.key[i], c.pf[i] = k, s.fric.Prepare(G, cp.D, cp.rr, s.p, s.bmag)
+	return &c.pf[i]
 }
 
 // parts are the pressure changes of a component, Pa, as losses: positive
@@ -144,7 +190,7 @@ func (s *state) cell(pf *correlate.PreparedFriction, cp *comp, G, x, cosInc floa
 	case x >= 1:
 		return pf.Gradient(1), 1, s.p.RhoV, s.p.RhoV
 	}
-	alpha = correlate.VoidFraction(s.void, x, G, s.p, s.bmag, cosInc)
+	alpha = s.vp.At(x, G, cosInc)
 	return pf.Gradient(x), alpha, correlate.MixtureDensity(alpha, s.p), correlate.HomogeneousDensity(x, s.p)
 }
 
@@ -163,14 +209,14 @@ func (s *state) march(ci int, dir float64, m, xin float64, rec func(cellRec)) (f
 	var q parts
 	bd := s.bDisp[ci] * dir // b·(displacement along the flow)
 	cosInc := s.cosInc[ci]
-	var pf correlate.PreparedFriction
+	pf := &correlate.PreparedFriction{}
 	if xin > 0 || xout > 0 {
 		// Two-phase or vapour somewhere: the liquid-only cells do not use it.
-		pf = s.fric.Prepare(G, cp.D, cp.rr, s.p, s.bmag)
+		pf = s.preparedFriction(cp, G)
 	}
 	if xout == xin || cp.L == 0 {
 		// One state along the whole component.
-		dpdz, alpha, rhoM, rhoH := s.cell(&pf, cp, G, xin, cosInc)
+		dpdz, alpha, rhoM, rhoH := s.cell(pf, cp, G, xin, cosInc)
 		q.fric = dpdz * cp.L
 		q.grav = rhoM * bd
 		q.local = cp.K * G * G / (2 * rhoH)
@@ -208,15 +254,15 @@ func (s *state) march(ci int, dir float64, m, xin float64, rec func(cellRec)) (f
 				xc = 1
 			}
 			w := (xc - xa) / (xb - xa)
-			d1, a1, m1, h1 := s.cell(&pf, cp, G, 0.5*(xa+xc), cosInc)
-			d2, a2, m2, h2 := s.cell(&pf, cp, G, 0.5*(xc+xb), cosInc)
+			d1, a1, m1, h1 := s.cell(pf, cp, G, 0.5*(xa+xc), cosInc)
+			d2, a2, m2, h2 := s.cell(pf, cp, G, 0.5*(xc+xb), cosInc)
 			q.fric += (w*d1 + (1-w)*d2) * ds
 			q.grav += (w*m1 + (1-w)*m2) * dg
 			if rec != nil {
 				rec(cellRec{x: xm, alpha: w*a1 + (1-w)*a2, rhoM: w*m1 + (1-w)*m2, rhoH: w*h1 + (1-w)*h2, ds: ds})
 			}
 		} else {
-			dpdz, alpha, rhoM, rhoH := s.cell(&pf, cp, G, xm, cosInc)
+			dpdz, alpha, rhoM, rhoH := s.cell(pf, cp, G, xm, cosInc)
 			q.fric += dpdz * ds
 			q.grav += rhoM * dg
 			if rec != nil {
@@ -243,7 +289,7 @@ func (s *state) mom(G, x, alpha float64) float64 {
 }
 
 func (s *state) voidAt(x, G, cosInc float64) float64 {
-	return correlate.VoidFraction(s.void, x, G, s.p, s.bmag, cosInc)
+	return s.vp.At(x, G, cosInc)
 }
 
 func (s *state) mixture(x, G, cosInc float64) float64 {
