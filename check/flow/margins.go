@@ -654,7 +654,8 @@ func (p *prepared) circulation(s *state, b geom.Vec3, d float64, w *tiltWalk, co
 	if err != nil {
 		return math.NaN(), h
 	}
-	t.evaluate(f, ev)
+	// ev holds the evaluation at f: Newton's iteration returns a balance
+	// with it.
 	least, most := math.Inf(1), 0.0
 	for bi, br := range t.net.branches {
 		most = math.Max(most, math.Abs(ev.mb[bi]))

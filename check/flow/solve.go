@@ -696,7 +696,8 @@ func (s *state) solveWarm(ev *eval, start []float64, jc *jacobianCache, cold boo
 // newton drives the cycle momentum balances to zero from f, with a
 // backtracking line search. jc, when not nil, holds a Jacobian to start
 // with, is reused while it cuts the residual fast, and receives the last
-// one factorised; without it every step forms a new Jacobian.
+// one factorised; without it every step forms a new Jacobian. Without an
+// error it returns with ev evaluated at the flows it returns.
 func (s *state) newton(ev *eval, f []float64, jc *jacobianCache) ([]float64, int, error) {
 	n := s.net
 	nc := len(n.cycles)
