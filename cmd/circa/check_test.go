@@ -199,24 +199,7 @@ func TestCheckJSON(t *testing.T) {
 // (report/sarif/testdata/sarif-schema-2.1.0.json) and checked against the
 // OASIS repository's text.
 func TestCheckSARIF(t *testing.T) {
-	f, err := os.Open("../../testdata/sarif-2.1.0.json")
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer f.Close()
-	doc, err := jsonschema.UnmarshalJSON(f)
-	if err != nil {
-		t.Fatal(err)
-	}
-	c := jsonschema.NewCompiler()
-	c.AssertFormat()
-	if err := c.AddResource("sarif-2.1.0.json", doc); err != nil {
-		t.Fatal(err)
-	}
-	sch, err := c.Compile("sarif-2.1.0.json")
-	if err != nil {
-		t.Fatal(err)
-	}
+	sch := sarifSchema(t)
 	// A file with fixes (a loop not closed, a misspelt silencer) and related locations.
 	src := strings.Replace(bad, "  pipe down from d to a", "  pipe down from d to x", 1)
 	src = strings.Replace(src, "  node d\n", "  node d\n  node x\n", 1)
