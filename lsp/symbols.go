@@ -86,44 +86,14 @@ func (o outliner) symbol(d lang.Decl, kind protocol.SymbolKind, detail *string) 
 // cases and parameters.
 func (sn *snapshot) outline(m *lang.Model, path string) protocol.DocumentSymbolSlice {
 	o := outliner{m: sn.mapperFor(path), enc: sn.enc}
-	n := 0
-	for _, l := range m.Loops {
-		if l.File == path {
-			n++
-		}
-	}
-	for _, p := range m.Parts {
-		if p.File == path {
-			n++
-		}
-	}
-	for _, c := range m.Cases {
-		if c.File == path {
-			n++
-		}
-	}
-	for _, p := range m.Params {
-		if p.File == path {
-			n++
-		}
-	}
+	n := inFile(m.Loops, path) + inFile(m.Parts, path) + inFile(m.Cases, path) + inFile(m.Params, path)
 	out := make(protocol.DocumentSymbolSlice, 0, n)
 	for _, l := range m.Loops {
 		if l.File != path {
 			continue
 		}
 		ls := o.symbol(l.Decl, protocol.SymbolKindNamespace, &detailLoop)
-		k := 0
-		for _, n := range l.Nodes {
-			if n.File == path {
-				k++
-			}
-		}
-		for _, c := range l.Components {
-			if c.File == path {
-				k++
-			}
-		}
+		k := inFile(l.Nodes, path) + inFile(l.Components, path)
 		if k > 0 {
 			ls.Children = make([]protocol.DocumentSymbol, 0, k)
 		}
@@ -216,4 +186,15 @@ func workspaceSymbolRequest(ctx context.Context, s *Server, sn *snapshot, params
 		}
 	}
 	return out, nil
+}
+
+// inFile counts the declarations among ds written in path.
+func inFile[T interface{ Loc() lang.Location }](ds []T, path string) int {
+	n := 0
+	for _, d := range ds {
+		if d.Loc().File == path {
+			n++
+		}
+	}
+	return n
 }
