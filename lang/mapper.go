@@ -234,3 +234,15 @@ func SplitLines(b []byte) []string {
 	}
 	return out
 }
+
+// CommonEnds returns how many lines a and b share at their start and, of
+// the rest, at their end: the part of a line diff that needs no search.
+func CommonEnds(a, b []string) (pre, suf int) {
+	for pre < len(a) && pre < len(b) && a[pre] == b[pre] {
+		pre++
+	}
+	for suf < len(a)-pre && suf < len(b)-pre && a[len(a)-1-suf] == b[len(b)-1-suf] {
+		suf++
+	}
+	return pre, suf
+}

@@ -118,14 +118,7 @@ type hunk struct {
 // the replaced ranges. Past a bound on the edit distance it returns one hunk
 // for the differing middle.
 func lineDiff(a, b []string) []hunk {
-	pre := 0
-	for pre < len(a) && pre < len(b) && a[pre] == b[pre] {
-		pre++
-	}
-	suf := 0
-	for suf < len(a)-pre && suf < len(b)-pre && a[len(a)-1-suf] == b[len(b)-1-suf] {
-		suf++
-	}
+	pre, suf := lang.CommonEnds(a, b)
 	am, bm := a[pre:len(a)-suf], b[pre:len(b)-suf]
 	if len(am) == 0 && len(bm) == 0 {
 		return nil

@@ -7,6 +7,8 @@ import (
 	"io"
 	"sort"
 	"strings"
+
+	"circa/lang"
 )
 
 // The unified diff of circa fmt -d. Its memory is linear in the texts: the
@@ -47,14 +49,7 @@ func editScript(a, b []string) []diffOp {
 }
 
 func diffLines(ops []diffOp, a, b []string) []diffOp {
-	pre := 0
-	for pre < len(a) && pre < len(b) && a[pre] == b[pre] {
-		pre++
-	}
-	suf := 0
-	for suf < len(a)-pre && suf < len(b)-pre && a[len(a)-1-suf] == b[len(b)-1-suf] {
-		suf++
-	}
+	pre, suf := lang.CommonEnds(a, b)
 	for _, l := range a[:pre] {
 		ops = append(ops, diffOp{' ', l})
 	}
