@@ -80,6 +80,10 @@ func CooperFromSuperheat(pr, M, rpUm, dT float64) float64 {
 // inlet subcooling h_f − h_in (J/kg, ≥ 0). At vanishing flow the low-flow
 // branch tends to the flux that evaporates the whole inflow, G hlv D/(4L)·
 // We^-0.043: it is 0 at G = 0, where the pool-boiling form applies instead.
+// The coefficients agree with the transcription in NASA's assessment of
+// cryogenic flow-boiling CHF correlations (NTRS 20230009827); the piecewise
+// regime rules, which that transcription writes as plain minima and maxima,
+// follow the paper as reproduced in Collier & Thome (1994), from memory.
 func CHFKattoOhno(G, L, D, dhIn float64, p Props) float64 {
 	G = math.Abs(G)
 	if !(G > 0) || !(L > 0) || !(D > 0) || !(p.RhoL > p.RhoV) || !(p.RhoV > 0) || !(p.Sigma > 0) || !(p.Hlv > 0) {
