@@ -153,7 +153,7 @@ var (
 	}
 	CaseFields   = []string{"heat", "sink", "conductance", "pitch", "roll", "yaw", "accel", "saturation"}
 	LimitFields  = []string{"exit_quality", "chf_ratio", "flooding", "tilt_margin", "wall_margin", "head_ratio", "saturation_max"}
-	MethodFields = []string{"void_fraction", "friction", "single_phase", "chf", "saturation_state", "cells"}
+	MethodFields = []string{"void_fraction", "friction", "single_phase", "chf", "saturation_state", "condensation", "cells"}
 )
 
 func (r *resolver) loopField(l *Loop, s *Stmt) {
@@ -621,5 +621,7 @@ func (r *resolver) methodField(file string, s *Stmt) {
 		m.CHF = ch
 	case "saturation_state":
 		m.SatState = ch
+	case "condensation":
+		m.Condensation = ch
 	}
 }

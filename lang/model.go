@@ -331,8 +331,11 @@ type Methods struct {
 	SinglePhase Choice
 	CHF         Choice
 	SatState    Choice // "single" or "local"
-	Cells       int
-	CellsSet    bool
+	// Condensation is the in-tube coefficient of condensers given by
+	// geometry: "film" (Nusselt, Chato) or "shah" (Shah 1979).
+	Condensation Choice
+	Cells        int
+	CellsSet     bool
 }
 
 // Choice is a method name as written (underscores, e.g. "rouhani_axelsson").
@@ -350,17 +353,19 @@ var MethodChoices = map[string][]string{
 	"single_phase":     {"churchill", "colebrook"},
 	"chf":              {"lienhard_dhir", "zuber", "katto_ohno"},
 	"saturation_state": {"single", "local"},
+	"condensation":     {"film", "shah"},
 }
 
 // DefaultMethods returns the documented defaults.
 func DefaultMethods() Methods {
 	return Methods{
-		Void:        Choice{Name: "rouhani_axelsson"},
-		Friction:    Choice{Name: "muller_steinhagen_heck"},
-		SinglePhase: Choice{Name: "churchill"},
-		CHF:         Choice{Name: "lienhard_dhir"},
-		SatState:    Choice{Name: "single"},
-		Cells:       40,
+		Void:         Choice{Name: "rouhani_axelsson"},
+		Friction:     Choice{Name: "muller_steinhagen_heck"},
+		SinglePhase:  Choice{Name: "churchill"},
+		CHF:          Choice{Name: "lienhard_dhir"},
+		SatState:     Choice{Name: "single"},
+		Condensation: Choice{Name: "film"},
+		Cells:        40,
 	}
 }
 

@@ -76,6 +76,7 @@ var wordDocs = map[string]string{
 	"single_phase":     "single-phase friction factor",
 	"chf":              "critical heat flux correlation",
 	"saturation_state": "single saturated state per loop and case, or local pressure around the loop",
+	"condensation":     "in-tube condensation coefficient of condensers given by geometry",
 	"cells":            "cells per heated component in the quality march (4 to 10000)",
 }
 

@@ -135,4 +135,14 @@ func TestShah1979(t *testing.T) {
 	G := 1 / (math.Pi / 4 * 0.3 * 0.3)
 	p := Props{RhoL: 800, MuL: 1e-5, KL: 0.6, CpL: 2300, ReducedPressure: 1.0 / 20}
 	near(t, "Shah1979", Shah1979(G, 0.4, 0.3, p), 2561.26, 2e-6)
+
+	// The mean from x = 1 to 0 is h_lo times the mean of the bracket:
+	// ∫(1−x)^0.8 dx = 1/1.8 and ∫x^0.76 (1−x)^0.04 dx = B(1.76, 1.04) =
+	// Γ(1.76)Γ(1.04)/Γ(2.8) = 0.537735, so h_m = h_lo (0.555556 +
+	// 2.043394/pr^0.38) exactly (Simpson's rule on 32 intervals within 0.2 %).
+	hlo := Shah1979(G, 0, 0.3, p)
+	exact := hlo * (1/1.8 + 2.0433943842547997/math.Pow(1.0/20, 0.38))
+	near(t, "Shah1979Mean 1→0", Shah1979Mean(G, 1, 0, 0.3, p), exact, 2e-3)
+	near(t, "Shah1979Mean of one quality", Shah1979Mean(G, 0.4, 0.4, 0.3, p), 2561.26, 2e-6)
+	near(t, "Shah1979Mean order", Shah1979Mean(G, 0, 1, 0.3, p), Shah1979Mean(G, 1, 0, 0.3, p), 1e-12)
 }

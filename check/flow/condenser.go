@@ -14,7 +14,12 @@ import (
 // side when coolant_htc is given (else the wall is taken at the coolant
 // temperature). The film coefficient is Nusselt's for a tube within 45° of
 // the body force (a vertical condensing length) and Chato's stratified form
-// for a flatter one, each with the body-force component it feels.
+// for a flatter one, each with the body-force component it feels. With
+// methods { condensation shah } the coefficient is instead Shah's (1979)
+// forced-convection one, averaged over the quality from saturated vapour to
+// liquid, at the mass flux that condenses the heat the condenser rejects:
+// the least flow that can carry that heat, so the lowest coefficient a wet
+// inflow would give.
 
 // byGeometry reports whether a condenser's conductance comes from its
 // geometry: no conductance and no outlet temperature, and a bore and length.
@@ -95,13 +100,17 @@ func tubeCount(c *lang.Component) float64 {
 }
 
 // filmRejection is the heat (W) a geometry condenser rejects at saturation
-// temperature T with its coolant at ts, body force b, saturated properties p.
-func filmRejection(cp comp, b geom.Vec3, T, ts float64, p correlate.Props) float64 {
+// temperature T with its coolant at ts, body force b, saturated properties
+// p; by Shah's coefficient when shah is set, else by the laminar film.
+func filmRejection(shah bool, cp comp, b geom.Vec3, T, ts float64, p correlate.Props) float64 {
 	dT := T - ts
 	if !(dT > 0) {
 		return 0
 	}
 	area := math.Pi * cp.D * cp.L * tubeCount(cp.c)
+	if shah {
+		return shahRejection(cp, area, dT, p)
+	}
 	bm := b.Norm()
 	cos := 0.0
 	if dl := cp.disp.Norm(); dl > 0 && bm > 0 {
@@ -131,11 +140,43 @@ func filmRejection(cp comp, b geom.Vec3, T, ts float64, p correlate.Props) float
 	return ho * area * (dT - (lo+hi)/2)
 }
 
+// shahRejection is the heat (W) a geometry condenser of inner area area
+// rejects across dT by Shah's mean coefficient at the mass flux
+// G = q/(h_lv·A_flow) that condenses it. Shah's h is h1·G^0.8 (h1 at
+// G = 1 kg/m²s), so with the tube wall at the coolant temperature
+// q = h1 (q/(h_lv A_flow))^0.8 area dT has the closed form
+// q = (h1 area dT)^5/(h_lv A_flow)^4; with a coolant side in series it is
+// bisected on q.
+func shahRejection(cp comp, area, dT float64, p correlate.Props) float64 {
+	af := math.Pi / 4 * cp.D * cp.D * tubeCount(cp.c)
+	h1 := correlate.Shah1979Mean(1, 1, 0, cp.D, p)
+	if !(h1 > 0) || !(af > 0) || !(p.Hlv > 0) {
+		return 0
+	}
+	c := h1 / math.Pow(p.Hlv*af, 0.8) // h = c·q^0.8
+	ho := cp.c.CoolantHTC.SI
+	if !cp.c.CoolantHTC.Set || !(ho > 0) || !finite(ho) {
+		return math.Pow(c*area*dT, 5)
+	}
+	// f(q) = q − area·dT/(1/h(q) + 1/ho): negative for small q (h ∝ q^0.8),
+	// not negative at the coolant-side limit q = ho·area·dT.
+	lo, hi := 0.0, ho*area*dT
+	for i := 0; i < 100 && hi-lo > 1e-12*hi; i++ {
+		q := (lo + hi) / 2
+		if q-area*dT/(1/(c*math.Pow(q, 0.8))+1/ho) < 0 {
+			lo = q
+		} else {
+			hi = q
+		}
+	}
+	return (lo + hi) / 2
+}
+
 // geometrySaturation finds the saturation temperature at which the
 // condensers reject qTot in case c: conductance condensers by UA·(T − T_sink),
 // geometry condensers by their film. It bisects on T between the highest
 // sink and the fluid's top; ok is false when even the top cannot reject it.
-func geometrySaturation(fl fluid.Fluid, info fluid.Info, c *lang.Case, conds []comp, sinks []float64, b geom.Vec3, qTot float64) (float64, bool) {
+func geometrySaturation(shah bool, fl fluid.Fluid, info fluid.Info, c *lang.Case, conds []comp, sinks []float64, b geom.Vec3, qTot float64) (float64, bool) {
 	lo := info.Tmin
 	for _, ts := range sinks {
 		lo = math.Max(lo, ts)
@@ -147,10 +188,13 @@ func geometrySaturation(fl fluid.Fluid, info fluid.Info, c *lang.Case, conds []c
 			return math.NaN()
 		}
 		p := correlate.Props{RhoL: sat.RhoL, RhoV: sat.RhoV, MuL: sat.MuL, KL: sat.KL, CpL: sat.CpL, Hlv: sat.Hlv}
+		if info.Pc > 0 {
+			p.ReducedPressure = sat.P / info.Pc
+		}
 		var q float64
 		for i, cp := range conds {
 			if byGeometryIn(c, cp) {
-				q += filmRejection(cp, b, T, sinks[i], p)
+				q += filmRejection(shah, cp, b, T, sinks[i], p)
 			} else {
 				ua, _ := conductanceIn(c, cp)
 				q += ua * (T - sinks[i])

@@ -1,6 +1,7 @@
 package flow
 
 import (
+	"fmt"
 	"math"
 	"strings"
 	"testing"
@@ -56,6 +57,47 @@ func TestCondenserByGeometry(t *testing.T) {
 	// sum is more than that.
 	if d := series.SatTemperature - 298.15; !(d > 15.92) {
 		t.Errorf("series ΔT %.2f K, want above the coolant side's 15.92 K", d)
+	}
+}
+
+// TestCondenserShah selects Shah's (1979) coefficient for the ring's
+// geometry condenser: the saturation temperature must make Shah's mean
+// coefficient from x = 1 to 0, at the mass flux G = Q/(h_lv·πD²/4·N) that
+// condenses the load, reject it: Q = h(G)·π D L N·(T − T_sink).
+func TestCondenserShah(t *testing.T) {
+	for _, tubes := range []float64{1, 4} {
+		src := strings.ReplaceAll(ring, "HEAT", "300 W")
+		src = strings.Replace(src, "conductance 150 W/K; sink 25 degC", fmt.Sprintf("sink 25 degC; tubes %g", tubes), 1)
+		r := estimate(t, load(t, src+"methods { condensation shah }\n"), Options{NoTilt: true})
+		if r.Loops[0].Methods.Condensation != "shah" {
+			t.Fatalf("methods %+v", r.Loops[0].Methods)
+		}
+		cr := only(t, r)
+		T := cr.SatTemperature
+		fl, _ := fluid.Lookup("R134a")
+		info := fl.Info()
+		sat, _ := fl.AtT(T)
+		p := correlate.Props{RhoL: sat.RhoL, RhoV: sat.RhoV, MuL: sat.MuL, KL: sat.KL, CpL: sat.CpL, Hlv: sat.Hlv, ReducedPressure: sat.P / info.Pc}
+		G := 300 / (sat.Hlv * math.Pi / 4 * 0.01 * 0.01 * tubes)
+		h := correlate.Shah1979Mean(G, 1, 0, 0.01, p)
+		q := h * math.Pi * 0.01 * 0.3 * tubes * (T - 298.15)
+		if math.Abs(q-300) > 1e-3*300 {
+			t.Errorf("%g tubes: T_sat %.3f °C rejects %.2f W by Shah's coefficient, want 300 W", tubes, T-273.15, q)
+		}
+		hasA := false
+		for _, a := range r.Loops[0].Assumptions {
+			hasA = hasA || strings.Contains(a, "Shah 1979")
+		}
+		if !hasA {
+			t.Errorf("assumptions do not name Shah: %q", r.Loops[0].Assumptions)
+		}
+	}
+	// With a coolant side in series the saturation temperature rises.
+	base := strings.ReplaceAll(ring, "HEAT", "300 W") + "methods { condensation shah }\n"
+	alone := only(t, estimate(t, load(t, strings.Replace(base, "conductance 150 W/K;", "", 1)), Options{NoTilt: true}))
+	series := only(t, estimate(t, load(t, strings.Replace(base, "conductance 150 W/K;", "coolant_htc 2000 W/(m2 K);", 1)), Options{NoTilt: true}))
+	if d := series.SatTemperature - 298.15; !(d > 15.92) || !(series.SatTemperature > alone.SatTemperature) {
+		t.Errorf("series ΔT %.2f K (Shah alone %.2f K), want above the coolant side's 15.92 K", d, alone.SatTemperature-298.15)
 	}
 }
 

@@ -62,6 +62,7 @@ type prepared struct {
 	fric     correlate.Friction
 	chfK     float64
 	chfFlow  bool // flow-boiling CHF (Katto–Ohno) instead of the pool-boiling form
+	condShah bool // geometry condensers by Shah (1979) instead of the laminar film
 	limits   lang.Limits
 	lay      *geom.Layout // node positions, for liquid-column heights
 	findings []Finding
@@ -173,6 +174,12 @@ func estimateLoop(m *lang.Model, l *lang.Loop, methods MethodsUsed, points []poi
 			}
 		}
 		for _, cp := range p.net.comps {
+			if byGeometry(cp) && p.condShah {
+				lr.Assumptions = append(lr.Assumptions, "condensers given by geometry: forced-convection condensation inside their tubes "+
+					"(Shah 1979), averaged over the quality from saturated vapour to liquid at the mass flux that condenses the "+
+					"condenser's share of the load; the tube wall at the coolant temperature unless coolant_htc gives the coolant side")
+				break
+			}
 			if byGeometry(cp) {
 				lr.Assumptions = append(lr.Assumptions, "condensers given by geometry: laminar film condensation inside their tubes "+
 					"(Nusselt 1916 within 45° of the body force, Chato 1962 flatter), the tube wall at the coolant temperature "+
@@ -289,6 +296,7 @@ func chooseMethods(ms lang.Methods, opts Options) (MethodsUsed, error) {
 	mu := MethodsUsed{
 		Void: pick(ms.Void, def.Void), Friction: pick(ms.Friction, def.Friction),
 		SinglePhase: pick(ms.SinglePhase, def.SinglePhase), CHF: pick(ms.CHF, def.CHF), Saturation: pick(ms.SatState, def.SatState), Cells: def.Cells,
+		Condensation: pick(ms.Condensation, def.Condensation),
 	}
 	if ms.CellsSet && ms.Cells > 0 {
 		mu.Cells = ms.Cells
@@ -316,6 +324,9 @@ func chooseMethods(ms lang.Methods, opts Options) (MethodsUsed, error) {
 	}
 	if mu.Saturation != "single" && mu.Saturation != "local" {
 		return mu, fmt.Errorf("unknown saturation state %q (want single or local)", mu.Saturation)
+	}
+	if mu.Condensation != "film" && mu.Condensation != "shah" {
+		return mu, fmt.Errorf("unknown condensation method %q (want film or shah)", mu.Condensation)
 	}
 	if mu.Cells > 100000 {
 		mu.Cells = 100000
@@ -349,6 +360,7 @@ func prepare(m *lang.Model, l *lang.Loop, mu MethodsUsed) *prepared {
 		p.chfK = correlate.Zuber
 	}
 	p.chfFlow = mu.CHF == "katto_ohno"
+	p.condShah = mu.Condensation == "shah"
 	var err error
 	switch {
 	case l.Fluid.Table != "":
@@ -484,7 +496,7 @@ func (p *prepared) newState(pt point, cr *CaseResult) (*state, []Finding) {
 		T, cr.SatSource = outletT, "condenser outlet"
 	case film && missing == "":
 		var ok bool
-		T, ok = geometrySaturation(p.fl, p.info, pt.c, conds, sinks, geom.BodyForceAt(pt.yaw, pt.pitch, pt.roll, pt.accel), qTot)
+		T, ok = geometrySaturation(p.condShah, p.fl, p.info, pt.c, conds, sinks, geom.BodyForceAt(pt.yaw, pt.pitch, pt.roll, pt.accel), qTot)
 		cr.SatSource = "condenser balance"
 		if !ok {
 			find(RuleCondenser, "error", conds[0].name, T, p.info.Tmax, "K", "the condensers cannot reject %.0f W in case %s below the top of the fluid's range (%.2f °C): no estimate", qTot, cname, p.info.Tmax-273.15)

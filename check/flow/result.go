@@ -57,7 +57,10 @@ type MethodsUsed struct {
 	SinglePhase string `json:"single_phase"`
 	CHF         string `json:"chf"`
 	Saturation  string `json:"saturation"` // "single": one state per case; "local": at each cell's pressure
-	Cells       int    `json:"cells"`
+	// Condensation is the in-tube coefficient of condensers given by
+	// geometry: "film" (Nusselt 1916, Chato 1962) or "shah" (Shah 1979).
+	Condensation string `json:"condensation"`
+	Cells        int    `json:"cells"`
 }
 
 // CaseResult is the operating point of one loop in one case.
