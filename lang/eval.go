@@ -355,6 +355,9 @@ func (r *resolver) param(name string) (units.Quantity, bool) {
 	if ps.state == 2 { // a cycle was reported while evaluating
 		return units.Quantity{}, false
 	}
+	if r.overrides != nil {
+		q, ut, ok = r.overridden(ps, q, ut, ok)
+	}
 	ps.state, ps.q, ps.ok = 2, q, ok
 	if ok {
 		ps.p.Value = Value{SI: q.SI, Set: true, File: ps.p.File, Span: ps.p.Expr.Span(), Unit: ut}

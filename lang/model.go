@@ -67,6 +67,12 @@ type Model struct {
 	Refs []Ref
 	// Diags holds the syntax, unit and name findings, in file order.
 	Diags []Diagnostic
+	// Overrides lists the parameters given a value for this resolution in
+	// place of their files' (With), in the order given.
+	Overrides []Overridden
+	// readDiags are the findings of reading and parsing, which a variant
+	// resolved from the same files (With) repeats.
+	readDiags []Diagnostic
 }
 
 // Param is a named quantity.

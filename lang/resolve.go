@@ -9,6 +9,7 @@ package lang
 import (
 	"errors"
 	"math"
+	"slices"
 	"strings"
 
 	"circa/units"
@@ -45,10 +46,22 @@ func newModel(root string) *Model {
 	return &Model{Root: root, Files: map[string]*File{}, Limits: DefaultLimits(), Methods: DefaultMethods()}
 }
 
-func resolveRoot(m *Model, root string, src []byte, fsys FS) *Model {
-	r := &resolver{m: m, fs: fsys, params: map[string]*paramState{}, parts: map[string]*Part{},
+func newResolver(m *Model, fsys FS) *resolver {
+	return &resolver{m: m, fs: fsys, params: map[string]*paramState{}, parts: map[string]*Part{},
 		comps: map[string]*Component{}, cases: map[string]*Case{}, loops: map[string]*Loop{}}
+}
+
+func resolveRoot(m *Model, root string, src []byte, fsys FS) *Model {
+	r := newResolver(m, fsys)
 	r.read(root, src, nil, Location{})
+	m.readDiags = slices.Clone(m.Diags) // for resolving variants (With)
+	r.resolve()
+	return m
+}
+
+// resolve declares, fills and evaluates what the files read say.
+func (r *resolver) resolve() {
+	m := r.m
 	// About one name is used or declared per statement: sizing the list
 	// once spares a large file the copies of a growing one.
 	n, params := 0, 0
@@ -70,7 +83,6 @@ func resolveRoot(m *Model, root string, src []byte, fsys FS) *Model {
 	r.fill()
 	r.allows()
 	m.Diags = dedupe(m.Diags)
-	return m
 }
 
 func countStmts(ss []*Stmt) int {
@@ -138,6 +150,10 @@ type resolver struct {
 	paramSlab slab[paramEntry]
 	// compBuf holds the components of the loop being declared.
 	compBuf []Component
+	// overrides replace parameters' values (With); overrideErr is the
+	// first that could not be applied.
+	overrides   map[string]*Overridden
+	overrideErr *OverrideError
 }
 
 type fileStmt struct {
