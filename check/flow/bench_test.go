@@ -99,3 +99,14 @@ func BenchmarkNetwork200(b *testing.B) {
 		benchOnce(b, m, opts)
 	}
 }
+
+// BenchmarkNetwork5000 is the whole estimate, tilt limits included, of a
+// loop of 5,000 components with 8 parallel evaporator branches and a long
+// downcomer, as the language server's complete check runs it (target
+// < 150 ms).
+func BenchmarkNetwork5000(b *testing.B) {
+	m := benchModel(b, 5000, 8)
+	for b.Loop() {
+		benchOnce(b, m, Options{})
+	}
+}

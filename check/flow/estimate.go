@@ -572,11 +572,14 @@ func (s *state) setBody(b geom.Vec3) {
 		s.bDisp = make([]float64, n)
 		s.cosInc = make([]float64, n)
 	}
-	for ci, cp := range s.net.comps {
-		s.bDisp[ci] = b.Dot(cp.disp)
-		d := cp.disp.Norm()
-		if d > 0 && s.bmag > 0 {
-			s.cosInc[ci] = s.bDisp[ci] / (d * s.bmag)
+	s.maxBDisp = 0
+	for ci := range s.net.comps {
+		cp := &s.net.comps[ci]
+		bd := b.Dot(cp.disp)
+		s.bDisp[ci] = bd
+		s.maxBDisp = math.Max(s.maxBDisp, math.Abs(bd))
+		if d := cp.dlen; d > 0 && s.bmag > 0 {
+			s.cosInc[ci] = bd / (d * s.bmag)
 		} else {
 			s.cosInc[ci] = 1
 		}

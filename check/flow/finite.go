@@ -3,6 +3,7 @@ package flow
 import (
 	"math"
 	"reflect"
+	"sync"
 )
 
 // sanitize replaces any NaN by 0 and ±Inf by ±MaxFloat64 in v (a pointer
@@ -22,13 +23,14 @@ func walk(v reflect.Value) int {
 		return walk(v.Elem())
 	case reflect.Struct:
 		n := 0
-		for i := 0; i < v.NumField(); i++ {
-			if v.Type().Field(i).IsExported() {
-				n += walk(v.Field(i))
-			}
+		for _, i := range floatFields(v.Type()) {
+			n += walk(v.Field(i))
 		}
 		return n
 	case reflect.Slice, reflect.Array:
+		if !holdsFloats(v.Type().Elem()) {
+			return 0
+		}
 		n := 0
 		for i := 0; i < v.Len(); i++ {
 			n += walk(v.Index(i))
@@ -64,4 +66,56 @@ func finishLoop(lr *LoopResult) {
 		lr.Findings = append(lr.Findings, Finding{Rule: RuleNonFinite, Severity: "warning", Loop: lr.Loop,
 			Value: float64(n), Message: "the estimate produced non-finite numbers, shown as 0 or the largest float; treat this loop's numbers with suspicion"})
 	}
+}
+
+// fieldCache maps a struct type to the indices of its exported fields that
+// can hold a float64: a result of thousands of component states is walked
+// without asking reflection about every field of every one.
+var fieldCache sync.Map // reflect.Type → []int
+
+func floatFields(t reflect.Type) []int {
+	if v, ok := fieldCache.Load(t); ok {
+		return v.([]int)
+	}
+	var idx []int
+	for i := 0; i < t.NumField(); i++ {
+		if f := t.Field(i); f.IsExported() && holdsFloats(f.Type) {
+			idx = append(idx, i)
+		}
+	}
+	fieldCache.Store(t, idx)
+	return idx
+}
+
+// holdsFloats reports whether a value of type t can contain a float64 that
+// walk would visit. Interfaces and recursive types are assumed to.
+func holdsFloats(t reflect.Type) bool {
+	if v, ok := holdsCache.Load(t); ok {
+		return v.(bool)
+	}
+	h := holds(t, map[reflect.Type]bool{})
+	holdsCache.Store(t, h)
+	return h
+}
+
+var holdsCache sync.Map // reflect.Type → bool
+
+func holds(t reflect.Type, seen map[reflect.Type]bool) bool {
+	switch t.Kind() {
+	case reflect.Float64, reflect.Interface:
+		return true
+	case reflect.Pointer, reflect.Slice, reflect.Array:
+		return holds(t.Elem(), seen)
+	case reflect.Struct:
+		if seen[t] {
+			return true
+		}
+		seen[t] = true
+		for i := 0; i < t.NumField(); i++ {
+			if f := t.Field(i); f.IsExported() && holds(f.Type, seen) {
+				return true
+			}
+		}
+	}
+	return false
 }

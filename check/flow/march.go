@@ -33,6 +33,9 @@ type state struct {
 	xCond  []float64 // by comps index: condenser outlet quality
 	cosInc []float64 // by comps index: cos of the angle between tube and body force
 	bDisp  []float64 // by comps index: b·disp, J/kg
+	// maxBDisp is the largest |b·disp|, J/kg: with the liquid density, the
+	// scale of the hydrostatic heads Newton's tolerance is relative to.
+	maxBDisp float64
 	// Subcooled liquid: density and viscosity at T_sat − k·dT.
 	liqDT  float64
 	liqRho [liquidPoints]float64

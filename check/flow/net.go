@@ -16,6 +16,7 @@ type comp struct {
 	L, D, A    float64
 	rr, K      float64
 	disp       geom.Vec3 // inlet→outlet displacement, equipment frame
+	dlen       float64   // |disp|
 	heatedFrom float64   // heated interval [heatedFrom, heatedTo] as fractions of L
 	heatedTo   float64
 }
@@ -31,7 +32,9 @@ type leg struct {
 // ring, from one node round to itself).
 type branch struct {
 	legs     []leg
-	from, to int // junction numbers
+	from, to int     // junction numbers
+	active   []int   // indices in legs of the components that change the quality
+	chains   []chain // runs of passive legs collapsed, in leg order
 }
 
 // network is a loop reduced to branches and fundamental cycles.
@@ -45,6 +48,7 @@ type network struct {
 	nj       int         // junctions
 	cycles   [][]float64 // cycle k: coefficient of cycle flow k in each branch flow
 	ring     bool        // a single loop without junctions
+	conds    []int       // comps indices of the condensers
 }
 
 // buildNetwork validates the loop's geometry and reduces it to branches and
@@ -248,6 +252,13 @@ func buildNetwork(l *lang.Loop, lay *geom.Layout) (*network, []Finding) {
 			b.from, b.to = b.to, b.from
 		}
 	}
+	for ci := range n.comps {
+		if n.comps[ci].kind == lang.Condenser {
+			n.conds = append(n.conds, ci)
+		}
+		n.comps[ci].dlen = n.comps[ci].disp.Norm()
+	}
+	n.collapseChains()
 	n.cycles = fundamentalCycles(n.nj, n.branches)
 	if len(n.cycles) == 0 {
 		return nil, []Finding{{Rule: RuleGeometry, Severity: "error", Message: fmt.Sprintf("loop %s has no closed path to circulate round", l.Name)}}

@@ -189,7 +189,7 @@ func (s *state) headAtVanishingFlow(f []float64, mf float64) float64 {
 		if s.net.ring {
 			w = 1
 		}
-		s.branchDP(bi, m, ev.xj[up], func(ci int, dir, m, xin, xout float64, q parts) { head += w * q.grav })
+		head += w * s.branchGrav(bi, m, ev.xj[up])
 	}
 	return head
 }

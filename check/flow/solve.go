@@ -7,8 +7,6 @@ import (
 	"gonum.org/v1/gonum/mat"
 
 	"circa/check/correlate"
-
-	"circa/lang"
 )
 
 // Bracketing grid for the single-loop mass flow, kg/s. The grid ends at
@@ -51,12 +49,12 @@ func (s *state) branchOutX(bi int, m, xin float64) float64 {
 	b := &s.net.branches[bi]
 	x := xin
 	if m >= 0 {
-		for _, lg := range b.legs {
-			x = s.outletX(lg.ci, m, x)
+		for _, i := range b.active {
+			x = s.outletX(b.legs[i].ci, m, x)
 		}
 	} else {
-		for i := len(b.legs) - 1; i >= 0; i-- {
-			x = s.outletX(b.legs[i].ci, m, x)
+		for k := len(b.active) - 1; k >= 0; k-- {
+			x = s.outletX(b.legs[b.active[k]].ci, m, x)
 		}
 	}
 	return x
@@ -66,8 +64,8 @@ func (s *state) branchOutX(bi int, m, xin float64) float64 {
 // every junction's enthalpy.
 func (s *state) coldest() float64 {
 	x := 0.0
-	for ci, cp := range s.net.comps {
-		if cp.kind == lang.Condenser && s.xCond[ci] < x {
+	for _, ci := range s.net.conds {
+		if s.xCond[ci] < x {
 			x = s.xCond[ci]
 		}
 	}
@@ -120,8 +118,27 @@ func (s *state) mix(ev *eval) {
 // xin and returns p_from − p_to along its reference direction. visit, when
 // not nil, receives every component's result in flow order.
 func (s *state) branchDP(bi int, m, xin float64, visit func(ci int, dir, m, xin, xout float64, q parts)) float64 {
+	dp, _ := s.branchParts(bi, m, xin, visit)
+	return dp
+}
+
+// branchGrav is the gravity term Σ ∫ρ_m b·ŝ ds of branch bi along the flow
+// at flow m from its upstream junction quality xin.
+func (s *state) branchGrav(bi int, m, xin float64) float64 {
 	if s.local {
-		return s.branchDPLocal(bi, m, visit)
+		var g float64
+		s.branchDPLocal(bi, m, func(ci int, dir, m, xin, xout float64, q parts) { g += q.grav })
+		return g
+	}
+	_, g := s.branchParts(bi, m, xin, nil)
+	return g
+}
+
+// branchParts is branchDP that also returns the branch's gravity term
+// along the flow.
+func (s *state) branchParts(bi int, m, xin float64, visit func(ci int, dir, m, xin, xout float64, q parts)) (dp, grav float64) {
+	if s.local {
+		return s.branchDPLocal(bi, m, visit), 0
 	}
 	b := &s.net.branches[bi]
 	x := xin
@@ -149,18 +166,54 @@ func (s *state) branchDP(bi int, m, xin float64, visit func(ci int, dir, m, xin,
 			visit(lg.ci, dir, m*lg.sign, x, xo, q)
 		}
 		loss += q.loss()
+		grav += q.grav
 		x = xo
 	}
-	if m >= 0 {
-		for _, lg := range b.legs {
-			step(lg, lg.sign)
+	// A collapsed chain stands for its legs while the quality is liquid
+	// and no caller needs them one by one.
+	chained := func(c *chain) bool {
+		if visit != nil || x > 0 {
+			return false
 		}
-		return loss
+		q, first, last := s.chainLiquid(b, c, m, x)
+		if havePrev {
+			q.acc = last - prev
+		} else {
+			q.acc = last - first
+		}
+		prev, havePrev = last, true
+		loss += q.loss()
+		grav += q.grav
+		return true
 	}
+	if m >= 0 {
+		next := 0
+		for i := 0; i < len(b.legs); i++ {
+			if next < len(b.chains) && b.chains[next].from == i {
+				c := &b.chains[next]
+				next++
+				if chained(c) {
+					i = c.to - 1
+					continue
+				}
+			}
+			step(b.legs[i], b.legs[i].sign)
+		}
+		return loss, grav
+	}
+	next := len(b.chains) - 1
 	for i := len(b.legs) - 1; i >= 0; i-- {
+		if next >= 0 && b.chains[next].to-1 == i {
+			c := &b.chains[next]
+			next--
+			if chained(c) {
+				i = c.from
+				continue
+			}
+		}
 		step(b.legs[i], -b.legs[i].sign)
 	}
-	return -loss
+	return -loss, grav
 }
 
 // momentum is the momentum flux G²[x²/(ρv α) + (1−x)²/(ρl (1−α))] of
@@ -175,6 +228,7 @@ func (s *state) momentum(ci int, m, x float64) float64 {
 }
 
 // evaluate fills ev for cycle flows f.
+
 func (s *state) evaluate(f []float64, ev *eval) {
 	s.branchFlows(f, ev)
 	s.mix(ev)
@@ -701,10 +755,7 @@ func (s *state) solveWarm(ev *eval, start []float64, jc *jacobianCache, cold boo
 func (s *state) newton(ev *eval, f []float64, jc *jacobianCache) ([]float64, int, error) {
 	n := s.net
 	nc := len(n.cycles)
-	scale := 1.0
-	for ci := range n.comps {
-		scale = math.Max(scale, math.Abs(s.bDisp[ci])*s.p.RhoL)
-	}
+	scale := math.Max(1, s.maxBDisp*s.p.RhoL)
 	rel := 1e-9
 	if s.looseTol > 0 {
 		rel = s.looseTol
