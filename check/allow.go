@@ -153,6 +153,7 @@ func init() {
 		{"missing-value", "a field without its value", "A field written without a value says nothing.", "length", "Write the value."},
 		{"model-range", "a value far outside what the estimate is built for", "Magnitudes past 1e12 in SI units (a terawatt, a thousand kilometres) overflow the estimate's arithmetic into meaningless numbers; no passive loop comes near them.", "conductance 1e308 W/K", "Check the value and its unit."},
 		{"bad-value", "a value outside its allowed range", "The value cannot be used as given.", "methods { cells 2 }", "Use a value in the range the message gives."},
+		{"bad-table", "a table file that cannot be read as written", "A manoeuvre profile's CSV file names each column with its unit in the header and holds numbers only; a wrong unit or a stray cell would make every instant's attitude or acceleration wrong, so nothing is estimated from it.", "profile \"braking.csv\"   # header: time (s), pitch (m)", "Fix the line and column the message names."},
 		{"duplicate-name", "a name declared twice", "References to the name would be ambiguous.", "node a\nnode a", "Rename one of them."},
 		{"duplicate-nominal", "more than one case marked nominal", "Exactly one case is the nominal one.", "case a nominal { }\ncase b nominal { }", "Mark one case nominal."},
 		{"wrong-kind", "a name of the wrong kind of component", "Heat goes to evaporators, sinks to condensers.", "case c { heat coil 1 kW }   # coil is a condenser", "Name a component of the right kind."},

@@ -93,6 +93,9 @@ var marginRules = []marginRule{
 	{flow.RuleMaldistribution, lang.Warning, "parallel heated branches share the flow unevenly",
 		"Parallel evaporator branches between the same junctions should carry flow in proportion to their heat; where the flow per unit heat differs by more than a factor 2 (circa's choice, common practice), or a branch is statically unstable, the weaker channel runs at higher quality and nearer dryout.",
 		"two evaporators of 3 kW and 2 kW in parallel, rolled 20°", "Balance the branches (equal heights and losses, or restriction in the stronger one), or feed each from its own downcomer."},
+	{flow.RuleManoeuvre, lang.Warning, "a case's profile changes faster than the loop's fluid can follow",
+		"Each instant of a profile is estimated as a steady state, which holds while the attitude and acceleration change slowly against the time the fluid takes round the loop (its inventory over its mass flow). Where the body force changes, within one transit time, by at least 1 % of standard gravity and by half or more of the change of that stretch of the manoeuvre (a step, a ramp shorter than about two transit times), the liquid and vapour lag behind it: the quasi-static estimate no longer holds there, and a transient model or a test is needed.",
+		"row 0 s 0 gn\nrow 0.1 s -0.3 gn   # a hard stop", "Confirm the stretch by a transient model or a test; a slower manoeuvre, where the application allows, stays quasi-static."},
 	{flow.RuleFluidSafety, lang.Info, "the working fluid is flammable or toxic (safety class other than A1)",
 		"Fluids of ASHRAE 34 / ISO 817 classes A2L, A2, A3, B1, B2L, ... carry charge limits, ventilation and detection requirements under local codes.",
 		"fluid R1234yf", "Follow the local codes for the fluid's safety class."},
@@ -174,16 +177,26 @@ func reportEstimate(c *Context, id string) {
 			if f.Rule != id || structural[f.Rule] {
 				continue
 			}
+			if f.Rule == flow.RuleManoeuvre {
+				// Each stretch of a manoeuvre is its own finding.
+				c.Report(diagnostic(c, f, nil))
+				continue
+			}
 			g := groups[f.Component]
 			if g == nil {
 				groups[f.Component] = &group{worst: f}
 				order = append(order, f.Component)
 				continue
 			}
-			if worse(f, g.worst) {
-				g.others = append(g.others, g.worst.Case)
+			// A case's profile repeats its case's findings at other
+			// instants: the case is named once.
+			switch {
+			case worse(f, g.worst):
+				if g.worst.Case != f.Case {
+					g.others = append(g.others, g.worst.Case)
+				}
 				g.worst = f
-			} else {
+			case f.Case != g.worst.Case:
 				g.others = append(g.others, f.Case)
 			}
 		}
@@ -194,6 +207,16 @@ func reportEstimate(c *Context, id string) {
 			c.NoteMargin(Margin{Rule: id, Case: m.Case, Component: m.Component, Used: m.Use,
 				Message: marginText(c, m, cr),
 				Loc:     componentLoc(c.Loop, m.Component)})
+		}
+		if cr.Profile == nil {
+			continue
+		}
+		for _, m := range cr.Profile.Worst {
+			if marginRuleOf[m.Margin] == id {
+				c.NoteMargin(Margin{Rule: id, Case: m.Case, Component: m.Component, Used: m.Use,
+					Message: marginText(c, m, cr) + " at t = " + strconv.FormatFloat(*m.Time, 'g', 4, 64) + " s of its profile",
+					Loc:     componentLoc(c.Loop, m.Component)})
+			}
 		}
 	}
 	if id == flow.RuleCharge {
@@ -277,6 +300,8 @@ func diagnostic(c *Context, f flow.Finding, others []string) lang.Diagnostic {
 		d.Loc = l.DesignPressure.Loc()
 	case f.Rule == flow.RuleCharge && l.Charge.Set:
 		d.Loc = l.Charge.Loc()
+	case f.Rule == flow.RuleManoeuvre && c.Model.Case(f.Case) != nil && c.Model.Case(f.Case).Profile != nil:
+		d.Loc = c.Model.Case(f.Case).Profile.Loc()
 	default:
 		d.Loc = componentLoc(l, f.Component)
 	}

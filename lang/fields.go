@@ -80,6 +80,7 @@ func (r *resolver) fill() {
 		if c.anyBad() {
 			c.Unresolved = true
 		}
+		finishProfile(c)
 	}
 	for _, fs := range r.limStmts {
 		if fs.st.Block == nil {
@@ -151,7 +152,7 @@ var (
 		Condenser:  {"use", "length", "rise", "run", "bore", "flow_area", "hydraulic_diameter", "roughness", "loss", "channels", "conductance", "sink", "outlet", "subcool", "tubes", "coolant_htc"},
 		Reservoir:  {"use", "volume", "rise", "length", "bore"},
 	}
-	CaseFields   = []string{"heat", "sink", "conductance", "pitch", "roll", "yaw", "accel", "saturation"}
+	CaseFields   = []string{"heat", "sink", "conductance", "pitch", "roll", "yaw", "accel", "saturation", "profile", "envelope"}
 	LimitFields  = []string{"exit_quality", "chf_ratio", "flooding", "tilt_margin", "wall_margin", "head_ratio", "saturation_max"}
 	MethodFields = []string{"void_fraction", "friction", "single_phase", "chf", "saturation_state", "condensation", "cells"}
 )
@@ -425,6 +426,14 @@ func kindsWith(field string) string {
 
 func (r *resolver) caseField(c *Case, s *Stmt) {
 	file := c.File
+	switch kw := s.Keyword(); kw {
+	case "profile":
+		r.caseProfile(c, s)
+		return
+	case "envelope":
+		r.caseEnvelope(c, s)
+		return
+	}
 	r.noBlock(file, s)
 	switch kw := s.Keyword(); kw {
 	case "conductance":

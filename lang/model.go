@@ -279,6 +279,10 @@ type Case struct {
 	Yaw          Value
 	Accel        Vec
 	Saturation   Value
+	// Profile gives the attitude and acceleration against time (nil: held).
+	Profile *Profile
+	// Envelope bounds a search for the worst attitude and acceleration.
+	Envelope *Envelope
 	// Unresolved is true when a field could not be resolved; the estimate
 	// skips the case.
 	Unresolved bool

@@ -62,6 +62,8 @@ var wordDocs = map[string]string{
 	"yaw":              "rotation about the vertical (z) axis",
 	"accel":            "steady acceleration of the equipment frame (AX, AY, AZ) UNIT",
 	"case:saturation":  "fix the saturation temperature in this case",
+	"profile":          "attitude and acceleration against time: a block of rows, or a CSV file \"FILE.csv\"",
+	"envelope":         "bounds to search for the worst attitude and acceleration: { pitch LOW HIGH … }",
 	// Limits.
 	"exit_quality":   "highest evaporator exit quality (default 0.5, common practice)",
 	"chf_ratio":      "least ratio of critical to wall heat flux (default 2, common practice)",

@@ -47,9 +47,15 @@ type Sweep struct {
 type point struct {
 	c                *lang.Case
 	grid             bool
+	profile          bool // an instant of the case's profile
 	yaw, pitch, roll float64
 	accel            geom.Vec3
 }
+
+// derived reports whether the point is one of a sweep or a profile rather
+// than the case's own attitude: it gets no tilt search, stability check or
+// override list of its own.
+func (pt point) derived() bool { return pt.grid || pt.profile }
 
 // prepared is what a loop needs for every case.
 type prepared struct {
@@ -108,6 +114,9 @@ func Estimate(m *lang.Model, opts Options) (*Result, error) {
 	for _, l := range m.Loops {
 		res.Loops = append(res.Loops, estimateLoop(m, l, methods, points, opts))
 	}
+	if fastManoeuvre(res.Loops) {
+		res.Cautions = append(res.Cautions, CautionManoeuvre)
+	}
 	return res, nil
 }
 
@@ -144,6 +153,10 @@ func casePoints(cases []*lang.Case, sw *Sweep) []point {
 			continue
 		}
 		points = append(points, pointsOf(c, sw)...)
+		if c.Profile != nil {
+			pts, _ := profilePoints(c)
+			points = append(points, pts...)
+		}
 	}
 	if len(cases) == 0 {
 		points = append(points, point{})
@@ -197,9 +210,10 @@ func estimateLoop(m *lang.Model, l *lang.Loop, methods MethodsUsed, points []poi
 				return nil
 			}
 			var f []float64
-			lr.Cases[i], f = p.run(points[i], !opts.NoTilt && !points[i].grid, start)
+			lr.Cases[i], f = p.run(points[i], !opts.NoTilt && !points[i].derived(), start)
 			return f
 		})
+		lr.Cases = p.gatherProfiles(points, lr.Cases)
 	} else {
 		for i, pt := range points {
 			lr.Cases[i] = CaseResult{Case: caseName(pt.c), Reason: "the loop cannot be estimated (see the loop's findings)"}

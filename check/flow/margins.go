@@ -872,6 +872,15 @@ func worst(cases []CaseResult) []Margin {
 				best[m.Margin] = m
 			}
 		}
+		if c.Profile == nil {
+			continue
+		}
+		for _, m := range c.Profile.Worst {
+			if b, ok := best[m.Margin]; !ok || m.Use > b.Use {
+				m.Point = "t = " + secText(*m.Time) + " s of its profile"
+				best[m.Margin] = m
+			}
+		}
 	}
 	names := make([]string, 0, len(best))
 	for k := range best {

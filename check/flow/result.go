@@ -98,7 +98,10 @@ type CaseResult struct {
 	// Stability holds the static and dynamic stability indicators at the
 	// operating point.
 	Stability *Stability `json:"stability,omitempty"`
-	Findings  []Finding  `json:"findings,omitempty"`
+	// Profile is the case's manoeuvre, each instant estimated as a steady
+	// state, when the case gives one.
+	Profile  *Profile  `json:"profile,omitempty"`
+	Findings []Finding `json:"findings,omitempty"`
 
 	pointCase *lang.Case
 }
@@ -238,6 +241,8 @@ type Margin struct {
 	Unit      string  `json:"unit"`
 	Use       float64 `json:"use"`
 	Status    string  `json:"status"` // "ok", "warning", "error"
+	// Time is the instant of the case's profile the margin comes from, s.
+	Time *float64 `json:"time,omitempty"`
 }
 
 // ChargeRange is the range of fill charge, kg, that raises no charge
@@ -318,6 +323,7 @@ const (
 	RuleGeyser          = "geyser-risk"
 	RuleDensityWave     = "density-wave-risk"
 	RuleMaldistribution = "parallel-maldistribution"
+	RuleManoeuvre       = "manoeuvre-quasi-static"
 )
 
 // Cautions printed with every estimate.

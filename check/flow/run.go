@@ -14,7 +14,7 @@ import (
 func (p *prepared) run(pt point, tilt bool, start []float64) (CaseResult, []float64) {
 	cr := CaseResult{Case: caseName(pt.c), Grid: pt.grid, Yaw: pt.yaw, Pitch: pt.pitch, Roll: pt.roll,
 		Accel: [3]float64(pt.accel), pointCase: pt.c}
-	if !pt.grid {
+	if !pt.derived() {
 		cr.Overrides = overrides(pt.c, p.net.comps)
 	}
 	s, fs := p.newState(pt, &cr)
@@ -88,7 +88,7 @@ func (p *prepared) run(pt point, tilt bool, start []float64) (CaseResult, []floa
 		}
 	}
 	cr.Circulates = cr.MassFlow > 0
-	if cr.Circulates && !pt.grid {
+	if cr.Circulates && !pt.derived() {
 		p.stability(s, ev, &cr)
 	}
 	p.margins(s, &cr, f)

@@ -332,13 +332,9 @@ func (p *csvParser) header(line int, text string) error {
 	unitText := make([]string, cCount)
 	unitCol := make([]int, cCount)
 	for j, f := range fields {
-		name, u := f, ""
-		if k := strings.IndexAny(f, "(["); k >= 0 {
-			closer := map[byte]byte{'(': ')', '[': ']'}[f[k]]
-			if f[len(f)-1] != closer {
-				return &TableError{Line: line, Column: j + 1, Msg: fmt.Sprintf("unit in %q not closed by %q", f, closer)}
-			}
-			name, u = strings.TrimSpace(f[:k]), strings.TrimSpace(f[k+1:len(f)-1])
+		name, u, err := HeaderCell(f)
+		if err != nil {
+			return &TableError{Line: line, Column: j + 1, Msg: err.Error()}
 		}
 		p.names[j] = name
 		c, ok := csvColumnIndex[strings.ToLower(name)]

@@ -89,6 +89,7 @@ func loopText(w io.Writer, l *flow.LoopResult, env Envelopes) {
 			j++
 		}
 		caseText(w, l, &l.Cases[i], env[[2]string{l.Loop, l.Cases[i].Case}])
+		profileText(w, l, &l.Cases[i])
 		if j > i+1 {
 			sweepText(w, l, l.Cases[i].Case, l.Cases[i+1:j])
 		}
@@ -117,7 +118,7 @@ func loopText(w io.Writer, l *flow.LoopResult, env Envelopes) {
 func CaseOf(l *flow.LoopResult, m flow.Margin) *flow.CaseResult {
 	for i := range l.Cases {
 		c := &l.Cases[i]
-		if c.Case != m.Case || c.Grid != (m.Point != "") {
+		if c.Case != m.Case || c.Grid != (m.Point != "" && m.Time == nil) {
 			continue
 		}
 		if !c.Grid || c.PointLabel() == m.Point {

@@ -1,0 +1,281 @@
+package flow
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"strconv"
+
+	"circa/check/geom"
+	"circa/lang"
+)
+
+// Profile is a case's manoeuvre: every instant of its profile estimated as
+// a steady state, the worst instant per margin, and the stretches where
+// the body force changes faster than the loop's fluid can follow.
+type Profile struct {
+	Instants []Instant `json:"instants"`
+	// Worst lists, for each margin, the instant closest to its limit (its
+	// Time set).
+	Worst []Margin `json:"worst"`
+	// Fast lists the changes the quasi-static estimate cannot follow.
+	Fast []FastChange `json:"fast_changes,omitempty"`
+}
+
+// Instant is one row of a profile at its operating point.
+type Instant struct {
+	Time       float64    `json:"time"` // s
+	Yaw        float64    `json:"yaw"`
+	Pitch      float64    `json:"pitch"`
+	Roll       float64    `json:"roll"`
+	Accel      [3]float64 `json:"accel"`
+	BodyForce  [3]float64 `json:"body_force"`
+	Circulates bool       `json:"circulates"`
+	Reason     string     `json:"reason,omitempty"`
+	MassFlow   float64    `json:"mass_flow"`
+	// Transit is the fluid's time round the loop at this instant, s: the
+	// inventory over the loop flow (for a network, over the condensers'
+	// flow); 0 when the loop does not circulate.
+	Transit float64  `json:"transit_time"`
+	Margins []Margin `json:"margins,omitempty"`
+}
+
+// FastChange is a stretch of a profile where, within one transit time of
+// the fluid round the loop, the body force changes by most of what it
+// changes over the whole stretch (a step, a quick turn): the loop cannot
+// follow it in steady states.
+type FastChange struct {
+	From     float64 `json:"from"`     // s, start of the change
+	To       float64 `json:"to"`       // s, its end
+	Change   float64 `json:"change"`   // largest change of body force within one transit time, m/s²
+	Duration float64 `json:"duration"` // To − From, s
+	Transit  float64 `json:"transit_time"`
+}
+
+// manoeuvreNoise is the smallest change of body force a profile's rate
+// check considers: 1 % of standard gravity (about half a degree of tilt),
+// below which a change does not move any margin the estimate reports.
+const manoeuvreNoise = 0.01 * geom.Gn
+
+// CautionManoeuvre is added to an estimate's cautions when a profile
+// changes faster than its loop can follow.
+const CautionManoeuvre = "Where a manoeuvre changes attitude or acceleration within less than the fluid's transit time round the loop, the quasi-static estimate no longer holds: liquid and vapour lag behind the body force, so a transient model or a test is needed there."
+
+// profilePoints returns the distinct attitudes of a case's profile as
+// points, and for each row the index of its point among them.
+func profilePoints(c *lang.Case) ([]point, []int) {
+	pr := c.Profile
+	type key struct{ yaw, pitch, roll, ax, ay, az float64 }
+	at := map[key]int{}
+	var pts []point
+	idx := make([]int, len(pr.Rows))
+	for i, r := range pr.Rows {
+		k := key{r.Yaw, r.Pitch, r.Roll, r.Accel[0], r.Accel[1], r.Accel[2]}
+		j, ok := at[k]
+		if !ok {
+			j = len(pts)
+			at[k] = j
+			pts = append(pts, point{c: c, profile: true, yaw: r.Yaw, pitch: r.Pitch, roll: r.Roll, accel: geom.Vec3(r.Accel)})
+		}
+		idx[i] = j
+	}
+	return pts, idx
+}
+
+// gatherProfiles moves the results of profile points out of the case list
+// into the profiles of their cases.
+func (p *prepared) gatherProfiles(points []point, results []CaseResult) []CaseResult {
+	var out []CaseResult
+	for i := 0; i < len(points); {
+		if points[i].profile {
+			i++ // a profile point without its case (cannot happen)
+			continue
+		}
+		base := results[i]
+		j := i + 1
+		for j < len(points) && points[j].profile && points[j].c == points[i].c {
+			j++
+		}
+		if c := points[i].c; c != nil && c.Profile != nil && j > i+1 {
+			_, idx := profilePoints(c)
+			base.Profile = p.profileResult(&base, c, results[i+1:j], idx)
+		}
+		out = append(out, base)
+		i = j
+	}
+	return out
+}
+
+// profileResult builds a case's profile from the results of its distinct
+// attitudes (idx maps each row to one).
+func (p *prepared) profileResult(base *CaseResult, c *lang.Case, res []CaseResult, idx []int) *Profile {
+	pr := &Profile{Instants: make([]Instant, len(idx))}
+	for i, row := range c.Profile.Rows {
+		r := &res[idx[i]]
+		in := Instant{Time: row.Time, Yaw: r.Yaw, Pitch: r.Pitch, Roll: r.Roll, Accel: r.Accel, BodyForce: r.BodyForce,
+			Circulates: r.Circulates, Reason: r.Reason, MassFlow: r.MassFlow}
+		if r.Circulates {
+			in.Transit = r.Totals.Transit
+			if in.Transit == 0 && r.MassFlow > 0 {
+				in.Transit = r.Totals.Inventory / r.MassFlow
+			}
+		}
+		for _, m := range r.Margins {
+			t := row.Time
+			m.Time = &t
+			in.Margins = append(in.Margins, m)
+		}
+		if in.BodyForce == [3]float64{} {
+			in.BodyForce = [3]float64(geom.BodyForceAt(r.Yaw, r.Pitch, r.Roll, geom.Vec3(r.Accel)))
+		}
+		pr.Instants[i] = in
+	}
+	pr.Worst = worstInstants(pr.Instants)
+	p.instantFindings(base, c, res, idx)
+	pr.Fast = fastChanges(pr.Instants)
+	for _, fc := range pr.Fast {
+		base.Findings = append(base.Findings, p.finding(RuleManoeuvre, "warning", base.Case, "", fc.Transit, fc.Duration, "s", "",
+			"the profile of case %s changes the body force by %s gn between t = %s s and %s s, within less than the fluid's transit time round the loop (%s s): the quasi-static estimate no longer holds there; a transient model or a test is needed",
+			base.Case, strconv.FormatFloat(fc.Change/geom.Gn, 'g', 2, 64), secText(fc.From), secText(fc.To), secText(fc.Transit)))
+	}
+	return pr
+}
+
+// secText writes a time in seconds to three significant figures.
+func secText(t float64) string { return strconv.FormatFloat(t, 'g', 3, 64) }
+
+// worstInstants picks, for each margin, the instant and component closest
+// to its limit (the earliest of equals).
+func worstInstants(ins []Instant) []Margin {
+	best := map[string]Margin{}
+	for _, in := range ins {
+		for _, m := range in.Margins {
+			if b, ok := best[m.Margin]; !ok || m.Use > b.Use {
+				best[m.Margin] = m
+			}
+		}
+	}
+	names := make([]string, 0, len(best))
+	for k := range best {
+		names = append(names, k)
+	}
+	sort.Strings(names)
+	out := make([]Margin, len(names))
+	for i, n := range names {
+		out[i] = best[n]
+	}
+	return out
+}
+
+// instantFindings adds to the case the findings of its profile's instants,
+// one per rule and component (the first instant that has it), naming the
+// instant and how many others share it.
+func (p *prepared) instantFindings(base *CaseResult, c *lang.Case, res []CaseResult, idx []int) {
+	type key struct{ rule, comp string }
+	first := map[key]int{}
+	count := map[key]int{}
+	var order []key
+	var found []Finding
+	for i, row := range c.Profile.Rows {
+		for _, f := range res[idx[i]].Findings {
+			k := key{f.Rule, f.Component}
+			count[k]++
+			if _, ok := first[k]; ok {
+				continue
+			}
+			first[k] = len(found)
+			order = append(order, k)
+			f.Message = fmt.Sprintf("at t = %s s of its profile: %s", secText(row.Time), f.Message)
+			found = append(found, f)
+		}
+	}
+	for _, k := range order {
+		f := found[first[k]]
+		if n := count[k] - 1; n > 0 {
+			word := "instants"
+			if n == 1 {
+				word = "instant"
+			}
+			f.Message += fmt.Sprintf(" (and at %d other %s)", n, word)
+		}
+		base.Findings = append(base.Findings, f)
+	}
+}
+
+// fastChanges finds the stretches of a profile that change faster than the
+// loop can follow. The rows are split into runs over which the body force
+// keeps moving the same way (each step within a right angle of the one
+// before); a run whose body force changes, within one transit time, by at
+// least manoeuvreNoise and by half or more of its whole change is faster
+// than the loop: a step, or a ramp shorter than about two transit times.
+// The transit time is the longest of the run's circulating instants.
+func fastChanges(ins []Instant) []FastChange {
+	b := func(i int) geom.Vec3 { return geom.Vec3(ins[i].BodyForce) }
+	var out []FastChange
+	for s := 0; s+1 < len(ins); {
+		// A run from s to e: the steps s→s+1 … e−1→e point the same way.
+		e := s + 1
+		for e+1 < len(ins) && b(e+1).Sub(b(e)).Dot(b(e).Sub(b(e-1))) > 0 {
+			e++
+		}
+		if fc, ok := fastRun(ins, s, e); ok {
+			out = append(out, fc)
+		}
+		s = e
+	}
+	return out
+}
+
+// fastRun checks one run of a profile, rows s to e.
+func fastRun(ins []Instant, s, e int) (FastChange, bool) {
+	b := func(i int) geom.Vec3 { return geom.Vec3(ins[i].BodyForce) }
+	var tau float64
+	for i := s; i <= e; i++ {
+		tau = math.Max(tau, ins[i].Transit)
+	}
+	whole := 0.0
+	for i := s + 1; i <= e; i++ {
+		whole = math.Max(whole, b(i).Sub(b(s)).Norm())
+	}
+	if !(tau > 0) || whole < manoeuvreNoise {
+		return FastChange{}, false
+	}
+	// The largest change within a window of one transit time starting at a
+	// row, the window's end interpolated between rows.
+	bestD, from, to := 0.0, 0, 0
+	for i := s; i < e; i++ {
+		end := ins[i].Time + tau
+		for j := i + 1; j <= e; j++ {
+			var d float64
+			if ins[j].Time <= end {
+				d = b(j).Sub(b(i)).Norm()
+			} else {
+				f := (end - ins[j-1].Time) / (ins[j].Time - ins[j-1].Time)
+				d = b(j - 1).Add(b(j).Sub(b(j - 1)).Scale(f)).Sub(b(i)).Norm()
+			}
+			if d > bestD {
+				bestD, from, to = d, i, j
+			}
+			if ins[j].Time > end {
+				break
+			}
+		}
+	}
+	if bestD < manoeuvreNoise || bestD < 0.5*whole {
+		return FastChange{}, false
+	}
+	return FastChange{From: ins[from].Time, To: ins[to].Time, Change: bestD, Duration: ins[to].Time - ins[from].Time, Transit: tau}, true
+}
+
+// fastManoeuvre reports whether some case's profile changes faster than its
+// loop can follow.
+func fastManoeuvre(loops []LoopResult) bool {
+	for _, l := range loops {
+		for _, c := range l.Cases {
+			if c.Profile != nil && len(c.Profile.Fast) > 0 {
+				return true
+			}
+		}
+	}
+	return false
+}

@@ -1,0 +1,594 @@
+// Manoeuvres: a case's attitude and acceleration against time (a profile),
+// written as a table in the case or read from a CSV file, and the bounds of
+// a search for the worst combination of attitude and acceleration (an
+// envelope).
+
+package lang
+
+import (
+	"bufio"
+	"bytes"
+	"errors"
+	"fmt"
+	"math"
+	"os"
+	"path/filepath"
+	"strconv"
+	"strings"
+
+	"circa/check/fluid"
+	"circa/units"
+)
+
+// Profile is a manoeuvre: the case's attitude and acceleration at a list of
+// instants, each evaluated as a steady state. A column the profile does not
+// give keeps the case's own value at every instant.
+type Profile struct {
+	File string
+	Span Span // the profile statement's head
+	// Table is the CSV file the rows come from ("" for rows in the case).
+	Table   string
+	Columns []string // the columns given, in ProfileColumns' spelling, time first
+	Rows    []ProfileRow
+}
+
+// Loc returns where the profile was written.
+func (p *Profile) Loc() Location { return Location{File: p.File, Span: p.Span} }
+
+// ProfileRow is one instant of a profile, in SI (s, rad, m/s²).
+type ProfileRow struct {
+	Time             float64
+	Pitch, Roll, Yaw float64
+	Accel            [3]float64
+	Span             Span // the row in the loop file, or the table's path
+	TimeSpan         Span // the row's time as written (the table's path for a CSV row)
+	Line             int  // the row's line in the CSV file (0 for a row in the case)
+}
+
+// Envelope bounds the search for the worst combination of attitude and
+// acceleration of a case. An axis it does not bound keeps the case's own
+// value.
+type Envelope struct {
+	File string
+	Span Span
+	Axes []EnvelopeAxis
+}
+
+// Loc returns where the envelope was written.
+func (e *Envelope) Loc() Location { return Location{File: e.File, Span: e.Span} }
+
+// EnvelopeAxis is one bounded axis of an envelope, SI (rad or m/s²).
+type EnvelopeAxis struct {
+	Name   string // one of EnvelopeAxes
+	Lo, Hi float64
+	Span   Span
+}
+
+// ProfileColumns are the columns of a profile: the time, the attitude and
+// the acceleration's components in the equipment frame.
+var ProfileColumns = []string{"time", "pitch", "roll", "yaw", "accel_x", "accel_y", "accel_z"}
+
+// EnvelopeAxes are the axes an envelope may bound.
+var EnvelopeAxes = []string{"pitch", "roll", "accel_x", "accel_y", "accel_z"}
+
+// ProfileFields and EnvelopeFields are the statements of the two blocks.
+var (
+	ProfileFields  = []string{"columns", "row"}
+	EnvelopeFields = EnvelopeAxes
+)
+
+// MaxProfileRows bounds the instants of one profile: each is a full
+// estimate.
+const MaxProfileRows = 10000
+
+// Angle ranges of an attitude: pitch within a quarter turn either way, roll
+// and yaw within half a turn.
+const (
+	maxPitch = math.Pi / 2
+	maxRoll  = math.Pi
+)
+
+func columnNeed(name string) units.Need {
+	switch name {
+	case "time":
+		return units.Need{Dim: units.Time}
+	case "accel_x", "accel_y", "accel_z":
+		return needAccel
+	}
+	return needAngle
+}
+
+// angleRange returns the largest magnitude an angle column may take (0 for
+// columns that are not angles).
+func angleRange(name string) float64 {
+	switch name {
+	case "pitch":
+		return maxPitch
+	case "roll", "yaw":
+		return maxRoll
+	}
+	return 0
+}
+
+func degText(rad float64) string {
+	return strconv.FormatFloat(rad*180/math.Pi, 'g', 6, 64) + "°"
+}
+
+// set stores a column's SI value in a row.
+func (row *ProfileRow) set(col string, v float64) {
+	switch col {
+	case "time":
+		row.Time = v
+	case "pitch":
+		row.Pitch = v
+	case "roll":
+		row.Roll = v
+	case "yaw":
+		row.Yaw = v
+	case "accel_x":
+		row.Accel[0] = v
+	case "accel_y":
+		row.Accel[1] = v
+	case "accel_z":
+		row.Accel[2] = v
+	}
+}
+
+// caseProfile reads "profile { columns …; row … }" or "profile "FILE.csv"".
+func (r *resolver) caseProfile(c *Case, s *Stmt) {
+	file := c.File
+	if c.Profile != nil {
+		d := r.errorf("duplicate-name", file, s.Word.Span(), "case %s gives a profile twice", c.Name)
+		d.Related = append(d.Related, Related{Loc: c.Profile.Loc(), Message: "first given here"})
+		c.Unresolved = true
+		return
+	}
+	p := &Profile{File: file, Span: s.Span()}
+	var ok bool
+	switch {
+	case len(s.Args) == 0 && s.Block != nil:
+		ok = r.profileBlock(p, s.Block)
+	case len(s.Args) == 1 && s.Block == nil:
+		str, isStr := (*Str)(nil), false
+		if a := singleAtom(s.Args[0].Expr); a != nil && a.Str != nil {
+			str, isStr = a.Str, true
+		}
+		if !isStr {
+			r.shapeError(file, s, "profile takes a block of rows or a quoted CSV file: profile \"braking.csv\"")
+			c.Unresolved = true
+			return
+		}
+		ok = r.profileTable(p, str)
+	default:
+		r.shapeError(file, s, "profile takes a block of rows (profile { columns time pitch; row 0 s 0 deg }) or a quoted CSV file (profile \"braking.csv\"), not both")
+		c.Unresolved = true
+		return
+	}
+	if ok {
+		ok = r.profileTimes(p)
+	}
+	c.Profile = p
+	if !ok {
+		c.Unresolved = true
+	}
+}
+
+// profileBlock reads the columns and rows written in the case.
+func (r *resolver) profileBlock(p *Profile, b *Block) bool {
+	file := p.File
+	ok := true
+	var colsAt *Stmt
+	for _, s := range b.Stmts {
+		if s.Bad {
+			ok = false
+			continue
+		}
+		r.noBlock(file, s)
+		switch s.Keyword() {
+		case "columns":
+			if colsAt != nil {
+				d := r.errorf("duplicate-name", file, s.Word.Span(), "the profile names its columns twice")
+				d.Related = append(d.Related, Related{Loc: Location{File: file, Span: colsAt.Word.Span()}, Message: "first named here"})
+				ok = false
+				continue
+			}
+			colsAt = s
+			if !r.profileColumns(p, s) {
+				return false
+			}
+		case "row":
+			if colsAt == nil {
+				r.errorf("syntax", file, s.Word.Span(), "a profile names its columns before its rows: columns time pitch roll accel_x")
+				return false
+			}
+			if len(p.Rows) == MaxProfileRows {
+				r.errorf("bad-value", file, s.Span(), "a profile holds at most %d rows", MaxProfileRows)
+				return false
+			}
+			if !r.profileRow(p, s) {
+				ok = false
+			}
+		default:
+			r.unknownWord(file, s, ProfileFields, "in a profile")
+			ok = false
+		}
+	}
+	if ok && len(p.Rows) == 0 {
+		r.errorf("missing-value", file, p.Span, "the profile has no rows: add row TIME VALUE… after its columns")
+		ok = false
+	}
+	return ok
+}
+
+// profileColumns reads "columns time pitch roll …".
+func (r *resolver) profileColumns(p *Profile, s *Stmt) bool {
+	file := p.File
+	seen := map[string]Span{}
+	for _, a := range s.Args {
+		id := nameOf(a.Expr)
+		if id == nil || a.Key != "" {
+			r.errorf("syntax", file, a.Span(), "columns lists column names: %s", strings.Join(ProfileColumns, ", "))
+			return false
+		}
+		if indexOf(ProfileColumns, id.Name) < 0 {
+			d := r.errorf("unknown-name", file, id.Span(), "unknown profile column %q (columns: %s)", id.Name, strings.Join(ProfileColumns, ", "))
+			if best := Closest(id.Name, ProfileColumns); best != "" {
+				d.Fixes = append(d.Fixes, Fix{Title: fmt.Sprintf("Change to %s", best), Edits: []Edit{{Loc: Location{File: file, Span: id.Span()}, NewText: best}}})
+			}
+			return false
+		}
+		if prev, dup := seen[id.Name]; dup {
+			d := r.errorf("duplicate-name", file, id.Span(), "column %s is named twice", id.Name)
+			d.Related = append(d.Related, Related{Loc: Location{File: file, Span: prev}, Message: "first named here"})
+			return false
+		}
+		seen[id.Name] = id.Span()
+		p.Columns = append(p.Columns, id.Name)
+	}
+	if _, ok := seen["time"]; !ok {
+		r.errorf("missing-field", file, s.Span(), "a profile needs a time column: columns time %s", strings.Join(p.Columns, " "))
+		return false
+	}
+	return true
+}
+
+// profileRow reads "row 2 s -3 deg …", one value per column.
+func (r *resolver) profileRow(p *Profile, s *Stmt) bool {
+	file := p.File
+	if len(s.Args) != len(p.Columns) || len(s.Args) == 0 {
+		r.errorf("syntax", file, s.Span(), "the row has %d values, but the profile has %d columns (%s)", len(s.Args), len(p.Columns), strings.Join(p.Columns, ", "))
+		return false
+	}
+	row := ProfileRow{Span: s.Span(), TimeSpan: s.Args[0].Span()}
+	ok := true
+	for j, a := range s.Args {
+		col := p.Columns[j]
+		if a.Expr == nil {
+			r.errorf("syntax", file, a.Span(), "%s needs a value", col)
+			ok = false
+			continue
+		}
+		v := r.expr(file, a.Expr, columnNeed(col))
+		if !v.Set {
+			ok = false
+			continue
+		}
+		if lim := angleRange(col); lim > 0 && math.Abs(v.SI) > lim+1e-12 {
+			r.errorf("bad-value", file, v.Span, "%s must lie within ±%s, not %s", col, degText(lim), degText(v.SI))
+			ok = false
+			continue
+		}
+		row.set(col, v.SI)
+	}
+	if ok {
+		p.Rows = append(p.Rows, row)
+	}
+	return ok
+}
+
+// profileTimes checks that the times increase down the profile.
+func (r *resolver) profileTimes(p *Profile) bool {
+	for i := 1; i < len(p.Rows); i++ {
+		a, b := p.Rows[i-1], p.Rows[i]
+		if b.Time > a.Time {
+			continue
+		}
+		what := "out of order: times must increase down the profile"
+		if b.Time == a.Time {
+			what = "given twice"
+		}
+		t := strconv.FormatFloat(b.Time, 'g', -1, 64)
+		if p.Table != "" {
+			r.errorf("bad-value", p.File, b.TimeSpan, "%s line %d: time %s s is %s (line %d has %s s)",
+				filepath.Base(p.Table), b.Line, t, what, a.Line, strconv.FormatFloat(a.Time, 'g', -1, 64))
+		} else {
+			d := r.errorf("bad-value", p.File, b.TimeSpan, "time %s s is %s (the row before has %s s)", t, what, strconv.FormatFloat(a.Time, 'g', -1, 64))
+			d.Related = append(d.Related, Related{Loc: Location{File: p.File, Span: a.Span}, Message: "the row before"})
+		}
+		return false
+	}
+	return true
+}
+
+// profileTable reads the rows of a profile from a CSV file named relative
+// to the loop file.
+func (r *resolver) profileTable(p *Profile, str *Str) bool {
+	path := str.Value()
+	if !filepath.IsAbs(path) {
+		path = filepath.Join(filepath.Dir(p.File), filepath.FromSlash(path))
+	}
+	p.Table = path
+	data, err := r.fs.ReadFile(path)
+	if err != nil {
+		msg := err.Error()
+		var pe *os.PathError
+		if errors.As(err, &pe) {
+			msg = pe.Err.Error()
+		}
+		r.errorf("file-unreadable", p.File, str.Span(), "cannot read profile %s: %s", str.Value(), msg)
+		return false
+	}
+	cols, rows, terr := ReadProfileCSV(data)
+	if terr != nil {
+		terr.File = str.Value()
+		r.errorf("bad-table", p.File, str.Span(), "%s", terr.Error())
+		return false
+	}
+	for i := range rows {
+		rows[i].Span, rows[i].TimeSpan = str.Span(), str.Span()
+	}
+	p.Columns, p.Rows = cols, rows
+	return true
+}
+
+// ReadProfileCSV reads a profile table: comma-separated, '#' comments, a
+// header naming the columns (ProfileColumns) each with its unit in
+// parentheses or brackets, as fluid tables are written:
+//
+//	# braking then a curve
+//	time (s), pitch (deg), accel_x (gn), accel_y (gn)
+//	0, 0, 0, 0
+//	4, -2.3, -0.13, 0
+//
+// Errors are located by line and column.
+func ReadProfileCSV(data []byte) (cols []string, rows []ProfileRow, err *fluid.TableError) {
+	data = bytes.TrimPrefix(data, []byte("\uFEFF"))
+	sc := bufio.NewScanner(bytes.NewReader(data))
+	sc.Buffer(make([]byte, 64*1024), 1<<20)
+	var us []units.Unit
+	line := 0
+	for sc.Scan() {
+		line++
+		text := strings.TrimSpace(sc.Text())
+		if text == "" || strings.HasPrefix(text, "#") {
+			continue
+		}
+		fields := fluid.SplitFields(text)
+		if cols == nil {
+			cols, us, err = profileHeader(line, fields)
+			if err != nil {
+				return nil, nil, err
+			}
+			continue
+		}
+		if len(fields) != len(cols) {
+			return nil, nil, &fluid.TableError{Line: line, Msg: fmt.Sprintf("%d fields, but the header names %d columns", len(fields), len(cols))}
+		}
+		if len(rows) == MaxProfileRows {
+			return nil, nil, &fluid.TableError{Line: line, Msg: fmt.Sprintf("a profile holds at most %d rows", MaxProfileRows)}
+		}
+		row := ProfileRow{Line: line}
+		for j, f := range fields {
+			bad := func(format string, a ...any) *fluid.TableError {
+				return &fluid.TableError{Line: line, Column: j + 1, Name: cols[j], Msg: fmt.Sprintf(format, a...)}
+			}
+			v, perr := strconv.ParseFloat(f, 64)
+			if perr != nil || math.IsNaN(v) || math.IsInf(v, 0) {
+				return nil, nil, bad("not a number %q", f)
+			}
+			si := us[j].ToSI(v)
+			if math.IsNaN(si) || math.IsInf(si, 0) {
+				return nil, nil, bad("value %q out of range", f)
+			}
+			if lim := angleRange(cols[j]); lim > 0 && math.Abs(si) > lim+1e-12 {
+				return nil, nil, bad("%s must lie within ±%s, not %s", cols[j], degText(lim), degText(si))
+			}
+			row.set(cols[j], si)
+		}
+		rows = append(rows, row)
+	}
+	if serr := sc.Err(); serr != nil {
+		return nil, nil, &fluid.TableError{Line: line + 1, Msg: "reading the table: " + serr.Error()}
+	}
+	if cols == nil {
+		return nil, nil, &fluid.TableError{Msg: "no header: the first line names the columns, e.g. \"time (s), pitch (deg), accel_x (gn)\""}
+	}
+	if len(rows) == 0 {
+		return nil, nil, &fluid.TableError{Msg: "the table has no rows"}
+	}
+	return cols, rows, nil
+}
+
+// profileHeader reads a profile table's column names and units.
+func profileHeader(line int, fields []string) ([]string, []units.Unit, *fluid.TableError) {
+	cols := make([]string, len(fields))
+	us := make([]units.Unit, len(fields))
+	seen := map[string]int{}
+	for j, f := range fields {
+		name, u, err := fluid.HeaderCell(f)
+		if err != nil {
+			return nil, nil, &fluid.TableError{Line: line, Column: j + 1, Msg: err.Error()}
+		}
+		name = strings.ToLower(name)
+		if indexOf(ProfileColumns, name) < 0 {
+			msg := fmt.Sprintf("unknown column %q (columns: %s)", name, strings.Join(ProfileColumns, ", "))
+			if best := Closest(name, ProfileColumns); best != "" {
+				msg = fmt.Sprintf("unknown column %q; did you mean %s? (columns: %s)", name, best, strings.Join(ProfileColumns, ", "))
+			}
+			return nil, nil, &fluid.TableError{Line: line, Column: j + 1, Name: name, Msg: msg}
+		}
+		if k, dup := seen[name]; dup {
+			return nil, nil, &fluid.TableError{Line: line, Column: j + 1, Name: name, Msg: fmt.Sprintf("duplicate column: %s is also column %d", name, k)}
+		}
+		seen[name] = j + 1
+		need := columnNeed(name)
+		if u == "" {
+			return nil, nil, &fluid.TableError{Line: line, Column: j + 1, Name: name,
+				Msg: fmt.Sprintf("no unit: write it in parentheses, e.g. %q", name+" ("+exampleProfileUnit(name)+")")}
+		}
+		pu, perr := units.Parse(u)
+		if perr != nil {
+			return nil, nil, &fluid.TableError{Line: line, Column: j + 1, Name: name, Msg: fmt.Sprintf("unit %q: %v", u, perr)}
+		}
+		if pu.Dim != need.Dim {
+			return nil, nil, &fluid.TableError{Line: line, Column: j + 1, Name: name,
+				Msg: fmt.Sprintf("unit %q is not %s, as %s needs", u, units.Name(need.Dim), name)}
+		}
+		cols[j], us[j] = name, pu
+	}
+	if _, ok := seen["time"]; !ok {
+		return nil, nil, &fluid.TableError{Line: line, Msg: "missing column time"}
+	}
+	return cols, us, nil
+}
+
+func exampleProfileUnit(col string) string {
+	switch col {
+	case "time":
+		return "s"
+	case "accel_x", "accel_y", "accel_z":
+		return "gn"
+	}
+	return "deg"
+}
+
+// finishProfile gives every row the case's own value in the columns the
+// profile leaves out.
+func finishProfile(c *Case) {
+	p := c.Profile
+	if p == nil {
+		return
+	}
+	has := map[string]bool{}
+	for _, col := range p.Columns {
+		has[col] = true
+	}
+	own := ProfileRow{Pitch: c.Pitch.SI, Roll: c.Roll.SI, Yaw: c.Yaw.SI, Accel: [3]float64{c.Accel.X, c.Accel.Y, c.Accel.Z}}
+	for i := range p.Rows {
+		row := &p.Rows[i]
+		for _, col := range ProfileColumns[1:] {
+			if has[col] {
+				continue
+			}
+			switch col {
+			case "pitch":
+				row.Pitch = own.Pitch
+			case "roll":
+				row.Roll = own.Roll
+			case "yaw":
+				row.Yaw = own.Yaw
+			case "accel_x":
+				row.Accel[0] = own.Accel[0]
+			case "accel_y":
+				row.Accel[1] = own.Accel[1]
+			case "accel_z":
+				row.Accel[2] = own.Accel[2]
+			}
+		}
+	}
+}
+
+// caseEnvelope reads "envelope { pitch -8 deg 8 deg; accel_y 0.2 gn … }":
+// each axis between two bounds, or within ± one value.
+func (r *resolver) caseEnvelope(c *Case, s *Stmt) {
+	file := c.File
+	if c.Envelope != nil {
+		d := r.errorf("duplicate-name", file, s.Word.Span(), "case %s gives an envelope twice", c.Name)
+		d.Related = append(d.Related, Related{Loc: c.Envelope.Loc(), Message: "first given here"})
+		c.Unresolved = true
+		return
+	}
+	if len(s.Args) != 0 || s.Block == nil {
+		r.shapeError(file, s, "envelope takes a block of bounds: envelope { pitch -8 deg 8 deg; accel_y 0.2 gn }")
+		c.Unresolved = true
+		return
+	}
+	e := &Envelope{File: file, Span: s.Span()}
+	ok := true
+	seen := map[string]Span{}
+	for _, st := range s.Block.Stmts {
+		if st.Bad {
+			ok = false
+			continue
+		}
+		r.noBlock(file, st)
+		name := st.Keyword()
+		if indexOf(EnvelopeAxes, name) < 0 {
+			r.unknownWord(file, st, EnvelopeFields, "in an envelope")
+			ok = false
+			continue
+		}
+		if prev, dup := seen[name]; dup {
+			d := r.errorf("duplicate-name", file, st.Word.Span(), "the envelope bounds %s twice", name)
+			d.Related = append(d.Related, Related{Loc: Location{File: file, Span: prev}, Message: "first bounded here"})
+			ok = false
+			continue
+		}
+		seen[name] = st.Word.Span()
+		ax, good := r.envelopeAxis(file, st)
+		if !good {
+			ok = false
+			continue
+		}
+		e.Axes = append(e.Axes, ax)
+	}
+	if ok && len(e.Axes) == 0 {
+		r.errorf("missing-value", file, s.Span(), "the envelope bounds no axis: give %s", strings.Join(EnvelopeAxes, ", "))
+		ok = false
+	}
+	c.Envelope = e
+	if !ok {
+		c.Unresolved = true
+	}
+}
+
+// envelopeAxis reads "AXIS LOW HIGH" or "AXIS HALF" (from −HALF to +HALF).
+func (r *resolver) envelopeAxis(file string, st *Stmt) (EnvelopeAxis, bool) {
+	name := st.Keyword()
+	need := columnNeed(name)
+	ax := EnvelopeAxis{Name: name, Span: st.Span()}
+	if (len(st.Args) != 1 && len(st.Args) != 2) || st.Args[0].Expr == nil || st.Args[len(st.Args)-1].Expr == nil {
+		r.shapeError(file, st, "%s takes its low and high bounds (%s -8 deg 8 deg) or one half-range (%s 8 deg)", name, name, name)
+		return ax, false
+	}
+	lo := r.expr(file, st.Args[0].Expr, need)
+	hi := lo
+	if len(st.Args) == 2 {
+		hi = r.expr(file, st.Args[1].Expr, need)
+	}
+	if !lo.Set || !hi.Set {
+		return ax, false
+	}
+	if len(st.Args) == 1 {
+		if lo.SI < 0 {
+			r.errorf("bad-value", file, lo.Span, "a half-range must be zero or more: write both bounds to give a range on one side (%s -8 deg 0 deg)", name)
+			return ax, false
+		}
+		ax.Lo, ax.Hi = -lo.SI, lo.SI
+	} else {
+		ax.Lo, ax.Hi = lo.SI, hi.SI
+		if ax.Lo > ax.Hi {
+			r.errorf("bad-value", file, hi.Span, "the high bound of %s is below its low bound: write the low bound first", name)
+			return ax, false
+		}
+	}
+	if lim := angleRange(name); lim > 0 {
+		for _, v := range []Value{lo, hi} {
+			if math.Abs(v.SI) > lim+1e-12 {
+				r.errorf("bad-value", file, v.Span, "%s must lie within ±%s, not %s", name, degText(lim), degText(v.SI))
+				return ax, false
+			}
+		}
+	}
+	return ax, true
+}

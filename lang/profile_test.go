@@ -1,0 +1,200 @@
+package lang
+
+import (
+	"math"
+	"strings"
+	"testing"
+)
+
+const profileLoop = `loop l {
+  fluid R134a
+}
+case drive {
+  pitch 1 deg
+  accel (0, 0, 0.1) gn
+  profile {
+    columns time pitch accel_x
+    row 0 s 0 deg 0 gn
+    row 2.5 s -2.3 deg -0.13 gn
+    row 3 min 90 deg 1 m/s2
+  }
+}
+`
+
+func TestProfileRows(t *testing.T) {
+	m := LoadSource("p.loop", []byte(profileLoop), memFS{})
+	for _, d := range m.Diags {
+		t.Errorf("unexpected finding %s: %s", d.Rule, d.Message())
+	}
+	c := m.Case("drive")
+	if c == nil || c.Profile == nil || c.Unresolved {
+		t.Fatalf("case drive has no usable profile: %+v", c)
+	}
+	p := c.Profile
+	if got := strings.Join(p.Columns, " "); got != "time pitch accel_x" {
+		t.Errorf("columns %q", got)
+	}
+	if len(p.Rows) != 3 {
+		t.Fatalf("%d rows, want 3", len(p.Rows))
+	}
+	// 1 gn = 9.80665 m/s² exactly (CGPM 1901); 3 min = 180 s.
+	r := p.Rows[1]
+	if r.Time != 2.5 || math.Abs(r.Pitch+2.3*math.Pi/180) > 1e-15 || math.Abs(r.Accel[0]+0.13*9.80665) > 1e-12 {
+		t.Errorf("row 1 = %+v", r)
+	}
+	if p.Rows[2].Time != 180 || p.Rows[2].Accel[0] != 1 {
+		t.Errorf("row 2 = %+v", p.Rows[2])
+	}
+	// The columns the profile leaves out keep the case's own values.
+	for _, r := range p.Rows {
+		if r.Roll != 0 || math.Abs(r.Accel[2]-0.1*9.80665) > 1e-12 {
+			t.Errorf("row at %g s: roll %g, accel_z %g; want the case's 0 and 0.1 gn", r.Time, r.Roll, r.Accel[2])
+		}
+	}
+}
+
+// profileFinding loads a case whose profile block is body and returns the
+// one finding it gives, with the text it points at.
+func profileFinding(t *testing.T, body string, fs memFS) (Diagnostic, string) {
+	t.Helper()
+	src := "loop l {\n  fluid R134a\n}\ncase c {\n" + body + "\n}\n"
+	m := LoadSource("p.loop", []byte(src), fs)
+	if len(m.Diags) != 1 {
+		for _, d := range m.Diags {
+			t.Logf("%s: %s", d.Rule, d.Message())
+		}
+		t.Fatalf("%d findings, want 1, for\n%s", len(m.Diags), body)
+	}
+	if c := m.Case("c"); c == nil || !c.Unresolved {
+		t.Errorf("a case with a bad profile must be left out of the estimate")
+	}
+	d := m.Diags[0]
+	return d, src[d.Loc.Span.Start:d.Loc.Span.End]
+}
+
+func TestProfileFindings(t *testing.T) {
+	for _, tc := range []struct {
+		name, body, rule, at, msg string
+	}{
+		{"out of order", "profile {\n columns time pitch\n row 0 s 0 deg\n row 5 s 1 deg\n row 4 s 2 deg\n}", "bad-value", "4 s", "out of order"},
+		{"duplicate time", "profile {\n columns time pitch\n row 0 s 0 deg\n row 0 s 1 deg\n}", "bad-value", "0 s", "given twice"},
+		{"pitch range", "profile {\n columns time pitch\n row 0 s 91 deg\n}", "bad-value", "91 deg", "within ±90°"},
+		{"roll range", "profile {\n columns time roll\n row 0 s -3.2 rad\n}", "bad-value", "-3.2 rad", "within ±180°"},
+		{"wrong unit", "profile {\n columns time accel_y\n row 0 s 0.2 deg\n}", "unit", "0.2 deg", "acceleration"},
+		{"time unit", "profile {\n columns time pitch\n row 0 m 0 deg\n}", "unit", "0 m", "time"},
+		{"unknown column", "profile {\n columns time ptich\n row 0 s 0 deg\n}", "unknown-name", "ptich", "ptich"},
+		{"no time", "profile {\n columns pitch\n row 0 deg\n}", "missing-field", "columns pitch", "time column"},
+		{"short row", "profile {\n columns time pitch roll\n row 0 s 0 deg\n}", "syntax", "row 0 s 0 deg", "2 values"},
+		{"rows first", "profile {\n row 0 s\n columns time\n}", "syntax", "row", "columns before"},
+		{"no rows", "profile {\n columns time pitch\n}", "missing-value", "profile", "no rows"},
+		{"duplicate column", "profile {\n columns time pitch pitch\n row 0 s 0 deg 0 deg\n}", "duplicate-name", "pitch", "twice"},
+		{"twice", "profile {\n columns time\n row 0 s\n}\nprofile {\n columns time\n row 0 s\n}", "duplicate-name", "profile", "twice"},
+		{"not a path", "profile 3 s", "syntax", "profile 3 s", "CSV"},
+		{"unknown statement", "profile {\n columns time\n rows 0 s\n}", "unknown-field", "rows", "row"},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			d, at := profileFinding(t, tc.body, memFS{})
+			if d.Rule != tc.rule || at != tc.at || !strings.Contains(d.Message(), tc.msg) {
+				t.Errorf("got %s at %q: %s\nwant %s at %q containing %q", d.Rule, at, d.Message(), tc.rule, tc.at, tc.msg)
+			}
+		})
+	}
+}
+
+func TestProfileCSV(t *testing.T) {
+	good := "# braking then a curve\ntime (s), pitch [deg], accel_x (gn), accel_y (m/s2)\n0, 0, 0, 0\n4, -2.3, -0.13, 1.2\n"
+	m := LoadSource("dir/p.loop", []byte("loop l {\n  fluid R134a\n}\ncase c {\n  roll 2 deg\n  profile \"m/brake.csv\"\n}\n"),
+		memFS{"dir/m/brake.csv": []byte(good)})
+	if len(m.Diags) != 0 {
+		t.Fatalf("findings: %v", m.Diags)
+	}
+	p := m.Case("c").Profile
+	if p.Table != "dir/m/brake.csv" || len(p.Rows) != 2 || p.Rows[1].Line != 4 {
+		t.Fatalf("profile %+v", p)
+	}
+	r := p.Rows[1]
+	if r.Time != 4 || math.Abs(r.Accel[0]+0.13*9.80665) > 1e-12 || r.Accel[1] != 1.2 || math.Abs(r.Roll-2*math.Pi/180) > 1e-15 {
+		t.Errorf("row %+v", r)
+	}
+
+	for _, tc := range []struct{ name, csv, msg string }{
+		{"wrong unit", "time (s), pitch (m)\n0, 1\n", `brake.csv: line 1, column 2 (pitch): unit "m" is not an angle`},
+		{"no unit", "time (s), accel_y\n0, 1\n", `line 1, column 2 (accel_y): no unit`},
+		{"time unit", "time (kg), pitch (deg)\n0, 1\n", `line 1, column 1 (time): unit "kg" is not a time`},
+		{"unknown unit", "time (s), pitch (degs)\n0, 1\n", `line 1, column 2 (pitch): unit "degs"`},
+		{"unclosed unit", "time (s, pitch (deg)\n0, 1\n", `line 1, column 1: unit in "time (s" not closed`},
+		{"not a number", "time (s), pitch (deg)\n0, 1\n1, abc\n", `line 3, column 2 (pitch): not a number "abc"`},
+		{"field count", "time (s), pitch (deg)\n0, 1, 2\n", `line 2: 3 fields`},
+		{"angle range", "time (s), roll (deg)\n0, 181\n", `line 2, column 2 (roll): roll must lie within ±180°`},
+		{"order", "time (s), roll (deg)\n0, 1\n2, 1\n1, 1\n", `brake.csv line 4: time 1 s is out of order`},
+		{"duplicate", "time (min), roll (deg)\n0, 1\n0, 1\n", `line 3: time 0 s is given twice`},
+		{"no time", "pitch (deg)\n1\n", `missing column time`},
+		{"unknown column", "time (s), rol (deg)\n0, 1\n", `did you mean roll?`},
+		{"empty", "# nothing\n", `no header`},
+		{"no rows", "time (s)\n", `no rows`},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			d, at := profileFinding(t, "  profile \"m/brake.csv\"", memFS{"m/brake.csv": []byte(tc.csv)})
+			if at != `"m/brake.csv"` || !strings.Contains(d.Message(), tc.msg) {
+				t.Errorf("got %s at %s: %s\nwant at the path, containing %q", d.Rule, at, d.Message(), tc.msg)
+			}
+		})
+	}
+	d, at := profileFinding(t, "  profile \"none.csv\"", memFS{})
+	if d.Rule != "file-unreadable" || at != `"none.csv"` {
+		t.Errorf("missing file: %s at %s: %s", d.Rule, at, d.Message())
+	}
+}
+
+func TestEnvelope(t *testing.T) {
+	m := LoadSource("p.loop", []byte("loop l {\n  fluid R134a\n}\ncase c {\n  envelope {\n    pitch -8 deg 4 deg\n    accel_y 0.2 gn\n  }\n}\n"), memFS{})
+	if len(m.Diags) != 0 {
+		t.Fatalf("findings: %v", m.Diags)
+	}
+	e := m.Case("c").Envelope
+	if e == nil || len(e.Axes) != 2 {
+		t.Fatalf("envelope %+v", e)
+	}
+	if a := e.Axes[0]; a.Name != "pitch" || math.Abs(a.Lo+8*math.Pi/180) > 1e-15 || math.Abs(a.Hi-4*math.Pi/180) > 1e-15 {
+		t.Errorf("pitch axis %+v", a)
+	}
+	if a := e.Axes[1]; a.Name != "accel_y" || math.Abs(a.Lo+0.2*9.80665) > 1e-12 || a.Hi != -a.Lo {
+		t.Errorf("accel_y axis %+v", a)
+	}
+	for _, tc := range []struct{ name, body, rule, at, msg string }{
+		{"order", "envelope {\n pitch 4 deg -8 deg\n}", "bad-value", "-8 deg", "below its low bound"},
+		{"range", "envelope {\n pitch 100 deg\n}", "bad-value", "100 deg", "within ±90°"},
+		{"negative half", "envelope {\n roll -5 deg\n}", "bad-value", "-5 deg", "half-range"},
+		{"unit", "envelope {\n accel_x 5 deg\n}", "unit", "5 deg", "acceleration"},
+		{"unknown axis", "envelope {\n yaw 5 deg\n}", "unknown-field", "yaw", "in an envelope"},
+		{"twice", "envelope {\n roll 5 deg\n roll 6 deg\n}", "duplicate-name", "roll", "twice"},
+		{"empty", "envelope {\n}", "missing-value", "envelope", "no axis"},
+		{"no block", "envelope 5 deg", "syntax", "envelope 5 deg", "block of bounds"},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			d, at := profileFinding(t, tc.body, memFS{})
+			if d.Rule != tc.rule || at != tc.at || !strings.Contains(d.Message(), tc.msg) {
+				t.Errorf("got %s at %q: %s\nwant %s at %q containing %q", d.Rule, at, d.Message(), tc.rule, tc.at, tc.msg)
+			}
+		})
+	}
+}
+
+// FuzzProfileCSV checks that reading any table never panics and that every
+// error names a line within the text.
+func FuzzProfileCSV(f *testing.F) {
+	f.Add([]byte("time (s), pitch (deg)\n0, 1\n2, 3\n"))
+	f.Add([]byte("\uFEFF# c\ntime [min], accel_y (gn), roll (rad)\n0,0,0\n1,\"0.1\",3.2\n"))
+	f.Fuzz(func(t *testing.T, data []byte) {
+		cols, rows, err := ReadProfileCSV(data)
+		if err != nil {
+			if err.Line > strings.Count(string(data), "\n")+1 {
+				t.Fatalf("error at line %d past the text: %v", err.Line, err)
+			}
+			return
+		}
+		if len(cols) == 0 || len(rows) == 0 {
+			t.Fatalf("no error and nothing read")
+		}
+	})
+}
