@@ -31,8 +31,8 @@ func qs(si float64, unit string) string {
 // qAs formats an SI value in the unit a value was written in, falling back
 // to unit (for defaults, or units that do not parse alone).
 func qAs(si float64, v lang.Value, unit string) string {
-	if v.Unit != "" {
-		if u, err := units.Parse(v.Unit); err == nil && u.Text != "" {
+	if v.Unit() != "" {
+		if u, err := units.Parse(v.Unit()); err == nil && u.Text != "" {
 			return units.Format(si, u)
 		}
 	}
@@ -50,7 +50,7 @@ func degrees(rad float64) string {
 
 // valueLoc is where a value was written, else fallback.
 func valueLoc(v lang.Value, fallback lang.Location) lang.Location {
-	if v.Set && v.File != "" {
+	if v.Set && v.File() != "" {
 		return v.Loc()
 	}
 	return fallback
@@ -104,8 +104,8 @@ func insertBeforeClose(m *lang.Model, d lang.Decl, indent, stmt string) (lang.Ed
 // value was written in (as written), else in unit.
 func sigAs(si float64, v lang.Value, unit string) string {
 	text := unit
-	if v.Unit != "" {
-		text = v.Unit
+	if v.Unit() != "" {
+		text = v.Unit()
 	}
 	u, err := units.Parse(text)
 	if err != nil {

@@ -338,13 +338,13 @@ func riseMisclosure(c *Context) {
 				dir = "rise, walked against the flow"
 			}
 			loc := compLoc(sc)
-			if sc.Rise.Set && sc.Rise.File != "" {
+			if sc.Rise.Set && sc.Rise.File() != "" {
 				loc = sc.Rise.Loc()
 			}
 			rel = append(rel, lang.Related{Loc: loc, Message: fmt.Sprintf("%s %s: %s %s (from %s)", sc.Kind, sc.Name, dir, qs(float64(s.Sign)*lay.Disp[s.Comp][2], "m"), where(sc, lay.Source[s.Comp]))})
 		}
 		loc := compLoc(first)
-		if first.Rise.Set && first.Rise.File != "" {
+		if first.Rise.Set && first.Rise.File() != "" {
 			loc = first.Rise.Loc()
 		}
 		d := c.Reportf(loc, "rises around the circuit %s do not close: they sum to %s (tolerance %s)",
@@ -401,7 +401,7 @@ func runMisclosure(c *Context) {
 				dir = "horizontal run, walked against the flow"
 			}
 			loc := compLoc(sc)
-			if sc.Run.Set && sc.Run.File != "" {
+			if sc.Run.Set && sc.Run.File() != "" {
 				loc = sc.Run.Loc()
 			}
 			rel = append(rel, lang.Related{Loc: loc, Message: fmt.Sprintf("%s %s: %s (%s, %s) (from %s)", sc.Kind, sc.Name, dir,
@@ -409,7 +409,7 @@ func runMisclosure(c *Context) {
 		}
 		first := l.Components[at]
 		loc := compLoc(first)
-		if first.Run.Set && first.Run.File != "" {
+		if first.Run.Set && first.Run.File() != "" {
 			loc = first.Run.Loc()
 		}
 		d := c.Reportf(loc, "horizontal runs around the circuit %s do not close: they sum to (%s, %s), %s off (tolerance %s)",

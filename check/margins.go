@@ -284,7 +284,7 @@ func diagnostic(c *Context, f flow.Finding, others []string) lang.Diagnostic {
 	case f.Rule == flow.RuleFluidRange || f.Rule == flow.RuleNearCritical:
 		// The cause is the value that sets the saturation temperature.
 		d.Loc = l.Fluid.Loc()
-		if v, what := saturationSource(c.Model, l, c.Model.Case(f.Case)); v.Set && v.File != "" {
+		if v, what := saturationSource(c.Model, l, c.Model.Case(f.Case)); v.Set && v.File() != "" {
 			d.Loc = v.Loc()
 			d.Related = append(d.Related, lang.Related{Loc: l.Fluid.Loc(), Message: "the fluid " + l.Fluid.Name})
 			if f.Rule == flow.RuleFluidRange {
@@ -310,7 +310,7 @@ func diagnostic(c *Context, f flow.Finding, others []string) lang.Diagnostic {
 			d.Related = append(d.Related, lang.Related{Loc: cs.NameLoc(), Message: "case " + cs.Name})
 		}
 	}
-	if v, ok := limitValue(c.Model, l, f); ok && v.Set && v.File != "" {
+	if v, ok := limitValue(c.Model, l, f); ok && v.Set && v.File() != "" {
 		d.Related = append(d.Related, lang.Related{Loc: v.Loc(), Message: "the limit " + f.LimitField})
 	}
 	return d
@@ -440,7 +440,7 @@ func saturationSource(m *lang.Model, l *lang.Loop, cs *lang.Case) (lang.Value, s
 // and the same number in the other temperature scale is inside the fluid's
 // range (sink 35 K for 35 °C), with the fix.
 func meantHint(d *lang.Diagnostic, v lang.Value, what string, f flow.Finding) {
-	u, err := units.Parse(v.Unit)
+	u, err := units.Parse(v.Unit())
 	if err != nil || u.Dim != units.Temperature {
 		return
 	}
@@ -462,7 +462,7 @@ func meantHint(d *lang.Diagnostic, v lang.Value, what string, f flow.Finding) {
 		return
 	}
 	num := strconv.FormatFloat(n, 'g', -1, 64)
-	d.Args = []any{fmt.Sprintf("%s; %s %s %s is probably meant as %s %s", d.Args[0], what, num, v.Unit, num, alt)}
+	d.Args = []any{fmt.Sprintf("%s; %s %s %s is probably meant as %s %s", d.Args[0], what, num, v.Unit(), num, alt)}
 	d.Fixes = append(d.Fixes, lang.Fix{Title: fmt.Sprintf("Write %s %s", num, alt),
 		Edits: []lang.Edit{{Loc: v.Loc(), NewText: num + " " + alt}}})
 }

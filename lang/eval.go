@@ -21,7 +21,7 @@ func (r *resolver) qty(file string, s *Stmt, need units.Need) Value {
 		} else {
 			r.shapeError(file, s, "%s takes one value (%s); write a negative value after a space as -2, or put an expression in parentheses", s.Keyword(), needNoun(need))
 		}
-		return Value{Bad: true, File: file, Span: s.Span()}
+		return r.atV(Value{Bad: true}, file, s.Span(), "")
 	}
 	return r.expr(file, s.Args[0].Expr, need)
 }
@@ -43,19 +43,19 @@ func (r *resolver) expr(file string, e *Expr, need units.Need) Value {
 	}
 	q, unitText, ok := r.eval(file, e)
 	if !ok {
-		return Value{Bad: true, File: file, Span: e.Span()}
+		return r.atV(Value{Bad: true}, file, e.Span(), "")
 	}
 	if err := units.Check(q, unitText, need); err != nil {
 		d := r.errorf("unit", file, e.Span(), "%s", err.Error())
 		r.unitFix(d, file, e, q, need)
-		return Value{Bad: true, File: file, Span: e.Span()}
+		return r.atV(Value{Bad: true}, file, e.Span(), "")
 	}
 	if math.Abs(q.SI) > ModelRange || math.IsNaN(q.SI) {
 		r.errorf("model-range", file, e.Span(), "%s is out of the model's range: the estimate works with values below 1e12 in SI units (here %s)",
 			src(r.m.Files[file], e.Span()), strconv.FormatFloat(q.SI, 'g', 4, 64))
-		return Value{Bad: true, File: file, Span: e.Span()}
+		return r.atV(Value{Bad: true}, file, e.Span(), "")
 	}
-	return Value{SI: q.SI, Set: true, File: file, Span: e.Span(), Unit: unitText}
+	return r.atV(Value{SI: q.SI, Set: true}, file, e.Span(), unitText)
 }
 
 // ModelRange bounds the magnitude, in SI units, of every value a field
@@ -90,7 +90,7 @@ func (r *resolver) unitFix(d *Diagnostic, file string, e *Expr, q units.Quantity
 func (r *resolver) vectorField(file string, s *Stmt, need units.Need) Vec {
 	if len(s.Args) != 1 || s.Args[0].Expr == nil {
 		r.shapeError(file, s, "%s takes one vector: %s (X, Y, Z) UNIT", s.Keyword(), s.Keyword())
-		return Vec{Bad: true, File: file, Span: s.Span()}
+		return r.atVec(Vec{Bad: true}, file, s.Span(), "")
 	}
 	return r.vector(file, s.Args[0].Expr, need)
 }
@@ -102,17 +102,17 @@ func (r *resolver) vector(file string, e *Expr, need units.Need) Vec {
 	if a == nil || len(a.Group) != 3 {
 		if id := notDecimalExpr(e); id != nil {
 			r.errorf("syntax", file, id.Span(), notDecimalMsg, id.Name)
-			return Vec{Bad: true, File: file, Span: e.Span()}
+			return r.atVec(Vec{Bad: true}, file, e.Span(), "")
 		}
 		r.errorf("syntax", file, e.Span(), "expected a vector of three components: (X, Y, Z) UNIT")
-		return Vec{Bad: true, File: file, Span: e.Span()}
+		return r.atVec(Vec{Bad: true}, file, e.Span(), "")
 	}
 	var unit *units.Unit
 	unitText := ""
 	if a.Unit != nil {
 		u, ok := r.unit(file, a.Unit)
 		if !ok {
-			return Vec{Bad: true, File: file, Span: e.Span()}
+			return r.atVec(Vec{Bad: true}, file, e.Span(), "")
 		}
 		unit, unitText = &u, a.Unit.Text
 	}
@@ -120,7 +120,7 @@ func (r *resolver) vector(file string, e *Expr, need units.Need) Vec {
 	for i, el := range a.Group {
 		q, ut, ok := r.eval(file, el)
 		if !ok {
-			return Vec{Bad: true, File: file, Span: e.Span()}
+			return r.atVec(Vec{Bad: true}, file, e.Span(), "")
 		}
 		if unit != nil && q.Dim.IsZero() {
 			q = unit.Quantity(q.SI)
@@ -131,11 +131,11 @@ func (r *resolver) vector(file string, e *Expr, need units.Need) Vec {
 		}
 		if err := units.Check(q, ut, need); err != nil {
 			r.errorf("unit", file, el.Span(), "%s", err.Error())
-			return Vec{Bad: true, File: file, Span: e.Span()}
+			return r.atVec(Vec{Bad: true}, file, e.Span(), "")
 		}
 		xyz[i] = q.SI
 	}
-	return Vec{X: xyz[0], Y: xyz[1], Z: xyz[2], Set: true, File: file, Span: e.Span(), Unit: unitText}
+	return r.atVec(Vec{X: xyz[0], Y: xyz[1], Z: xyz[2], Set: true}, file, e.Span(), unitText)
 }
 
 func (r *resolver) unit(file string, t *UnitTok) (units.Unit, bool) {
@@ -360,7 +360,7 @@ func (r *resolver) param(name string) (units.Quantity, bool) {
 	}
 	ps.state, ps.q, ps.ok = 2, q, ok
 	if ok {
-		ps.p.Value = Value{SI: q.SI, Set: true, File: ps.p.File, Span: ps.p.Expr.Span(), Unit: ut}
+		ps.p.Value = r.atV(Value{SI: q.SI, Set: true}, ps.p.File, ps.p.Expr.Span(), ut)
 	}
 	return q, ok
 }

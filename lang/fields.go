@@ -294,14 +294,14 @@ func (r *resolver) conflicts(c *Component) {
 		spanB  Span
 		fileB  string
 	}{
-		{"rise", "run", c.Rise.Set, c.Run.Set, c.Run.Span, c.Run.File},
-		{"bore", "flow_area", c.Bore.Set, c.FlowArea.Set, c.FlowArea.Span, c.FlowArea.File},
-		{"bore", "hydraulic_diameter", c.Bore.Set, c.HydDiameter.Set, c.HydDiameter.Span, c.HydDiameter.File},
-		{"wetted_area", "heat_flux", c.WettedArea.Set, c.HeatFlux.Set, c.HeatFlux.Span, c.HeatFlux.File},
-		{"conductance", "outlet", c.Conductance.Set, c.Outlet.Set, c.Outlet.Span, c.Outlet.File},
-		{"conductance", "coolant_htc", c.Conductance.Set, c.CoolantHTC.Set, c.CoolantHTC.Span, c.CoolantHTC.File},
-		{"conductance", "tubes", c.Conductance.Set, c.Tubes.Set, c.Tubes.Span, c.Tubes.File},
-		{"channels", "tubes", c.Channels.Set, c.Tubes.Set, c.Tubes.Span, c.Tubes.File},
+		{"rise", "run", c.Rise.Set, c.Run.Set, c.Run.Span(), c.Run.File()},
+		{"bore", "flow_area", c.Bore.Set, c.FlowArea.Set, c.FlowArea.Span(), c.FlowArea.File()},
+		{"bore", "hydraulic_diameter", c.Bore.Set, c.HydDiameter.Set, c.HydDiameter.Span(), c.HydDiameter.File()},
+		{"wetted_area", "heat_flux", c.WettedArea.Set, c.HeatFlux.Set, c.HeatFlux.Span(), c.HeatFlux.File()},
+		{"conductance", "outlet", c.Conductance.Set, c.Outlet.Set, c.Outlet.Span(), c.Outlet.File()},
+		{"conductance", "coolant_htc", c.Conductance.Set, c.CoolantHTC.Set, c.CoolantHTC.Span(), c.CoolantHTC.File()},
+		{"conductance", "tubes", c.Conductance.Set, c.Tubes.Set, c.Tubes.Span(), c.Tubes.File()},
+		{"channels", "tubes", c.Channels.Set, c.Tubes.Set, c.Tubes.Span(), c.Tubes.File()},
 	}
 	for _, p := range pairs {
 		if p.va && p.vb {
@@ -394,16 +394,16 @@ func (r *resolver) componentField(c *Component, file string, s *Stmt) {
 	v := r.qty(file, s, FieldNeeds[kw])
 	if (kw == "tubes" || kw == "channels") && v.Set && !(v.SI >= 1 && v.SI <= MaxChannels && v.SI == math.Floor(v.SI)) {
 		if v.SI > MaxChannels {
-			r.errorf("bad-value", file, v.Span, "%s must be at most %s, not %s", kw, strconv.FormatFloat(MaxChannels, 'f', -1, 64), strconv.FormatFloat(v.SI, 'g', -1, 64))
+			r.errorf("bad-value", file, v.Span(), "%s must be at most %s, not %s", kw, strconv.FormatFloat(MaxChannels, 'f', -1, 64), strconv.FormatFloat(v.SI, 'g', -1, 64))
 		} else {
-			r.errorf("bad-value", file, v.Span, "%s must be a whole number of at least 1, not %s", kw, strconv.FormatFloat(v.SI, 'g', -1, 64))
+			r.errorf("bad-value", file, v.Span(), "%s must be a whole number of at least 1, not %s", kw, strconv.FormatFloat(v.SI, 'g', -1, 64))
 		}
 		v.Set = false
 		// A wrong channel count would scale every flow; nothing is computed from it.
 		v.Bad = kw == "channels"
 	}
 	if need := FieldNeeds[kw]; need.Dim == units.ThermalResistance && v.Set && !(v.SI >= 0) {
-		r.errorf("bad-value", file, v.Span, "%s must be zero or more, not %s K/W", kw, strconv.FormatFloat(v.SI, 'g', 6, 64))
+		r.errorf("bad-value", file, v.Span(), "%s must be zero or more, not %s K/W", kw, strconv.FormatFloat(v.SI, 'g', 6, 64))
 		v.Set, v.Bad = false, true
 	}
 	if v.Set || !dst.Set {
@@ -510,7 +510,7 @@ func (r *resolver) caseConductance(c *Case, s *Stmt) {
 	}
 	v := r.expr(file, s.Args[1].Expr, needUA)
 	if v.Set && !(v.SI >= 0) {
-		r.errorf("bad-value", file, v.Span, "a conductance must be zero or more, not %s W/K", strconv.FormatFloat(v.SI, 'g', 6, 64))
+		r.errorf("bad-value", file, v.Span(), "a conductance must be zero or more, not %s W/K", strconv.FormatFloat(v.SI, 'g', 6, 64))
 		v.Set, v.Bad = false, true
 	}
 	if comp.Outlet.Set {
@@ -595,7 +595,7 @@ func (r *resolver) methodField(file string, s *Stmt) {
 		}
 		n := v.SI
 		if n != math.Trunc(n) || n < 4 || n > 10000 {
-			r.errorf("bad-value", file, v.Span, "cells must be a whole number from 4 to 10000, not %s", strconv.FormatFloat(n, 'g', -1, 64))
+			r.errorf("bad-value", file, v.Span(), "cells must be a whole number from 4 to 10000, not %s", strconv.FormatFloat(n, 'g', -1, 64))
 			return
 		}
 		m.Cells, m.CellsSet = int(n), true

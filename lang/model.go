@@ -7,31 +7,110 @@ package lang
 // SI then holds the default, if there is one. Bad is true when the file gave
 // it but it could not be resolved (the error is reported where it was
 // written): Set is then false and nothing may be computed from it.
+//
+// Where the value was written is kept apart (File, Span and Unit are
+// methods): a component has some twenty-five values and a file gives a few,
+// so a value not written costs 24 bytes instead of 64.
 type Value struct {
-	SI   float64
-	Set  bool
-	Bad  bool
-	File string
-	Span Span   // the expression as written
-	Unit string // the unit as written ("" for bare numbers and defaults)
+	SI  float64
+	Set bool
+	Bad bool
+	at  *site // nil for a value the file did not write
+}
+
+// site is where a value or a vector was written.
+type site struct {
+	file string
+	span Span   // the expression as written
+	unit string // the unit as written ("" for bare numbers)
+}
+
+// At returns v written at span of file with the unit text unit ("" for a
+// bare number).
+func (v Value) At(file string, span Span, unit string) Value {
+	v.at = &site{file: file, span: span, unit: unit}
+	return v
+}
+
+// File returns the path of the file the value was written in ("" for a
+// default).
+func (v Value) File() string {
+	if v.at == nil {
+		return ""
+	}
+	return v.at.file
+}
+
+// Span returns the expression as written.
+func (v Value) Span() Span {
+	if v.at == nil {
+		return Span{}
+	}
+	return v.at.span
+}
+
+// Unit returns the unit as written ("" for bare numbers and defaults).
+func (v Value) Unit() string {
+	if v.at == nil {
+		return ""
+	}
+	return v.at.unit
 }
 
 // Loc returns where the value was written.
-func (v Value) Loc() Location { return Location{File: v.File, Span: v.Span} }
+func (v Value) Loc() Location {
+	if v.at == nil {
+		return Location{}
+	}
+	return Location{File: v.at.file, Span: v.at.span}
+}
 
 // Vec is a vector in SI units in the equipment frame (x forward, y left, z up).
-// Bad is as for Value.
+// Bad is as for Value, and so are File, Span and Unit.
 type Vec struct {
 	X, Y, Z float64
 	Set     bool
 	Bad     bool
-	File    string
-	Span    Span
-	Unit    string
+	at      *site
+}
+
+// At returns v written at span of file with the unit text unit.
+func (v Vec) At(file string, span Span, unit string) Vec {
+	v.at = &site{file: file, span: span, unit: unit}
+	return v
+}
+
+// File returns the path of the file the vector was written in.
+func (v Vec) File() string {
+	if v.at == nil {
+		return ""
+	}
+	return v.at.file
+}
+
+// Span returns the vector as written.
+func (v Vec) Span() Span {
+	if v.at == nil {
+		return Span{}
+	}
+	return v.at.span
+}
+
+// Unit returns the unit written after the parenthesis ("" for none).
+func (v Vec) Unit() string {
+	if v.at == nil {
+		return ""
+	}
+	return v.at.unit
 }
 
 // Loc returns where the vector was written.
-func (v Vec) Loc() Location { return Location{File: v.File, Span: v.Span} }
+func (v Vec) Loc() Location {
+	if v.at == nil {
+		return Location{}
+	}
+	return Location{File: v.at.file, Span: v.at.span}
+}
 
 // Decl is what every named declaration shares.
 type Decl struct {

@@ -210,13 +210,13 @@ func (r *resolver) overridden(ps *paramState, q units.Quantity, ut string, ok bo
 		return q, ut, ok
 	}
 	o.Param = ps.p
-	o.File = Value{Bad: !ok, File: ps.p.File, Span: ps.p.Expr.Span()}
+	o.File = r.atV(Value{Bad: !ok}, ps.p.File, ps.p.Expr.Span(), "")
 	if !ok {
 		// The file's own value is in error (reported there): its dimension
 		// is unknown, so the override is taken as it is.
 		return o.Value, o.Text, true
 	}
-	o.File.SI, o.File.Set, o.File.Unit = q.SI, true, ut
+	o.File = r.atV(Value{SI: q.SI, Set: true}, ps.p.File, ps.p.Expr.Span(), ut)
 	need := units.Need{Dim: q.Dim}
 	if u, err := units.Parse(ut); err == nil && u.IsDifference() {
 		need.Difference = true

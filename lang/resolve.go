@@ -154,6 +154,23 @@ type resolver struct {
 	// first that could not be applied.
 	overrides   map[string]*Overridden
 	overrideErr *OverrideError
+	// sites holds where the values were written, a chunk at a time.
+	sites slab[site]
+}
+
+// atV returns v written at span of file, its site taken from the resolver's
+// chunks (a large file writes hundreds of thousands of values).
+func (r *resolver) atV(v Value, file string, span Span, unit string) Value {
+	v.at = r.sites.alloc()
+	*v.at = site{file: file, span: span, unit: unit}
+	return v
+}
+
+// atVec is atV for a vector.
+func (r *resolver) atVec(v Vec, file string, span Span, unit string) Vec {
+	v.at = r.sites.alloc()
+	*v.at = site{file: file, span: span, unit: unit}
+	return v
 }
 
 type fileStmt struct {

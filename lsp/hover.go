@@ -179,11 +179,11 @@ func (s *Server) refHover(c *cursor, r lang.Ref) string {
 	case lang.RefParam:
 		for _, p := range m.Params {
 			if p.Name == r.Name && p.Value.Set {
-				u, err := units.Parse(p.Value.Unit)
+				u, err := units.Parse(p.Value.Unit())
 				if err != nil {
 					u = units.Unit{}
 				}
-				return fmt.Sprintf("param `%s`\n\n", p.Name) + quantityTable(p.Value.SI, siUnit(u), isDifferenceText(p.Value.Unit))
+				return fmt.Sprintf("param `%s`\n\n", p.Name) + quantityTable(p.Value.SI, siUnit(u), isDifferenceText(p.Value.Unit()))
 			}
 		}
 	case lang.RefComponent:

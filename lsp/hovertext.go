@@ -100,7 +100,7 @@ func wrap(line string, width int) []string {
 // written (°C stays °C, µm stays µm), else in unit with its display
 // symbols.
 func asWritten(v lang.Value, unit string) string {
-	text := v.Unit
+	text := v.Unit()
 	u, err := units.Parse(text)
 	if text == "" || err != nil {
 		u = units.MustParse(unit)

@@ -222,7 +222,7 @@ func estimateLoop(m *lang.Model, l *lang.Loop, methods MethodsUsed, points []poi
 	lr.Worst = worst(lr.Cases)
 	lr.ChargeRange = chargeRange(lr.Cases)
 	if l.DesignPressure.Set {
-		lr.DesignPressureUnit = l.DesignPressure.Unit
+		lr.DesignPressureUnit = l.DesignPressure.Unit()
 	}
 	finishLoop(&lr)
 	return lr
