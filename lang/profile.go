@@ -274,7 +274,7 @@ func (r *resolver) profileRow(p *Profile, s *Stmt) bool {
 			continue
 		}
 		if lim := angleRange(col); lim > 0 && math.Abs(v.SI) > lim+1e-12 {
-			r.errorf("bad-value", file, v.Span, "%s must lie within ±%s, not %s", col, degText(lim), degText(v.SI))
+			r.errorf("bad-value", file, v.Span(), "%s must lie within ±%s, not %s", col, degText(lim), degText(v.SI))
 			ok = false
 			continue
 		}
@@ -571,21 +571,21 @@ func (r *resolver) envelopeAxis(file string, st *Stmt) (EnvelopeAxis, bool) {
 	}
 	if len(st.Args) == 1 {
 		if lo.SI < 0 {
-			r.errorf("bad-value", file, lo.Span, "a half-range must be zero or more: write both bounds to give a range on one side (%s -8 deg 0 deg)", name)
+			r.errorf("bad-value", file, lo.Span(), "a half-range must be zero or more: write both bounds to give a range on one side (%s -8 deg 0 deg)", name)
 			return ax, false
 		}
 		ax.Lo, ax.Hi = -lo.SI, lo.SI
 	} else {
 		ax.Lo, ax.Hi = lo.SI, hi.SI
 		if ax.Lo > ax.Hi {
-			r.errorf("bad-value", file, hi.Span, "the high bound of %s is below its low bound: write the low bound first", name)
+			r.errorf("bad-value", file, hi.Span(), "the high bound of %s is below its low bound: write the low bound first", name)
 			return ax, false
 		}
 	}
 	if lim := angleRange(name); lim > 0 {
 		for _, v := range []Value{lo, hi} {
 			if math.Abs(v.SI) > lim+1e-12 {
-				r.errorf("bad-value", file, v.Span, "%s must lie within ±%s, not %s", name, degText(lim), degText(v.SI))
+				r.errorf("bad-value", file, v.Span(), "%s must lie within ±%s, not %s", name, degText(lim), degText(v.SI))
 				return ax, false
 			}
 		}
