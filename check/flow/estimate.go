@@ -576,7 +576,9 @@ func (p *prepared) newState(pt point, cr *CaseResult) (*state, []Finding) {
 	return s, fs
 }
 
-// setBody sets the body force and what depends on it.
+// setBody sets the body force and what depends on it. The products with
+// the body force are taken once per distinct displacement: a long chain of
+// equal tubes shares one.
 func (s *state) setBody(b geom.Vec3) {
 	s.b = b
 	s.bmag = b.Norm()
@@ -586,17 +588,25 @@ func (s *state) setBody(b geom.Vec3) {
 		s.bDisp = make([]float64, n)
 		s.cosInc = make([]float64, n)
 	}
+	nu := len(s.net.dispU)
+	if len(s.bDispU) != nu {
+		s.bDispU = make([]float64, nu)
+		s.cosIncU = make([]float64, nu)
+	}
 	s.maxBDisp = 0
-	for ci := range s.net.comps {
-		cp := &s.net.comps[ci]
-		bd := b.Dot(cp.disp)
-		s.bDisp[ci] = bd
+	for u, disp := range s.net.dispU {
+		bd := b.Dot(disp)
+		s.bDispU[u] = bd
 		s.maxBDisp = math.Max(s.maxBDisp, math.Abs(bd))
-		if d := cp.dlen; d > 0 && s.bmag > 0 {
-			s.cosInc[ci] = bd / (d * s.bmag)
+		if d := s.net.dlenU[u]; d > 0 && s.bmag > 0 {
+			s.cosIncU[u] = bd / (d * s.bmag)
 		} else {
-			s.cosInc[ci] = 1
+			s.cosIncU[u] = 1
 		}
+	}
+	for ci, u := range s.net.dispIdx {
+		s.bDisp[ci] = s.bDispU[u]
+		s.cosInc[ci] = s.cosIncU[u]
 	}
 }
 
@@ -618,9 +628,19 @@ func (s *state) withLossScale(k float64) *state {
 
 func (s *state) withBody(b geom.Vec3) *state {
 	c := *s
-	c.bDisp, c.cosInc = nil, nil
+	c.bDisp, c.cosInc, c.bDispU, c.cosIncU = nil, nil, nil, nil
 	c.setBody(b)
 	return &c
+}
+
+// withBodyIn is withBody into *dst, reusing the arrays a previous call
+// left there: a search over many attitudes allocates them once.
+func (s *state) withBodyIn(dst *state, b geom.Vec3) *state {
+	bd, ci, bu, cu := dst.bDisp, dst.cosInc, dst.bDispU, dst.cosIncU
+	*dst = *s
+	dst.bDisp, dst.cosInc, dst.bDispU, dst.cosIncU = bd, ci, bu, cu
+	dst.setBody(b)
+	return dst
 }
 
 // TempText writes an absolute temperature (K) in °C, or says it is out of

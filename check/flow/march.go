@@ -36,6 +36,9 @@ type state struct {
 	// maxBDisp is the largest |b·disp|, J/kg: with the liquid density, the
 	// scale of the hydrostatic heads Newton's tolerance is relative to.
 	maxBDisp float64
+	// bDispU and cosIncU are bDisp and cosInc by distinct displacement
+	// (network.dispU).
+	bDispU, cosIncU []float64
 	// Subcooled liquid: density and viscosity at T_sat − k·dT.
 	liqDT  float64
 	liqRho [liquidPoints]float64

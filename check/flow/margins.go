@@ -594,6 +594,7 @@ type tiltWalk struct {
 	dPrev   float64
 	jac     jacobianCache
 	scratch []float64
+	at      state // the state at the attitude being tried
 }
 
 // guess is the walk's starting flows for attitude d: the last circulating
@@ -633,7 +634,7 @@ func (w *tiltWalk) moved(d float64, f []float64) {
 // reversing. cold, when the walk's start fails, tries Newton's iteration
 // without bounds from the last balance before concluding that none exists.
 func (p *prepared) circulation(s *state, b geom.Vec3, d float64, w *tiltWalk, cold bool) (c, head float64) {
-	t := s.withBody(b)
+	t := s.withBodyIn(&w.at, b)
 	ev := t.newEval()
 	if p.net.ring {
 		c = t.ringCirculation(ev)
@@ -677,7 +678,7 @@ func (p *prepared) circulation(s *state, b geom.Vec3, d float64, w *tiltWalk, co
 // headAt is a network's gravity head at vanishing flow under body force b
 // with the walk's flow pattern: one evaluation, no solve.
 func (p *prepared) headAt(s *state, b geom.Vec3, w *tiltWalk) float64 {
-	t := s.withBody(b)
+	t := s.withBodyIn(&w.at, b)
 	return t.headAtVanishingFlow(w.f, t.largestBranchFlow(w.f, t.newEval()))
 }
 

@@ -16,7 +16,6 @@ type comp struct {
 	L, D, A    float64
 	rr, K      float64
 	disp       geom.Vec3 // inlet→outlet displacement, equipment frame
-	dlen       float64   // |disp|
 	heatedFrom float64   // heated interval [heatedFrom, heatedTo] as fractions of L
 	heatedTo   float64
 }
@@ -49,6 +48,11 @@ type network struct {
 	cycles   [][]float64 // cycle k: coefficient of cycle flow k in each branch flow
 	ring     bool        // a single loop without junctions
 	conds    []int       // comps indices of the condensers
+	// dispU are the distinct displacements of the components, dlenU their
+	// lengths, and dispIdx each component's (by comps index).
+	dispU   []geom.Vec3
+	dlenU   []float64
+	dispIdx []int32
 }
 
 // buildNetwork validates the loop's geometry and reduces it to branches and
@@ -252,11 +256,22 @@ func buildNetwork(l *lang.Loop, lay *geom.Layout) (*network, []Finding) {
 			b.from, b.to = b.to, b.from
 		}
 	}
+	seen := map[[3]uint64]int32{} // by bits: −0 and NaN stay apart
+	n.dispIdx = make([]int32, len(n.comps))
 	for ci := range n.comps {
-		if n.comps[ci].kind == lang.Condenser {
+		cp := &n.comps[ci]
+		if cp.kind == lang.Condenser {
 			n.conds = append(n.conds, ci)
 		}
-		n.comps[ci].dlen = n.comps[ci].disp.Norm()
+		key := [3]uint64{math.Float64bits(cp.disp[0]), math.Float64bits(cp.disp[1]), math.Float64bits(cp.disp[2])}
+		u, ok := seen[key]
+		if !ok {
+			u = int32(len(n.dispU))
+			seen[key] = u
+			n.dispU = append(n.dispU, cp.disp)
+			n.dlenU = append(n.dlenU, cp.disp.Norm())
+		}
+		n.dispIdx[ci] = u
 	}
 	n.collapseChains()
 	n.cycles = fundamentalCycles(n.nj, n.branches)
