@@ -208,6 +208,16 @@ func reportEstimate(c *Context, id string) {
 				Message: marginText(c, m, cr),
 				Loc:     componentLoc(c.Loop, m.Component)})
 		}
+		if cr.Envelope != nil {
+			for _, w := range cr.Envelope.Worst {
+				if marginRuleOf[w.Margin.Margin] == id {
+					at := flow.CaseResult{Yaw: w.At.Yaw, Pitch: w.At.Pitch, Roll: w.At.Roll, Accel: w.At.Accel}
+					c.NoteMargin(Margin{Rule: id, Case: w.Case, Component: w.Component, Used: w.Use,
+						Message: marginText(c, w.Margin, cr) + " at the envelope's worst, " + at.PointLabel(),
+						Loc:     componentLoc(c.Loop, w.Component)})
+				}
+			}
+		}
 		if cr.Profile == nil {
 			continue
 		}

@@ -48,6 +48,7 @@ type point struct {
 	c                *lang.Case
 	grid             bool
 	profile          bool // an instant of the case's profile
+	envelope         bool // a combination of the case's envelope search
 	yaw, pitch, roll float64
 	accel            geom.Vec3
 }
@@ -55,7 +56,7 @@ type point struct {
 // derived reports whether the point is one of a sweep or a profile rather
 // than the case's own attitude: it gets no tilt search, stability check or
 // override list of its own.
-func (pt point) derived() bool { return pt.grid || pt.profile }
+func (pt point) derived() bool { return pt.grid || pt.profile || pt.envelope }
 
 // prepared is what a loop needs for every case.
 type prepared struct {

@@ -873,6 +873,15 @@ func worst(cases []CaseResult) []Margin {
 				best[m.Margin] = m
 			}
 		}
+		if c.Envelope != nil {
+			for _, w := range c.Envelope.Worst {
+				if b, ok := best[w.Margin.Margin]; !ok || w.Use > b.Use {
+					m := w.Margin
+					m.Point = "the envelope's worst, " + (&CaseResult{Yaw: w.At.Yaw, Pitch: w.At.Pitch, Roll: w.At.Roll, Accel: w.At.Accel}).PointLabel()
+					best[m.Margin] = m
+				}
+			}
+		}
 		if c.Profile == nil {
 			continue
 		}

@@ -100,7 +100,10 @@ type CaseResult struct {
 	Stability *Stability `json:"stability,omitempty"`
 	// Profile is the case's manoeuvre, each instant estimated as a steady
 	// state, when the case gives one.
-	Profile  *Profile  `json:"profile,omitempty"`
+	Profile *Profile `json:"profile,omitempty"`
+	// Envelope is the worst attitude and acceleration within the case's
+	// envelope, when it gives one.
+	Envelope *Envelope `json:"envelope,omitempty"`
 	Findings []Finding `json:"findings,omitempty"`
 
 	pointCase *lang.Case

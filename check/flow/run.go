@@ -95,6 +95,9 @@ func (p *prepared) run(pt point, tilt bool, start []float64) (CaseResult, []floa
 	if tilt {
 		p.tilt(s, pt, &cr, f)
 	}
+	if !pt.derived() && pt.c != nil && pt.c.Envelope != nil {
+		p.envelope(pt, &cr, f)
+	}
 	if !cr.Circulates {
 		f = nil
 	}

@@ -90,6 +90,7 @@ func loopText(w io.Writer, l *flow.LoopResult, env Envelopes) {
 		}
 		caseText(w, l, &l.Cases[i], env[[2]string{l.Loop, l.Cases[i].Case}])
 		profileText(w, l, &l.Cases[i])
+		envelopeText(w, l, &l.Cases[i])
 		if j > i+1 {
 			sweepText(w, l, l.Cases[i].Case, l.Cases[i+1:j])
 		}

@@ -3,6 +3,7 @@ package output
 import (
 	"fmt"
 	"io"
+	"strings"
 	"text/tabwriter"
 
 	"circa/check/flow"
@@ -34,6 +35,34 @@ func profileText(w io.Writer, l *flow.LoopResult, c *flow.CaseResult) {
 		for _, m := range pr.Worst {
 			v, lim := MarginValue(l, c, m)
 			fmt.Fprintf(tw, "  t = %s s\t%s\t%s\t%s\t%s\t%s\t%s\n", sig(*m.Time, 4), m.Margin, m.Component, v, lim, fixed(m.Use, 2), m.Status)
+		}
+		tw.Flush()
+	}
+}
+
+// envelopeText prints a case's envelope search: its bounds, the worst
+// combination per margin and where circulation stops.
+func envelopeText(w io.Writer, l *flow.LoopResult, c *flow.CaseResult) {
+	e := c.Envelope
+	if e == nil {
+		return
+	}
+	var bounds []string
+	for _, a := range e.Axes {
+		if a.Name == "pitch" || a.Name == "roll" {
+			bounds = append(bounds, fmt.Sprintf("%s %s to %s", a.Name, angle(a.Lo), angle(a.Hi)))
+		} else {
+			bounds = append(bounds, fmt.Sprintf("%s %s to %s gn", a.Name, sig(a.Lo/9.80665, 3), sig(a.Hi/9.80665, 3)))
+		}
+	}
+	fmt.Fprintf(w, "  envelope: %s; %d steady states searched\n", strings.Join(bounds, ", "), e.Estimates)
+	if len(e.Worst) > 0 {
+		tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
+		fmt.Fprintln(tw, "  worst combination\tmargin\tcomponent\tvalue\tlimit\tuse\tstatus")
+		for _, m := range e.Worst {
+			at := flow.CaseResult{Yaw: m.At.Yaw, Pitch: m.At.Pitch, Roll: m.At.Roll, Accel: m.At.Accel}
+			v, lim := MarginValue(l, c, m.Margin)
+			fmt.Fprintf(tw, "  %s\t%s\t%s\t%s\t%s\t%s\t%s\n", at.PointLabel(), m.Margin.Margin, m.Component, v, lim, fixed(m.Use, 2), m.Status)
 		}
 		tw.Flush()
 	}
