@@ -71,6 +71,7 @@ type archiveCase struct {
 	fsys  archiveFS
 	opts  Options
 	wants []want
+	set   []lang.Override // parameters given other values (lang.Model.With)
 }
 
 func loadArchives(t *testing.T) []archiveCase {
@@ -90,7 +91,16 @@ func loadArchives(t *testing.T) []archiveCase {
 			fsys[f.Name] = f.Data
 		}
 		opts := Options{SkipEstimates: true, Disabled: map[string]bool{}}
+		sets := map[string][]lang.Override{}
 		for _, line := range strings.Split(string(ar.Comment), "\n") {
+			if rest, ok := strings.CutPrefix(strings.TrimSpace(line), "set "); ok {
+				file, set, _ := strings.Cut(rest, ":")
+				o, err := lang.ParseOverride(set)
+				if err != nil {
+					t.Fatalf("%s: %v", p, err)
+				}
+				sets[file] = append(sets[file], o)
+			}
 			if strings.TrimSpace(line) == "estimates" {
 				opts.SkipEstimates, opts.NoTilt = false, true
 			}
@@ -110,7 +120,7 @@ func loadArchives(t *testing.T) []archiveCase {
 			}
 			// Wants in included files count for every root that includes them;
 			// keep those of this root and of files it reads.
-			out = append(out, archiveCase{name: filepath.Base(p) + "/" + f.Name, root: f.Name, fsys: fsys, opts: opts, wants: ws})
+			out = append(out, archiveCase{name: filepath.Base(p) + "/" + f.Name, root: f.Name, fsys: fsys, opts: opts, wants: ws, set: sets[f.Name]})
 		}
 	}
 	return out
@@ -132,6 +142,12 @@ func TestRules(t *testing.T) {
 	for _, ac := range loadArchives(t) {
 		t.Run(ac.name, func(t *testing.T) {
 			m := lang.LoadSource(ac.root, ac.fsys[ac.root], ac.fsys)
+			if len(ac.set) > 0 {
+				var err error
+				if m, err = m.With(ac.set...); err != nil {
+					t.Fatal(err)
+				}
+			}
 			got := Run(m, ac.opts)
 			var wants []want
 			for _, w := range ac.wants {

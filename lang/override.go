@@ -22,18 +22,25 @@ type Override struct {
 	// Text is the value as written ("10 mm"); empty when the value was
 	// given in SI by a program.
 	Text string
+	// Unit is the unit as written when the value is one quantity ("mm"),
+	// as Value.Unit.
+	Unit string
 }
 
 // String writes the override as NAME=VALUE.
-func (o Override) String() string {
-	v := o.Text
-	if v == "" {
-		v = strconv.FormatFloat(o.Value.SI, 'g', -1, 64)
-		if !o.Value.Dim.IsZero() {
-			v += " " + o.Value.Dim.String()
-		}
+func (o Override) String() string { return o.Name + "=" + o.Written() }
+
+// Written returns the value as written, or in SI units when it was given
+// in SI.
+func (o Override) Written() string {
+	if o.Text != "" {
+		return o.Text
 	}
-	return o.Name + "=" + v
+	v := strconv.FormatFloat(o.Value.SI, 'g', -1, 64)
+	if !o.Value.Dim.IsZero() {
+		v += " " + o.Value.Dim.String()
+	}
+	return v
 }
 
 // Overridden is an override as applied to a model: the parameter it set
@@ -42,6 +49,8 @@ type Overridden struct {
 	Override
 	Param *Param
 	File  Value // the file's own value (Bad when the file's expression is in error)
+	// FileText is the file's expression as written ("14 mm").
+	FileText string
 }
 
 // OverrideError says why an override could not be applied.
@@ -70,10 +79,7 @@ func ParseOverride(s string) (Override, error) {
 	if err != nil {
 		return Override{}, &OverrideError{Name: name, Msg: err.Error()}
 	}
-	if ut == "" {
-		ut = text
-	}
-	return Override{Name: name, Value: q, Text: ut}, nil
+	return Override{Name: name, Value: q, Text: text, Unit: ut}, nil
 }
 
 // ParseQuantity evaluates a value written as in a file: a number with its
@@ -211,19 +217,19 @@ func (r *resolver) overridden(ps *paramState, q units.Quantity, ut string, ok bo
 	}
 	o.Param = ps.p
 	o.File = r.atV(Value{Bad: !ok}, ps.p.File, ps.p.Expr.Span(), "")
+	o.FileText = src(r.m.Files[ps.p.File], ps.p.Expr.Span())
 	if !ok {
 		// The file's own value is in error (reported there): its dimension
 		// is unknown, so the override is taken as it is.
-		return o.Value, o.Text, true
+		return o.Value, o.Unit, true
 	}
 	o.File = r.atV(Value{SI: q.SI, Set: true}, ps.p.File, ps.p.Expr.Span(), ut)
 	need := units.Need{Dim: q.Dim}
 	if u, err := units.Parse(ut); err == nil && u.IsDifference() {
 		need.Difference = true
 	}
-	if err := units.Check(o.Value, o.Text, need); err != nil {
-		was := src(r.m.Files[ps.p.File], ps.p.Expr.Span())
-		msg := fmt.Sprintf("%s; the file gives %s", err.Error(), was)
+	if err := units.Check(o.Value, o.Unit, need); err != nil {
+		msg := fmt.Sprintf("%s; the file gives %s", err.Error(), o.FileText)
 		if f := r.m.Files[ps.p.File]; f != nil && f.Mapper != nil {
 			pos := f.Mapper.OffsetPosition(ps.p.Expr.Span().Start, UTF8)
 			msg += fmt.Sprintf(" at %s:%d:%d", ps.p.File, pos.Line+1, pos.Col+1)
@@ -233,5 +239,5 @@ func (r *resolver) overridden(ps *paramState, q units.Quantity, ut string, ok bo
 		}
 		return q, ut, ok
 	}
-	return o.Value, o.Text, true
+	return o.Value, o.Unit, true
 }

@@ -18,23 +18,24 @@ func TestParseOverride(t *testing.T) {
 		dim  units.Dim
 		abs  bool
 		text string
+		unit string
 	}{
 		// 1 mm = 1e-3 m (SI prefix milli, SI Brochure 9th ed. table 7).
-		{"riser_bore=10mm", "riser_bore", 0.010, units.Length, false, "mm"},
-		{" riser_bore = 10 mm ", "riser_bore", 0.010, units.Length, false, "mm"},
+		{"riser_bore=10mm", "riser_bore", 0.010, units.Length, false, "10mm", "mm"},
+		{" riser_bore = 10 mm ", "riser_bore", 0.010, units.Length, false, "10 mm", "mm"},
 		// T/K = t/°C + 273.15 (SI Brochure 9th ed. 2.3.1).
-		{"sink=28 degC", "sink", 301.15, units.Temperature, true, "degC"},
-		{"heat=(2+1) kW", "heat", 3000, units.Power, false, "kW"},
-		{"ratio=0.5", "ratio", 0.5, units.Dim{}, false, "0.5"},
+		{"sink=28 degC", "sink", 301.15, units.Temperature, true, "28 degC", "degC"},
+		{"heat=(2+1) kW", "heat", 3000, units.Power, false, "(2+1) kW", "kW"},
+		{"ratio=0.5", "ratio", 0.5, units.Dim{}, false, "0.5", ""},
 		// 1 bar = 1e5 Pa (SI Brochure 9th ed. table 8).
-		{"p=-0.5 bar", "p", -0.5e5, units.Pressure, false, "bar"},
+		{"p=-0.5 bar", "p", -0.5e5, units.Pressure, false, "-0.5 bar", "bar"},
 	} {
 		o, err := ParseOverride(tc.in)
 		if err != nil {
 			t.Errorf("%q: %v", tc.in, err)
 			continue
 		}
-		if o.Name != tc.name || math.Abs(o.Value.SI-tc.si) > 1e-9*math.Abs(tc.si) || o.Value.Dim != tc.dim || o.Value.AbsTemp != tc.abs || o.Text != tc.text {
+		if o.Name != tc.name || math.Abs(o.Value.SI-tc.si) > 1e-9*math.Abs(tc.si) || o.Value.Dim != tc.dim || o.Value.AbsTemp != tc.abs || o.Text != tc.text || o.Unit != tc.unit {
 			t.Errorf("%q: got %+v", tc.in, o)
 		}
 	}
@@ -127,7 +128,7 @@ func TestWithOverrides(t *testing.T) {
 	if base.Loops[0].Components[0].Length.SI != 0.4 {
 		t.Errorf("the base model changed: length %g", base.Loops[0].Components[0].Length.SI)
 	}
-	if len(v.Overrides) != 1 || v.Overrides[0].Param.Name != "stack_height" || v.Overrides[0].File.SI != 0.4 || v.Overrides[0].Text != "m" {
+	if len(v.Overrides) != 1 || v.Overrides[0].Param.Name != "stack_height" || v.Overrides[0].File.SI != 0.4 || v.Overrides[0].Text != "0.5 m" || v.Overrides[0].FileText != "0.4 m" {
 		t.Errorf("overrides %+v", v.Overrides)
 	}
 	if len(base.Overrides) != 0 {

@@ -95,6 +95,7 @@ func Estimate(m *lang.Model, opts Options) (*Result, error) {
 	if m == nil {
 		return res, nil
 	}
+	res.Set = ParamsSet(m)
 	cases := m.Cases
 	if opts.Case != "" {
 		c := m.Case(opts.Case)

@@ -12,6 +12,9 @@ type Result struct {
 	Loops    []LoopResult `json:"loops"`
 	// Findings that concern the whole model (an unknown case name).
 	Findings []Finding `json:"findings,omitempty"`
+	// Set lists the parameters given other values than their files' for
+	// this estimate (circa estimate --set): the estimate is a variant's.
+	Set []ParamSet `json:"set,omitempty"`
 }
 
 // LoopOf returns the estimate of loop l of m, the model r was computed for

@@ -27,6 +27,9 @@ func EstimateCSV(w io.Writer, res *flow.Result) error {
 	for _, c := range res.Cautions {
 		fmt.Fprintln(ew, "# caution:", c)
 	}
+	for _, p := range res.Set {
+		fmt.Fprintln(ew, "# "+Printable(ParamSetText(p)))
+	}
 	fmt.Fprintf(ew, "# %s\n", BudgetConvention)
 	cw := csv.NewWriter(ew)
 	cw.Write(CSVHeader)

@@ -38,6 +38,9 @@ func EstimateText(w io.Writer, res *flow.Result, env Envelopes) error {
 	for _, c := range res.Cautions {
 		fmt.Fprintln(ew, "caution:", c)
 	}
+	for _, p := range res.Set {
+		fmt.Fprintln(ew, Printable(ParamSetText(p)))
+	}
 	for _, f := range res.Findings {
 		fmt.Fprintf(ew, "%s: %s\n", f.Severity, f.Message)
 	}
@@ -618,4 +621,10 @@ func FailureText(fs []picture.TiltFailure, step float64) string {
 		parts = append(parts, fmt.Sprintf("%s %s (%s)", f.Axis, angle(f.Angle), f.What))
 	}
 	return strings.Join(parts, ", ") + fmt.Sprintf(" (%s° steps)", sig(deg(step), 3))
+}
+
+// ParamSetText says that a parameter has another value than its file's:
+// "variant: stack_height = 0.5 m in place of the file's 0.4 m".
+func ParamSetText(p flow.ParamSet) string {
+	return fmt.Sprintf("variant: %s = %s in place of the file's %s", p.Param, p.Written, p.FileWritten)
 }

@@ -41,6 +41,9 @@ func Report(w io.Writer, path string, m *lang.Model, o ReportOptions) error {
 		progress = func(string) {}
 	}
 	r := &reportData{Title: "Design review: " + path, File: path, Version: o.Version}
+	for _, p := range flow.ParamsSet(m) {
+		r.Variant = append(r.Variant, ParamSetText(p))
+	}
 	if f := m.Files[m.Root]; f != nil {
 		sum := sha256.Sum256(f.Src)
 		r.SHA256 = hex.EncodeToString(sum[:])
@@ -118,6 +121,7 @@ type reportData struct {
 	Findings                     []reportFinding
 	Loops                        []*loopData
 	NoEstimate                   string
+	Variant                      []string // the parameters set for the run
 }
 
 type reportFinding struct {

@@ -56,7 +56,8 @@ code { font-family: "DejaVu Sans Mono", monospace; font-size: 12px; }
 <h2>Summary</h2>
 <p><span class="badge error">{{index .Badges 0}}</span><span class="badge warning">{{index .Badges 1}}</span><span class="badge info">{{index .Badges 2}}</span></p>
 <p>{{.Summary}}</p>
-{{if .NoEstimate}}<p class="error">{{.NoEstimate}}</p>{{end}}
+{{range .Variant}}<p class="warning">{{.}}: this report is of a variant, not of the file as written.</p>
+{{end}}{{if .NoEstimate}}<p class="error">{{.NoEstimate}}</p>{{end}}
 </section>
 
 {{range .Loops}}

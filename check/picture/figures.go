@@ -2,6 +2,7 @@ package picture
 
 import (
 	"fmt"
+	"strings"
 
 	"circa/lang"
 )
@@ -55,8 +56,22 @@ func Figures(m *lang.Model, o Options) (figs []*Figure, errs []error) {
 				continue
 			}
 			f.Name = l.Name + "-" + f.Name
+			f.Title += variantNote(m)
 			figs = append(figs, f)
 		}
 	}
 	return figs, errs
+}
+
+// variantNote is the title's note of the parameters given other values
+// than their files' for the run: " (variant: riser_bore=10mm)".
+func variantNote(m *lang.Model) string {
+	if len(m.Overrides) == 0 {
+		return ""
+	}
+	parts := make([]string, len(m.Overrides))
+	for i, o := range m.Overrides {
+		parts[i] = o.String()
+	}
+	return " (variant: " + strings.Join(parts, ", ") + ")"
 }

@@ -19,13 +19,15 @@ func init() {
 }
 
 const checkUsage = `Usage: circa check [--format text|json|sarif|github] [--fail-on error|warning|info]
-                   [--no-estimates] [PATH|-]...
+                   [--no-estimates] [--set NAME=VALUE]... [PATH|-]...
 
 Checks .loop files: the language (syntax, units, names), the loop's
 topology and geometry, the circulation direction and tilt limits, traps,
 and (unless --no-estimates) the estimated margins. Directories are searched
 recursively for *.loop files, skipping hidden directories; "-" (or no
-argument) reads standard input, reported as <stdin>.
+argument) reads standard input, reported as <stdin>. --set checks a
+variant: every file checked must declare the parameter, and a hint at
+the parameter says that the run gave it another value.
 
 Formats: text (file:line:col: severity: message [rule], like a compiler),
 json (docs/check-json.md), sarif (SARIF 2.1.0), github (workflow
@@ -68,11 +70,13 @@ func runCheck(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	format := fl.String("format", "text", "output format: text, json, sarif or github")
 	failOn := fl.String("fail-on", "error", "least severe finding that fails the check: error, warning or info")
 	noEst := fl.Bool("no-estimates", false, "skip the estimated margins; structural checks only")
+	var set setFlag
+	fl.Var(&set, "set", setUsage)
 	fl.Usage = func() {
 		fmt.Fprint(stderr, checkUsage)
 		fl.PrintDefaults()
 	}
-	if err := fl.Parse(splitFlags(args, map[string]bool{"format": true, "fail-on": true})); err != nil {
+	if err := fl.Parse(splitFlags(args, map[string]bool{"format": true, "fail-on": true, "set": true})); err != nil {
 		if errors.Is(err, flag.ErrHelp) {
 			return exitOK
 		}
@@ -115,7 +119,11 @@ func runCheck(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 				status = exitUsage
 				continue
 			}
-			m := lang.LoadSource("<stdin>", src, nil)
+			m, ok := set.apply("check", lang.LoadSource("<stdin>", src, nil), stderr)
+			if !ok {
+				status = exitUsage
+				continue
+			}
 			runs = append(runs, output.File{Path: "<stdin>", Model: m, Report: check.RunReport(m, opts)})
 			continue
 		}
@@ -129,7 +137,11 @@ func runCheck(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 				status = exitUsage
 				continue
 			}
-			m := lang.LoadSource(f, src, nil)
+			m, ok := set.apply("check", lang.LoadSource(f, src, nil), stderr)
+			if !ok {
+				status = exitUsage
+				continue
+			}
 			runs = append(runs, output.File{Path: f, Model: m, Report: check.RunReport(m, opts)})
 		}
 	}

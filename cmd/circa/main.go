@@ -136,13 +136,15 @@ func oneFile(fl *flag.FlagSet, args []string, stderr io.Writer) (file string, rc
 // loadClean loads a .loop file for a command that needs it free of errors
 // (estimate, plot): the errors are printed and ok is false when there are
 // any, rc then being the command's status (exitUsage when the file cannot
-// be read, exitFindings when it has errors).
-func loadClean(file, cmd, nothing string, stderr io.Writer) (m *lang.Model, rc int, ok bool) {
+// be read or a --set does not apply, exitFindings when it has errors).
+func loadClean(file, cmd, nothing string, set setFlag, stderr io.Writer) (m *lang.Model, rc int, ok bool) {
 	src, ok := readSource(cmd, file, nil, stderr)
 	if !ok {
 		return nil, exitUsage, false
 	}
-	m = lang.LoadSource(file, src, lang.OSFS{})
+	if m, ok = set.apply(cmd, lang.LoadSource(file, src, lang.OSFS{}), stderr); !ok {
+		return m, exitUsage, false
+	}
 	bad := false
 	for _, d := range m.Diags {
 		if d.Severity == lang.Error {

@@ -16,7 +16,7 @@ func init() {
 	register(&command{name: "plot", summary: "draw circulation, pressure budget, tilt and geometry figures", run: runPlot})
 }
 
-const plotUsage = `Usage: circa plot FILE [--case NAME] [--out DIR] [--format svg,png]
+const plotUsage = `Usage: circa plot FILE [--case NAME] [--out DIR] [--format svg,png] [--set NAME=VALUE]...
 
 Draws, for each loop in FILE:
   LOOP-circulation  mass flow and exit quality against heat load (the case's
@@ -47,6 +47,8 @@ func runPlot(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 	fl.StringVar(&opts.Case, "case", "", "case to sweep, budget and tilt (default: the nominal case)")
 	fl.StringVar(&out, "out", ".", "directory to write the figures to")
 	fl.StringVar(&formats, "format", "svg", "comma-separated formats: svg, png")
+	var set setFlag
+	fl.Var(&set, "set", setUsage)
 	fl.Usage = func() {
 		fmt.Fprint(stderr, plotUsage)
 		fl.PrintDefaults()
@@ -68,7 +70,7 @@ func runPlot(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 		}
 		exts = append(exts, f)
 	}
-	m, rc, ok := loadClean(file, "plot", "no figures", stderr)
+	m, rc, ok := loadClean(file, "plot", "no figures", set, stderr)
 	if !ok {
 		return rc
 	}

@@ -20,8 +20,8 @@ func init() {
 	register(&command{name: "report", summary: "write a design review report of a loop file as one HTML page", run: runReport})
 }
 
-const reportUsage = `Usage: circa report FILE [-o OUT.html]
-       circa report --out-dir DIR FILE...
+const reportUsage = `Usage: circa report FILE [-o OUT.html] [--set NAME=VALUE]...
+       circa report --out-dir DIR [--set NAME=VALUE]... FILE...
 
 Writes a design review report of each .loop file: one self-contained HTML
 page (no scripts, no network; figures inline as SVG) with the cautions, the
@@ -42,6 +42,8 @@ func runReport(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 	fl.SetOutput(stderr)
 	out := fl.String("o", "", "write the report of the one FILE to this path")
 	dir := fl.String("out-dir", "", "write each FILE's report into this directory as FILE.html")
+	var set setFlag
+	fl.Var(&set, "set", setUsage)
 	fl.Usage = func() {
 		fmt.Fprint(stderr, reportUsage)
 		fl.PrintDefaults()
@@ -71,7 +73,11 @@ func runReport(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 			status = exitUsage
 			continue
 		}
-		m := lang.LoadSource(file, src, lang.OSFS{})
+		m, ok := set.apply("report", lang.LoadSource(file, src, lang.OSFS{}), stderr)
+		if !ok {
+			status = exitUsage
+			continue
+		}
 		pr := startProgress(stderr, "report", "reading "+file)
 		var page bytes.Buffer
 		err := output.Report(&page, file, m, output.ReportOptions{Version: buildVersion(), Progress: func(s string) { pr.Set(file + ": " + s) }})

@@ -1,0 +1,189 @@
+package main
+
+import (
+	"bytes"
+	"encoding/json"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+const rackDoor = "../../testdata/examples/rack-door.loop"
+
+// runCommand runs circa with args and no standard input.
+func runCommand(t *testing.T, args ...string) (int, string, string) {
+	t.Helper()
+	var out, errb bytes.Buffer
+	code := run(args, strings.NewReader(""), &out, &errb)
+	return code, out.String(), errb.String()
+}
+
+// editedCopy writes the rack-door example with one line replaced into a
+// temporary directory, with the parts it includes, and returns its path.
+func editedCopy(t *testing.T, old, new string) string {
+	t.Helper()
+	src, err := os.ReadFile(rackDoor)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(string(src), old) {
+		t.Fatalf("%s does not contain %q", rackDoor, old)
+	}
+	dir := t.TempDir()
+	parts, err := os.ReadFile("../../testdata/examples/parts/tubes.loop")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := os.MkdirAll(filepath.Join(dir, "parts"), 0o755); err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(filepath.Join(dir, "parts", "tubes.loop"), parts, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	path := filepath.Join(dir, "rack-door.loop")
+	if err := os.WriteFile(path, []byte(strings.Replace(string(src), old, new, 1)), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	return path
+}
+
+// An estimate with a parameter set on the command line is the estimate of
+// the file with that value written in it, and says it is a variant's.
+func TestEstimateSet(t *testing.T) {
+	edited := editedCopy(t, "param lift = 1.2 m", "param lift = 1.0 m")
+	type result struct {
+		Loops []struct {
+			Cases []struct {
+				Case     string  `json:"case"`
+				MassFlow float64 `json:"mass_flow"`
+			} `json:"cases"`
+		} `json:"loops"`
+		Set []struct {
+			Param       string   `json:"param"`
+			Dimension   string   `json:"dimension"`
+			Value       float64  `json:"value"`
+			Written     string   `json:"written"`
+			FileValue   *float64 `json:"file_value"`
+			FileWritten string   `json:"file_written"`
+		} `json:"set"`
+	}
+	estimate := func(args ...string) result {
+		t.Helper()
+		code, out, errs := runEstimateCmd(t, append([]string{"--no-tilt", "--format", "json"}, args...)...)
+		var res result
+		if err := json.Unmarshal([]byte(out), &res); err != nil || code == exitUsage {
+			t.Fatalf("%v: %d %v %s", args, code, err, errs)
+		}
+		return res
+	}
+	base, set, file := estimate(rackDoor), estimate(rackDoor, "--set", "lift=1.0 m"), estimate(edited)
+	if len(base.Set) != 0 || len(file.Set) != 0 {
+		t.Errorf("a run without --set lists %+v %+v", base.Set, file.Set)
+	}
+	if len(set.Set) != 1 || set.Set[0].Param != "lift" || set.Set[0].Dimension != "length" || set.Set[0].Value != 1.0 ||
+		set.Set[0].Written != "1.0 m" || set.Set[0].FileValue == nil || *set.Set[0].FileValue != 1.2 || set.Set[0].FileWritten != "1.2 m" {
+		t.Errorf("set %+v", set.Set)
+	}
+	if len(set.Loops) != 1 || len(set.Loops[0].Cases) == 0 || len(file.Loops) != 1 || len(file.Loops[0].Cases) != len(set.Loops[0].Cases) {
+		t.Fatalf("loops %+v %+v", set.Loops, file.Loops)
+	}
+	for i, c := range set.Loops[0].Cases {
+		if c.MassFlow != file.Loops[0].Cases[i].MassFlow {
+			t.Errorf("case %s: mass flow %g with --set, %g with the value written", c.Case, c.MassFlow, file.Loops[0].Cases[i].MassFlow)
+		}
+		if c.MassFlow == base.Loops[0].Cases[i].MassFlow {
+			t.Errorf("case %s: mass flow %g unchanged by a lower coil", c.Case, c.MassFlow)
+		}
+	}
+	code, out, _ := runEstimateCmd(t, "--no-tilt", "--set", "lift=1.0 m", rackDoor)
+	if code == exitUsage || !strings.Contains(out, "variant: lift = 1.0 m in place of the file's 1.2 m\n") {
+		t.Errorf("text: %d %s", code, out)
+	}
+	code, out, _ = runEstimateCmd(t, "--no-tilt", "--format", "csv", "--set", "lift=1.0 m", rackDoor)
+	if code == exitUsage || !strings.Contains(out, "\n# variant: lift = 1.0 m in place of the file's 1.2 m\n") {
+		t.Errorf("csv: %d %s", code, out)
+	}
+}
+
+func TestSetErrors(t *testing.T) {
+	for _, tc := range []struct {
+		cmd  string
+		args []string
+		want string
+	}{
+		{"estimate", []string{"--set", "lfit=1 m"}, "rack-door.loop: --set: lfit: no such parameter at the top level; did you mean lift?"},
+		{"estimate", []string{"--set", "lift=1 kW"}, "--set: lift: expected a length, found a power (kW); the file gives 1.2 m at"},
+		{"estimate", []string{"--set", "lift=1 m", "--set", "lift=2 m"}, "lift: given twice"},
+		{"estimate", []string{"--set", "lift"}, `invalid value "lift" for flag -set: "lift": want NAME=VALUE`},
+		{"estimate", []string{"--set", "lift=1 mx"}, "lift: column 3: unknown unit"},
+		{"plot", []string{"--set", "zz=1 m"}, "--set: zz: no such parameter"},
+		{"report", []string{"--set", "zz=1 m"}, "--set: zz: no such parameter"},
+		{"check", []string{"--set", "zz=1 m"}, "--set: zz: no such parameter"},
+	} {
+		code, _, errs := runCommand(t, append(append([]string{tc.cmd}, tc.args...), rackDoor)...)
+		if code != exitUsage || !strings.Contains(errs, tc.want) {
+			t.Errorf("%s %v: %d %q, want status 2 and %q", tc.cmd, tc.args, code, errs, tc.want)
+		}
+	}
+}
+
+// check notes a parameter set for the run where the file writes it, in
+// every format, and finds what the file with that value written finds.
+func TestCheckSet(t *testing.T) {
+	code, out, errs := runCommand(t, "check", "--no-estimates", rackDoor, "--set", "plate_height=0.3 m")
+	if code != exitOK || !strings.Contains(out, "rack-door.loop:6:22: hint: plate_height is 0.3 m in this run in place of the file's 0.35 m [param-set]") {
+		t.Errorf("text: %d %s %s", code, out, errs)
+	}
+	type report struct {
+		Findings []struct {
+			Rule     string `json:"rule"`
+			Severity string `json:"severity"`
+			Message  string `json:"message"`
+		} `json:"findings"`
+	}
+	check := func(args ...string) (int, []string) {
+		t.Helper()
+		code, out, errs := runCommand(t, append([]string{"check", "--format", "json"}, args...)...)
+		var rep report
+		if err := json.Unmarshal([]byte(out), &rep); err != nil {
+			t.Fatalf("%v: %v %s", args, err, errs)
+		}
+		var fs []string
+		for _, f := range rep.Findings {
+			fs = append(fs, f.Severity+" "+f.Rule+": "+f.Message)
+		}
+		return code, fs
+	}
+	edited := editedCopy(t, "param lift = 1.2 m", "param lift = 0.5 m")
+	codeSet, set := check("--set", "lift=0.5 m", rackDoor)
+	codeFile, file := check(edited)
+	if len(set) == 0 || set[0] != "hint param-set: lift is 0.5 m in this run in place of the file's 1.2 m" {
+		t.Fatalf("findings with --set: %q", set)
+	}
+	if codeSet != codeFile || strings.Join(set[1:], "\n") != strings.Join(file, "\n") {
+		t.Errorf("with --set (status %d):\n%s\nwith the value written (status %d):\n%s", codeSet, strings.Join(set, "\n"), codeFile, strings.Join(file, "\n"))
+	}
+	// A hint never fails a check, whatever --fail-on says.
+	code, _, errs = runCommand(t, "check", "--no-estimates", "--fail-on", "info", "--set", "lift=1.2 m", rackDoor)
+	base, _, _ := runCommand(t, "check", "--no-estimates", "--fail-on", "info", rackDoor)
+	if code != base {
+		t.Errorf("status %d with a --set that changes nothing, %d without: %s", code, base, errs)
+	}
+}
+
+func TestPlotAndReportSet(t *testing.T) {
+	dir := t.TempDir()
+	code, _, errs := runCommand(t, "plot", "--case", "hot_aisle", "--out", dir, "--set", "lift=1.0m", rackDoor)
+	if code != exitOK {
+		t.Fatalf("plot: %d %s", code, errs)
+	}
+	svg, err := os.ReadFile(filepath.Join(dir, "rack-circulation.svg"))
+	if err != nil || !strings.Contains(string(svg), "(variant: lift=1.0m)") {
+		t.Errorf("circulation figure: %v, no variant in its title", err)
+	}
+	code, out, errs := runCommand(t, "report", "--set", "lift=1.0m", rackDoor)
+	if code == exitUsage || !strings.Contains(out, "variant: lift = 1.0m in place of the file&#39;s 1.2 m: this report is of a variant") {
+		t.Errorf("report: %d %s", code, errs)
+	}
+}
