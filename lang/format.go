@@ -4,7 +4,6 @@ import (
 	"bytes"
 	"errors"
 	"fmt"
-	"sort"
 	"strings"
 )
 
@@ -40,14 +39,6 @@ func Format(f *File) ([]byte, error) {
 			f.Path, pos.Line+1, pos.Col+1, d.Message(), len(f.Errors))
 	}
 	fm := &formatter{f: f}
-	for i, src := 0, f.Src; ; {
-		j := bytes.IndexByte(src[i:], '\n')
-		if j < 0 {
-			break
-		}
-		i += j + 1
-		fm.nl = append(fm.nl, i)
-	}
 	fm.collect(f.Stmts, 0)
 	return fm.print(), nil
 }
@@ -68,13 +59,11 @@ type formatter struct {
 	f     *File
 	items []item
 	buf   strings.Builder
-	nl    []int // the offset after each "\n"
 }
 
-// lineOf is the line of an offset as the language counts lines, which end
-// at "\n" only: a lone "\r", a line end for positions, is a blank here, so
-// it neither separates statements nor makes a blank line.
-func (fm *formatter) lineOf(off int) int { return sort.SearchInts(fm.nl, off+1) }
+// lineOf is the line of an offset: lines end at "\n", "\r\n" or a lone
+// "\r", for the language as for positions.
+func (fm *formatter) lineOf(off int) int { return fm.f.Mapper.OffsetLine(off) }
 
 // collect flattens statements and closing braces in source order.
 func (fm *formatter) collect(stmts []*Stmt, depth int) {

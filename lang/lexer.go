@@ -147,19 +147,20 @@ func (s *scanner) nextLine() bool {
 		c := src[s.pos]
 		start := s.pos
 		switch {
-		case isBlank(c):
-			for s.pos < len(src) && isBlank(src[s.pos]) {
-				s.pos++
-			}
-			s.emit(TokSpace, start)
-		case c == '\n':
+		case c == '\n' || loneCR(src, s.pos):
 			s.pos++
 			s.emit(TokNewline, start)
 			s.line++
 			s.lineStart = s.pos
 			return true
+		case isBlank(c):
+			for s.pos < len(src) && isBlank(src[s.pos]) && !loneCR(src, s.pos) {
+				s.pos++
+			}
+			s.emit(TokSpace, start)
 		case c == '#':
-			for s.pos < len(src) && src[s.pos] != '\n' {
+			// A comment ends at the line's end, "\r\n" and a lone "\r" included.
+			for s.pos < len(src) && src[s.pos] != '\n' && src[s.pos] != '\r' {
 				s.pos++
 			}
 			s.comments = append(s.comments, Comment{Span: Span{start, s.pos}, Text: s.str[start:s.pos]})
@@ -272,7 +273,7 @@ func isHexDigit(c byte) bool { return isDigit(c) || (c|0x20 >= 'a' && c|0x20 <= 
 func (s *scanner) maybeUnit() {
 	src := s.src
 	p := s.pos
-	for p < len(src) && isBlank(src[p]) {
+	for p < len(src) && isBlank(src[p]) && !loneCR(src, p) {
 		p++
 	}
 	if p >= len(src) || !s.unitStart(p) {
@@ -412,9 +413,15 @@ func (s *scanner) scanString() {
 func isDigit(c byte) bool { return c >= '0' && c <= '9' }
 
 // isBlank reports the characters a Space token holds; every kind of blank
-// separates the same way.
+// separates the same way. A '\r' is a blank only before a '\n' (see loneCR).
 func isBlank(c byte) bool {
 	return c == ' ' || c == '\t' || c == '\r' || c == '\f' || c == '\v'
+}
+
+// loneCR reports whether src[p] is a '\r' not followed by '\n': a line end,
+// as for the Mapper and the editor protocol, not a blank.
+func loneCR(src []byte, p int) bool {
+	return src[p] == '\r' && (p+1 == len(src) || src[p+1] != '\n')
 }
 func isPunct(c byte) bool {
 	switch c {

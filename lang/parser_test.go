@@ -254,7 +254,7 @@ func TestLexUnits(t *testing.T) {
 		{"q a\f-2", "q E[T[F[ref(a)]]] E[T[F[num(-2)]]]\n"},
 		// An unclosed parenthesis does not swallow what follows it.
 		{"q 0 A( 0", "q E[T[F[num(0) unit(A()]]] E[T[F[num(0)]]]\n"},
-		{"q 0 A(\r0", "q E[T[F[num(0) unit(A()]]] E[T[F[num(0)]]]\n"},
+		{"q 0 A(\f0", "q E[T[F[num(0) unit(A()]]] E[T[F[num(0)]]]\n"},
 		{"node a at (0, 0, 1) m", "node E[T[F[ref(a)]]] key(at) E[T[F[group(E[T[F[num(0)]]], E[T[F[num(0)]]], E[T[F[num(1)]]]) unit(m)]]]\n"},
 		{"pipe p from a to b", "pipe E[T[F[ref(p)]]] key(from) E[T[F[ref(a)]]] key(to) E[T[F[ref(b)]]]\n"},
 		{"case c nominal", "case E[T[F[ref(c)]]] E[T[F[ref(nominal)]]]\n"},
