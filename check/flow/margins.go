@@ -581,6 +581,10 @@ const (
 	// last attitude's balance it converges in a few steps where a balance
 	// exists, and near a limit it should fail fast.
 	tiltNewtonSteps = 20
+	// tiltStepTol is the relative tolerance of the solves while stepping
+	// towards a limit: they tell whether a balance exists, how far the
+	// condition is from zero and where the next step starts.
+	tiltStepTol = 1e-4
 )
 
 // tiltWalk is what the search carries from one attitude to the next: the
@@ -709,6 +713,8 @@ func (p *prepared) tilt(s *state, pt point, cr *CaseResult, start []float64) {
 	}
 	ts.newtonCap = tiltNewtonSteps
 	s = &ts
+	sc := ts
+	sc.looseTol = math.Max(ts.looseTol, tiltStepTol)
 	search := func(axis int, sign float64) *float64 {
 		w := &tiltWalk{f: append([]float64(nil), start...)}
 		body := func(d float64) geom.Vec3 {
@@ -721,8 +727,10 @@ func (p *prepared) tilt(s *state, pt point, cr *CaseResult, start []float64) {
 			return geom.BodyForceAt(pt.yaw, pitch, roll, pt.accel)
 		}
 		var good [][2]float64 // the attitudes that circulate, ascending, and their condition
+		// The state of the steps, then of the refinement.
+		at := &sc
 		eval := func(d float64, cold bool) (c, h float64) {
-			c, h = p.circulation(s, body(d), d, w, cold)
+			c, h = p.circulation(at, body(d), d, w, cold)
 			if c > 0 {
 				good = append(good, [2]float64{d, c})
 			}
@@ -742,6 +750,7 @@ func (p *prepared) tilt(s *state, pt point, cr *CaseResult, start []float64) {
 				lo, clo, hlo = d, c, h
 				continue
 			}
+			at = s
 			if math.IsInf(clo, 1) {
 				// The first step already fails: bracket from the case's
 				// own attitude.

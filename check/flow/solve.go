@@ -33,6 +33,14 @@ func (s *state) newEval() *eval {
 		dp: make([]float64, len(n.branches)), e: make([]float64, len(n.cycles))}
 }
 
+// copyFrom makes ev a copy of o (of the same network).
+func (ev *eval) copyFrom(o *eval) {
+	copy(ev.mb, o.mb)
+	copy(ev.xj, o.xj)
+	copy(ev.dp, o.dp)
+	copy(ev.e, o.e)
+}
+
 // branchFlows sets the branch flows from the cycle flows.
 func (s *state) branchFlows(f []float64, ev *eval) {
 	for bi := range ev.mb {
@@ -777,6 +785,7 @@ func (s *state) newton(ev *eval, f []float64, jc *jacobianCache) ([]float64, int
 		return s
 	}
 	var sens *sensitivity
+	var at *eval // the evaluation at f while a step is tried
 	evaluated := false
 	steps, halvings := 60, 30
 	if s.newtonCap > 0 {
@@ -812,10 +821,13 @@ func (s *state) newton(ev *eval, f []float64, jc *jacobianCache) ([]float64, int
 			if fresh {
 				return f, it, errNoConverge
 			}
-			s.evaluate(f, ev) // the residual at f again, for a fresh Jacobian
-			evaluated = true
+			evaluated = true // ev still holds the residual at f
 			continue
 		}
+		if at == nil {
+			at = s.newEval()
+		}
+		at.copyFrom(ev)
 		lambda := 1.0
 		ok := false
 		for ls := 0; ls < halvings; ls++ {
@@ -840,7 +852,7 @@ func (s *state) newton(ev *eval, f []float64, jc *jacobianCache) ([]float64, int
 			if fresh {
 				return f, it, errNoConverge
 			}
-			s.evaluate(f, ev)
+			ev.copyFrom(at) // the residual at f, for a fresh Jacobian
 			evaluated = true
 			continue
 		}
