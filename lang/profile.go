@@ -164,8 +164,10 @@ func (r *resolver) caseProfile(c *Case, s *Stmt) {
 		c.Unresolved = true
 		return
 	}
-	if ok {
-		ok = r.profileTimes(p)
+	// The rows that did read are checked for order too, so a file with a
+	// bad value and a time out of order shows both.
+	if !r.profileTimes(p) {
+		ok = false
 	}
 	c.Profile = p
 	if !ok {

@@ -263,6 +263,7 @@ func (s *Server) caseEstimate(c *cursor, cs *lang.Case) string {
 			}
 			fmt.Fprintf(&b, "\nworst margin: **%s**%s — %s of %s, %.0f %% of the limit used (%s)\n", w.Margin, at, fmtNum(w.Value), fmtLimit(w.Limit, w.Unit), 100*w.Use, w.Status)
 		}
+		b.WriteString(manoeuvreEstimate(cr))
 	}
 	return b.String()
 }

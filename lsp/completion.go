@@ -52,6 +52,10 @@ func scopeAt(c *cursor) scope {
 			sc = scope{kind: "part"}
 		case "case", "limits", "methods":
 			sc = scope{kind: kw}
+		case "profile", "envelope":
+			if sc.kind == "case" {
+				sc = scope{kind: kw}
+			}
 		default:
 			for i, k := range lang.Kinds() {
 				if k == kw {
@@ -125,6 +129,8 @@ func complete(c *cursor) []protocol.CompletionItem {
 				}
 			}
 		}
+	case sc.kind == "profile" && kw == "columns":
+		b.words(lang.ProfileColumns, protocol.CompletionItemKindField)
 	case kw == "case" && len(words) == 2:
 		b.words([]string{"nominal"}, protocol.CompletionItemKindKeyword)
 	case kw == "param" && len(words) >= 3 || kw != "param":
@@ -167,6 +173,10 @@ func statementWords(sc scope) []string {
 		return lang.LimitFields
 	case "methods":
 		return lang.MethodFields
+	case "profile":
+		return lang.ProfileFields
+	case "envelope":
+		return lang.EnvelopeFields
 	}
 	return topWords
 }

@@ -328,6 +328,7 @@ func (s *Server) caseHover(c *cursor, cs *lang.Case) string {
 	if cs.Saturation.Set {
 		fmt.Fprintf(&b, "- saturation: %s\n", asWritten(cs.Saturation, "degC"))
 	}
+	b.WriteString(manoeuvreHover(cs))
 	diags, _, _ := c.a.checks()
 	b.WriteString(caseTiltHover(diags, c.m, cs))
 	b.WriteString(s.caseEstimate(c, cs))

@@ -41,7 +41,7 @@ func TestShapeHover(t *testing.T) {
 // Every statement word completion offers, in every scope, has a one-line
 // description.
 func TestWordDocs(t *testing.T) {
-	for _, sc := range []scope{{kind: ""}, {kind: "loop"}, {kind: "part"}, {kind: "case"}, {kind: "limits"}, {kind: "methods"}} {
+	for _, sc := range []scope{{kind: ""}, {kind: "loop"}, {kind: "part"}, {kind: "case"}, {kind: "limits"}, {kind: "methods"}, {kind: "profile"}, {kind: "envelope"}} {
 		for _, w := range statementWords(sc) {
 			if d := wordDoc(sc.kind, w); d == "" || strings.Contains(d, "\n") {
 				t.Errorf("%s %q: description %q", sc.kind, w, d)

@@ -51,11 +51,24 @@ func inlayHintRequest(ctx context.Context, s *Server, sn *snapshot, params []byt
 			if label := componentHint(cur, est, c); label != "" {
 				hint(mp.LineEnd(mp.OffsetLine(c.Span.Start)), label)
 			}
+			for _, h := range fieldHints(cur, est, c) {
+				if h.file == path {
+					hint(mp.LineEnd(mp.OffsetLine(h.off)), h.label)
+				}
+			}
 		}
 		if l.BlockClose >= 0 {
 			if rise, ok := riseClosure(l); ok {
 				hint(l.BlockClose+1, "rise closure "+units.Format(rise, units.MustParse("mm")))
 			}
+		}
+	}
+	for _, cs := range m.Cases {
+		if cs.File != path {
+			continue
+		}
+		for _, h := range caseHints(est, cs) {
+			hint(mp.LineEnd(mp.OffsetLine(h.off)), h.label)
 		}
 	}
 	return out, nil

@@ -64,6 +64,14 @@ var wordDocs = map[string]string{
 	"case:saturation":  "fix the saturation temperature in this case",
 	"profile":          "attitude and acceleration against time: a block of rows, or a CSV file \"FILE.csv\"",
 	"envelope":         "bounds to search for the worst attitude and acceleration: { pitch LOW HIGH … }",
+	// Profiles and envelopes.
+	"profile:columns": "the profile's columns, time first: columns time pitch roll accel_x accel_y accel_z",
+	"profile:row":     "one instant: its time, then one value per column: row 2 s -3 deg 0.1 gn",
+	"envelope:pitch":  "pitch bounds: pitch LOW HIGH, or pitch HALF for ±HALF",
+	"envelope:roll":   "roll bounds: roll LOW HIGH, or roll HALF for ±HALF",
+	"accel_x":         "forward acceleration bounds: accel_x LOW HIGH, or accel_x HALF",
+	"accel_y":         "lateral (leftward) acceleration bounds: accel_y LOW HIGH, or accel_y HALF",
+	"accel_z":         "upward acceleration bounds: accel_z LOW HIGH, or accel_z HALF",
 	// Limits.
 	"exit_quality":   "highest evaporator exit quality (default 0.5, common practice)",
 	"chf_ratio":      "least ratio of critical to wall heat flux (default 2, common practice)",
