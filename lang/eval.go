@@ -361,6 +361,7 @@ func (r *resolver) param(name string) (units.Quantity, bool) {
 	ps.state, ps.q, ps.ok = 2, q, ok
 	if ok {
 		ps.p.Value = r.atV(Value{SI: q.SI, Set: true}, ps.p.File, ps.p.Expr.Span(), ut)
+		ps.p.Dim, ps.p.AbsTemp = q.Dim, q.AbsTemp
 	}
 	return q, ok
 }

@@ -1,5 +1,7 @@
 package lang
 
+import "circa/units"
+
 // The typed model: what a set of .loop files says, in SI, with every value
 // remembering where it was written. The checker reads only this.
 
@@ -159,6 +161,11 @@ type Param struct {
 	Decl
 	Value Value
 	Expr  *Expr
+	// Dim and AbsTemp are the value's dimension and whether it is an
+	// absolute temperature, so that a variant can give it another value of
+	// the same kind.
+	Dim     units.Dim
+	AbsTemp bool
 }
 
 // Part is a named set of component fields.
