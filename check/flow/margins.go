@@ -511,7 +511,13 @@ func (p *prepared) chargeMargin(s *state, cr *CaseResult) {
 	drho := math.Max(s.p.RhoL-s.p.RhoV, 1e-9)
 	full := vol * s.p.RhoL
 	cr.ChargeRange = &ChargeRange{Charge: ch.SI, Low: least - ChargeLevelWarn*drho*vLiquid,
-		High: math.Min(most+ChargeFloodWarn*drho*vCond, full)}
+		High: math.Min(most+ChargeFloodWarn*drho*vCond, full), HighBy: ChargeByCondenser}
+	switch {
+	case cr.ChargeRange.High == full:
+		cr.ChargeRange.HighBy = ChargeByFull
+	case cr.Totals.Reservoirs > 0:
+		cr.ChargeRange.HighBy = ChargeByReservoir
+	}
 	if ch.SI > full {
 		m := Margin{Margin: MarginCharge, Value: ch.SI, Limit: full, Unit: "kg", Use: ch.SI / math.Max(full, 1e-300), Status: "error"}
 		cr.add(m)
@@ -926,14 +932,14 @@ func chargeRange(cases []CaseResult) *ChargeRange {
 			point = c.PointLabel()
 		}
 		if out == nil {
-			out = &ChargeRange{Charge: r.Charge, Low: r.Low, High: r.High, LowCase: c.Case, HighCase: c.Case, LowPoint: point, HighPoint: point}
+			out = &ChargeRange{Charge: r.Charge, Low: r.Low, High: r.High, LowCase: c.Case, HighCase: c.Case, LowPoint: point, HighPoint: point, HighBy: r.HighBy}
 			continue
 		}
 		if r.Low > out.Low {
 			out.Low, out.LowCase, out.LowPoint = r.Low, c.Case, point
 		}
 		if r.High < out.High {
-			out.High, out.HighCase, out.HighPoint = r.High, c.Case, point
+			out.High, out.HighCase, out.HighPoint, out.HighBy = r.High, c.Case, point, r.HighBy
 		}
 	}
 	return out

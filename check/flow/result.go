@@ -267,7 +267,22 @@ type ChargeRange struct {
 	// one does.
 	LowPoint  string `json:"low_point,omitempty"`
 	HighPoint string `json:"high_point,omitempty"`
+	// HighBy says what sets the high end: ChargeByCondenser,
+	// ChargeByReservoir or ChargeByFull.
+	HighBy string `json:"high_by,omitempty"`
 }
+
+// What sets the high end of a charge range.
+const (
+	// ChargeByCondenser: the surplus floods the condensers.
+	ChargeByCondenser = "condenser"
+	// ChargeByReservoir: the reservoirs are full and the surplus floods the
+	// condensers.
+	ChargeByReservoir = "reservoir"
+	// ChargeByFull: the liquid fills the whole loop, leaving no room for
+	// vapour.
+	ChargeByFull = "full"
+)
 
 // TiltLimits are the attitudes, from the case's own, at which circulation
 // stops. A nil limit means none within half a turn.
