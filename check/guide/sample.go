@@ -1,0 +1,118 @@
+package guide
+
+import (
+	"fmt"
+	"strings"
+
+	"circa/check/flow"
+	"circa/lang"
+)
+
+// margins maps each margin of an estimate, where it is evaluated, to its use.
+type margins map[Where]float64
+
+// summarize turns an estimate at value x into a sample: the largest use of
+// the margins that count (keep; nil: all) and where it is, or why the
+// estimate is not usable there; and every margin's use.
+func summarize(res *flow.Result, x float64, keep func(Where) bool) (Sample, margins) {
+	s := Sample{X: x}
+	ms := margins{}
+	first := true
+	for _, l := range res.Loops {
+		for _, f := range l.Findings {
+			if f.Severity == "error" && s.Stop == nil {
+				s.Stop = &Stop{Kind: StopError, Message: f.Message}
+			}
+		}
+		for ci := range l.Cases {
+			c := &l.Cases[ci]
+			if c.Grid {
+				continue
+			}
+			if st := caseStop(c); st != nil && s.Stop == nil {
+				s.Stop = st
+			}
+			for _, m := range c.Margins {
+				w := Where{Loop: l.Loop, Margin: m.Margin, Case: c.Case, Component: m.Component}
+				ms[w] = m.Use
+				if keep != nil && !keep(w) {
+					continue
+				}
+				if first || m.Use > s.Use {
+					s.Use, s.Limit, first = m.Use, w, false
+				}
+			}
+		}
+	}
+	return s, ms
+}
+
+// caseStop says why a case's estimate is not usable, or returns nil: it
+// does not circulate (under heat), it has several balances, or it carries
+// an error that is no margin's.
+func caseStop(c *flow.CaseResult) *Stop {
+	if !c.Circulates && c.Heat > 0 {
+		return &Stop{Kind: StopNoCirculation, Case: c.Case, Message: fmt.Sprintf("no circulation in case %s: %s", c.Case, c.Reason)}
+	}
+	if len(c.Roots) > 1 {
+		var flows []string
+		for _, r := range c.Roots {
+			kind := "stable"
+			if !r.Stable {
+				kind = "unstable"
+			}
+			flows = append(flows, fmt.Sprintf("%.3g g/s %s", r.MassFlow*1e3, kind))
+		}
+		return &Stop{Kind: StopSeveralRoots, Case: c.Case,
+			Message: fmt.Sprintf("the momentum balance has %d roots in case %s (%s)", len(c.Roots), c.Case, strings.Join(flows, ", "))}
+	}
+	for _, f := range c.Findings {
+		if f.Severity == "error" && !strings.HasPrefix(f.Rule, "margin-") {
+			return &Stop{Kind: StopError, Case: c.Case, Message: f.Message}
+		}
+	}
+	return nil
+}
+
+// invalid is the stop for a value that makes the file invalid.
+func invalid(m *lang.Model, err error) *Stop {
+	if err != nil {
+		return &Stop{Kind: StopInvalid, Message: "the file is invalid at this value: " + err.Error()}
+	}
+	for _, d := range m.Diags {
+		if d.Severity == lang.Error {
+			return &Stop{Kind: StopInvalid, Message: "the file is invalid at this value: " + d.Message()}
+		}
+	}
+	return nil
+}
+
+// marginWords names each margin in words.
+var marginWords = map[string]string{
+	flow.MarginExitQuality: "exit quality",
+	flow.MarginCHF:         "critical heat flux ratio",
+	flow.MarginFlooding:    "flooding",
+	flow.MarginWall:        "wall temperature",
+	flow.MarginJunction:    "junction temperature",
+	flow.MarginPressure:    "design pressure",
+	flow.MarginCondenser:   "condenser capacity",
+	flow.MarginCharge:      "charge",
+	flow.MarginHead:        "loss reserve",
+	flow.MarginTilt:        "tilt margin",
+}
+
+// Describe says where a margin is, in words: "exit quality at cold_plate in
+// case desert_peak".
+func (w Where) Describe() string {
+	s := marginWords[w.Margin]
+	if s == "" {
+		s = strings.ReplaceAll(w.Margin, "_", " ")
+	}
+	if w.Component != "" {
+		s += " at " + w.Component
+	}
+	if w.Case != "" && w.Case != flow.NoCase {
+		s += " in case " + w.Case
+	}
+	return s
+}

@@ -1,0 +1,330 @@
+package guide
+
+import (
+	"context"
+	"math"
+)
+
+// Sample is what the estimate says at one value of a parameter.
+type Sample struct {
+	X float64
+	// Use is the largest fraction of its limit any margin uses in any case:
+	// every margin holds while it is at most 1.
+	Use float64
+	// Limit is the margin that uses the most.
+	Limit Where
+	// Stop is set where the estimate gives no usable answer at X (no
+	// circulation, several balances, a file the value makes invalid).
+	Stop *Stop
+}
+
+// Feasible reports whether every margin holds in every case at s.X.
+func (s Sample) Feasible() bool { return s.Stop == nil && s.Use <= 1 }
+
+// Where names a margin and where it is evaluated.
+type Where struct {
+	Loop      string `json:"loop,omitempty"`
+	Margin    string `json:"margin,omitempty"`
+	Case      string `json:"case,omitempty"`
+	Component string `json:"component,omitempty"`
+}
+
+// Stop says why the estimate gives no usable answer at a value.
+type Stop struct {
+	Kind    string // StopNoCirculation, StopSeveralRoots, StopInvalid, StopError
+	Case    string
+	Message string
+}
+
+// Kinds of Stop.
+const (
+	StopNoCirculation = "no-circulation"
+	StopSeveralRoots  = "several-balances"
+	StopInvalid       = "invalid"
+	StopError         = "estimate-error"
+	// StopNoCharge: in a fluid ranking, no charge suits every case.
+	StopNoCharge = "no-charge"
+)
+
+// axis maps a search coordinate u to a parameter value: geometric about a
+// nonzero value x0 (x = x0·e^u keeps the value's sign), linear with a
+// scale about zero. Increasing u moves away from x0 on the side dir.
+type axis struct {
+	x0, scale float64
+}
+
+// at returns the value at coordinate u on side dir (+1 larger values, −1
+// smaller).
+func (a axis) at(u float64, dir int) float64 {
+	if a.x0 == 0 {
+		return float64(dir) * a.scale * u
+	}
+	// Larger values of a positive x0 are x0·e^u; of a negative x0, x0·e^−u.
+	s := float64(dir)
+	if a.x0 < 0 {
+		s = -s
+	}
+	return a.x0 * math.Exp(s*u)
+}
+
+// steps are the search coordinates tried outward from the current value: a
+// value grows by 10 %, 25 %, 60 % ... up to a hundredfold (or shrinks as
+// much; about zero, moves by 0.1 to 100 of its unit); the geometric growth
+// brackets a limit in a few evaluations and the root-finding closes it.
+var steps = func() []float64 {
+	factors := []float64{1.1, 1.25, 1.6, 2.5, 4, 10, 100}
+	u := make([]float64, len(factors))
+	for i, f := range factors {
+		u[i] = math.Log(f)
+	}
+	return u
+}()
+
+var zeroSteps = []float64{0.1, 0.3, 1, 3, 10, 30, 100}
+
+func (a axis) steps() []float64 {
+	if a.x0 == 0 {
+		return zeroSteps
+	}
+	return steps
+}
+
+// tol is the width, in search coordinates, to which a limit is closed:
+// 0.1 % on a geometric axis (a range is printed to three digits), a
+// thousandth of the unit about zero.
+func (a axis) tol() float64 { return 1e-3 }
+
+// Bound is one end of a feasible range.
+type Bound struct {
+	// Value is the last value at which every margin holds (SI), or for an
+	// unbounded side the farthest value searched.
+	Value float64 `json:"value"`
+	// Unbounded is true when no limit was met up to Value.
+	Unbounded bool `json:"unbounded,omitempty"`
+	// Limit is the margin that reaches its limit past Value.
+	Limit Where `json:"limit"`
+	// Stop is why the range ends when it is not a margin: "no-circulation",
+	// "several-balances", "invalid" or "estimate-error".
+	Stop string `json:"stop,omitempty"`
+	// Reason says in words why the range ends.
+	Reason string `json:"reason,omitempty"`
+}
+
+// eval is the function searched: a sample of the estimate at a value.
+type eval func(x float64) Sample
+
+// side searches from the feasible sample s0 outward on side dir and returns
+// the bound there.
+func side(ctx context.Context, f eval, ax axis, dir int, s0 Sample) (Bound, bool) {
+	in, inU := s0, 0.0
+	for _, u := range ax.steps() {
+		if ctx.Err() != nil {
+			return Bound{}, false
+		}
+		s := f(ax.at(u, dir))
+		if !s.Feasible() {
+			lo, hi, ok := refine(ctx, f, ax, dir, inU, u, in, s)
+			if !ok {
+				return Bound{}, false
+			}
+			return boundOf(lo, hi), true
+		}
+		in, inU = s, u
+	}
+	return Bound{Value: in.X, Unbounded: true}, true
+}
+
+// seek looks outward from an infeasible current value on side dir for the
+// nearest feasible value. It returns the limit between them (the range's
+// inner end) and the feasible sample found with its coordinate; without
+// one, the usable sample of least use met (best). A side along which the
+// limiting margin's use has grown three steps running, beyond the first
+// doubling of the value, is given up: the design only gets worse that way.
+func seek(ctx context.Context, f eval, ax axis, dir int, s0 Sample) (inner Bound, seed Sample, seedU float64, found bool, best Sample) {
+	out, outU := s0, 0.0
+	best = s0
+	worse := 0
+	for _, u := range ax.steps() {
+		if ctx.Err() != nil {
+			return Bound{}, Sample{}, 0, false, best
+		}
+		s := f(ax.at(u, dir))
+		if s.Feasible() {
+			lo, hi, ok := refine(ctx, f, ax, dir, u, outU, s, out)
+			if !ok {
+				return Bound{}, Sample{}, 0, false, best
+			}
+			return boundOf(lo, hi), s, u, true, best
+		}
+		if s.Stop == nil && (best.Stop != nil || s.Use < best.Use) {
+			best = s
+		}
+		if s.Stop == nil && out.Stop == nil && s.Use > out.Use {
+			worse++
+		} else {
+			worse = 0
+		}
+		out, outU = s, u
+		if worse >= 3 && u > math.Log(2) {
+			break
+		}
+	}
+	return Bound{}, Sample{}, 0, false, best
+}
+
+// sideFrom continues outward past a feasible seed at coordinate u0.
+func sideFrom(ctx context.Context, f eval, ax axis, dir int, seed Sample, u0 float64) (Bound, bool) {
+	in, inU := seed, u0
+	for _, u := range ax.steps() {
+		if u <= u0 {
+			continue
+		}
+		if ctx.Err() != nil {
+			return Bound{}, false
+		}
+		s := f(ax.at(u, dir))
+		if !s.Feasible() {
+			lo, hi, ok := refine(ctx, f, ax, dir, inU, u, in, s)
+			if !ok {
+				return Bound{}, false
+			}
+			return boundOf(lo, hi), true
+		}
+		in, inU = s, u
+	}
+	return Bound{Value: in.X, Unbounded: true}, true
+}
+
+// boundOf is the bound between the feasible sample in and the infeasible
+// sample out next to it.
+func boundOf(in, out Sample) Bound {
+	b := Bound{Value: in.X}
+	if out.Stop != nil {
+		b.Stop = out.Stop.Kind
+		b.Reason = out.Stop.Message
+		b.Limit = Where{Case: out.Stop.Case}
+		return b
+	}
+	b.Limit = out.Limit
+	b.Reason = out.Limit.Describe() + " reaches its limit"
+	return b
+}
+
+// gap is a margin's distance from its limit as the root-finding sees it:
+// negative while it holds. Uses beyond a millionfold are clipped so that
+// interpolation stays meaningful.
+func gap(s Sample) float64 { return math.Min(s.Use, 1e6) - 1 }
+
+// refine closes the bracket between the feasible sample in (coordinate ui)
+// and the infeasible sample out (coordinate uo) to the axis tolerance. Where
+// the infeasible end is a stop (no usable estimate) it bisects; between two
+// usable estimates it follows the limiting margin's use by Brent's method
+// (Brent 1973, Algorithms for Minimization without Derivatives, ch. 4). A
+// stop met inside a Brent bracket becomes its new infeasible end. It returns
+// the closest feasible and infeasible samples.
+func refine(ctx context.Context, f eval, ax axis, dir int, ui, uo float64, in, out Sample) (Sample, Sample, bool) {
+	tol := ax.tol()
+	for iter := 0; iter < 200 && math.Abs(uo-ui) > tol; iter++ {
+		if ctx.Err() != nil {
+			return in, out, false
+		}
+		if out.Stop != nil {
+			um := 0.5 * (ui + uo)
+			s := f(ax.at(um, dir))
+			if s.Feasible() {
+				in, ui = s, um
+			} else {
+				out, uo = s, um
+			}
+			continue
+		}
+		var ok bool
+		in, out, ui, uo, ok = brent(ctx, f, ax, dir, ui, uo, in, out, tol)
+		if !ok {
+			return in, out, false
+		}
+	}
+	return in, out, true
+}
+
+// brent runs Brent's method on the gap between a feasible and an infeasible
+// usable sample until the bracket is within tol, returning the bracket. It
+// returns early, with the bracket so far, when it meets a stop.
+func brent(ctx context.Context, f eval, ax axis, dir int, ui, uo float64, in, out Sample, tol float64) (Sample, Sample, float64, float64, bool) {
+	// b is the latest estimate, c the other end of the sign change, a the
+	// previous b.
+	a, fa, sa := ui, gap(in), in
+	b, fb, sb := uo, gap(out), out
+	c, fc, sc := a, fa, sa
+	d := b - a
+	e := d
+	result := func() (Sample, Sample, float64, float64, bool) {
+		if sb.Feasible() {
+			return sb, sc, b, c, true
+		}
+		return sc, sb, c, b, true
+	}
+	for i := 0; i < 100; i++ {
+		if ctx.Err() != nil {
+			r1, r2, u1, u2, _ := result()
+			return r1, r2, u1, u2, false
+		}
+		if (fb > 0) == (fc > 0) {
+			c, fc, sc = a, fa, sa
+			d = b - a
+			e = d
+		}
+		if math.Abs(fc) < math.Abs(fb) {
+			a, b, c = b, c, b
+			fa, fb, fc = fb, fc, fb
+			sa, sb, sc = sb, sc, sb
+		}
+		t := 2*1e-15*math.Abs(b) + 0.5*tol
+		mid := 0.5 * (c - b)
+		if math.Abs(c-b) <= tol || fb == 0 && sb.Feasible() {
+			return result()
+		}
+		if math.Abs(e) >= t && math.Abs(fa) > math.Abs(fb) {
+			var p, q float64
+			sv := fb / fa
+			if a == c {
+				p = 2 * mid * sv
+				q = 1 - sv
+			} else {
+				q0 := fa / fc
+				r := fb / fc
+				p = sv * (2*mid*q0*(q0-r) - (b-a)*(r-1))
+				q = (q0 - 1) * (r - 1) * (sv - 1)
+			}
+			if p > 0 {
+				q = -q
+			} else {
+				p = -p
+			}
+			if 2*p < math.Min(3*mid*q-math.Abs(t*q), math.Abs(e*q)) {
+				e, d = d, p/q
+			} else {
+				d, e = mid, mid
+			}
+		} else {
+			d, e = mid, mid
+		}
+		a, fa, sa = b, fb, sb
+		if math.Abs(d) > t {
+			b += d
+		} else {
+			b += math.Copysign(t, mid)
+		}
+		sb = f(ax.at(b, dir))
+		if sb.Stop != nil {
+			// A stop between the ends: the bracket's feasible end and this
+			// point continue by bisection.
+			if sc.Feasible() {
+				return sc, sb, c, b, true
+			}
+			return sa, sb, a, b, true
+		}
+		fb = gap(sb)
+	}
+	return result()
+}
