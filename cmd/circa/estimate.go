@@ -1,6 +1,7 @@
 package main
 
 import (
+	"context"
 	"flag"
 	"fmt"
 	"io"
@@ -10,6 +11,7 @@ import (
 
 	"circa/check/flow"
 	"circa/check/geom"
+	"circa/check/guide"
 	"circa/check/output"
 	"circa/lang"
 )
@@ -20,7 +22,7 @@ func init() {
 
 const estimateUsage = `Usage: circa estimate FILE [--case NAME] [--format text|json|csv] [--void M] [--friction M]
        [--sweep-pitch DEG,…] [--sweep-roll DEG,…] [--sweep-accel AX,AY,AZ;…]
-       [--set NAME=VALUE]...
+       [--set NAME=VALUE]... [--no-guidance] [--fluids]
 
 Estimates the steady circulation of each loop in FILE in every operating case:
 mass flow, qualities, void fractions, pressure changes, the saturation state,
@@ -28,7 +30,11 @@ and the design margins (exit quality, critical heat flux, flooding, wall
 temperature, design pressure, condenser, charge, head ratio, tilt limits).
 --set estimates a variant: the parameter takes the value given (with its
 unit, of the dimension the file gives it), and the text and JSON outputs
-list it beside the file's own. The JSON layout is documented in
+list it beside the file's own. Text and JSON then carry design guidance:
+each parameter's and each loop charge's feasible range (every margin in
+every case, the rest as written) with what ends it, and each margin's
+sensitivity to each parameter; --fluids adds the loop estimated with every
+built-in fluid, ranked. The JSON layout is documented in
 docs/estimate-json.md. Exit status 1 when any estimate or margin finding is
 an error, 2 for usage errors.
 
@@ -48,6 +54,9 @@ func runEstimate(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 	fl.StringVar(&opts.Friction, "friction", "", "two-phase friction method (overrides the methods block)")
 	fl.IntVar(&opts.Cells, "cells", 0, "cells per heated component (overrides the methods block)")
 	fl.BoolVar(&opts.NoTilt, "no-tilt", false, "skip the search for the attitudes where circulation stops")
+	var noGuide, fluids bool
+	fl.BoolVar(&noGuide, "no-guidance", false, "skip the design guidance (feasible ranges and sensitivities)")
+	fl.BoolVar(&fluids, "fluids", false, "rank every built-in fluid in each loop (one more estimate per fluid)")
 	fl.StringVar(&pitch, "sweep-pitch", "", "comma-separated pitch angles in degrees to sweep for every case")
 	fl.StringVar(&roll, "sweep-roll", "", "comma-separated roll angles in degrees to sweep for every case")
 	fl.StringVar(&accel, "sweep-accel", "", "semicolon-separated accelerations AX,AY,AZ in standard gravities to sweep for every case, e.g. \"0.5,0,0;-0.5,0,0\"")
@@ -79,7 +88,7 @@ func runEstimate(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 		}
 		opts.Sweep = &sw
 	}
-	m, rc, ok := loadClean(file, "estimate", "no estimate", set, stderr)
+	m, rc, ok := loadClean(file, "estimate", "no estimate and no design guidance", set, stderr)
 	if !ok {
 		return rc
 	}
@@ -90,6 +99,11 @@ func runEstimate(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 		// The tilt lines say where the first margin fails as well.
 		env = output.TiltEnvelopes(m, res, pr.Set)
 	}
+	var g *guide.Guidance
+	if err == nil && format != "csv" && !noGuide {
+		pr.Set("design guidance: feasible ranges and sensitivities")
+		g, err = guide.Compute(context.Background(), m, guide.Options{Flow: opts, Base: res, Fluids: fluids})
+	}
 	pr.Stop()
 	if err != nil {
 		fmt.Fprintf(stderr, "circa estimate: %v\n", err)
@@ -97,11 +111,14 @@ func runEstimate(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 	}
 	switch format {
 	case "json":
-		err = output.EstimateJSON(stdout, res)
+		err = output.EstimateGuidedJSON(stdout, res, g)
 	case "csv":
 		err = output.EstimateCSV(stdout, res)
 	default:
 		err = output.EstimateText(stdout, res, env)
+		if err == nil && g != nil {
+			err = output.GuidanceText(stdout, g, res)
+		}
 	}
 	if err != nil {
 		fmt.Fprintf(stderr, "circa estimate: writing output: %v\n", err)

@@ -1,0 +1,211 @@
+package output
+
+import (
+	"encoding/json"
+	"fmt"
+	"io"
+	"math"
+	"strings"
+
+	"circa/check/flow"
+	"circa/check/guide"
+	"circa/units"
+)
+
+// EstimateGuidedJSON writes the estimate with its design guidance as one
+// indented JSON document: the estimate's fields and "guidance"
+// (docs/estimate-json.md).
+func EstimateGuidedJSON(w io.Writer, res *flow.Result, g *guide.Guidance) error {
+	doc := struct {
+		*flow.Result
+		Guidance *guide.Guidance `json:"guidance,omitempty"`
+	}{res, g}
+	enc := json.NewEncoder(w)
+	enc.SetIndent("", "  ")
+	return enc.Encode(doc)
+}
+
+// levers is how many sensitivities each parameter shows in text.
+const levers = 3
+
+// GuidanceText writes the design guidance for people: each parameter's
+// feasible range with what ends it and its biggest levers, each loop's
+// charge range and, when computed, the fluid ranking. res is the estimate
+// the guidance was computed from (for the units of the design pressure).
+func GuidanceText(w io.Writer, g *guide.Guidance, res *flow.Result) error {
+	ew := &errWriter{w: w}
+	fmt.Fprintln(ew, "\ndesign guidance (each value alone, everything else as written; a range keeps every margin in every case):")
+	if g.Message != "" {
+		fmt.Fprintf(ew, "  %s\n", g.Message)
+		return ew.err
+	}
+	for i := range g.Params {
+		p := &g.Params[i]
+		paramText(ew, "param "+p.Param, p)
+	}
+	for _, l := range g.Loops {
+		if l.Charge != nil {
+			paramText(ew, "charge of loop "+l.Loop, l.Charge)
+		}
+	}
+	if len(g.Params) == 0 && !hasCharge(g) {
+		fmt.Fprintln(ew, "  the file has no parameters and no charge to guide")
+	}
+	for _, l := range g.Loops {
+		if len(l.Fluids) > 0 {
+			fluidsText(ew, l, designUnit(res, l.Loop))
+		}
+	}
+	return ew.err
+}
+
+func hasCharge(g *guide.Guidance) bool {
+	for _, l := range g.Loops {
+		if l.Charge != nil {
+			return true
+		}
+	}
+	return false
+}
+
+func designUnit(res *flow.Result, loop string) string {
+	if res == nil {
+		return ""
+	}
+	for _, l := range res.Loops {
+		if l.Loop == loop {
+			return l.DesignPressureUnit
+		}
+	}
+	return ""
+}
+
+// paramText writes one value's range and levers.
+func paramText(w io.Writer, what string, p *guide.Param) {
+	fmt.Fprintf(w, "  %s = %s: ", what, ValueIn(p.Value, p.Unit))
+	if !p.Influences {
+		fmt.Fprintln(w, "influences no estimate")
+		return
+	}
+	fmt.Fprintln(w, RangeText(p.Range, p.Unit))
+	if len(p.Sensitivities) == 0 {
+		return
+	}
+	var parts []string
+	for i, s := range p.Sensitivities {
+		if i == levers {
+			break
+		}
+		approx := ""
+		if s.Coarse {
+			approx = "≈"
+		}
+		parts = append(parts, fmt.Sprintf("%s %s%s", s.Where.Describe(), approx, signed(s.PerTenPercent)))
+	}
+	fmt.Fprintf(w, "    biggest levers (change of margin use for +10 %%): %s\n", strings.Join(parts, "; "))
+}
+
+// RangeText says in words what a feasible range is and what ends it.
+func RangeText(r *guide.Range, unit string) string {
+	v := func(x float64) string { return ValueIn(x, unit) }
+	if r == nil {
+		return "range not searched"
+	}
+	if !r.Feasible {
+		s := "no value searched keeps every margin"
+		if r.Reason != "" {
+			s = r.Reason
+		}
+		if b := r.Best; b != nil {
+			s += fmt.Sprintf("; closest at %s, where %s uses %s of its limit", v(b.Value), b.Limit.Describe(), sig(b.Use, 3))
+		}
+		return s
+	}
+	end := func(b *guide.Bound, side string) string {
+		return fmt.Sprintf("%s (%s: %s)", v(b.Value), side, b.Reason)
+	}
+	var s string
+	switch {
+	case r.Low.Unbounded && r.High.Unbounded:
+		s = fmt.Sprintf("keeps every margin at every value searched, %s to %s", v(r.Low.Value), v(r.High.Value))
+	case r.Low.Unbounded:
+		s = fmt.Sprintf("keeps every margin up to %s, with no limit down to %s (the farthest searched)", end(r.High, "above"), v(r.Low.Value))
+	case r.High.Unbounded:
+		s = fmt.Sprintf("keeps every margin from %s, with no limit up to %s (the farthest searched)", end(r.Low, "below"), v(r.High.Value))
+	default:
+		s = fmt.Sprintf("keeps every margin from %s to %s", end(r.Low, "below"), end(r.High, "above"))
+	}
+	if !r.Contains {
+		if r.Stop != "" {
+			s += "; the value as written is outside: " + r.Reason
+		} else {
+			s += fmt.Sprintf("; the value as written is outside: %s uses %s of its limit", r.Limit.Describe(), sig(r.Use, 3))
+		}
+	}
+	return s
+}
+
+// ValueIn formats an SI value in the unit it was written in, to three
+// significant digits.
+func ValueIn(si float64, unit string) string {
+	if unit == "" {
+		return sig(si, 3)
+	}
+	u, err := units.Parse(unit)
+	if err != nil {
+		return sig(si, 3)
+	}
+	return sig(u.FromSI(si), 3) + " " + unit
+}
+
+func signed(v float64) string {
+	s := sig(v, 2)
+	if !strings.HasPrefix(s, "-") && s != "0" {
+		s = "+" + s
+	}
+	return s
+}
+
+// fluidsText writes a loop's fluid ranking.
+func fluidsText(w io.Writer, l guide.Loop, designUnit string) {
+	fmt.Fprintf(w, "  fluids for loop %s, by the largest margin use each leaves (everything else as written):\n", l.Loop)
+	var outside []string
+	n := 0
+	for _, f := range l.Fluids {
+		if !f.Covers {
+			outside = append(outside, f.Fluid)
+			continue
+		}
+		n++
+		name := f.Fluid
+		if f.Safety != "" {
+			name += " (" + f.Safety + ")"
+		}
+		if f.Current {
+			name += " [in use]"
+		}
+		s := fmt.Sprintf("    %d. %s: ", n, name)
+		if f.Stop != "" {
+			s += f.Reason
+		} else {
+			s += fmt.Sprintf("use %s, %s", sig(f.Use, 3), f.Limit.Describe())
+		}
+		if f.SaturationPressure > 0 {
+			s += fmt.Sprintf("; %s in case %s", pressureAs(f.SaturationPressure, designUnit), f.HottestCase)
+			if f.DesignPressure > 0 {
+				s += fmt.Sprintf(" against %s design (%s)", pressureAs(f.DesignPressure, designUnit), sig(f.PressureUse, 2))
+			}
+		}
+		if c := f.Charge; c != nil && !math.IsInf(c.Low, 0) {
+			if c.Low > c.High {
+				s += "; no charge suits every case"
+			} else {
+				s += fmt.Sprintf("; charge %s–%s kg", sig(c.Low, 3), sig(c.High, 3))
+			}
+		}
+		fmt.Fprintln(w, s)
+	}
+	if len(outside) > 0 {
+		fmt.Fprintf(w, "    range not covering the cases: %s\n", strings.Join(outside, ", "))
+	}
+}
