@@ -3,14 +3,17 @@ package guide
 import (
 	"context"
 	"math"
+	"sync/atomic"
 	"testing"
 )
 
-// use is a synthetic estimate: the margin use u(x), with a stop where stop
-// says so.
-func synthetic(u func(x float64) float64, stop func(x float64) bool, n *int) eval {
+type counter struct{ atomic.Int64 }
+
+// synthetic is an estimate of margin use u(x), with a stop where stop says
+// so; n counts the evaluations.
+func synthetic(u func(x float64) float64, stop func(x float64) bool, n *counter) eval {
 	return func(x float64) Sample {
-		*n++
+		n.Add(1)
 		if stop != nil && stop(x) {
 			return Sample{X: x, Stop: &Stop{Kind: StopNoCirculation, Case: "c", Message: "no circulation in case c"}}
 		}
@@ -20,7 +23,7 @@ func synthetic(u func(x float64) float64, stop func(x float64) bool, n *int) eva
 
 func TestRangeBothSides(t *testing.T) {
 	// use = (x − 3)² / 4: feasible on [1, 5].
-	var n int
+	var n counter
 	f := synthetic(func(x float64) float64 { return (x - 3) * (x - 3) / 4 }, nil, &n)
 	r, ok := findRange(context.Background(), f, axis{x0: 2.5}, f(2.5))
 	if !ok || !r.Feasible || !r.Contains {
@@ -34,13 +37,13 @@ func TestRangeBothSides(t *testing.T) {
 	}
 	// Bracketing and Brent's method close each end in a few evaluations
 	// (a fine scan to 0.1 % would take hundreds).
-	if n > 40 {
-		t.Errorf("%d evaluations", n)
+	if n.Load() > 40 {
+		t.Errorf("%d evaluations", n.Load())
 	}
 }
 
 func TestRangeUnbounded(t *testing.T) {
-	var n int
+	var n counter
 	f := synthetic(func(x float64) float64 { return 0.5 * x }, nil, &n)
 	r, _ := findRange(context.Background(), f, axis{x0: 1}, f(1))
 	if !r.Low.Unbounded || r.High.Unbounded {
@@ -57,7 +60,7 @@ func TestRangeUnbounded(t *testing.T) {
 func TestRangeEndsAtStop(t *testing.T) {
 	// Feasible everywhere by its margins, but the loop stops circulating
 	// above 1.7: the range ends there and says why.
-	var n int
+	var n counter
 	f := synthetic(func(x float64) float64 { return 0.1 }, func(x float64) bool { return x > 1.7 }, &n)
 	r, _ := findRange(context.Background(), f, axis{x0: 1}, f(1))
 	if r.High.Stop != StopNoCirculation || r.High.Reason == "" || r.High.Limit.Case != "c" {
@@ -72,7 +75,7 @@ func TestRangeStopInsideMarginBracket(t *testing.T) {
 	// The margin would reach its limit at 3, but circulation stops at 2.8,
 	// inside the bracket 2.5–3.2 of the steps, both of whose ends are
 	// usable.
-	var n int
+	var n counter
 	f := synthetic(func(x float64) float64 { return x / 3 }, func(x float64) bool { return x > 2.8 && x < 3.1 }, &n)
 	r, _ := findRange(context.Background(), f, axis{x0: 2}, f(2))
 	if r.High.Stop != StopNoCirculation || math.Abs(r.High.Value-2.8) > 2.8*1.5e-3 {
@@ -83,7 +86,7 @@ func TestRangeStopInsideMarginBracket(t *testing.T) {
 func TestRangeOutsideCurrent(t *testing.T) {
 	// The value as written (10) is infeasible; the feasible range is 2–4
 	// below it.
-	var n int
+	var n counter
 	f := synthetic(func(x float64) float64 { return 1 + (x-3)*(x-3) - 1.0 }, nil, &n)
 	r, _ := findRange(context.Background(), f, axis{x0: 10}, f(10))
 	if !r.Feasible || r.Contains {
@@ -96,7 +99,7 @@ func TestRangeOutsideCurrent(t *testing.T) {
 
 func TestRangeInfeasible(t *testing.T) {
 	// Never below 1.2, least at x = 5.
-	var n int
+	var n counter
 	f := synthetic(func(x float64) float64 { return 1.2 + math.Abs(math.Log(x/5)) }, nil, &n)
 	r, _ := findRange(context.Background(), f, axis{x0: 1}, f(1))
 	if r.Feasible || r.Low != nil || r.High != nil || r.Reason == "" {
@@ -106,14 +109,14 @@ func TestRangeInfeasible(t *testing.T) {
 		t.Errorf("best %+v, want 4 (the step nearest 5)", r.Best)
 	}
 	// A side that only gets worse is given up after three steps.
-	if n > 2*len(steps) {
-		t.Errorf("%d evaluations", n)
+	if n.Load() > int64(2*len(steps)) {
+		t.Errorf("%d evaluations", n.Load())
 	}
 }
 
 func TestRangeAboutZero(t *testing.T) {
 	// A value of zero moves by its unit's scale: feasible on (−0.4, 0.25).
-	var n int
+	var n counter
 	f := synthetic(func(x float64) float64 {
 		if x > 0 {
 			return x / 0.25
@@ -128,7 +131,7 @@ func TestRangeAboutZero(t *testing.T) {
 
 func TestRangeNegativeValue(t *testing.T) {
 	// A negative value keeps its sign: use = −x/2 on x < 0 holds for x ≥ −2.
-	var n int
+	var n counter
 	f := synthetic(func(x float64) float64 { return -x / 2 }, nil, &n)
 	r, _ := findRange(context.Background(), f, axis{x0: -1}, f(-1))
 	if math.Abs(r.Low.Value+2) > 4e-3 || !r.High.Unbounded || r.High.Value >= 0 {
@@ -138,9 +141,9 @@ func TestRangeNegativeValue(t *testing.T) {
 
 func TestRangeCancelled(t *testing.T) {
 	ctx, cancel := context.WithCancel(context.Background())
-	var n int
+	var n counter
 	f := synthetic(func(x float64) float64 {
-		if n > 3 {
+		if n.Load() > 3 {
 			cancel()
 		}
 		return x / 3
@@ -148,7 +151,7 @@ func TestRangeCancelled(t *testing.T) {
 	if _, ok := findRange(ctx, f, axis{x0: 1}, f(1)); ok {
 		t.Fatal("a cancelled search reported a range")
 	}
-	if n > 8 {
-		t.Errorf("%d evaluations after cancelling", n)
+	if n.Load() > 8 {
+		t.Errorf("%d evaluations after cancelling", n.Load())
 	}
 }
