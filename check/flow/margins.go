@@ -290,17 +290,11 @@ func (p *prepared) underLosses(s *state, k float64, start []float64) (x float64,
 	ev := t.newEval()
 	var f []float64
 	if p.net.ring {
-		roots, _ := t.ringRoots(ev)
-		best := -1
-		for i, r := range roots {
-			if r.slope < 0 {
-				best = i
-			}
-		}
-		if best < 0 {
+		m, ok := t.highestStableRoot(ev)
+		if !ok {
 			return 0, "", false
 		}
-		f = []float64{roots[best].m}
+		f = []float64{m}
 	} else {
 		var err error
 		if f, _, err = t.solveNetwork(ev, start); err != nil {

@@ -359,6 +359,44 @@ func (s *state) ringRoots(ev *eval) ([]root, float64) {
 	return roots, e0
 }
 
+// highestStableRoot is the stable root of highest flow that ringRoots
+// finds (false: none). It searches the grid from the top down and stops at
+// that root: the brackets, refinements and slopes it takes are ringRoots'
+// own, so the root is the same to the bit.
+func (s *state) highestStableRoot(ev *eval) (float64, bool) {
+	f := []float64{0}
+	E := func(m float64) float64 {
+		f[0] = m
+		s.evaluate(f, ev)
+		return ev.e[0]
+	}
+	g := s.ringGrid()
+	n := len(g)
+	next, eNext := g[n-1], E(g[n-1])
+	if eNext > 0 {
+		// Beyond the grid: the full search goes on above it.
+		roots, _ := s.ringRoots(ev)
+		for i := len(roots) - 1; i >= 0; i-- {
+			if roots[i].slope < 0 {
+				return roots[i].m, true
+			}
+		}
+		return 0, false
+	}
+	for i := n - 2; i >= 0; i-- {
+		m, e := g[i], E(g[i])
+		if (eNext > 0) != (e > 0) {
+			r := brent(E, m, next, e, eNext, 1e-12*next)
+			h := 1e-6 * r
+			if slope := (E(r+h) - E(r-h)) / (2 * h); slope < 0 {
+				return r, true
+			}
+		}
+		next, eNext = m, e
+	}
+	return 0, false
+}
+
 // extendRoots continues findRoots above the grid's top m (where the excess
 // head is positive) until a balance is found or flowCeiling is passed.
 func extendRoots(E func(float64) float64, m float64) []root {
