@@ -1,6 +1,7 @@
 package lang_test
 
 import (
+	"bytes"
 	"testing"
 
 	"circa/lang"
@@ -58,5 +59,28 @@ func BenchmarkNewMapper(b *testing.B) {
 	b.ReportAllocs()
 	for b.Loop() {
 		lang.NewMapper(src)
+	}
+}
+
+// BenchmarkReparse5000 reparses the 5,000-component file after a one-digit
+// edit of its first parameter: "same-length" replaces the digit, "insert"
+// adds one, which moves every statement after it.
+func BenchmarkReparse5000(b *testing.B) {
+	src := loopgen.Network(5000, 50)
+	old := lang.Parse("bench.loop", src)
+	at := bytes.Index(src, []byte("= 10 mm")) + 2
+	for _, tc := range []struct {
+		name string
+		ins  string
+		cut  int
+	}{{"same-length", "2", 1}, {"insert", "2", 0}} {
+		next := append(append(append([]byte(nil), src[:at]...), tc.ins...), src[at+tc.cut:]...)
+		m := lang.NewMapper(next)
+		b.Run(tc.name, func(b *testing.B) {
+			b.ReportAllocs()
+			for b.Loop() {
+				lang.Reparse("bench.loop", old, next, m)
+			}
+		})
 	}
 }

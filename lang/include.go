@@ -39,7 +39,13 @@ func (r *resolver) read(path string, src []byte, stack []string, from Location) 
 		r.errorf("file-unreadable", from.File, from.Span, "%s is larger than %d MiB", path, MaxFileSize>>20)
 		return
 	}
-	f := Parse(path, src)
+	r.readParsed(Parse(path, src), stack)
+}
+
+// readParsed takes in one parsed file and, depth first, the files it
+// includes.
+func (r *resolver) readParsed(f *File, stack []string) {
+	path := f.Path
 	r.m.Files[path] = f
 	r.m.Order = append(r.m.Order, path)
 	r.m.Diags = append(r.m.Diags, f.Errors...)

@@ -22,13 +22,20 @@ func Parse(path string, src []byte) *File { return parse(path, src, false) }
 // parse is Parse; grammarOnly turns the fast path off, so tests can compare
 // its trees with the grammar's.
 func parse(path string, src []byte, grammarOnly bool) *File {
-	f := &File{Path: path, Src: src, Mapper: NewMapper(src)}
+	f, _ := parseMapped(path, src, NewMapper(src), grammarOnly)
+	return f
+}
+
+// parseMapped is parse with the text's mapper already made; it returns the
+// finished parser too, for what it saw.
+func parseMapped(path string, src []byte, m *Mapper, grammarOnly bool) (*File, *parser) {
+	f := &File{Path: path, Src: src, Mapper: m}
 	sc := newScanner(src)
 	sc.nextLine()
 	p := &parser{f: f, sc: sc, toks: sc.toks, grammarOnly: grammarOnly}
 	p.run()
 	f.Comments = sc.comments
-	return f
+	return f, p
 }
 
 type parser struct {
@@ -53,6 +60,7 @@ type parser struct {
 	nodes       nodes // the fast path's node chunks
 	grammarOnly bool  // parse every statement with the grammar
 	tooMany     bool  // MaxErrors reached: no more errors, no explanations
+	stray       bool  // a '}' closed no block
 }
 
 // MaxErrors bounds the syntax errors reported for one file. Past it the
@@ -202,6 +210,7 @@ func (p *parser) push(s *Stmt) {
 func (p *parser) close(sp Span) {
 	n := len(p.stack)
 	if n == 0 {
+		p.stray = true
 		p.errorf(sp, "unmatched '}': no block is open here")
 		return
 	}

@@ -42,6 +42,24 @@ func LoadSource(root string, src []byte, fsys FS) *Model {
 	return resolveRoot(newModel(root), root, src, fsys)
 }
 
+// LoadParsed resolves the parsed file f as the root (an editor buffer
+// parsed by Reparse); includes are read through fsys. The model holds f
+// itself, which it does not change.
+func LoadParsed(f *File, fsys FS) *Model {
+	if fsys == nil {
+		fsys = OSFS{}
+	}
+	if len(f.Src) > MaxFileSize {
+		return LoadSource(f.Path, f.Src, fsys)
+	}
+	m := newModel(f.Path)
+	r := newResolver(m, fsys)
+	r.readParsed(f, nil)
+	m.readDiags = slices.Clone(m.Diags) // for resolving variants (With)
+	r.resolve()
+	return m
+}
+
 func newModel(root string) *Model {
 	return &Model{Root: root, Files: map[string]*File{}, Limits: DefaultLimits(), Methods: DefaultMethods()}
 }

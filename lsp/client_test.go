@@ -32,10 +32,11 @@ type testClient struct {
 	pending  map[string]chan rpcReply
 	diags    map[string]publishedDiags
 	notes    []rpcMessage
-	calls    []rpcMessage      // requests from the server
-	answers  map[string]string // results to reply to the server's requests, by method; else null
-	analysed map[uint64]bool   // complete checks published
-	quick    map[uint64]bool   // quick checks and estimates published
+	calls    []rpcMessage        // requests from the server
+	answers  map[string]string   // results to reply to the server's requests, by method; else null
+	analysed map[uint64]bool     // complete checks published
+	quick    map[uint64]bool     // quick checks and estimates published
+	firstPub map[int32]time.Time // when each version was first published, where a benchmark records it
 	anCond   *sync.Cond
 }
 

@@ -36,6 +36,10 @@ func (s *Server) worker(ctx context.Context) {
 
 func (s *Server) analyse(snap *snapshot) {
 	roots := snap.sortedRoots()
+	var first time.Duration
+	if s.publishSyntax(snap, roots) {
+		first = time.Since(snap.at)
+	}
 	for _, a := range roots {
 		if snap.ctx.Err() != nil {
 			return
@@ -43,7 +47,9 @@ func (s *Server) analyse(snap *snapshot) {
 		a.Model()
 	}
 	s.publish(snap, false)
-	first := time.Since(snap.at)
+	if first == 0 {
+		first = time.Since(snap.at)
+	}
 	wait := s.debounceFor(roots)
 	if wait > 0 {
 		t := time.NewTimer(wait)
@@ -329,7 +335,13 @@ func fileDiags(snap *snapshot, full bool) map[string][]lang.Diagnostic {
 // publish sends every file's findings whose content or version changed since
 // the last publication. Files no longer reported get an empty list.
 func (s *Server) publish(snap *snapshot, full bool) {
-	perFile := fileDiags(snap, full)
+	s.publishFiles(snap, fileDiags(snap, full), full, true)
+}
+
+// publishFiles sends the findings of perFile's files whose content or
+// version changed since the last publication; with others, files
+// published before and missing from perFile get an empty list.
+func (s *Server) publishFiles(snap *snapshot, perFile map[string][]lang.Diagnostic, full, others bool) {
 	type item struct {
 		path   string
 		params *protocol.PublishDiagnosticsParams
@@ -342,7 +354,7 @@ func (s *Server) publish(snap *snapshot, full bool) {
 		return
 	}
 	for path := range s.published {
-		if _, ok := perFile[path]; !ok {
+		if _, ok := perFile[path]; !ok && others {
 			perFile[path] = nil
 		}
 	}

@@ -78,6 +78,9 @@ type Server struct {
 	// checkCost holds, by root, how long its last checks took, which sets
 	// the next debounce.
 	checkCost map[string]time.Duration
+	// modelCost holds, by root, how long its last model took to resolve,
+	// which decides whether its syntax errors go out first.
+	modelCost map[string]time.Duration
 
 	disk diskCache
 
@@ -102,6 +105,7 @@ type Server struct {
 	onAnalysed  func(snapID uint64) // quick checks and estimates published
 	onComplete  func(snapID uint64) // complete checks published
 	onEstimate  func(root string, tilt bool)
+	syntaxFirst bool // every open root gets a syntax stage, however cheap
 }
 
 type clientCaps struct {
@@ -138,6 +142,7 @@ func newServer(opts Options) *Server {
 		inflight:  map[jsonrpc2.ID]context.CancelFunc{},
 		lastEst:   map[string]*estimates{},
 		checkCost: map[string]time.Duration{},
+		modelCost: map[string]time.Duration{},
 		published: map[string]pubState{},
 		settings:  DefaultSettings(),
 		work:      make(chan struct{}, 1),

@@ -29,10 +29,48 @@ type document struct {
 	// clientVersion the version the client has reached since.
 	outOfSync     bool
 	clientVersion int32
+
+	// base is the version this one was edited from, whose tree the parse
+	// reuses; it is dropped once this one is parsed.
+	base      atomic.Pointer[document]
+	parseOnce sync.Once
+	tree      *lang.File
+	parsed    atomic.Bool // tree is set
 }
 
 func newDocument(u uri.URI, path string, version int32, text []byte) *document {
 	return &document{uri: u, path: path, version: version, text: text, mapper: lang.NewMapper(text)}
+}
+
+// editedFrom records that d's text is an edit of old's: d is parsed from
+// the nearest version already parsed.
+func (d *document) editedFrom(old *document) {
+	if old.parsed.Load() {
+		d.base.Store(old)
+	} else if b := old.base.Load(); b != nil {
+		d.base.Store(b)
+	}
+}
+
+// File returns the document's syntax tree, parsed on first use from its
+// base's where that one is parsed (only the edited lines are parsed
+// again), else from scratch. It is nil when parsing panicked.
+func (d *document) File() *lang.File {
+	d.parseOnce.Do(func() {
+		defer func() {
+			if r := recover(); r != nil {
+				d.tree = nil
+			}
+			d.base.Store(nil)
+			d.parsed.Store(d.tree != nil)
+		}()
+		var old *lang.File
+		if b := d.base.Load(); b != nil && b.parsed.Load() {
+			old = b.tree
+		}
+		d.tree = lang.Reparse(d.path, old, d.text, d.mapper)
+	})
+	return d.tree
 }
 
 // snapshot is the state of the workspace after one change: the open
@@ -63,6 +101,13 @@ type analysis struct {
 	model *lang.Model
 	ready atomic.Bool // the model is computed
 
+	// carry is what the analysis this one replaces found in the root
+	// file, and carryText the text it was found in: the syntax stage shows
+	// those findings, moved with the edit, outside the edited lines.
+	carry      []lang.Diagnostic
+	carryParse []lang.Diagnostic // the syntax errors among them, which the new parse replaces
+	carryText  []byte
+
 	checkMu    sync.Mutex
 	checked    bool              // the checks and the estimate are done
 	checkDiag  []lang.Diagnostic // their findings
@@ -83,15 +128,23 @@ func (a *analysis) Model() *lang.Model {
 		if a.srv != nil && a.srv.beforeLoad != nil {
 			a.srv.beforeLoad(a.root)
 		}
+		t0 := time.Now()
 		var m *lang.Model
 		if d, ok := a.fs.docs[a.root]; ok {
-			m = lang.LoadSource(a.root, d.text, a.fs)
+			if f := d.File(); f != nil {
+				m = lang.LoadParsed(f, a.fs)
+			} else {
+				m = lang.LoadSource(a.root, d.text, a.fs)
+			}
 		} else {
 			m = lang.Load(a.root, a.fs)
 		}
 		a.settings.apply(m)
 		a.model = m
 		a.ready.Store(true)
+		if a.srv != nil {
+			a.srv.noteModelCost(a.root, time.Since(t0))
+		}
 	})
 	return a.model
 }
@@ -272,7 +325,11 @@ func (s *Server) changeLocked(docs map[string]*document, changed []string, setti
 			n.roots[path] = a
 			continue
 		}
-		n.roots[path] = &analysis{root: path, fs: fs, settings: s.settings, srv: s}
+		na := &analysis{root: path, fs: fs, settings: s.settings, srv: s}
+		if a, ok := old.roots[path]; ok && !settingsChanged {
+			na.carry, na.carryParse, na.carryText = a.carried(old.docs[path])
+		}
+		n.roots[path] = na
 	}
 	// Publishing takes pubMu; switching under it means a cancelled snapshot
 	// can never publish after this point.
@@ -288,6 +345,22 @@ func (s *Server) changeLocked(docs map[string]*document, changed []string, setti
 	default:
 	}
 	return n
+}
+
+// carried returns the findings a later analysis of the same root may show
+// before its own are ready, and the text they are about (doc's): this
+// analysis's model's findings once it is resolved, else what it carried.
+func (a *analysis) carried(doc *document) (diags, parse []lang.Diagnostic, text []byte) {
+	if doc == nil || doc.outOfSync {
+		return nil, nil, nil
+	}
+	if a.ready.Load() {
+		if f := a.model.Files[a.root]; f != nil {
+			parse = f.Errors
+		}
+		return a.model.Diags, parse, doc.text
+	}
+	return a.carry, a.carryParse, a.carryText
 }
 
 func touches(a *analysis, changed []string) bool {

@@ -42,6 +42,7 @@ func didChange(_ context.Context, s *Server, params []byte) error {
 	}
 	text, inSync := applyChanges(old, p.ContentChanges, s.enc)
 	d := newDocument(old.uri, path, p.TextDocument.Version, text)
+	d.editedFrom(old)
 	if !inSync {
 		s.logf("%s is out of sync: ignoring an edit until the editor sends the whole text", path)
 		d.version, d.outOfSync, d.clientVersion = old.version, true, p.TextDocument.Version
