@@ -5,6 +5,7 @@ import (
 	"errors"
 	"fmt"
 	"strings"
+	"unsafe"
 )
 
 // Format prints a parsed file in the one canonical layout. It changes only
@@ -38,139 +39,195 @@ func Format(f *File) ([]byte, error) {
 		return nil, fmt.Errorf("%s:%d:%d: %s (the file has %d syntax error(s); it is not formatted)",
 			f.Path, pos.Line+1, pos.Col+1, d.Message(), len(f.Errors))
 	}
-	fm := &formatter{f: f}
-	fm.collect(f.Stmts, 0)
-	return fm.print(), nil
+	fm := newFormatter(f.Mapper, len(f.Src), &f.Comments)
+	fm.walk(f.Stmts, 0, len(f.Src))
+	return fm.finish(), nil
 }
 
-// item is one output line before comments are merged in: a statement head
-// or a closing brace.
-type item struct {
-	off      int // source offset where the item starts
-	line     int // source line
-	depth    int
-	text     string
-	opens    bool // the statement opens a block
-	close    bool // a closing brace
-	trailing []string
+// FormatSource parses src and formats it as Format does, statement by
+// statement as the parser reads them, without keeping a syntax tree: its
+// memory is the text, its output and one statement. The file returned
+// holds the syntax errors, the comments not yet written and the Mapper, but
+// no statements; with errors there is no text. Its strings share src's
+// memory, which must not change while it is in use.
+func FormatSource(path string, src []byte) ([]byte, *File) {
+	f := &File{Path: path, Src: src, Mapper: NewMapper(src)}
+	// The tokens are written out and dropped: their text may share src's
+	// memory instead of a copy (the file returned holds src anyway).
+	sc := newScannerOf(src, unsafe.String(unsafe.SliceData(src), len(src)))
+	sc.nextLine()
+	fm := newFormatter(f.Mapper, len(src), &sc.comments)
+	fm.stream = true
+	p := &parser{f: f, sc: sc, toks: sc.toks, sink: fm}
+	p.run()
+	f.Comments = sc.comments
+	if len(f.Errors) > 0 {
+		return nil, f
+	}
+	return fm.finish(), f
 }
 
+// formatSink receives the statements of a file in source order as the
+// parser reads them: each statement's head at its block depth (after its
+// block, if any, was opened) and each closing brace.
+type formatSink interface {
+	head(s *Stmt, depth int)
+	close(off, depth int)
+}
+
+// formatter writes the canonical layout as it is given statement heads and
+// closing braces in source order, merging the comments in.
 type formatter struct {
-	f     *File
-	items []item
-	buf   strings.Builder
+	m   *Mapper
+	out bytes.Buffer
+	// comments are the file's comments in order; those before ci are
+	// written. In a streaming run they are the scanner's, which the
+	// formatter empties as it writes them.
+	comments *[]Comment
+	ci       int
+	srcLen   int
+	stream   bool
+
+	lastLine  int  // source line of the last thing written
+	afterOpen bool // the last line written opened a block
+	wrote     bool // anything written yet
+	itemLine  int  // source line of the last statement or brace written
+}
+
+func newFormatter(m *Mapper, srcLen int, comments *[]Comment) *formatter {
+	return &formatter{m: m, comments: comments, srcLen: srcLen, lastLine: -1, itemLine: -1}
 }
 
 // lineOf is the line of an offset: lines end at "\n", "\r\n" or a lone
 // "\r", for the language as for positions.
-func (fm *formatter) lineOf(off int) int { return fm.f.Mapper.OffsetLine(off) }
+func (fm *formatter) lineOf(off int) int { return fm.m.OffsetLine(off) }
 
-// collect flattens statements and closing braces in source order.
-func (fm *formatter) collect(stmts []*Stmt, depth int) {
+// walk gives the statements of a tree to the formatter in source order.
+func (fm *formatter) walk(stmts []*Stmt, depth, srcLen int) {
 	for _, s := range stmts {
-		fm.buf.Reset()
-		fm.stmt(s)
-		it := item{off: s.Pos.Offset, line: fm.lineOf(s.Pos.Offset), depth: depth}
+		fm.head(s, depth)
 		if s.Block != nil {
-			fm.buf.WriteString(" {")
-			it.opens = true
-		}
-		it.text = fm.buf.String()
-		fm.items = append(fm.items, it)
-		if s.Block != nil {
-			fm.collect(s.Block.Stmts, depth+1)
+			fm.walk(s.Block.Stmts, depth+1, srcLen)
 			off := s.Block.Close
 			if off < 0 {
-				off = len(fm.f.Src)
+				off = srcLen
 			}
-			fm.items = append(fm.items, item{off: off, line: fm.lineOf(off), depth: depth, text: "}", close: true})
+			fm.close(off, depth)
 		}
 	}
 }
 
-func (fm *formatter) print() []byte {
-	items := fm.items
-	comments := fm.f.Comments
-	var out bytes.Buffer
-	out.Grow(len(fm.f.Src) + len(fm.f.Src)/8 + 1)
+func (fm *formatter) blankBefore(line int) bool {
+	return fm.wrote && !fm.afterOpen && fm.lastLine >= 0 && line-fm.lastLine >= 2
+}
 
-	// Attach trailing comments to the first item of their line; the rest
-	// stand on lines of their own.
-	type lone struct {
-		off, line int
-		text      string
+func (fm *formatter) indent(d int) {
+	for i := 0; i < d; i++ {
+		fm.out.WriteString("  ")
 	}
-	var lones []lone
-	j := 0 // first item not before the comment's line
-	for _, c := range comments {
-		text := strings.TrimRight(c.Text, "\r")
+}
+
+// lones writes the comments before off that no statement's line took, as
+// lines of their own at depth d.
+func (fm *formatter) lones(off, d int) {
+	cs := *fm.comments
+	for fm.ci < len(cs) && cs[fm.ci].Span.Start < off {
+		c := cs[fm.ci]
+		fm.ci++
 		line := fm.lineOf(c.Span.Start)
-		for j < len(items) && items[j].line < line {
-			j++
+		if fm.blankBefore(line) {
+			fm.out.WriteByte('\n')
 		}
-		if j < len(items) && items[j].line == line && items[j].off < c.Span.Start {
-			items[j].trailing = append(items[j].trailing, text)
-			continue
-		}
-		lones = append(lones, lone{c.Span.Start, line, text})
+		fm.indent(d)
+		fm.out.WriteString(strings.TrimRight(c.Text, "\r"))
+		fm.out.WriteByte('\n')
+		fm.lastLine, fm.afterOpen, fm.wrote = line, false, true
 	}
+	fm.drop()
+}
 
-	lastLine := -1     // source line of the last thing written
-	afterOpen := false // the last line written opened a block
-	wrote := false     // anything written yet
-	blankBefore := func(line int) bool {
-		return wrote && !afterOpen && lastLine >= 0 && line-lastLine >= 2
+// drop forgets the comments written, in a streaming run, so they are not
+// all held at once.
+func (fm *formatter) drop() {
+	if fm.comments != nil && fm.ci == len(*fm.comments) && fm.ci > 0 && fm.streaming() {
+		*fm.comments = (*fm.comments)[:0]
+		fm.ci = 0
 	}
-	indent := func(d int) {
-		for i := 0; i < d; i++ {
-			out.WriteString("  ")
+}
+
+// streaming reports whether the comments are the scanner's.
+func (fm *formatter) streaming() bool { return fm.stream }
+
+// begin starts an item at off: the comments before it, a blank line when
+// the source has one, the indentation.
+func (fm *formatter) begin(off, depth int, closing bool) int {
+	if fm.out.Cap() == 0 {
+		// The layout is about as long as the text: one allocation.
+		fm.out.Grow(fm.srcLen + fm.srcLen/8 + 1)
+	}
+	d := depth
+	if closing {
+		d++
+	}
+	fm.lones(off, d)
+	line := fm.lineOf(off)
+	if !closing && fm.blankBefore(line) {
+		fm.out.WriteByte('\n')
+	}
+	fm.indent(depth)
+	return line
+}
+
+// end finishes an item's line: the comment after it, when the item is the
+// first on its source line, then the newline.
+func (fm *formatter) end(line int, opens bool) {
+	if line != fm.itemLine {
+		cs := *fm.comments
+		for fm.ci < len(cs) && fm.lineOf(cs[fm.ci].Span.Start) == line {
+			fm.out.WriteString("  ")
+			fm.out.WriteString(strings.TrimRight(cs[fm.ci].Text, "\r"))
+			fm.ci++
 		}
 	}
-	ci := 0
-	for i := range items {
-		it := &items[i]
-		// Comments on lines of their own before this item.
-		for ci < len(lones) && lones[ci].off < it.off {
-			c := lones[ci]
-			ci++
-			if blankBefore(c.line) {
-				out.WriteByte('\n')
-			}
-			d := it.depth
-			if it.close {
-				d++
-			}
-			indent(d)
-			out.WriteString(c.text)
-			out.WriteByte('\n')
-			lastLine, afterOpen, wrote = c.line, false, true
-		}
-		if !it.close && blankBefore(it.line) {
-			out.WriteByte('\n')
-		}
-		indent(it.depth)
-		out.WriteString(it.text)
-		for _, t := range it.trailing {
-			out.WriteString("  ")
-			out.WriteString(t)
-		}
-		out.WriteByte('\n')
-		lastLine, afterOpen, wrote = it.line, it.opens, true
+	fm.out.WriteByte('\n')
+	fm.itemLine = line
+	fm.lastLine, fm.afterOpen, fm.wrote = line, opens, true
+	fm.drop()
+}
+
+func (fm *formatter) head(s *Stmt, depth int) {
+	line := fm.begin(s.Pos.Offset, depth, false)
+	fm.stmt(s)
+	if s.Block != nil {
+		fm.out.WriteString(" {")
 	}
-	for ; ci < len(lones); ci++ {
-		c := lones[ci]
-		if blankBefore(c.line) {
-			out.WriteByte('\n')
+	fm.end(line, s.Block != nil)
+}
+
+func (fm *formatter) close(off, depth int) {
+	line := fm.begin(off, depth, true)
+	fm.out.WriteByte('}')
+	fm.end(line, false)
+}
+
+// finish writes the comments after the last statement and returns the text.
+func (fm *formatter) finish() []byte {
+	cs := *fm.comments
+	for ; fm.ci < len(cs); fm.ci++ {
+		c := cs[fm.ci]
+		line := fm.lineOf(c.Span.Start)
+		if fm.blankBefore(line) {
+			fm.out.WriteByte('\n')
 		}
-		out.WriteString(c.text)
-		out.WriteByte('\n')
-		lastLine, afterOpen, wrote = c.line, false, true
+		fm.out.WriteString(strings.TrimRight(c.Text, "\r"))
+		fm.out.WriteByte('\n')
+		fm.lastLine, fm.afterOpen, fm.wrote = line, false, true
 	}
-	return out.Bytes()
+	return fm.out.Bytes()
 }
 
 func (fm *formatter) stmt(s *Stmt) {
-	b := &fm.buf
+	b := &fm.out
 	if s.Word != nil {
 		b.WriteString(s.Word.Name)
 	}
@@ -190,9 +247,9 @@ func (fm *formatter) expr(e *Expr) {
 	}
 	fm.term(e.Left)
 	for _, op := range e.Ops {
-		fm.buf.WriteByte(' ')
-		fm.buf.WriteString(op.Op)
-		fm.buf.WriteByte(' ')
+		fm.out.WriteByte(' ')
+		fm.out.WriteString(op.Op)
+		fm.out.WriteByte(' ')
 		fm.term(op.Term)
 	}
 }
@@ -203,9 +260,9 @@ func (fm *formatter) term(t *Term) {
 	}
 	fm.factor(t.Left)
 	for _, op := range t.Ops {
-		fm.buf.WriteByte(' ')
-		fm.buf.WriteString(op.Op)
-		fm.buf.WriteByte(' ')
+		fm.out.WriteByte(' ')
+		fm.out.WriteString(op.Op)
+		fm.out.WriteByte(' ')
 		fm.factor(op.Factor)
 	}
 }
@@ -220,7 +277,7 @@ func (fm *formatter) factor(f *Factor) {
 	if f == nil {
 		return
 	}
-	b := &fm.buf
+	b := &fm.out
 	if f.Sign != "" {
 		b.WriteString(f.Sign)
 		// "- 2" was written apart: written together it would read as the
@@ -248,7 +305,7 @@ func (fm *formatter) atom(a *Atom) {
 	if a == nil {
 		return
 	}
-	b := &fm.buf
+	b := &fm.out
 	switch {
 	case a.Number != "":
 		b.WriteString(a.Number)

@@ -3,6 +3,7 @@ package lang
 import (
 	"bytes"
 	"flag"
+	"fmt"
 	"os"
 	"path/filepath"
 	"slices"
@@ -14,22 +15,41 @@ import (
 
 var update = flag.Bool("update", false, "rewrite the expected output of golden files")
 
+// diagTexts renders diagnostics as "start-end: message" for comparison.
+func diagTexts(ds []Diagnostic) []string {
+	var out []string
+	for _, d := range ds {
+		out = append(out, fmt.Sprintf("%d-%d: %s", d.Loc.Span.Start, d.Loc.Span.End, d.Message()))
+	}
+	return out
+}
+
 // checkFormat formats src and checks the formatter's promises: it succeeds
 // on text without syntax errors, it is idempotent, the result parses to the
 // same tree, keeps every comment and ends in one newline.
 func checkFormat(t testing.TB, name string, src []byte) []byte {
 	t.Helper()
 	f := Parse(name, src)
+	streamed, sf := FormatSource(name, src)
+	if a, b := diagTexts(f.Errors), diagTexts(sf.Errors); !slices.Equal(a, b) {
+		t.Fatalf("%s: FormatSource found the syntax errors %q, Parse %q", name, b, a)
+	}
 	if len(f.Errors) > 0 {
 		out, err := Format(f)
 		if err == nil || out != nil {
 			t.Fatalf("%s: Format of a file with syntax errors gave %q, %v; want no text and an error", name, out, err)
+		}
+		if streamed != nil {
+			t.Fatalf("%s: FormatSource of a file with syntax errors gave %q; want no text", name, streamed)
 		}
 		return nil
 	}
 	out, err := Format(f)
 	if err != nil {
 		t.Fatalf("%s: Format: %v", name, err)
+	}
+	if !bytes.Equal(streamed, out) {
+		t.Fatalf("%s: FormatSource differs from Format of the tree\nstreamed:\n%s\ntree:\n%s", name, streamed, out)
 	}
 	checkSameTokens(t, name, src, out)
 	g := Parse(name, out)

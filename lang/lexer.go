@@ -85,8 +85,12 @@ func scan(src []byte) ([]lexer.Token, []Comment) {
 // newScanner returns a scanner over src that the parser drives one line at
 // a time (no token looks past its line's end), so the tokens of a large
 // file are never all held at once.
-func newScanner(src []byte) *scanner {
-	s := &scanner{src: src, str: string(src), line: 1, lineStart: 0}
+func newScanner(src []byte) *scanner { return newScannerOf(src, string(src)) }
+
+// newScannerOf is newScanner with str holding the text of src, the memory
+// the tokens' values share.
+func newScannerOf(src []byte, str string) *scanner {
+	s := &scanner{src: src, str: str, line: 1, lineStart: 0}
 	if len(src) >= 3 && src[0] == 0xef && src[1] == 0xbb && src[2] == 0xbf {
 		// A byte-order mark at the start is a blank, not a character: the
 		// text is read as UTF-8 regardless.

@@ -61,6 +61,17 @@ type parser struct {
 	grammarOnly bool  // parse every statement with the grammar
 	tooMany     bool  // MaxErrors reached: no more errors, no explanations
 	stray       bool  // a '}' closed no block
+	// sink, when set, receives each statement as it is read instead of the
+	// tree: the statements are not kept (see FormatSource).
+	sink formatSink
+	held []*heldStmt // with a sink, the open blocks' statements by depth
+}
+
+// heldStmt is what an open block's statement keeps while its block is read
+// with a sink.
+type heldStmt struct {
+	stmt Stmt
+	word Ident
 }
 
 // MaxErrors bounds the syntax errors reported for one file. Past it the
@@ -90,6 +101,9 @@ func (p *parser) errorf(span Span, format string, args ...any) {
 }
 
 func (p *parser) add(s *Stmt) {
+	if p.sink != nil {
+		return
+	}
 	if n := len(p.stack); n > 0 {
 		p.open[n-1] = append(p.open[n-1], s)
 		return
@@ -200,6 +214,22 @@ func (p *parser) push(s *Stmt) {
 		p.deepBlocks = true
 		p.errorf(Span{s.Block.Open, s.Block.Open + 1}, "blocks nested too deeply: more than %d levels", MaxNesting)
 	}
+	if p.sink != nil {
+		// The statement's nodes go back to the chunks once it is written;
+		// the open block keeps a copy of what closing it needs, one per
+		// depth.
+		d := len(p.stack)
+		if d == len(p.held) {
+			p.held = append(p.held, new(heldStmt))
+		}
+		h := p.held[d]
+		h.stmt = Stmt{Pos: s.Pos, EndPos: s.EndPos, Block: s.Block, Bad: s.Bad}
+		if s.Word != nil {
+			h.word = *s.Word
+			h.stmt.Word = &h.word
+		}
+		s = &h.stmt
+	}
 	p.stack = append(p.stack, s)
 	if len(p.open) < len(p.stack) {
 		p.open = append(p.open, nil)
@@ -215,6 +245,9 @@ func (p *parser) close(sp Span) {
 		return
 	}
 	p.stack[n-1].Block.Close = sp.Start
+	if p.sink != nil && len(p.f.Errors) == 0 {
+		p.sink.close(sp.Start, n-1)
+	}
 	p.shut()
 }
 
@@ -244,8 +277,16 @@ func (p *parser) statement() {
 		mark := p.nodes.mark()
 		if stmt, ok := q.stmt(); ok {
 			p.cur = q.i
+			depth := len(p.stack)
 			p.add(stmt)
 			p.terminator(stmt)
+			if p.sink != nil {
+				if len(p.f.Errors) == 0 {
+					p.sink.head(stmt, depth)
+				}
+				p.nodes.release(mark)
+				p.nodes.argPtrs.reset()
+			}
 			return
 		}
 		// Give back the nodes of the attempt: a file of bad lines would
@@ -261,8 +302,12 @@ func (p *parser) statement() {
 	stmt, err := parseStmt(lex)
 	if err == nil {
 		p.cur = p.lexBase + int(lex.MakeCheckpoint().RawCursor())
+		depth := len(p.stack)
 		p.add(stmt)
 		p.terminator(stmt)
+		if p.sink != nil && len(p.f.Errors) == 0 {
+			p.sink.head(stmt, depth)
+		}
 		return
 	}
 	// Recover: report, keep what can be kept, skip to the end of the line,
@@ -518,6 +563,13 @@ type nodes struct {
 
 // ptrs hands out pointer slices from chunks.
 type ptrs[T any] struct{ buf []*T }
+
+// reset hands the current chunk out again from its start: the slices
+// carved from it are no longer used.
+func (p *ptrs[T]) reset() {
+	clear(p.buf)
+	p.buf = p.buf[:0]
+}
 
 // carve returns a copy of src from the current chunk, with no room to grow
 // into its neighbour (nil for an empty src).

@@ -7,6 +7,7 @@ import (
 	"io"
 	"sort"
 	"strings"
+	"unsafe"
 
 	"circa/lang"
 )
@@ -41,6 +42,10 @@ func splitLines(s string) []string {
 	}
 	return out
 }
+
+// viewString returns b as a string sharing its memory; b must not change
+// while the string is in use.
+func viewString(b []byte) string { return unsafe.String(unsafe.SliceData(b), len(b)) }
 
 // editScript returns the line edits that turn a into b.
 func editScript(a, b []string) []diffOp {
@@ -118,31 +123,34 @@ func lcsLines(ops []diffOp, a, b []string) []diffOp {
 // b, keeps the longest run of them in the same order in both, and diffs
 // the stretches between them.
 func anchoredLines(ops []diffOp, a, b []string) []diffOp {
-	type seen struct{ na, nb, ia, ib int }
-	count := make(map[string]*seen, len(a))
-	for i, l := range a {
-		s := count[l]
-		if s == nil {
-			s = &seen{}
-			count[l] = s
+	// How often each line of a occurs in a and in b, and where in b; the
+	// counts stop at 2, which is all that matters.
+	type seen struct{ na, nb, ib int32 }
+	index := make(map[string]int32, len(a))
+	var counts []seen
+	for _, l := range a {
+		k, ok := index[l]
+		if !ok {
+			k = int32(len(counts))
+			index[l] = k
+			counts = append(counts, seen{})
 		}
-		s.na++
-		s.ia = i
+		counts[k].na = min(counts[k].na+1, 2)
 	}
 	for j, l := range b {
-		if s := count[l]; s != nil {
-			s.nb++
-			s.ib = j
+		if k, ok := index[l]; ok {
+			counts[k].nb = min(counts[k].nb+1, 2)
+			counts[k].ib = int32(j)
 		}
 	}
 	// Unique pairs in a's order.
 	var pairs [][2]int
 	for i, l := range a {
-		if s := count[l]; s.na == 1 && s.nb == 1 {
-			pairs = append(pairs, [2]int{i, s.ib})
+		if s := counts[index[l]]; s.na == 1 && s.nb == 1 {
+			pairs = append(pairs, [2]int{i, int(s.ib)})
 		}
 	}
-	count = nil
+	index, counts = nil, nil
 	anchors := increasingRun(pairs)
 	if len(anchors) == 0 {
 		return replaceLines(ops, a, b)
@@ -190,7 +198,9 @@ func writeUnifiedDiff(w io.Writer, nameA, nameB string, a, b []byte) error {
 	if bytes.Equal(a, b) {
 		return nil
 	}
-	ops := editScript(splitLines(string(a)), splitLines(string(b)))
+	// The lines are read, never kept past the call, and a and b do not
+	// change during it: they are viewed as strings without a copy.
+	ops := editScript(splitLines(viewString(a)), splitLines(viewString(b)))
 	const ctx = 3
 	out := bufio.NewWriter(w)
 	fmt.Fprintf(out, "--- %s\n+++ %s\n", nameA, nameB)

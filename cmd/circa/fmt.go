@@ -114,17 +114,14 @@ func runFmt(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 // is not formatted, and -w removes the mark.
 func fmtOne(name string, src []byte, onDisk bool, o fmtOptions, stdout, stderr io.Writer) int {
 	text, _ := textfile.CutBOM(src)
-	f := lang.Parse(name, text)
+	// Formatted as parsed, statement by statement: a large file is never
+	// held as a syntax tree.
+	out, f := lang.FormatSource(name, text)
 	if len(f.Errors) > 0 {
 		for _, d := range f.Errors {
 			pos := f.Mapper.OffsetPosition(d.Loc.Span.Start, lang.UTF8)
 			fmt.Fprintf(stderr, "%s:%d:%d: %s: %s [%s]\n", output.Printable(name), pos.Line+1, pos.Col+1, d.Severity, output.Printable(d.Message()), d.Rule)
 		}
-		return exitFindings
-	}
-	out, err := lang.Format(f)
-	if err != nil {
-		fmt.Fprintf(stderr, "circa fmt: %v\n", err)
 		return exitFindings
 	}
 	changed := !bytes.Equal(src, out)
