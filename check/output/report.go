@@ -15,6 +15,7 @@ import (
 	"circa/check/flow"
 	"circa/check/geom"
 	"circa/check/picture"
+	"circa/check/vary"
 	"circa/lang"
 )
 
@@ -26,6 +27,8 @@ type ReportOptions struct {
 	Progress func(stage string)
 	// TiltStep is the angle step of the tilt envelope, rad (0: 5°).
 	TiltStep float64
+	// Vary, when set, is a parameter sweep of the model, shown per loop.
+	Vary *vary.Result
 }
 
 // Report writes a design review report of one loop file as a single
@@ -80,7 +83,9 @@ func Report(w io.Writer, path string, m *lang.Model, o ReportOptions) error {
 			if l == nil {
 				continue
 			}
-			r.Loops = append(r.Loops, loopReport(m, l, lr, o, progress))
+			ld := loopReport(m, l, lr, o, progress)
+			ld.Sweep = sweepReport(o.Vary, l.Name)
+			r.Loops = append(r.Loops, ld)
 		}
 	} else {
 		r.Cautions = flow.Cautions
@@ -148,6 +153,7 @@ type loopData struct {
 	Accel                     []accelRow
 	AccelNote                 string
 	Errors                    []string
+	Sweep                     *sweepData // the parameter sweep, when asked for
 }
 
 type figureData struct {

@@ -90,6 +90,15 @@ code { font-family: "DejaVu Sans Mono", monospace; font-size: 12px; }
 {{range .UseRows}}<tr><td>{{.Case}}</td>{{range .Cells}}<td class="num {{.Status}}">{{.Text}}</td>{{end}}</tr>
 {{end}}</table></div>
 
+{{with .Sweep}}<h3>Parameter sweep</h3>
+<p>{{.Heading}}: {{.Note}}</p>
+{{with .Figure}}<figure>{{.SVG}}<figcaption>{{.Caption}}</figcaption></figure>{{end}}
+{{if .Error}}<p class="error">Not drawn: {{.Error}}</p>{{end}}
+<div class="wide"><table>
+<tr>{{range .Head}}<th>{{.}}</th>{{end}}</tr>
+{{range .Rows}}<tr>{{range .}}<td class="num {{.Status}}">{{.Text}}</td>{{end}}</tr>
+{{end}}</table></div>
+{{end}}
 <h3>Circulation and pressure budget</h3>
 {{range .Curves}}<figure>{{.SVG}}<figcaption>{{.Caption}}</figcaption></figure>
 {{end}}

@@ -22,7 +22,7 @@ func init() {
 
 const estimateUsage = `Usage: circa estimate FILE [--case NAME] [--format text|json|csv] [--void M] [--friction M]
        [--sweep-pitch DEG,…] [--sweep-roll DEG,…] [--sweep-accel AX,AY,AZ;…]
-       [--set NAME=VALUE]... [--no-guidance] [--fluids]
+       [--set NAME=VALUE]... [--no-guidance] [--fluids] [--vary NAME=FROM..TO:N]...
 
 Estimates the steady circulation of each loop in FILE in every operating case:
 mass flow, qualities, void fractions, pressure changes, the saturation state,
@@ -38,6 +38,13 @@ built-in fluid, ranked. The JSON layout is documented in
 docs/estimate-json.md. Exit status 1 when any estimate or margin finding is
 an error, 2 for usage errors.
 
+--vary sweeps one parameter (or, given twice, a grid of two) and prints,
+instead of the estimate, each margin's use of its limit in its worst case
+at every point, and the limiting margin: text, JSON ("Parameter sweep" in
+docs/estimate-json.md) or CSV. The tilt limits are not searched at sweep
+points. Points where a margin fails are results, not errors: the exit
+status is 0 once the sweep is made.
+
 Options:
 `
 
@@ -48,6 +55,8 @@ func runEstimate(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 	var format, pitch, roll, accel string
 	var set setFlag
 	fl.Var(&set, "set", setUsage)
+	var vy varyFlag
+	fl.Var(&vy, "vary", varyUsage)
 	fl.StringVar(&opts.Case, "case", "", "estimate only this case")
 	fl.StringVar(&format, "format", "text", "output format: text, json or csv")
 	fl.StringVar(&opts.Void, "void", "", "void-fraction method (overrides the methods block)")
@@ -91,6 +100,9 @@ func runEstimate(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 	m, rc, ok := loadClean(file, "estimate", "no estimate and no design guidance", set, stderr)
 	if !ok {
 		return rc
+	}
+	if len(vy) > 0 {
+		return estimateSweep(m, vy, opts, format, stdout, stderr)
 	}
 	pr := startProgress(stderr, "estimate", fmt.Sprintf("solving %d operating points and their margins", points(m, opts)))
 	res, err := flow.Estimate(m, opts)
@@ -194,4 +206,30 @@ func points(m *lang.Model, opts flow.Options) int {
 		per += n(len(sw.Pitch)) * n(len(sw.Roll)) * n(len(sw.Accel))
 	}
 	return cases * per * max(len(m.Loops), 1)
+}
+
+// estimateSweep prints the sweep --vary asks for.
+func estimateSweep(m *lang.Model, vy varyFlag, opts flow.Options, format string, stdout, stderr io.Writer) int {
+	if opts.Sweep != nil {
+		fmt.Fprintln(stderr, "circa estimate: --vary cannot be combined with --sweep-pitch, --sweep-roll or --sweep-accel")
+		return exitUsage
+	}
+	res, ok := vy.sweep("estimate", m, opts, stderr)
+	if !ok {
+		return exitUsage
+	}
+	var err error
+	switch format {
+	case "json":
+		err = output.VaryJSON(stdout, res)
+	case "csv":
+		err = output.VaryCSV(stdout, res)
+	default:
+		err = output.VaryText(stdout, res)
+	}
+	if err != nil {
+		fmt.Fprintf(stderr, "circa estimate: writing output: %v\n", err)
+		return exitUsage
+	}
+	return exitOK
 }

@@ -1,11 +1,14 @@
 package main
 
 import (
+	"context"
 	"fmt"
 	"io"
 	"strings"
 
+	"circa/check/flow"
 	"circa/check/output"
+	"circa/check/vary"
 	"circa/lang"
 )
 
@@ -52,4 +55,39 @@ func (s setFlag) apply(cmd string, m *lang.Model, stderr io.Writer) (*lang.Model
 		return m, false
 	}
 	return v, true
+}
+
+// varyFlag collects the --vary NAME=FROM..TO:N flag, given once or twice:
+// the parameters a sweep varies.
+type varyFlag []vary.Axis
+
+const varyUsage = "estimate at each value of a top-level parameter, `NAME=FROM..TO:N` (N values, ends included) or NAME=V1,V2,…; give it twice for a grid of two parameters"
+
+func (v *varyFlag) String() string { return "" }
+
+func (v *varyFlag) Set(s string) error {
+	if len(*v) == 2 {
+		return fmt.Errorf("a sweep varies at most two parameters")
+	}
+	a, err := vary.Parse(s)
+	if err != nil {
+		return err
+	}
+	*v = append(*v, a)
+	return nil
+}
+
+// sweep runs the sweep of m the flags ask for, with progress on stderr;
+// on error the message is printed and ok is false.
+func (v varyFlag) sweep(cmd string, m *lang.Model, fo flow.Options, stderr io.Writer) (*vary.Result, bool) {
+	pr := startProgress(stderr, cmd, "sweeping "+vary.Describe(v))
+	res, err := vary.Run(context.Background(), m, v, vary.Options{Flow: fo, Progress: func(done, total int) {
+		pr.Set(fmt.Sprintf("sweeping %s: %d of %d points", vary.Describe(v), done, total))
+	}})
+	pr.Stop()
+	if err != nil {
+		fmt.Fprintf(stderr, "circa %s: --vary: %s\n", cmd, output.Printable(err.Error()))
+		return nil, false
+	}
+	return res, true
 }

@@ -187,3 +187,69 @@ func TestPlotAndReportSet(t *testing.T) {
 		t.Errorf("report: %d %s", code, errs)
 	}
 }
+
+func TestEstimateVary(t *testing.T) {
+	code, out, errs := runEstimateCmd(t, rackDoor, "--vary", "lift=0.8m..1.2m:3")
+	if code != exitOK || !strings.Contains(out, "sweep: lift from 0.8 m to 1.2 m, 3 values (the file's 1.2 m)\n") ||
+		!strings.Contains(out, "caution:") || !strings.Contains(out, "\n  lift   charge") || !strings.Contains(out, "\n  1.2 m  ") {
+		t.Errorf("text: %d %s %s", code, out, errs)
+	}
+	code, out, errs = runEstimateCmd(t, rackDoor, "--format", "json", "--vary", "lift=0.8m,1.2m", "--vary", "plate_height=0.3m,0.35m")
+	var res struct {
+		Cautions []string `json:"cautions"`
+		Params   []struct {
+			Param  string    `json:"param"`
+			Values []float64 `json:"values"`
+		} `json:"params"`
+		Points []struct {
+			Index []int `json:"index"`
+			Loops []struct {
+				Margins  []map[string]any `json:"margins"`
+				Limiting map[string]any   `json:"limiting"`
+			} `json:"loops"`
+		} `json:"points"`
+	}
+	if err := json.Unmarshal([]byte(out), &res); err != nil || code != exitOK {
+		t.Fatalf("json: %d %v %s", code, err, errs)
+	}
+	if len(res.Cautions) == 0 || len(res.Params) != 2 || len(res.Points) != 4 || len(res.Points[3].Loops) != 1 ||
+		len(res.Points[3].Loops[0].Margins) == 0 || res.Points[3].Loops[0].Limiting == nil {
+		t.Errorf("json: %+v", res)
+	}
+	code, out, _ = runEstimateCmd(t, rackDoor, "--format", "csv", "--vary", "lift=0.8m,1.2m")
+	if code != exitOK || !strings.Contains(out, "\nlift_SI,loop,margin,case,component,value,limit,unit,use,status,note\n") || !strings.Contains(out, "\n1.2,rack,charge,") {
+		t.Errorf("csv: %d %s", code, out)
+	}
+	for _, tc := range []struct {
+		args []string
+		want string
+	}{
+		{[]string{"--vary", "lift=0.8m..1.2m"}, `"lift=0.8m..1.2m", column 16: a range needs its number of values`},
+		{[]string{"--vary", "lfit=1m,2m"}, "--vary: lfit: no such parameter at the top level; did you mean lift?"},
+		{[]string{"--vary", "lift=1m,2m", "--vary", "lift=1m,3m"}, "--vary: lift is varied twice"},
+		{[]string{"--vary", "lift=1m,2m", "--vary", "plate_height=1m,2m", "--vary", "plate_height=1m,2m"}, "at most two parameters"},
+		{[]string{"--vary", "lift=1m,2m", "--sweep-pitch", "10"}, "--vary cannot be combined with --sweep-pitch"},
+	} {
+		code, _, errs := runEstimateCmd(t, append([]string{rackDoor}, tc.args...)...)
+		if code != exitUsage || !strings.Contains(errs, tc.want) {
+			t.Errorf("%v: %d %q, want status 2 and %q", tc.args, code, errs, tc.want)
+		}
+	}
+}
+
+func TestPlotAndReportVary(t *testing.T) {
+	dir := t.TempDir()
+	code, out, errs := runCommand(t, "plot", "--out", dir, "--vary", "lift=0.8m..1.2m:3", rackDoor)
+	if code != exitOK || !strings.Contains(out, "rack-vary-lift.svg") {
+		t.Fatalf("plot: %d %s %s", code, out, errs)
+	}
+	svg, err := os.ReadFile(filepath.Join(dir, "rack-vary-lift.svg"))
+	if err != nil || !strings.Contains(string(svg), "Margins of loop rack against lift") {
+		t.Errorf("sweep figure: %v", err)
+	}
+	code, out, errs = runCommand(t, "report", "--vary", "lift=0.8m..1.2m:3", rackDoor)
+	if code == exitUsage || !strings.Contains(out, "<h3>Parameter sweep</h3>") || !strings.Contains(out, "Margins of loop rack against lift") ||
+		!strings.Contains(out, "<th>lift</th>") {
+		t.Errorf("report: %d %s", code, errs)
+	}
+}

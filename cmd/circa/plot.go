@@ -9,6 +9,7 @@ import (
 	"path/filepath"
 	"strings"
 
+	"circa/check/flow"
 	"circa/check/picture"
 )
 
@@ -17,6 +18,7 @@ func init() {
 }
 
 const plotUsage = `Usage: circa plot FILE [--case NAME] [--out DIR] [--format svg,png] [--set NAME=VALUE]...
+       [--vary NAME=FROM..TO:N]...
 
 Draws, for each loop in FILE:
   LOOP-circulation  mass flow and exit quality against heat load (the case's
@@ -30,6 +32,11 @@ Draws, for each loop in FILE:
   LOOP-tilt         mass flow and worst margin against pitch and roll around
                     the case, with the critical angles
   LOOP-geometry     side and front views of the loop
+  LOOP-vary-NAME    with --vary: each margin's use of its limit, in its
+                    worst case (of every case, or of the one --case
+                    names), against the parameter NAME; given twice, the
+                    limiting margin against the first NAME, a line per
+                    value of the second (see circa estimate --help)
 The case is the nominal one unless --case names another. Figures are written
 to DIR (default: the current directory) in each format given, and their
 paths printed. Exit status 1 when the file has errors or a figure cannot be
@@ -49,6 +56,8 @@ func runPlot(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 	fl.StringVar(&formats, "format", "svg", "comma-separated formats: svg, png")
 	var set setFlag
 	fl.Var(&set, "set", setUsage)
+	var vy varyFlag
+	fl.Var(&vy, "vary", varyUsage)
 	fl.Usage = func() {
 		fmt.Fprint(stderr, plotUsage)
 		fl.PrintDefaults()
@@ -87,6 +96,21 @@ func runPlot(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 		return exitUsage
 	}
 	figs, errs := picture.Figures(m, opts)
+	if len(vy) > 0 {
+		res, ok := vy.sweep("plot", m, flow.Options{Case: opts.Case}, stderr)
+		if !ok {
+			return exitUsage
+		}
+		for _, l := range m.Loops {
+			f, err := picture.VaryFigure(res, l.Name)
+			if err != nil {
+				errs = append(errs, fmt.Errorf("loop %s: %v", l.Name, err))
+				continue
+			}
+			f.Name = l.Name + "-" + f.Name
+			figs = append(figs, f)
+		}
+	}
 	status := exitOK
 	for _, err := range errs {
 		fmt.Fprintf(stderr, "circa plot: %v\n", err)

@@ -11,6 +11,7 @@ import (
 	"path/filepath"
 	"strings"
 
+	"circa/check/flow"
 	"circa/check/output"
 	"circa/lang"
 	"circa/textfile"
@@ -20,8 +21,8 @@ func init() {
 	register(&command{name: "report", summary: "write a design review report of a loop file as one HTML page", run: runReport})
 }
 
-const reportUsage = `Usage: circa report FILE [-o OUT.html] [--set NAME=VALUE]...
-       circa report --out-dir DIR [--set NAME=VALUE]... FILE...
+const reportUsage = `Usage: circa report FILE [-o OUT.html] [--set NAME=VALUE]... [--vary NAME=FROM..TO:N]...
+       circa report --out-dir DIR [--set NAME=VALUE]... [--vary NAME=FROM..TO:N]... FILE...
 
 Writes a design review report of each .loop file: one self-contained HTML
 page (no scripts, no network; figures inline as SVG) with the cautions, the
@@ -30,6 +31,8 @@ operating point, the margins with the limiting case of each, the charge, the
 circulation curve and pressure budget, the tilt and acceleration envelope,
 and the methods and assumptions. With one file and no -o the page goes to
 standard output; with --out-dir each FILE.loop becomes DIR/FILE.html.
+--vary adds a parameter sweep: each margin's use against the parameter,
+drawn and tabulated per loop (see circa estimate --help).
 
 Exit status: 0 when written and no finding is an error, 1 when some is,
 2 for usage or I/O errors.
@@ -44,6 +47,8 @@ func runReport(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 	dir := fl.String("out-dir", "", "write each FILE's report into this directory as FILE.html")
 	var set setFlag
 	fl.Var(&set, "set", setUsage)
+	var vy varyFlag
+	fl.Var(&vy, "vary", varyUsage)
 	fl.Usage = func() {
 		fmt.Fprint(stderr, reportUsage)
 		fl.PrintDefaults()
@@ -78,9 +83,17 @@ func runReport(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 			status = exitUsage
 			continue
 		}
+		opts := output.ReportOptions{Version: buildVersion()}
+		if len(vy) > 0 && !hasErrors(m) {
+			if opts.Vary, ok = vy.sweep("report", m, flow.Options{}, stderr); !ok {
+				status = exitUsage
+				continue
+			}
+		}
 		pr := startProgress(stderr, "report", "reading "+file)
+		opts.Progress = func(s string) { pr.Set(file + ": " + s) }
 		var page bytes.Buffer
-		err := output.Report(&page, file, m, output.ReportOptions{Version: buildVersion(), Progress: func(s string) { pr.Set(file + ": " + s) }})
+		err := output.Report(&page, file, m, opts)
 		pr.Stop()
 		if err != nil {
 			fmt.Fprintf(stderr, "circa report: %s: %v\n", file, err)
@@ -149,4 +162,15 @@ func writeNew(path string, data []byte) error {
 		os.Remove(name)
 	}
 	return err
+}
+
+// hasErrors reports whether the model has an error, which leaves a report
+// without estimates.
+func hasErrors(m *lang.Model) bool {
+	for _, d := range m.Diags {
+		if d.Severity == lang.Error {
+			return true
+		}
+	}
+	return false
 }
