@@ -41,6 +41,9 @@ type EnvelopePoint struct {
 type EnvelopeWorst struct {
 	Margin
 	At EnvelopePoint `json:"at"`
+	// Uniform is set when the margin is the same at every combination
+	// solved: At is then merely one of them.
+	Uniform bool `json:"uniform,omitempty"`
 }
 
 // envelopeTol is the search's resolution along each axis, as a fraction of
@@ -189,7 +192,7 @@ func (p *prepared) envelope(pt point, cr *CaseResult, start []float64) {
 		for _, m := range r.Margins {
 			if m.Margin+"/"+m.Component == key {
 				at := e.at(best)
-				out.Worst = append(out.Worst, EnvelopeWorst{Margin: m,
+				out.Worst = append(out.Worst, EnvelopeWorst{Margin: m, Uniform: e.uniform(key, m.Use),
 					At: EnvelopePoint{Yaw: at.yaw, Pitch: at.pitch, Roll: at.roll, Accel: [3]float64(at.accel)}})
 				worstAt = append(worstAt, r)
 			}
@@ -310,4 +313,20 @@ func (e *envelopeSearch) line(key string, x []float64, i int, u float64) float64
 		return bu
 	}
 	return u
+}
+
+// uniform reports whether margin key has use u at every circulating
+// combination solved.
+func (e *envelopeSearch) uniform(key string, u float64) bool {
+	for _, cr := range e.seen {
+		if !cr.Circulates {
+			continue
+		}
+		for _, m := range cr.Margins {
+			if m.Margin+"/"+m.Component == key && math.Abs(m.Use-u) > 1e-9*math.Max(1, math.Abs(u)) {
+				return false
+			}
+		}
+	}
+	return true
 }

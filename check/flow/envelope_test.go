@@ -122,3 +122,30 @@ func BenchmarkEnvelopeGrid(b *testing.B) {
 		}
 	}
 }
+
+// The pool-boiling critical heat flux grows as the body force to the power
+// 1/4 (Lienhard & Dhir 1973, as Zuber 1958), so its ratio is worst where
+// the body force is weakest: pitched 10°, at the forward acceleration that
+// cancels gravity's forward component, g_n·sin 10° = 0.1736 g_n, an
+// interior point the bracketing must close on (to 1 % of the 1 g_n range).
+func TestEnvelopeInteriorWorst(t *testing.T) {
+	src := strings.ReplaceAll(ring, "HEAT", "300 W") + `
+case pitched { heat evap 300 W; envelope { pitch 10 deg 10 deg; accel_x 0.5 gn } }
+`
+	r := estimate(t, load(t, src), Options{Case: "pitched", NoTilt: true})
+	c := caseNamed(t, r, "pitched")
+	if c.Envelope == nil {
+		t.Fatal("no envelope")
+	}
+	for _, w := range c.Envelope.Worst {
+		if w.Margin.Margin != MarginCHF {
+			continue
+		}
+		want := math.Sin(10 * math.Pi / 180)
+		if got := math.Abs(w.At.Accel[0]) / gn; math.Abs(got-want) > 0.01 {
+			t.Errorf("worst CHF ratio at accel_x %.4f g_n, want ±%.4f g_n", w.At.Accel[0]/gn, want)
+		}
+		return
+	}
+	t.Fatalf("no CHF margin in %+v", c.Envelope.Worst)
+}

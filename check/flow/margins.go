@@ -884,7 +884,7 @@ func worst(cases []CaseResult) []Margin {
 		}
 		if c.Envelope != nil {
 			for _, w := range c.Envelope.Worst {
-				if b, ok := best[w.Margin.Margin]; !ok || w.Use > b.Use {
+				if b, ok := best[w.Margin.Margin]; !w.Uniform && (!ok || w.Use > b.Use) {
 					m := w.Margin
 					m.Point = "the envelope's worst, " + (&CaseResult{Yaw: w.At.Yaw, Pitch: w.At.Pitch, Roll: w.At.Roll, Accel: w.At.Accel}).PointLabel()
 					best[m.Margin] = m

@@ -61,8 +61,12 @@ func envelopeText(w io.Writer, l *flow.LoopResult, c *flow.CaseResult) {
 		fmt.Fprintln(tw, "  worst combination\tmargin\tcomponent\tvalue\tlimit\tuse\tstatus")
 		for _, m := range e.Worst {
 			at := flow.CaseResult{Yaw: m.At.Yaw, Pitch: m.At.Pitch, Roll: m.At.Roll, Accel: m.At.Accel}
+			where := at.PointLabel()
+			if m.Uniform {
+				where = "the same throughout"
+			}
 			v, lim := MarginValue(l, c, m.Margin)
-			fmt.Fprintf(tw, "  %s\t%s\t%s\t%s\t%s\t%s\t%s\n", at.PointLabel(), m.Margin.Margin, m.Component, v, lim, fixed(m.Use, 2), m.Status)
+			fmt.Fprintf(tw, "  %s\t%s\t%s\t%s\t%s\t%s\t%s\n", where, m.Margin.Margin, m.Component, v, lim, fixed(m.Use, 2), m.Status)
 		}
 		tw.Flush()
 	}
