@@ -1,9 +1,12 @@
+//go:build unix
+
 package guide
 
 import (
 	"context"
 	"path/filepath"
 	"strings"
+	"syscall"
 	"testing"
 
 	"circa/lang"
@@ -25,6 +28,7 @@ func BenchmarkExamples(b *testing.B) {
 			}
 		}
 		b.Run(strings.TrimSuffix(filepath.Base(f), ".loop"), func(b *testing.B) {
+			cpu0 := cpuTime()
 			for i := 0; i < b.N; i++ {
 				g, err := Compute(context.Background(), m, Options{})
 				if err != nil {
@@ -36,6 +40,16 @@ func BenchmarkExamples(b *testing.B) {
 					}
 				}
 			}
+			b.ReportMetric(float64(cpuTime()-cpu0)/float64(b.N), "cpu-ns/op")
 		})
 	}
+}
+
+// cpuTime is the CPU time the process has used, user and system, ns.
+func cpuTime() int64 {
+	var ru syscall.Rusage
+	if syscall.Getrusage(syscall.RUSAGE_SELF, &ru) != nil {
+		return 0
+	}
+	return ru.Utime.Nano() + ru.Stime.Nano()
 }

@@ -104,6 +104,7 @@ func (gd *guider) tryFluid(li int, l *lang.Loop, sp lang.FluidSpec) Fluid {
 	mv.Loops = slices.Clone(gd.m.Loops)
 	mv.Loops[li] = &lv
 	gd.sem <- struct{}{}
+	gd.estimates.Add(1)
 	lr := flow.EstimateLoop(&mv, &lv, gd.full)
 	<-gd.sem
 	if lr.Fluid != "" {

@@ -6,7 +6,9 @@ import (
 	"runtime"
 	"slices"
 	"sync"
+	"sync/atomic"
 
+	"circa/check"
 	"circa/check/flow"
 	"circa/lang"
 	"circa/units"
@@ -52,6 +54,9 @@ type Guidance struct {
 	// Levers are the sensitivities of every parameter, largest change per
 	// 10 % first.
 	Levers []Lever `json:"levers,omitempty"`
+	// Estimates counts the estimates the guidance ran (the design as
+	// written not counted).
+	Estimates int `json:"estimates"`
 }
 
 // Param is one parameter's guidance.
@@ -93,6 +98,7 @@ type guider struct {
 	full, fast flow.Options
 	keep       func(Where) bool
 	sem        chan struct{}
+	estimates  atomic.Int64
 }
 
 // Compute works out the guidance for m. A model with errors gets none,
@@ -105,6 +111,12 @@ func Compute(ctx context.Context, m *lang.Model, opts Options) (*Guidance, error
 	g := &Guidance{Params: []Param{}, Loops: []Loop{}}
 	for _, d := range m.Diags {
 		if d.Severity == lang.Error {
+			g.Message = "the file has errors: no design guidance until they are fixed"
+			return g, nil
+		}
+	}
+	if v, err := m.With(); err == nil {
+		if _, bad := structuralError(v); bad {
 			g.Message = "the file has errors: no design guidance until they are fixed"
 			return g, nil
 		}
@@ -126,39 +138,26 @@ func Compute(ctx context.Context, m *lang.Model, opts Options) (*Guidance, error
 		g.Params = append(g.Params, Param{Param: p.Name, Value: p.Value.SI, Unit: displayUnit(p)})
 		todo = append(todo, p)
 	}
-	// The design as written, in full and, for the searches, without the
-	// tilt search; the first on every worker (its cases in parallel) while
-	// nothing else runs.
+	// The design as written, on every worker (its cases in parallel) while
+	// nothing else runs. Without the tilt search it is the same less its
+	// tilt margins.
 	baseOpts := gd.full
 	baseOpts.Workers = workers
-	var base, fast *flow.Result
-	var err, errFast error
-	var wg sync.WaitGroup
-	if !gd.full.NoTilt && len(todo) > 0 {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			fast, errFast = flow.Estimate(m, gd.fast)
-		}()
+	base := opts.Base
+	if base == nil {
+		var err error
+		if base, err = flow.Estimate(m, baseOpts); err != nil {
+			return nil, err
+		}
 	}
-	if base = opts.Base; base == nil {
-		base, err = flow.Estimate(m, baseOpts)
-	}
-	wg.Wait()
-	if err == nil {
-		err = errFast
-	}
-	if cerr := ctx.Err(); cerr != nil {
-		return nil, cerr
-	}
-	if err != nil {
+	if err := ctx.Err(); err != nil {
 		return nil, err
 	}
-	if fast == nil {
-		fast = base
-	}
+	var wg sync.WaitGroup
 	s0, ms0 := summarize(base, 0, gd.keep)
-	f0, _ := summarize(fast, 0, gd.keep)
+	f0, _ := summarize(base, 0, func(w Where) bool {
+		return w.Margin != flow.MarginTilt && (gd.keep == nil || gd.keep(w))
+	})
 	g.Use, g.Limit = s0.Use, s0.Limit
 	if s0.Stop != nil {
 		g.Stop = s0.Stop.Kind
@@ -188,6 +187,7 @@ func Compute(ctx context.Context, m *lang.Model, opts Options) (*Guidance, error
 		return nil, err
 	}
 	g.Levers = levers(g.Params)
+	g.Estimates = int(gd.estimates.Load())
 	return g, nil
 }
 
@@ -201,9 +201,16 @@ func used(m *lang.Model, name string) bool {
 	return false
 }
 
-// at estimates the design with parameter p set to x (SI), with the options
-// o (full or fast), one estimate per worker at a time.
-func (gd *guider) at(p *lang.Param, x float64, o *flow.Options) (Sample, margins) {
+// mode is how a variant is evaluated: with which estimate options (full or
+// fast), and whether the structural checks run too.
+type mode struct {
+	opts       *flow.Options
+	structural bool
+}
+
+// at estimates the design with parameter p set to x (SI), in mode md, one
+// estimate per worker at a time.
+func (gd *guider) at(p *lang.Param, x float64, md mode) (Sample, margins) {
 	if gd.ctx.Err() != nil {
 		return Sample{X: x, Stop: &Stop{Kind: StopError, Message: "cancelled"}}, nil
 	}
@@ -212,19 +219,38 @@ func (gd *guider) at(p *lang.Param, x float64, o *flow.Options) (Sample, margins
 		return Sample{X: x, Stop: st}, nil
 	}
 	gd.sem <- struct{}{}
-	res, err := flow.Estimate(v, *o)
-	<-gd.sem
+	defer func() { <-gd.sem }()
+	if md.structural {
+		if d, bad := structuralError(v); bad {
+			return Sample{X: x, Stop: &Stop{Kind: StopInvalid, Message: "the file is inconsistent at this value: " + d.Message()}}, nil
+		}
+	}
+	gd.estimates.Add(1)
+	res, err := flow.Estimate(v, *md.opts)
 	if err != nil {
 		return Sample{X: x, Stop: &Stop{Kind: StopError, Message: err.Error()}}, nil
 	}
 	return summarize(res, x, gd.keep)
 }
 
+// structuralError returns the first error of the structural checks
+// (topology, geometry, directions) on v, a model of its own (the checks
+// mark its silencers).
+func structuralError(v *lang.Model) (lang.Diagnostic, bool) {
+	for _, d := range check.Run(v, check.Options{SkipEstimates: true}) {
+		if d.Severity == lang.Error {
+			return d, true
+		}
+	}
+	return lang.Diagnostic{}, false
+}
+
 // param fills in one parameter's sensitivities and, when it influences the
 // estimate, its feasible range. The range is searched without the tilt
-// search (s0 and f0 are the design as written with and without it); its
-// ends are then checked with it, and only if the tilt margin fails there,
-// or at the value as written, is the search run again with it.
+// search and the structural checks (s0 and f0 are the design as written
+// with and without the tilt search); its ends are then checked with both,
+// and only if one fails there, or the tilt margin at the value as written,
+// is the search run again with them.
 func (gd *guider) param(out *Param, p *lang.Param, s0, f0 Sample, ms0 margins) {
 	x0 := p.Value.SI
 	s0.X, f0.X = x0, x0
@@ -235,16 +261,16 @@ func (gd *guider) param(out *Param, p *lang.Param, s0, f0 Sample, ms0 margins) {
 		return
 	}
 	out.Sensitivities = sens
-	full := func(x float64) Sample { s, _ := gd.at(p, x, &gd.full); return s }
-	fast := func(x float64) Sample { s, _ := gd.at(p, x, &gd.fast); return s }
+	fast := func(x float64) Sample { s, _ := gd.at(p, x, mode{opts: &gd.fast}); return s }
+	checked := func(x float64) Sample { s, _ := gd.at(p, x, mode{opts: &gd.full, structural: true}); return s }
 	var r Range
 	var ok bool
-	if gd.full.NoTilt || f0.Feasible() != s0.Feasible() {
-		r, ok = findRange(gd.ctx, full, ax, s0)
+	if f0.Feasible() != s0.Feasible() {
+		r, ok = findRange(gd.ctx, checked, ax, s0, foretell(sens, true, gd.keep))
 	} else {
-		r, ok = findRange(gd.ctx, fast, ax, f0)
-		if ok && r.Feasible && !gd.endsHold(full, r) {
-			r, ok = findRange(gd.ctx, full, ax, s0)
+		r, ok = findRange(gd.ctx, fast, ax, f0, foretell(sens, false, gd.keep))
+		if ok && r.Feasible && !gd.endsHold(checked, r) {
+			r, ok = findRange(gd.ctx, checked, ax, s0, foretell(sens, true, gd.keep))
 		}
 	}
 	if !ok {
@@ -260,7 +286,30 @@ func (gd *guider) param(out *Param, p *lang.Param, s0, f0 Sample, ms0 margins) {
 	out.Range = &r
 }
 
-// endsHold checks both ends of a range with the full estimate, at once.
+// foretell returns, for each side, the search coordinate (the logarithm of
+// the value's ratio to its own) at which the first margin reaches its limit
+// along its slope, 0 when none does: the slope of a use u along side dir is
+// 10·dir times its change per 10 %. The tilt margin is left out of a search
+// without the tilt search.
+func foretell(sens []Sensitivity, tilt bool, keep func(Where) bool) func(dir int) float64 {
+	return func(dir int) float64 {
+		best := 0.0
+		for _, s := range sens {
+			if !tilt && s.Margin == flow.MarginTilt || s.Use >= 1 || keep != nil && !keep(s.Where) {
+				continue
+			}
+			if k := 10 * s.PerTenPercent * float64(dir); k > 0 {
+				if du := (1 - s.Use) / k; best == 0 || du < best {
+					best = du
+				}
+			}
+		}
+		return best
+	}
+}
+
+// endsHold checks both ends of a range with the full estimate and the
+// structural checks, at once.
 func (gd *guider) endsHold(full eval, r Range) bool {
 	var lo, hi Sample
 	var wg sync.WaitGroup

@@ -187,3 +187,26 @@ func TestFluidRanking(t *testing.T) {
 		t.Errorf("%d fluids marked as the loop's own", own)
 	}
 }
+
+// A value the structural checks reject ends the range: the riser cannot be
+// shorter than the 1 m its nodes' coordinates rise. The search runs without
+// those checks and finds it when it checks the range's ends.
+func TestRangeEndsWhereGeometryFails(t *testing.T) {
+	src := strings.Replace(handSource(t), "pipe riser from b to c { length 1 m;", "pipe riser from b to c { length riser_length;", 1)
+	m := load(t, "../../testdata/flow/riser.loop", "param riser_length = 1.5 m\n"+src)
+	for _, d := range m.Diags {
+		t.Fatal(d.Message())
+	}
+	g, err := Compute(context.Background(), m, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	r := paramOf(t, g, "riser_length").Range
+	if r == nil || !r.Feasible || r.Low.Stop != StopInvalid || !strings.Contains(r.Low.Reason, "riser") {
+		t.Fatalf("range %+v, low %+v", r, r.Low)
+	}
+	// The geometry checks allow 1 mm (check/geometry.go, riseTol).
+	if r.Low.Value < 0.999 || r.Low.Value > 1.002 {
+		t.Errorf("shortest riser %g m, want 1 m less the 1 mm the checks allow", r.Low.Value)
+	}
+}

@@ -39,7 +39,10 @@ type Nearest struct {
 // on axis ax: outward on both sides at once from a feasible current value;
 // from an infeasible one, outward on both sides for the nearest feasible
 // value, then on from it. It returns false when ctx was cancelled.
-func findRange(ctx context.Context, f eval, ax axis, s0 Sample) (Range, bool) {
+func findRange(ctx context.Context, f eval, ax axis, s0 Sample, guess func(dir int) float64) (Range, bool) {
+	if guess == nil {
+		guess = func(int) float64 { return 0 }
+	}
 	r := Range{Use: s0.Use, Limit: s0.Limit}
 	if s0.Stop != nil {
 		r.Stop, r.Reason, r.Limit = s0.Stop.Kind, s0.Stop.Message, Where{Case: s0.Stop.Case}
@@ -51,9 +54,9 @@ func findRange(ctx context.Context, f eval, ax axis, s0 Sample) (Range, bool) {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
-			lo, okLo = side(ctx, f, ax, -1, s0)
+			lo, okLo = side(ctx, f, ax, -1, s0, guess(-1))
 		}()
-		hi, okHi = side(ctx, f, ax, +1, s0)
+		hi, okHi = side(ctx, f, ax, +1, s0, guess(+1))
 		wg.Wait()
 		if !okLo || !okHi {
 			return r, false

@@ -114,10 +114,23 @@ type Bound struct {
 type eval func(x float64) Sample
 
 // side searches from the feasible sample s0 outward on side dir and returns
-// the bound there.
-func side(ctx context.Context, f eval, ax axis, dir int, s0 Sample) (Bound, bool) {
+// the bound there. A guess (> 0) is where the margins' slopes foretell the
+// first limit on this side: the search tries just past it first, so that
+// the bracket is tight, then steps on beyond it.
+func side(ctx context.Context, f eval, ax axis, dir int, s0 Sample, guess float64) (Bound, bool) {
 	in, inU := s0, 0.0
-	for _, u := range ax.steps() {
+	us := ax.steps()
+	if guess > 0 && guess < us[len(us)-1] {
+		first := guess * guessPast
+		rest := []float64{first}
+		for _, u := range us {
+			if u > first {
+				rest = append(rest, u)
+			}
+		}
+		us = rest
+	}
+	for _, u := range us {
 		if ctx.Err() != nil {
 			return Bound{}, false
 		}
@@ -133,6 +146,11 @@ func side(ctx context.Context, f eval, ax axis, dir int, s0 Sample) (Bound, bool
 	}
 	return Bound{Value: in.X, Unbounded: true}, true
 }
+
+// guessPast is how far past a foretold limit the first step goes: a margin
+// whose use curves up meets its limit a little before the straight line
+// does, one whose use flattens a little after.
+const guessPast = 1.05
 
 // seek looks outward from an infeasible current value on side dir for the
 // nearest feasible value. It returns the limit between them (the range's

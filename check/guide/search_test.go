@@ -25,7 +25,7 @@ func TestRangeBothSides(t *testing.T) {
 	// use = (x − 3)² / 4: feasible on [1, 5].
 	var n counter
 	f := synthetic(func(x float64) float64 { return (x - 3) * (x - 3) / 4 }, nil, &n)
-	r, ok := findRange(context.Background(), f, axis{x0: 2.5}, f(2.5))
+	r, ok := findRange(context.Background(), f, axis{x0: 2.5}, f(2.5), nil)
 	if !ok || !r.Feasible || !r.Contains {
 		t.Fatalf("%+v", r)
 	}
@@ -45,7 +45,7 @@ func TestRangeBothSides(t *testing.T) {
 func TestRangeUnbounded(t *testing.T) {
 	var n counter
 	f := synthetic(func(x float64) float64 { return 0.5 * x }, nil, &n)
-	r, _ := findRange(context.Background(), f, axis{x0: 1}, f(1))
+	r, _ := findRange(context.Background(), f, axis{x0: 1}, f(1), nil)
 	if !r.Low.Unbounded || r.High.Unbounded {
 		t.Fatalf("low %+v high %+v", r.Low, r.High)
 	}
@@ -62,7 +62,7 @@ func TestRangeEndsAtStop(t *testing.T) {
 	// above 1.7: the range ends there and says why.
 	var n counter
 	f := synthetic(func(x float64) float64 { return 0.1 }, func(x float64) bool { return x > 1.7 }, &n)
-	r, _ := findRange(context.Background(), f, axis{x0: 1}, f(1))
+	r, _ := findRange(context.Background(), f, axis{x0: 1}, f(1), nil)
 	if r.High.Stop != StopNoCirculation || r.High.Reason == "" || r.High.Limit.Case != "c" {
 		t.Fatalf("high %+v", r.High)
 	}
@@ -77,7 +77,7 @@ func TestRangeStopInsideMarginBracket(t *testing.T) {
 	// usable.
 	var n counter
 	f := synthetic(func(x float64) float64 { return x / 3 }, func(x float64) bool { return x > 2.8 && x < 3.1 }, &n)
-	r, _ := findRange(context.Background(), f, axis{x0: 2}, f(2))
+	r, _ := findRange(context.Background(), f, axis{x0: 2}, f(2), nil)
 	if r.High.Stop != StopNoCirculation || math.Abs(r.High.Value-2.8) > 2.8*1.5e-3 {
 		t.Fatalf("high %+v, want the stop at 2.8", r.High)
 	}
@@ -88,7 +88,7 @@ func TestRangeOutsideCurrent(t *testing.T) {
 	// below it.
 	var n counter
 	f := synthetic(func(x float64) float64 { return 1 + (x-3)*(x-3) - 1.0 }, nil, &n)
-	r, _ := findRange(context.Background(), f, axis{x0: 10}, f(10))
+	r, _ := findRange(context.Background(), f, axis{x0: 10}, f(10), nil)
 	if !r.Feasible || r.Contains {
 		t.Fatalf("%+v", r)
 	}
@@ -101,7 +101,7 @@ func TestRangeInfeasible(t *testing.T) {
 	// Never below 1.2, least at x = 5.
 	var n counter
 	f := synthetic(func(x float64) float64 { return 1.2 + math.Abs(math.Log(x/5)) }, nil, &n)
-	r, _ := findRange(context.Background(), f, axis{x0: 1}, f(1))
+	r, _ := findRange(context.Background(), f, axis{x0: 1}, f(1), nil)
 	if r.Feasible || r.Low != nil || r.High != nil || r.Reason == "" {
 		t.Fatalf("%+v", r)
 	}
@@ -123,7 +123,7 @@ func TestRangeAboutZero(t *testing.T) {
 		}
 		return -x / 0.4
 	}, nil, &n)
-	r, _ := findRange(context.Background(), f, axis{x0: 0, scale: 0.1}, f(0))
+	r, _ := findRange(context.Background(), f, axis{x0: 0, scale: 0.1}, f(0), nil)
 	if math.Abs(r.High.Value-0.25) > 2e-4 || math.Abs(r.Low.Value+0.4) > 2e-4 {
 		t.Errorf("range %g–%g, want −0.4–0.25", r.Low.Value, r.High.Value)
 	}
@@ -133,7 +133,7 @@ func TestRangeNegativeValue(t *testing.T) {
 	// A negative value keeps its sign: use = −x/2 on x < 0 holds for x ≥ −2.
 	var n counter
 	f := synthetic(func(x float64) float64 { return -x / 2 }, nil, &n)
-	r, _ := findRange(context.Background(), f, axis{x0: -1}, f(-1))
+	r, _ := findRange(context.Background(), f, axis{x0: -1}, f(-1), nil)
 	if math.Abs(r.Low.Value+2) > 4e-3 || !r.High.Unbounded || r.High.Value >= 0 {
 		t.Errorf("range %+v – %+v", r.Low, r.High)
 	}
@@ -148,7 +148,7 @@ func TestRangeCancelled(t *testing.T) {
 		}
 		return x / 3
 	}, nil, &n)
-	if _, ok := findRange(ctx, f, axis{x0: 1}, f(1)); ok {
+	if _, ok := findRange(ctx, f, axis{x0: 1}, f(1), nil); ok {
 		t.Fatal("a cancelled search reported a range")
 	}
 	if n.Load() > 8 {

@@ -54,9 +54,9 @@ func (gd *guider) sensitivities(p *lang.Param, unit string, ax axis, s0 Sample, 
 	wg.Add(1)
 	go func() {
 		defer wg.Done()
-		sm, mm = gd.at(p, x0-h, &gd.full)
+		sm, mm = gd.at(p, x0-h, mode{opts: &gd.full})
 	}()
-	sp, mp = gd.at(p, x0+h, &gd.full)
+	sp, mp = gd.at(p, x0+h, mode{opts: &gd.full})
 	wg.Wait()
 	if !changed(s0, ms0, sp, mp) && !changed(s0, ms0, sm, mm) {
 		return nil, false
