@@ -2,7 +2,9 @@ package flow
 
 import (
 	"math"
+	"syscall"
 	"testing"
+	"time"
 
 	"circa/lang"
 	"circa/lang/loopgen"
@@ -17,6 +19,20 @@ func benchModel(b *testing.B, components, cycles int) *lang.Model {
 		}
 	}
 	return m
+}
+
+// cpuTime is the process's CPU time so far: with cpuPerOp it gives the CPU
+// an operation costs, which a loaded machine inflates far less than the
+// elapsed time.
+func cpuTime() time.Duration {
+	var ru syscall.Rusage
+	syscall.Getrusage(syscall.RUSAGE_SELF, &ru)
+	return time.Duration(ru.Utime.Nano() + ru.Stime.Nano())
+}
+
+// cpuPerOp reports the CPU per operation since u0, in milliseconds.
+func cpuPerOp(b *testing.B, u0 time.Duration) {
+	b.ReportMetric(float64((cpuTime()-u0).Microseconds())/1000/float64(b.N), "cpu-ms/op")
 }
 
 func benchOnce(b *testing.B, m *lang.Model, opts Options) *Result {
@@ -36,9 +52,11 @@ func BenchmarkSingleCase(b *testing.B) {
 		b.Fatal("benchmark loop does not circulate")
 	}
 	b.ResetTimer()
+	u0 := cpuTime()
 	for i := 0; i < b.N; i++ {
 		benchOnce(b, m, opts)
 	}
+	cpuPerOp(b, u0)
 }
 
 // BenchmarkEnvelope is a 1,000-point envelope of the same loop: both of its
@@ -95,9 +113,11 @@ func BenchmarkNetwork200(b *testing.B) {
 	}
 	b.ReportMetric(float64(c.Iterations), "newton-steps")
 	b.ResetTimer()
+	u0 := cpuTime()
 	for i := 0; i < b.N; i++ {
 		benchOnce(b, m, opts)
 	}
+	cpuPerOp(b, u0)
 }
 
 // BenchmarkNetwork5000 is the whole estimate, tilt limits included, of a
@@ -106,7 +126,9 @@ func BenchmarkNetwork200(b *testing.B) {
 // < 150 ms).
 func BenchmarkNetwork5000(b *testing.B) {
 	m := benchModel(b, 5000, 8)
+	u0 := cpuTime()
 	for b.Loop() {
 		benchOnce(b, m, Options{})
 	}
+	cpuPerOp(b, u0)
 }
