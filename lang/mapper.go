@@ -2,7 +2,6 @@ package lang
 
 import (
 	"bytes"
-	"sort"
 	"unicode/utf8"
 )
 
@@ -101,7 +100,17 @@ func (m *Mapper) LineEnd(line int) int {
 // a line ending belong to the line they end.
 func (m *Mapper) OffsetLine(off int) int {
 	off = m.clampOffset(off)
-	return sort.Search(len(m.lines), func(i int) bool { return m.lines[i] > off }) - 1
+	// The last line start at or before off.
+	lo, hi := 0, len(m.lines)
+	for lo < hi {
+		h := int(uint(lo+hi) >> 1)
+		if m.lines[h] > off {
+			hi = h
+		} else {
+			lo = h + 1
+		}
+	}
+	return lo - 1
 }
 
 // charStart returns the start of the character holding off, a byte offset
@@ -151,6 +160,11 @@ func (m *Mapper) OffsetPosition(off int, enc Encoding) Position {
 	}
 	col := 0
 	for p := start; p < off; {
+		if m.text[p] < utf8.RuneSelf {
+			col++ // one unit in every encoding
+			p++
+			continue
+		}
 		r, n := utf8.DecodeRune(m.text[p:off])
 		col += width(r, n, enc)
 		p += n
