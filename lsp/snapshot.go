@@ -108,6 +108,8 @@ type analysis struct {
 	carryParse []lang.Diagnostic // the syntax errors among them, which the new parse replaces
 	carryText  []byte
 
+	symbols symbolCache // the last document symbols encoded
+
 	checkMu    sync.Mutex
 	checked    bool              // the checks and the estimate are done
 	checkDiag  []lang.Diagnostic // their findings

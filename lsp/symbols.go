@@ -3,6 +3,7 @@ package lsp
 import (
 	"context"
 	"strings"
+	"sync"
 
 	"go.lsp.dev/jsonrpc2"
 	"go.lsp.dev/protocol"
@@ -20,6 +21,9 @@ func documentSymbolRequest(ctx context.Context, s *Server, sn *snapshot, params 
 	if a == nil {
 		return protocol.DocumentSymbolSlice{}, nil
 	}
+	if b := a.symbols.get(path, sn.enc); b != nil {
+		return jsonrpc2.RawMessage(b), nil
+	}
 	out := sn.outline(a.Model(), path)
 	// A large file has tens of thousands of symbols: encode them into one
 	// buffer of about the right size rather than growing it many times.
@@ -27,7 +31,33 @@ func documentSymbolRequest(ctx context.Context, s *Server, sn *snapshot, params 
 	if err != nil {
 		return nil, err
 	}
+	a.symbols.put(path, sn.enc, b)
 	return jsonrpc2.RawMessage(b), nil
+}
+
+// symbolCache holds an analysis's last encoded outline: editors ask for
+// the symbols of one version several times (outline, breadcrumbs, sticky
+// headers), and an analysis's model, texts and encoding never change.
+type symbolCache struct {
+	mu    sync.Mutex
+	path  string
+	enc   lang.Encoding
+	reply []byte
+}
+
+func (c *symbolCache) get(path string, enc lang.Encoding) []byte {
+	c.mu.Lock()
+	defer c.mu.Unlock()
+	if c.reply != nil && c.path == path && c.enc == enc {
+		return c.reply
+	}
+	return nil
+}
+
+func (c *symbolCache) put(path string, enc lang.Encoding, reply []byte) {
+	c.mu.Lock()
+	c.path, c.enc, c.reply = path, enc, reply
+	c.mu.Unlock()
 }
 
 // symbolBytes is about the encoded size of symbols: 240 bytes for one

@@ -96,3 +96,30 @@ func TestDocumentSymbolsOutline(t *testing.T) {
 		t.Error("the loop lists no components")
 	}
 }
+
+// TestDocumentSymbolsFollowEdits asks for the symbols twice per version:
+// the second answer is the first, and an edit that renames a parameter and
+// moves the next one down shows in the next answer.
+func TestDocumentSymbolsFollowEdits(t *testing.T) {
+	c := newTestClient(t, Options{Debounce: -1})
+	c.initialize(nil)
+	uri := "file:///tmp/syms.loop"
+	c.notify("textDocument/didOpen", map[string]any{"textDocument": map[string]any{"uri": uri, "languageId": "loop", "version": 1, "text": "param a = 1 mm\nparam b = 2 mm\n"}})
+	params := map[string]any{"textDocument": map[string]any{"uri": uri}}
+	first := string(c.mustCall("textDocument/documentSymbol", params))
+	if again := string(c.mustCall("textDocument/documentSymbol", params)); again != first {
+		t.Fatalf("two answers for one version differ:\n%s\n%s", first, again)
+	}
+	c.notify("textDocument/didChange", map[string]any{"textDocument": map[string]any{"uri": uri, "version": 2},
+		"contentChanges": []any{map[string]any{"range": map[string]any{"start": map[string]int{"line": 0, "character": 6}, "end": map[string]int{"line": 1, "character": 0}}, "text": "z = 1 mm\n\n"}}})
+	var syms []struct {
+		Name  string
+		Range struct{ Start struct{ Line int } }
+	}
+	if err := json.Unmarshal(c.mustCall("textDocument/documentSymbol", params), &syms); err != nil {
+		t.Fatal(err)
+	}
+	if len(syms) != 2 || syms[0].Name != "z" || syms[1].Name != "b" || syms[1].Range.Start.Line != 2 {
+		t.Errorf("after the edit: %+v, want z on line 0 and b on line 2", syms)
+	}
+}
