@@ -16,8 +16,10 @@
 //     searched without the tilt search (its only product is the tilt
 //     margin) and without the structural checks (topology, geometry), and
 //     their ends checked with both; only a range whose end fails one is
-//     searched again with them. Where the margins' slopes at the value as
-//     written foretell a limit, the first step goes just past it.
+//     searched again with them. Cases with a profile or an envelope are
+//     held at their worst points during the searches (reduce.go). Where the
+//     margins' slopes at the value as written foretell a limit, the first
+//     step goes just past it.
 //   - Sensitivities: each margin's use differentiated by central
 //     differences (a step of 0.1 % of the value), per unit of the
 //     parameter as written and per 10 % of it, ranked by size. A parameter

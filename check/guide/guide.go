@@ -99,6 +99,9 @@ type guider struct {
 	keep       func(Where) bool
 	sem        chan struct{}
 	estimates  atomic.Int64
+	// points are where the cases with a profile or an envelope were worst
+	// in the design as written (nil when there are none).
+	points fixed
 }
 
 // Compute works out the guidance for m. A model with errors gets none,
@@ -154,6 +157,9 @@ func Compute(ctx context.Context, m *lang.Model, opts Options) (*Guidance, error
 		return nil, err
 	}
 	var wg sync.WaitGroup
+	if needed(m) {
+		gd.points = fixed{}.with(base)
+	}
 	s0, ms0 := summarize(base, 0, gd.keep)
 	f0, _ := summarize(base, 0, func(w Where) bool {
 		return w.Margin != flow.MarginTilt && (gd.keep == nil || gd.keep(w))
@@ -202,35 +208,49 @@ func used(m *lang.Model, name string) bool {
 }
 
 // mode is how a variant is evaluated: with which estimate options (full or
-// fast), and whether the structural checks run too.
+// fast; nil for the structural checks alone), whether the structural checks
+// run too, and whether the cases with a profile or an envelope are held at
+// fixed points (reduce, when not nil).
 type mode struct {
 	opts       *flow.Options
 	structural bool
+	reduce     fixed
 }
 
 // at estimates the design with parameter p set to x (SI), in mode md, one
-// estimate per worker at a time.
-func (gd *guider) at(p *lang.Param, x float64, md mode) (Sample, margins) {
+// estimate per worker at a time. It returns the sample, every margin's use
+// and the estimate (nil when there is none).
+func (gd *guider) at(p *lang.Param, x float64, md mode) (Sample, margins, *flow.Result) {
 	if gd.ctx.Err() != nil {
-		return Sample{X: x, Stop: &Stop{Kind: StopError, Message: "cancelled"}}, nil
+		return Sample{X: x, Stop: &Stop{Kind: StopError, Message: "cancelled"}}, nil, nil
 	}
 	v, err := gd.m.With(lang.Override{Name: p.Name, Value: units.Quantity{SI: x, Dim: p.Dim, AbsTemp: p.AbsTemp}})
 	if st := invalid(v, err); st != nil {
-		return Sample{X: x, Stop: st}, nil
+		return Sample{X: x, Stop: st}, nil, nil
 	}
 	gd.sem <- struct{}{}
 	defer func() { <-gd.sem }()
 	if md.structural {
 		if d, bad := structuralError(v); bad {
-			return Sample{X: x, Stop: &Stop{Kind: StopInvalid, Message: "the file is inconsistent at this value: " + d.Message()}}, nil
+			return Sample{X: x, Stop: &Stop{Kind: StopInvalid, Message: "the file is inconsistent at this value: " + d.Message()}}, nil, nil
 		}
 	}
-	gd.estimates.Add(1)
-	res, err := flow.Estimate(v, *md.opts)
-	if err != nil {
-		return Sample{X: x, Stop: &Stop{Kind: StopError, Message: err.Error()}}, nil
+	if md.opts == nil {
+		// The structural checks alone.
+		return Sample{X: x}, nil, nil
 	}
-	return summarize(res, x, gd.keep)
+	opts := *md.opts
+	if md.reduce != nil {
+		md.reduce.apply(v, opts.Case)
+		opts.Case = ""
+	}
+	gd.estimates.Add(1)
+	res, err := flow.Estimate(v, opts)
+	if err != nil {
+		return Sample{X: x, Stop: &Stop{Kind: StopError, Message: err.Error()}}, nil, nil
+	}
+	s, ms := summarize(res, x, gd.keep)
+	return s, ms, res
 }
 
 // structuralError returns the first error of the structural checks
@@ -248,9 +268,12 @@ func structuralError(v *lang.Model) (lang.Diagnostic, bool) {
 // param fills in one parameter's sensitivities and, when it influences the
 // estimate, its feasible range. The range is searched without the tilt
 // search and the structural checks (s0 and f0 are the design as written
-// with and without the tilt search); its ends are then checked with both,
-// and only if one fails there, or the tilt margin at the value as written,
-// is the search run again with them.
+// with and without the tilt search), with the cases that have a profile or
+// an envelope held at their worst points; its ends are then checked with
+// the full estimate and the structural checks. Where an end fails, the
+// search is run again with what failed there: the tilt search, the
+// structural checks, or the points the end finds worst added; after two
+// such rounds, with the full estimate throughout.
 func (gd *guider) param(out *Param, p *lang.Param, s0, f0 Sample, ms0 margins) {
 	x0 := p.Value.SI
 	s0.X, f0.X = x0, x0
@@ -261,20 +284,52 @@ func (gd *guider) param(out *Param, p *lang.Param, s0, f0 Sample, ms0 margins) {
 		return
 	}
 	out.Sensitivities = sens
-	fast := func(x float64) Sample { s, _ := gd.at(p, x, mode{opts: &gd.fast}); return s }
-	checked := func(x float64) Sample { s, _ := gd.at(p, x, mode{opts: &gd.full, structural: true}); return s }
-	var r Range
-	var ok bool
+	pts := gd.points
+	search, start := mode{opts: &gd.fast, reduce: pts}, f0
 	if f0.Feasible() != s0.Feasible() {
-		r, ok = findRange(gd.ctx, checked, ax, s0, foretell(sens, true, gd.keep))
-	} else {
-		r, ok = findRange(gd.ctx, fast, ax, f0, foretell(sens, false, gd.keep))
-		if ok && r.Feasible && !gd.endsHold(checked, r) {
-			r, ok = findRange(gd.ctx, checked, ax, s0, foretell(sens, true, gd.keep))
-		}
+		search, start = mode{opts: &gd.full, reduce: pts}, s0
 	}
-	if !ok {
-		return
+	var r Range
+	for round := 0; ; round++ {
+		f := func(x float64) Sample { s, _, _ := gd.at(p, x, search); return s }
+		var ok bool
+		r, ok = findRange(gd.ctx, f, ax, start, foretell(sens, search.opts == &gd.full, gd.keep))
+		if !ok {
+			return
+		}
+		exact := search.opts == &gd.full && search.structural && search.reduce == nil
+		if exact || !r.Feasible {
+			// A range the reduced search finds infeasible is so in full:
+			// the full estimate only adds margins.
+			break
+		}
+		ends, results := gd.ends(p, r)
+		if ends[0].Feasible() && ends[1].Feasible() {
+			break
+		}
+		if round >= 2 || pts == nil && search.opts == &gd.full && search.structural {
+			search, start = mode{opts: &gd.full, structural: true}, s0
+			continue
+		}
+		next := mode{opts: search.opts, structural: search.structural, reduce: pts}
+		for i, e := range ends {
+			switch {
+			case e.Feasible():
+			case e.Stop != nil && e.Stop.Kind == StopInvalid:
+				next.structural = true
+			case e.Limit.Margin == flow.MarginTilt:
+				next.opts = &gd.full
+			case pts != nil:
+				pts = pts.with(results[i])
+				next.reduce = pts
+			default:
+				next.opts, next.structural = &gd.full, true
+			}
+		}
+		search, start = next, f0
+		if next.opts == &gd.full {
+			start = s0
+		}
 	}
 	r.Use, r.Limit, r.Stop = s0.Use, s0.Limit, ""
 	if s0.Stop != nil {
@@ -308,19 +363,29 @@ func foretell(sens []Sensitivity, tilt bool, keep func(Where) bool) func(dir int
 	}
 }
 
-// endsHold checks both ends of a range with the full estimate and the
-// structural checks, at once.
-func (gd *guider) endsHold(full eval, r Range) bool {
-	var lo, hi Sample
-	var wg sync.WaitGroup
-	wg.Add(1)
-	go func() {
-		defer wg.Done()
-		lo = full(r.Low.Value)
-	}()
-	hi = full(r.High.Value)
-	wg.Wait()
-	return lo.Feasible() && hi.Feasible()
+// ends checks both ends of a range, at once: first with the structural
+// checks alone, which are quick, then, when both pass, with the full
+// estimate.
+func (gd *guider) ends(p *lang.Param, r Range) ([2]Sample, [2]*flow.Result) {
+	var out [2]Sample
+	var res [2]*flow.Result
+	xs := [2]float64{r.Low.Value, r.High.Value}
+	both := func(md mode) {
+		var wg sync.WaitGroup
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			out[0], _, res[0] = gd.at(p, xs[0], md)
+		}()
+		out[1], _, res[1] = gd.at(p, xs[1], md)
+		wg.Wait()
+	}
+	both(mode{structural: true})
+	if out[0].Stop != nil || out[1].Stop != nil {
+		return out, res
+	}
+	both(mode{opts: &gd.full})
+	return out, res
 }
 
 // displayUnit is the unit a parameter was written in, else the SI unit of

@@ -18,10 +18,27 @@ func summarize(res *flow.Result, x float64, keep func(Where) bool) (Sample, marg
 	s := Sample{X: x}
 	ms := margins{}
 	first := true
+	note := func(w Where, use float64) {
+		if old, ok := ms[w]; ok && old >= use {
+			return
+		}
+		ms[w] = use
+		if keep != nil && !keep(w) {
+			return
+		}
+		if first || use > s.Use {
+			s.Use, s.Limit, first = use, w, false
+		}
+	}
+	stop := func(st *Stop) {
+		if st != nil && s.Stop == nil {
+			s.Stop = st
+		}
+	}
 	for _, l := range res.Loops {
 		for _, f := range l.Findings {
-			if f.Severity == "error" && s.Stop == nil {
-				s.Stop = &Stop{Kind: StopError, Message: f.Message}
+			if f.Severity == "error" {
+				stop(&Stop{Kind: StopError, Message: f.Message})
 			}
 		}
 		for ci := range l.Cases {
@@ -29,17 +46,29 @@ func summarize(res *flow.Result, x float64, keep func(Where) bool) (Sample, marg
 			if c.Grid {
 				continue
 			}
-			if st := caseStop(c); st != nil && s.Stop == nil {
-				s.Stop = st
-			}
+			stop(caseStop(c))
+			cs, point := caseOf(c.Case)
 			for _, m := range c.Margins {
-				w := Where{Loop: l.Loop, Margin: m.Margin, Case: c.Case, Component: m.Component}
-				ms[w] = m.Use
-				if keep != nil && !keep(w) {
-					continue
+				note(Where{Loop: l.Loop, Margin: m.Margin, Case: cs, Component: m.Component, Point: point}, m.Use)
+			}
+			if e := c.Envelope; e != nil {
+				for _, w := range e.Worst {
+					note(Where{Loop: l.Loop, Margin: w.Margin.Margin, Case: cs, Component: w.Component, Point: PointEnvelope}, w.Use)
 				}
-				if first || m.Use > s.Use {
-					s.Use, s.Limit, first = m.Use, w, false
+				if e.Stops != nil {
+					stop(&Stop{Kind: StopNoCirculation, Case: c.Case,
+						Message: fmt.Sprintf("no circulation within the envelope of case %s: %s", c.Case, e.Stops.Reason)})
+				}
+			}
+			if p := c.Profile; p != nil {
+				for _, m := range p.Worst {
+					note(Where{Loop: l.Loop, Margin: m.Margin, Case: cs, Component: m.Component, Point: PointProfile}, m.Use)
+				}
+				for _, in := range p.Instants {
+					if !in.Circulates {
+						stop(&Stop{Kind: StopNoCirculation, Case: c.Case,
+							Message: fmt.Sprintf("no circulation at t = %g s of the profile of case %s: %s", in.Time, c.Case, in.Reason)})
+					}
 				}
 			}
 		}
@@ -113,6 +142,12 @@ func (w Where) Describe() string {
 	}
 	if w.Case != "" && w.Case != flow.NoCase {
 		s += " in case " + w.Case
+	}
+	switch w.Point {
+	case PointEnvelope:
+		s += " (its envelope's worst)"
+	case PointProfile:
+		s += " (its profile's worst instant)"
 	}
 	return s
 }

@@ -27,6 +27,9 @@ type Where struct {
 	Margin    string `json:"margin,omitempty"`
 	Case      string `json:"case,omitempty"`
 	Component string `json:"component,omitempty"`
+	// Point is PointProfile or PointEnvelope for the worst of a case's
+	// profile or envelope, "" for the case's own attitude.
+	Point string `json:"point,omitempty"`
 }
 
 // Stop says why the estimate gives no usable answer at a value.

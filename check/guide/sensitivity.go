@@ -54,11 +54,13 @@ func (gd *guider) sensitivities(p *lang.Param, unit string, ax axis, s0 Sample, 
 	wg.Add(1)
 	go func() {
 		defer wg.Done()
-		sm, mm = gd.at(p, x0-h, mode{opts: &gd.full})
+		sm, mm, _ = gd.at(p, x0-h, mode{opts: &gd.full, reduce: gd.points})
 	}()
-	sp, mp = gd.at(p, x0+h, mode{opts: &gd.full})
+	sp, mp, _ = gd.at(p, x0+h, mode{opts: &gd.full, reduce: gd.points})
 	wg.Wait()
-	if !changed(s0, ms0, sp, mp) && !changed(s0, ms0, sm, mm) {
+	// With the cases held at fixed points the steps are compared with each
+	// other, not with the full estimate as written.
+	if !changed(sp, mp, sm, mm) && (gd.points != nil || !changed(s0, ms0, sp, mp)) {
 		return nil, false
 	}
 	scale := unitScale(unit)
