@@ -60,7 +60,10 @@ func reparse(old *File, src []byte, m *Mapper) *File {
 	if a > 0 && bytes.HasPrefix(src[a:], []byte("\ufeff")) {
 		return nil // a mark at the start of the region would read as a blank
 	}
-	region, rp := parseMapped(old.Path, src[a:b+delta], NewMapper(src[a:b+delta]), false)
+	// The region's own copy: the names and numbers of its nodes keep only
+	// those bytes alive, not the whole text of this version.
+	text := bytes.Clone(src[a : b+delta])
+	region, rp := parseMapped(old.Path, text, NewMapper(text), false)
 	depth := len(sp.chain)
 	if (rp.stray && depth > 0) || unclosed(region.Stmts) ||
 		depth+blockDepth(region.Stmts) >= MaxNesting || depth+blockDepth(sp.list[sp.i:sp.j]) >= MaxNesting {
