@@ -675,6 +675,16 @@ func newSensitivity(nb, nj, nc int) *sensitivity {
 		up: make([]int, nb), K: mat.NewDense(nj, nj, nil), B: mat.NewDense(nj, nc, nil)}
 }
 
+// jacobianSteps are the difference steps of a branch's flow m and inlet
+// quality x.
+func jacobianSteps(m, x float64) (h, hx float64) {
+	h = 1e-6 * math.Max(math.Abs(m), 1e-5)
+	if m < 0 {
+		h = -h
+	}
+	return h, 1e-6 * math.Max(math.Abs(x), 1e-3)
+}
+
 // jacobian sets J = −∂E/∂f at ev. Each branch's pressure drop depends on
 // its own flow and on its upstream junction's quality; junction qualities
 // depend on the flows through the mixing balance D_j x_j = Σ |m_b| X_b,
@@ -690,13 +700,7 @@ func (s *state) jacobian(ev *eval, J *mat.Dense, w *sensitivity) {
 		}
 		w.up[bi] = up
 		x := ev.xj[up]
-		h := 1e-6 * math.Max(math.Abs(m), 1e-5)
-		if m < 0 {
-			h = -h
-		}
-		w.S[bi] = (s.branchDP(bi, m+h, x, nil) - ev.dp[bi]) / h
-		hx := 1e-6 * math.Max(math.Abs(x), 1e-3)
-		w.T[bi] = (s.branchDP(bi, m, x+hx, nil) - ev.dp[bi]) / hx
+		h, hx := jacobianSteps(m, x)
 		am := math.Abs(m)
 		X := s.branchOutX(bi, m, x)
 		w.U[bi] = (math.Abs(m+h)*s.branchOutX(bi, m+h, x) - am*X) / h
@@ -743,6 +747,22 @@ func (s *state) jacobian(ev *eval, J *mat.Dense, w *sensitivity) {
 	if err := w.G.Solve(w.K, w.B); err != nil {
 		w.G.Reset()
 		w.G.ReuseAs(n.nj, nc)
+	}
+	// Each branch's pressure-drop sensitivities: to its flow always, to
+	// its inlet quality only where that quality moves with the flows (a
+	// junction fed only by a condenser's outlet keeps its quality, and the
+	// term would be multiplied by zero).
+	for bi := range n.branches {
+		m, x := ev.mb[bi], ev.xj[w.up[bi]]
+		h, hx := jacobianSteps(m, x)
+		w.S[bi] = (s.branchDP(bi, m+h, x, nil) - ev.dp[bi]) / h
+		w.T[bi] = 0
+		for l := 0; l < nc; l++ {
+			if w.G.At(w.up[bi], l) != 0 {
+				w.T[bi] = (s.branchDP(bi, m, x+hx, nil) - ev.dp[bi]) / hx
+				break
+			}
+		}
 	}
 	// d dp_b/df_l = S_b C_bl + T_b G_{up(b), l};  J_kl = Σ_b C_bk d dp_b/df_l.
 	J.Zero()
