@@ -83,25 +83,29 @@ func profilePoints(c *lang.Case) ([]point, []int) {
 }
 
 // gatherProfiles moves the results of profile points out of the case list
-// into the profiles of their cases.
+// into the profiles of their cases (a case's own point, not its sweep
+// points, which may lie between them).
 func (p *prepared) gatherProfiles(points []point, results []CaseResult) []CaseResult {
-	var out []CaseResult
-	for i := 0; i < len(points); {
-		if points[i].profile {
-			i++ // a profile point without its case (cannot happen)
+	instants := map[*lang.Case][]CaseResult{}
+	for i, pt := range points {
+		if pt.profile {
+			instants[pt.c] = append(instants[pt.c], results[i])
+		}
+	}
+	if len(instants) == 0 {
+		return results
+	}
+	out := make([]CaseResult, 0, len(results))
+	for i, pt := range points {
+		if pt.profile {
 			continue
 		}
 		base := results[i]
-		j := i + 1
-		for j < len(points) && points[j].profile && points[j].c == points[i].c {
-			j++
-		}
-		if c := points[i].c; c != nil && c.Profile != nil && j > i+1 {
-			_, idx := profilePoints(c)
-			base.Profile = p.profileResult(&base, c, results[i+1:j], idx)
+		if res := instants[pt.c]; !pt.grid && len(res) > 0 {
+			_, idx := profilePoints(pt.c)
+			base.Profile = p.profileResult(&base, pt.c, res, idx)
 		}
 		out = append(out, base)
-		i = j
 	}
 	return out
 }
@@ -134,7 +138,8 @@ func (p *prepared) profileResult(base *CaseResult, c *lang.Case, res []CaseResul
 	p.instantFindings(base, c, res, idx)
 	pr.Fast = fastChanges(pr.Instants)
 	for _, fc := range pr.Fast {
-		base.Findings = append(base.Findings, p.finding(RuleManoeuvre, "warning", base.Case, "", fc.Transit, fc.Duration, "s", "",
+		to := fc.To
+		base.Findings = append(base.Findings, p.findingAt(&to, RuleManoeuvre, "warning", base.Case, "", fc.Transit, fc.Duration, "s", "",
 			"the profile of case %s changes the body force by %s gn between t = %s s and %s s, within less than the fluid's transit time round the loop (%s s): the quasi-static estimate no longer holds there; a transient model or a test is needed",
 			base.Case, strconv.FormatFloat(fc.Change/geom.Gn, 'g', 2, 64), secText(fc.From), secText(fc.To), secText(fc.Transit)))
 	}
@@ -186,6 +191,8 @@ func (p *prepared) instantFindings(base *CaseResult, c *lang.Case, res []CaseRes
 			first[k] = len(found)
 			order = append(order, k)
 			f.Message = fmt.Sprintf("at t = %s s of its profile: %s", secText(row.Time), f.Message)
+			t := row.Time
+			f.Time = &t
 			found = append(found, f)
 		}
 	}
@@ -278,4 +285,11 @@ func fastManoeuvre(loops []LoopResult) bool {
 		}
 	}
 	return false
+}
+
+// findingAt is a finding at instant t of the case's profile.
+func (p *prepared) findingAt(t *float64, rule, sev, cs, comp string, v, lim float64, unit, field, format string, args ...any) Finding {
+	f := p.finding(rule, sev, cs, comp, v, lim, unit, field, format, args...)
+	f.Time = t
+	return f
 }

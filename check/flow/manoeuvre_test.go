@@ -144,3 +144,41 @@ case ramp {
 		t.Errorf("no manoeuvre caution in %q", r.Cautions)
 	}
 }
+
+// A sweep's points lie between a case and its profile's instants: the
+// profile still belongs to the case's own result, not to a sweep point.
+func TestProfileWithSweep(t *testing.T) {
+	src := strings.ReplaceAll(ring, "HEAT", "300 W") + `
+case moving {
+  heat evap 300 W
+  profile {
+    columns time pitch
+    row 0 s 0 deg
+    row 60 s 5 deg
+  }
+}
+`
+	r := estimate(t, load(t, src), Options{Case: "moving", NoTilt: true, Sweep: &Sweep{Roll: []float64{0.1, 0.2}}})
+	cs := r.Loops[0].Cases
+	if len(cs) != 3 || cs[0].Grid || !cs[1].Grid || !cs[2].Grid {
+		t.Fatalf("want the case and two sweep points, got %d results", len(cs))
+	}
+	if cs[0].Profile == nil || len(cs[0].Profile.Instants) != 2 || cs[1].Profile != nil || cs[2].Profile != nil {
+		t.Errorf("profile on the wrong result: %v %v %v", cs[0].Profile != nil, cs[1].Profile != nil, cs[2].Profile != nil)
+	}
+}
+
+// Evaluating a profile costs one steady state per distinct row.
+func BenchmarkProfile(b *testing.B) {
+	var rows strings.Builder
+	for i := 0; i < 50; i++ {
+		fmt.Fprintf(&rows, "    row %d s %g deg %g gn\n", 10*i, 10*math.Sin(float64(i)/5), 0.2*math.Cos(float64(i)/7))
+	}
+	m := load(b, strings.ReplaceAll(ring, "HEAT", "300 W")+"case drive {\n  heat evap 300 W\n  profile {\n    columns time pitch accel_y\n"+rows.String()+"  }\n}\n")
+	b.ReportAllocs()
+	for i := 0; i < b.N; i++ {
+		if _, err := Estimate(m, Options{Case: "drive", NoTilt: true}); err != nil {
+			b.Fatal(err)
+		}
+	}
+}

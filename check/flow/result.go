@@ -309,6 +309,8 @@ type Finding struct {
 	// ("exit_quality", …) or from a component field ("wall_limit").
 	LimitField string `json:"limit_field,omitempty"`
 	Message    string `json:"message"`
+	// Time is the instant of the case's profile the finding comes from, s.
+	Time *float64 `json:"time,omitempty"`
 }
 
 // Rule identifiers of the findings.
