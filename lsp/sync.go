@@ -108,7 +108,9 @@ func didSave(_ context.Context, s *Server, params []byte) error {
 		s.clientLog(protocol.MessageTypeWarning, fmt.Sprintf("circa: the server's copy of %s differed from the editor's; it now has the saved text", path))
 	}
 	docs := maps.Clone(s.snap.docs)
-	docs[path] = newDocument(old.uri, path, version, []byte(*p.Text))
+	saved := newDocument(old.uri, path, version, []byte(*p.Text))
+	saved.editedFrom(old)
+	docs[path] = saved
 	s.changeLocked(docs, []string{path}, false)
 	return nil
 }
