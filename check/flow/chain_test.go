@@ -103,3 +103,27 @@ func mustMethods(t *testing.T, m *lang.Model) MethodsUsed {
 	}
 	return mu
 }
+
+// The gravity-only march of the head at vanishing flow takes exactly the
+// gravity term of the full march, through liquid, two-phase and dry cells
+// and across the phase boundaries inside a heated tube.
+func TestGravityOnlyMarch(t *testing.T) {
+	m := lang.Load("../../testdata/examples/ferry-cabinet.loop", lang.OSFS{})
+	p := prepare(m, m.Loops[0], mustMethods(t, m))
+	var cr CaseResult
+	s, _ := p.newState(point{c: m.Cases[0], roll: 0.4}, &cr)
+	if s == nil || p.net.ring {
+		t.Fatal("no network state")
+	}
+	for bi := range s.net.branches {
+		for _, mf := range []float64{1e-6, 2e-3, 0.05, -0.01} {
+			for _, x := range []float64{-0.02, 0, 0.4, 1.3} {
+				var want float64
+				s.branchDP(bi, mf, x, func(_ int, _, _, _, _ float64, q parts) { want += q.grav })
+				if got := s.branchGrav(bi, mf, x); got != want {
+					t.Errorf("branch %d, flow %g, x %g: gravity-only %.17g, full march %.17g", bi, mf, x, got, want)
+				}
+			}
+		}
+	}
+}

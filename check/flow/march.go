@@ -52,6 +52,9 @@ type state struct {
 	// flow, and consecutive tubes of one bore in a branch share it. Copies
 	// of the state share the cache (one goroutine's).
 	pfc *frictionCache
+	// gravOnly has march return the gravity term alone (the other parts
+	// zero), for the head at vanishing flow.
+	gravOnly bool
 	// lossScale multiplies every component's friction and local losses
 	// (0 or 1: as estimated); the loss-reserve margin solves with it.
 	lossScale float64
@@ -215,6 +218,10 @@ func (s *state) march(ci int, dir float64, m, xin float64, rec func(cellRec)) (f
 	var q parts
 	bd := s.bDisp[ci] * dir // b·(displacement along the flow)
 	cosInc := s.cosInc[ci]
+	if s.gravOnly {
+		q.grav = s.gravity(cp, G, xin, xout, bd, dir, cosInc)
+		return xout, q
+	}
 	pf := &correlate.PreparedFriction{}
 	if xin > 0 || xout > 0 {
 		// Two-phase or vapour somewhere: the liquid-only cells do not use it.
@@ -282,6 +289,45 @@ func (s *state) march(ci int, dir float64, m, xin float64, rec func(cellRec)) (f
 	q.acc = q.mOut - q.mIn
 	q.local = cp.K * G * G / (2 * s.homog(xout))
 	return xout, s.scaled(q)
+}
+
+// gravity is march's gravity term alone, cell by cell as march takes it.
+func (s *state) gravity(cp *comp, G, xin, xout, bd, dir, cosInc float64) float64 {
+	if xout == xin || cp.L == 0 {
+		return s.density(G, xin, cosInc) * bd
+	}
+	var grav float64
+	n := s.cells
+	dg := bd / float64(n)
+	xa := xin
+	for k := 0; k < n; k++ {
+		xb := s.faceX(cp, dir, xin, xout, k+1, n)
+		if xa < 0 && xb > 0 || xa > 0 && xb < 0 || xa < 1 && xb > 1 || xa > 1 && xb < 1 {
+			xc := 0.0
+			if (xa-1)*(xb-1) < 0 {
+				xc = 1
+			}
+			w := (xc - xa) / (xb - xa)
+			m1, m2 := s.density(G, 0.5*(xa+xc), cosInc), s.density(G, 0.5*(xc+xb), cosInc)
+			grav += (w*m1 + (1-w)*m2) * dg
+		} else {
+			grav += s.density(G, 0.5*(xa+xb), cosInc) * dg
+		}
+		xa = xb
+	}
+	return grav
+}
+
+// density is the mixture density cell takes at quality x.
+func (s *state) density(G, x, cosInc float64) float64 {
+	switch {
+	case x <= 0:
+		rho, _ := s.liquid(x)
+		return rho
+	case x >= 1:
+		return s.p.RhoV
+	}
+	return correlate.MixtureDensity(s.vp.At(x, G, cosInc), s.p)
 }
 
 // mom is the momentum flux at mass flux G, quality x and void alpha:

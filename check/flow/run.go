@@ -170,7 +170,10 @@ func (s *state) headAtVanishingFlow(f []float64, mf float64) float64 {
 			g[k] = flowMin
 		}
 	}
-	s.evaluate(g, ev)
+	// Only the branch flows and the junction qualities are needed: the
+	// branches are marched for their gravity alone.
+	s.branchFlows(g, ev)
+	s.mix(ev)
 	ref := flowMin
 	if f == nil || mf <= 0 {
 		ref = 0

@@ -138,7 +138,9 @@ func (s *state) branchGrav(bi int, m, xin float64) float64 {
 		s.branchDPLocal(bi, m, func(ci int, dir, m, xin, xout float64, q parts) { g += q.grav })
 		return g
 	}
-	_, g := s.branchParts(bi, m, xin, nil)
+	t := *s
+	t.gravOnly = true
+	_, g := t.branchParts(bi, m, xin, nil)
 	return g
 }
 
