@@ -4,8 +4,8 @@
 //   - Feasible ranges. For each top-level parameter, the other parameters
 //     as written, the values over which every margin holds in every case.
 //     The search steps outward from the value as written (10 %, 25 %, 60 %,
-//     then 2.5, 4, 10 and 100 times, and as much smaller; a parameter keeps
-//     its sign) until a margin fails, and closes the bracket by Brent's
+//     then ten steps a decade to tenfold and a hundredfold, and as much
+//     smaller; a parameter keeps its sign) until a margin fails, and closes the bracket by Brent's
 //     method on the limiting margin's use, to 0.1 %. Where the estimate
 //     stops being usable inside a bracket (the loop stops circulating, the
 //     momentum balance has several roots, the value makes the file invalid

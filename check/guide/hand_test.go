@@ -111,3 +111,39 @@ func TestHandLoopReserveBound(t *testing.T) {
 		t.Errorf("lower end %+v, want unbounded", r.Low)
 	}
 }
+
+// TestRangeEndsAtSeveralBalances varies the return's subcooling of
+// testdata/flow/ledinegg.loop, the throttled homogeneous loop worked by hand
+// in check/flow (TestLedineggLoop: constant properties, c_p,l = 4 kJ/(kg K),
+// h_lv = 1 MJ/kg, v_lv/v_l = 99; three balances at 50 K of subcooling). Its
+// excess head can rise with flow, and so give several balances, only when
+// S = s·v_lv/v_l > 9 with s = c_p,l·ΔT_sub/h_lv: S = 0.396·ΔT_sub, so
+// ΔT_sub > 22.7 K. From 10 K (one balance) the range must end, for several
+// balances, between 22.7 K and 50 K. The loss reserve is switched off and
+// the exit-quality limit loosened so that no margin ends it first.
+func TestRangeEndsAtSeveralBalances(t *testing.T) {
+	text, err := os.ReadFile("../../testdata/flow/ledinegg.loop")
+	if err != nil {
+		t.Fatal(err)
+	}
+	src := strings.Replace(string(text), "subcool 50 K", "subcool subcooling", 1)
+	src = "param subcooling = 10 K\n" + strings.Replace(src, "case nominal", "limits { head_ratio 1; exit_quality 0.99 }\ncase nominal", 1)
+	m := lang.LoadSource("../../testdata/flow/ledinegg-guide.loop", []byte(src), lang.OSFS{})
+	for _, d := range m.Diags {
+		t.Fatal(d.Message())
+	}
+	g, err := Compute(context.Background(), m, Options{Flow: flow.Options{NoTilt: true}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	r := paramOf(t, g, "subcooling").Range
+	if r == nil || !r.Feasible || !r.Contains {
+		t.Fatalf("range %+v", r)
+	}
+	if r.High.Stop != StopSeveralBalances || !strings.Contains(r.High.Reason, "3 roots") {
+		t.Fatalf("upper end %+v, want several balances", r.High)
+	}
+	if v := r.High.Value; v < 22.7 || v > 50 {
+		t.Errorf("several balances from %g K, want between 22.7 and 50 K", v)
+	}
+}

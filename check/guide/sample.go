@@ -92,7 +92,7 @@ func caseStop(c *flow.CaseResult) *Stop {
 			}
 			flows = append(flows, fmt.Sprintf("%.3g g/s %s", r.MassFlow*1e3, kind))
 		}
-		return &Stop{Kind: StopSeveralRoots, Case: c.Case,
+		return &Stop{Kind: StopSeveralBalances, Case: c.Case,
 			Message: fmt.Sprintf("the momentum balance has %d roots in case %s (%s)", len(c.Roots), c.Case, strings.Join(flows, ", "))}
 	}
 	for _, f := range c.Findings {

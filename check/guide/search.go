@@ -34,17 +34,17 @@ type Where struct {
 
 // Stop says why the estimate gives no usable answer at a value.
 type Stop struct {
-	Kind    string // StopNoCirculation, StopSeveralRoots, StopInvalid, StopError
+	Kind    string // StopNoCirculation, StopSeveralBalances, StopInvalid, StopError
 	Case    string
 	Message string
 }
 
 // Kinds of Stop.
 const (
-	StopNoCirculation = "no-circulation"
-	StopSeveralRoots  = "several-balances"
-	StopInvalid       = "invalid"
-	StopError         = "estimate-error"
+	StopNoCirculation   = "no-circulation"
+	StopSeveralBalances = "several-balances"
+	StopInvalid         = "invalid"
+	StopError           = "estimate-error"
 	// StopNoCharge: in a fluid ranking, no charge suits every case.
 	StopNoCharge = "no-charge"
 )
@@ -71,11 +71,14 @@ func (a axis) at(u float64, dir int) float64 {
 }
 
 // steps are the search coordinates tried outward from the current value: a
-// value grows by 10 %, 25 %, 60 % ... up to a hundredfold (or shrinks as
-// much; about zero, moves by 0.1 to 100 of its unit); the geometric growth
-// brackets a limit in a few evaluations and the root-finding closes it.
+// value grows by 10 %, 25 %, 60 %, then by about 25 % a step (ten a decade)
+// up to tenfold, then a hundredfold (or shrinks as much; about zero, moves
+// by 0.1 to 100 of its unit); the geometric growth brackets a limit in a
+// few evaluations and the root-finding closes it. A region where the
+// estimate stops being usable that lies wholly between two steps is not
+// seen: ten a decade is where that cost balances.
 var steps = func() []float64 {
-	factors := []float64{1.1, 1.25, 1.6, 2.5, 4, 10, 100}
+	factors := []float64{1.1, 1.25, 1.6, 2, 2.5, 3.2, 4, 5, 6.3, 8, 10, 100}
 	u := make([]float64, len(factors))
 	for i, f := range factors {
 		u[i] = math.Log(f)
@@ -83,7 +86,7 @@ var steps = func() []float64 {
 	return u
 }()
 
-var zeroSteps = []float64{0.1, 0.3, 1, 3, 10, 30, 100}
+var zeroSteps = []float64{0.1, 0.2, 0.3, 0.5, 1, 2, 3, 5, 10, 100}
 
 func (a axis) steps() []float64 {
 	if a.x0 == 0 {

@@ -105,8 +105,8 @@ func TestRangeInfeasible(t *testing.T) {
 	if r.Feasible || r.Low != nil || r.High != nil || r.Reason == "" {
 		t.Fatalf("%+v", r)
 	}
-	if r.Best == nil || math.Abs(r.Best.Value-4) > 1e-9 || r.Best.Use > 1.5 {
-		t.Errorf("best %+v, want 4 (the step nearest 5)", r.Best)
+	if r.Best == nil || math.Abs(r.Best.Value-5) > 1e-9 || r.Best.Use > 1.21 {
+		t.Errorf("best %+v, want the step at 5", r.Best)
 	}
 	// A side that only gets worse is given up after three steps.
 	if n.Load() > int64(2*len(steps)) {
