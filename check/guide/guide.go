@@ -3,6 +3,7 @@ package guide
 import (
 	"context"
 	"errors"
+	"math"
 	"runtime"
 	"slices"
 	"sync"
@@ -67,6 +68,9 @@ type Param struct {
 	// unit of its dimension); ranges are shown and sensitivities given per
 	// this unit.
 	Unit string `json:"unit,omitempty"`
+	// AbsTemp marks an absolute temperature: its sensitivities' change
+	// "per 10 %" is per 10 K.
+	AbsTemp bool `json:"absolute_temperature,omitempty"`
 	// Influences is false for a parameter no estimate depends on (a label,
 	// a coordinate used only by geometry checks): it has no range.
 	Influences bool `json:"influences"`
@@ -138,7 +142,7 @@ func Compute(ctx context.Context, m *lang.Model, opts Options) (*Guidance, error
 		if opts.Params != nil && !slices.Contains(opts.Params, p.Name) {
 			continue
 		}
-		g.Params = append(g.Params, Param{Param: p.Name, Value: p.Value.SI, Unit: displayUnit(p)})
+		g.Params = append(g.Params, Param{Param: p.Name, Value: p.Value.SI, Unit: displayUnit(p), AbsTemp: p.AbsTemp})
 		todo = append(todo, p)
 	}
 	// The design as written, on every worker (its cases in parallel) while
@@ -293,7 +297,7 @@ func (gd *guider) param(out *Param, p *lang.Param, s0, f0 Sample, ms0 margins) {
 	for round := 0; ; round++ {
 		f := func(x float64) Sample { s, _, _ := gd.at(p, x, search); return s }
 		var ok bool
-		r, ok = findRange(gd.ctx, f, ax, start, foretell(sens, search.opts == &gd.full, gd.keep))
+		r, ok = findRange(gd.ctx, f, ax, start, foretell(sens, search.opts == &gd.full, gd.keep, perLog(p)))
 		if !ok {
 			return
 		}
@@ -341,19 +345,29 @@ func (gd *guider) param(out *Param, p *lang.Param, s0, f0 Sample, ms0 margins) {
 	out.Range = &r
 }
 
+// perLog converts a change per 10 % of p into one per unit of the
+// logarithm of its value.
+func perLog(p *lang.Param) float64 {
+	if t := tenth(p); t > 0 {
+		return math.Abs(p.Value.SI) / t
+	}
+	return 0
+}
+
 // foretell returns, for each side, the search coordinate (the logarithm of
 // the value's ratio to its own) at which the first margin reaches its limit
-// along its slope, 0 when none does: the slope of a use u along side dir is
-// 10·dir times its change per 10 %. The tilt margin is left out of a search
+// along its slope, 0 when none does: the slope of a use along side dir is
+// dir·perLog times its change per 10 % (perLog is 10, or for an absolute
+// temperature the value over 10 K). The tilt margin is left out of a search
 // without the tilt search.
-func foretell(sens []Sensitivity, tilt bool, keep func(Where) bool) func(dir int) float64 {
+func foretell(sens []Sensitivity, tilt bool, keep func(Where) bool, perLog float64) func(dir int) float64 {
 	return func(dir int) float64 {
 		best := 0.0
 		for _, s := range sens {
 			if !tilt && s.Margin == flow.MarginTilt || s.Use >= 1 || keep != nil && !keep(s.Where) {
 				continue
 			}
-			if k := 10 * s.PerTenPercent * float64(dir); k > 0 {
+			if k := perLog * s.PerTenPercent * float64(dir); k > 0 {
 				if du := (1 - s.Use) / k; best == 0 || du < best {
 					best = du
 				}

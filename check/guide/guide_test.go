@@ -210,3 +210,27 @@ func TestRangeEndsWhereGeometryFails(t *testing.T) {
 		t.Errorf("shortest riser %g m, want 1 m less the 1 mm the checks allow", r.Low.Value)
 	}
 }
+
+// An absolute temperature is searched on its own scale (kelvin) and its
+// change "per 10 %" is per 10 K.
+func TestTemperatureParam(t *testing.T) {
+	src := "param sat = 50 degC\n" + strings.Replace(handSource(t), "saturation 50 °C", "saturation sat", 1)
+	src = strings.Replace(src, "case nominal", "limits { exit_quality 0.12; saturation_max 90 degC }\ncase nominal", 1)
+	m := load(t, "../../testdata/flow/sat.loop", src)
+	for _, d := range m.Diags {
+		t.Fatal(d.Message())
+	}
+	g, err := Compute(context.Background(), m, Options{Flow: flow.Options{NoTilt: true}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	p := paramOf(t, g, "sat")
+	if p.Unit != "degC" || !p.Influences || p.Range == nil || len(p.Sensitivities) == 0 {
+		t.Fatalf("%+v", p)
+	}
+	for _, s := range p.Sensitivities {
+		if math.Abs(s.PerTenPercent-10*s.PerUnit) > 1e-12*math.Abs(s.PerUnit) {
+			t.Errorf("%s: %g per 10 K, %g per degC", s.Where.Describe(), s.PerTenPercent, s.PerUnit)
+		}
+	}
+}

@@ -18,7 +18,9 @@ type Sensitivity struct {
 	PerUnit float64 `json:"per_unit"`
 	Unit    string  `json:"unit,omitempty"`
 	// PerTenPercent is the change of use when the parameter is 10 % larger
-	// (to first order; 0 for a parameter of value zero).
+	// (to first order; 0 for a parameter of value zero). For an absolute
+	// temperature, whose 10 % depends on the scale, it is the change for
+	// 10 K more.
 	PerTenPercent float64 `json:"per_ten_percent"`
 	// Coarse marks a slope below what the margin itself resolves (the tilt
 	// limits are closed to 0.02°): it may be off by more than 1 %.
@@ -75,7 +77,7 @@ func (gd *guider) sensitivities(p *lang.Param, unit string, ax axis, s0 Sample, 
 			continue
 		}
 		d := (up - um) / (2 * h)
-		out = append(out, Sensitivity{Where: w, Use: u0, PerUnit: d * scale, Unit: unit, PerTenPercent: d * 0.1 * math.Abs(x0),
+		out = append(out, Sensitivity{Where: w, Use: u0, PerUnit: d * scale, Unit: unit, PerTenPercent: d * tenth(p),
 			Coarse: math.Abs(up-um) < 100*resolution(w, u0, gd.m.Limits.TiltMargin.SI)})
 	}
 	sortSens(out)
@@ -95,6 +97,15 @@ func resolution(w Where, u, tiltLimit float64) float64 {
 		return 2 * u * u * tiltResolution / tiltLimit
 	}
 	return 0
+}
+
+// tenth is the step "per 10 %" stands for: a tenth of the value, or 10 K
+// for an absolute temperature.
+func tenth(p *lang.Param) float64 {
+	if p.AbsTemp {
+		return 10
+	}
+	return 0.1 * math.Abs(p.Value.SI)
 }
 
 // usable reports whether a margin's use is a number to differentiate (an

@@ -102,7 +102,11 @@ func paramText(w io.Writer, what string, p *guide.Param) {
 		}
 		parts = append(parts, fmt.Sprintf("%s %s%s", s.Where.Describe(), approx, signed(s.PerTenPercent)))
 	}
-	fmt.Fprintf(w, "    biggest levers (change of margin use for +10 %%): %s\n", strings.Join(parts, "; "))
+	step := "+10 %"
+	if p.AbsTemp {
+		step = "+10 K"
+	}
+	fmt.Fprintf(w, "    biggest levers (change of margin use for %s): %s\n", step, strings.Join(parts, "; "))
 }
 
 // RangeText says in words what a feasible range is and what ends it.
