@@ -2,9 +2,11 @@ package guide
 
 import (
 	"context"
+	"encoding/json"
 	"errors"
 	"math"
 	"os"
+	"path/filepath"
 	"strings"
 	"testing"
 
@@ -231,6 +233,41 @@ func TestTemperatureParam(t *testing.T) {
 	for _, s := range p.Sensitivities {
 		if math.Abs(s.PerTenPercent-10*s.PerUnit) > 1e-12*math.Abs(s.PerUnit) {
 			t.Errorf("%s: %g per 10 K, %g per degC", s.Where.Describe(), s.PerTenPercent, s.PerUnit)
+		}
+	}
+}
+
+// Guidance never fails on a model the estimate takes: an empty file, a file
+// of parameters alone, a loop without cases or charge, and every test loop.
+func TestRobust(t *testing.T) {
+	srcs := map[string]string{
+		"empty.loop":  "",
+		"params.loop": "param a = 1 m\nparam b = a * 2\n",
+		"nocase.loop": strings.Replace(handSource(t), "case nominal { heat heater 5 kW }", "", 1),
+		"zero.loop":   "param sub = 0 K\n" + strings.Replace(handSource(t), "conductance 1000 W/K;", "conductance 1000 W/K; subcool sub;", 1),
+	}
+	files, _ := filepath.Glob("../../testdata/flow/*.loop")
+	for _, f := range files {
+		b, err := os.ReadFile(f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		srcs[filepath.Base(f)] = string(b)
+	}
+	for name, src := range srcs {
+		m := load(t, filepath.Join("../../testdata/flow", "robust-"+name), src)
+		g, err := Compute(context.Background(), m, Options{Flow: flow.Options{NoTilt: true}})
+		if err != nil {
+			t.Errorf("%s: %v", name, err)
+			continue
+		}
+		if _, err := json.Marshal(g); err != nil {
+			t.Errorf("%s: %v", name, err)
+		}
+		for _, p := range g.Params {
+			if r := p.Range; r != nil && r.Feasible && (r.Low == nil || r.High == nil || r.Low.Value > r.High.Value) {
+				t.Errorf("%s: %s range %+v", name, p.Param, r)
+			}
 		}
 	}
 }
