@@ -121,8 +121,14 @@ func fieldHints(c *cursor, est *estimates, comp *lang.Component) []lineHint {
 	if n := comp.ChannelCount(); comp.Channels.Set && n > 1 {
 		out = append(out, lineHint{comp.Channels.File(), comp.Channels.Span().Start, "ṁ " + prettyFormat(st.MassFlow/n, uGs) + " per channel"})
 	}
-	if j := st.Junction; j != nil && comp.JunctionLimit.Set {
-		out = append(out, lineHint{comp.JunctionLimit.File(), comp.JunctionLimit.Span().Start, "T_junction " + prettyFormat(j.Junction, uDegC)})
+	if j := st.Junction; j != nil {
+		// Beside the limit, else beside the first resistance of the stack.
+		for _, v := range []lang.Value{comp.JunctionLimit, comp.JunctionToCase, comp.InterfaceRes, comp.SpreadingRes} {
+			if v.Set && v.File() != "" {
+				out = append(out, lineHint{v.File(), v.Span().Start, "T_junction " + prettyFormat(j.Junction, uDegC)})
+				break
+			}
+		}
 	}
 	return out
 }
