@@ -18,7 +18,7 @@ func Reparse(path string, old *File, src []byte, m *Mapper) *File {
 		m = NewMapper(src)
 	}
 	if old != nil && old.Path == path {
-		if f := reparse(old, src, m); f != nil {
+		if f := reparse(old, src, m, false); f != nil {
 			return f
 		}
 	}
@@ -26,9 +26,25 @@ func Reparse(path string, old *File, src []byte, m *Mapper) *File {
 	return f
 }
 
+// ReparseErrors returns the syntax errors Parse reports for src, a new
+// text of old's file, when the edited lines parse on their own as Reparse
+// parses them; it builds no tree, so it costs about as little however much
+// of the file follows the edit. ok is false when the whole text would have
+// to be parsed.
+func ReparseErrors(path string, old *File, src []byte) (errs []Diagnostic, ok bool) {
+	if old == nil || old.Path != path {
+		return nil, false
+	}
+	f := reparse(old, src, nil, true)
+	if f == nil {
+		return nil, false
+	}
+	return f.Errors, true
+}
+
 // reparse is Reparse without the fallback: nil when the edit cannot be
-// parsed on its own.
-func reparse(old *File, src []byte, m *Mapper) *File {
+// parsed on its own. With errorsOnly the file holds only the errors.
+func reparse(old *File, src []byte, m *Mapper, errorsOnly bool) *File {
 	prev := old.Src
 	if len(old.Errors) >= MaxErrors || unclosed(old.Stmts) {
 		return nil
@@ -69,14 +85,17 @@ func reparse(old *File, src []byte, m *Mapper) *File {
 		depth+blockDepth(region.Stmts) >= MaxNesting || depth+blockDepth(sp.list[sp.i:sp.j]) >= MaxNesting {
 		return nil
 	}
-	in := &mover{d: a}
-	for _, s := range region.Stmts {
-		in.stmt(s)
-	}
 	f := &File{Path: old.Path, Src: src, Mapper: m}
 	f.Errors = spliceErrors(old.Errors, region.Errors, a, b, delta, b == len(prev))
 	if len(f.Errors) >= MaxErrors {
 		return nil
+	}
+	if errorsOnly {
+		return f
+	}
+	in := &mover{d: a}
+	for _, s := range region.Stmts {
+		in.stmt(s)
 	}
 	f.Comments = spliceComments(old.Comments, region.Comments, a, b, delta)
 	out := &mover{d: delta, copy: true, n: &nodes{}}

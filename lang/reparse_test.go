@@ -23,6 +23,9 @@ func checkReparse(t *testing.T, prev *File, next []byte) *File {
 	if !reflect.DeepEqual(got.Errors, want.Errors) {
 		t.Fatalf("reparsed errors differ for\n%q\nafter\n%q\nreparsed: %v\nfull:     %v", next, prev.Src, got.Errors, want.Errors)
 	}
+	if errs, ok := ReparseErrors(prev.Path, prev, next); ok && !reflect.DeepEqual(errs, want.Errors) {
+		t.Fatalf("errors of the edited lines differ for\n%q\nafter\n%q\nalone: %v\nfull:  %v", next, prev.Src, errs, want.Errors)
+	}
 	if !reflect.DeepEqual(got.Comments, want.Comments) {
 		t.Fatalf("reparsed comments differ for\n%q\nreparsed: %v\nfull:     %v", next, got.Comments, want.Comments)
 	}
@@ -131,7 +134,7 @@ func TestReparseTyping(t *testing.T) {
 			}
 			next := append([]byte(nil), src...)
 			next[i] = '0' + (c-'0'+1)%10
-			if reparse(old, next, NewMapper(next)) == nil {
+			if reparse(old, next, NewMapper(next), false) == nil {
 				t.Errorf("%s: changing the digit at %d parsed the whole file", p, i)
 				break
 			}
@@ -161,7 +164,7 @@ func TestReparseReusesStatements(t *testing.T) {
 			cut++
 		}
 		next := append(append(append([]byte(nil), src[:at]...), ins...), src[cut:]...)
-		f := reparse(old, next, NewMapper(next))
+		f := reparse(old, next, NewMapper(next), false)
 		if f == nil {
 			t.Fatalf("an edit inside one statement of the loop was not parsed on its own")
 		}

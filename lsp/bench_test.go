@@ -104,6 +104,34 @@ func BenchmarkEditDiagnostics300(b *testing.B) {
 // there and are not benchmarked).
 func BenchmarkEditDiagnosticsNetwork5000(b *testing.B) { benchEdit(b, loopgen.Network(5000, 8), false) }
 
+// BenchmarkInsertDiagnosticsNetwork5000 is BenchmarkEditDiagnosticsNetwork5000
+// with edits that change the text's length (a digit typed, then deleted,
+// in the file's first parameter), which moves every statement after it.
+func BenchmarkInsertDiagnosticsNetwork5000(b *testing.B) {
+	defer debug.SetMemoryLimit(debug.SetMemoryLimit(MemoryLimit))
+	c, uri, line, col := benchSession(b, loopgen.Network(5000, 8), -1, false)
+	var ds, first []time.Duration
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		v := i + 2
+		end, text := col, "1"
+		if i%2 == 1 {
+			end, text = col+1, ""
+		}
+		t0 := time.Now()
+		c.notify("textDocument/didChange", map[string]any{"textDocument": map[string]any{"uri": uri, "version": v},
+			"contentChanges": []any{map[string]any{"range": map[string]any{"start": map[string]int{"line": line, "character": col}, "end": map[string]int{"line": line, "character": end}}, "text": text}}})
+		c.settleQuick()
+		ds = append(ds, time.Since(t0))
+		c.mu.Lock()
+		first = append(first, c.firstPub[int32(v)].Sub(t0))
+		c.mu.Unlock()
+	}
+	b.StopTimer()
+	b.ReportMetric(float64(median(ds).Microseconds())/1000, "ms-median")
+	b.ReportMetric(float64(median(first).Microseconds())/1000, "ms-first")
+}
+
 // BenchmarkHover300 hovers a quantity in a generated 300-line file.
 func BenchmarkHover300(b *testing.B) {
 	text := loopgen.Lines(300)

@@ -52,6 +52,36 @@ func (d *document) editedFrom(old *document) {
 	}
 }
 
+// syntaxErrors returns the syntax errors of the document's text: from its
+// tree once parsed, else from its base's tree and the edited lines alone
+// (no tree is built, which for an edit near the top of a large file is
+// most of the work), else from parsing it now. ok is false when parsing
+// panicked.
+func (d *document) syntaxErrors() (errs []lang.Diagnostic, ok bool) {
+	if d.parsed.Load() {
+		return d.tree.Errors, true
+	}
+	if b := d.base.Load(); b != nil && b.parsed.Load() {
+		if errs, ok := reparseErrors(d.path, b.tree, d.text); ok {
+			return errs, true
+		}
+	}
+	if f := d.File(); f != nil {
+		return f.Errors, true
+	}
+	return nil, false
+}
+
+// reparseErrors is lang.ReparseErrors, a panic in it reported as not done.
+func reparseErrors(path string, old *lang.File, text []byte) (errs []lang.Diagnostic, ok bool) {
+	defer func() {
+		if recover() != nil {
+			errs, ok = nil, false
+		}
+	}()
+	return lang.ReparseErrors(path, old, text)
+}
+
 // File returns the document's syntax tree, parsed on first use from its
 // base's where that one is parsed (only the edited lines are parsed
 // again), else from scratch. It is nil when parsing panicked.

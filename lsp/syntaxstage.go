@@ -68,11 +68,11 @@ func (s *Server) publishSyntax(snap *snapshot, roots []*analysis) bool {
 			continue
 		}
 		d := snap.docs[a.root]
-		f := d.File()
-		if f == nil {
+		errs, ok := d.syntaxErrors()
+		if !ok {
 			continue // parsing panicked; the model reports it
 		}
-		ds := append([]lang.Diagnostic(nil), f.Errors...)
+		ds := append([]lang.Diagnostic(nil), errs...)
 		ds = append(ds, movedFindings(a.carry, a.carryParse, a.root, a.carryText, d.text)...)
 		sort.SliceStable(ds, func(i, j int) bool { return ds[i].Loc.Span.Start < ds[j].Loc.Span.Start })
 		perFile[a.root] = ds
