@@ -97,6 +97,11 @@ func (s *Server) hoverText(c *cursor) (string, lang.Span, bool) {
 		return "", lang.Span{}, false
 	}
 	st := path[len(path)-1]
+	if st.Keyword() == "row" && st.Word != nil && contains(st.Word.Span(), c.off) {
+		if t := s.rowHover(c, st); t != "" {
+			return t, st.Word.Span(), true
+		}
+	}
 	if fac, at := atomAt(st, c.off); at != nil && at.Number != "" {
 		if t, ok := quantityHover(fac, at, st.Keyword()); ok {
 			return t, at.Span(), true

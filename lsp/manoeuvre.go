@@ -191,3 +191,48 @@ func caseHints(est *estimates, cs *lang.Case) []lineHint {
 	}
 	return out
 }
+
+// rowHover shows the estimate at one row of a case's profile: the flow,
+// the transit time and the margin closest to its limit at that instant.
+func (s *Server) rowHover(c *cursor, st *lang.Stmt) string {
+	for _, cs := range c.m.Cases {
+		p := cs.Profile
+		if p == nil || p.File != c.path || p.Table != "" {
+			continue
+		}
+		for _, r := range p.Rows {
+			if r.Span.Start != st.Span().Start {
+				continue
+			}
+			var b strings.Builder
+			fmt.Fprintf(&b, "instant t = %s s of case `%s`'s profile, estimated as a steady state\n", secs(r.Time), cs.Name)
+			est := s.estimatesFor(c.snap, c.a)
+			if est == nil || est.flow == nil {
+				b.WriteString("\n_No estimate yet._\n")
+				return b.String()
+			}
+			for _, l := range est.flow.Loops {
+				cr, ok := est.caseResult(l.Loop, cs.Name)
+				if !ok || cr.Profile == nil {
+					continue
+				}
+				for _, in := range cr.Profile.Instants {
+					if in.Time != r.Time {
+						continue
+					}
+					fmt.Fprintf(&b, "\n**Loop `%s`**: ", l.Loop)
+					if !in.Circulates {
+						fmt.Fprintf(&b, "no circulation — %s\n", in.Reason)
+						break
+					}
+					fmt.Fprintf(&b, "mass flow %s, transit time %s s\n", prettyFormat(in.MassFlow, uGs), secs(in.Transit))
+					if w, ok := worstOf(in.Margins); ok {
+						fmt.Fprintf(&b, "\nworst margin: **%s**%s — %.0f %% of the limit used (%s)\n", w.Margin, atComponent(w.Component), 100*w.Use, w.Status)
+					}
+				}
+			}
+			return b.String()
+		}
+	}
+	return ""
+}
