@@ -39,6 +39,9 @@ func GuidanceText(w io.Writer, g *guide.Guidance, res *flow.Result) error {
 		fmt.Fprintf(ew, "  %s\n", g.Message)
 		return ew.err
 	}
+	if line := limitingLevers(g); line != "" {
+		fmt.Fprintln(ew, line)
+	}
 	for i := range g.Params {
 		p := &g.Params[i]
 		paramText(ew, "param "+p.Param, p)
@@ -78,6 +81,28 @@ func designUnit(res *flow.Result, loop string) string {
 		}
 	}
 	return ""
+}
+
+// limitingLevers names the parameters that move the design's limiting
+// margin, the biggest lever first.
+func limitingLevers(g *guide.Guidance) string {
+	var parts []string
+	for _, l := range g.Levers {
+		if l.Where != g.Limit {
+			continue
+		}
+		step := "10 %"
+		for _, p := range g.Params {
+			if p.Param == l.Param && p.AbsTemp {
+				step = "10 K"
+			}
+		}
+		parts = append(parts, fmt.Sprintf("%s %s per %s", l.Param, signed(l.PerTenPercent), step))
+	}
+	if len(parts) == 0 {
+		return ""
+	}
+	return fmt.Sprintf("  the limiting margin, %s (use %s), moves with: %s", g.Limit.Describe(), sig(g.Use, 3), strings.Join(parts, ", "))
 }
 
 // paramText writes one value's range and levers.

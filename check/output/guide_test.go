@@ -43,11 +43,14 @@ func TestGuidanceOutputs(t *testing.T) {
 			Low: &guide.Bound{Value: 0.0092, Reason: "a"}, High: &guide.Bound{Value: 0.021, Reason: "b"}},
 			Sensitivities: []guide.Sensitivity{{Where: guide.Where{Margin: flow.MarginExitQuality, Case: "hot"}, PerUnit: -0.05, Unit: "mm", PerTenPercent: -0.05}}},
 	}}
+	g.Use, g.Limit = 1.2, guide.Where{Margin: flow.MarginExitQuality, Case: "hot"}
+	g.Levers = []guide.Lever{{Param: "riser_bore", Sensitivity: g.Params[1].Sensitivities[0]}}
 	var b bytes.Buffer
 	if err := GuidanceText(&b, g, nil); err != nil {
 		t.Fatal(err)
 	}
-	for _, w := range []string{"param label = 2 m: influences no estimate", "param riser_bore = 10 mm: keeps every margin from 9.2 mm", "exit quality in case hot -0.05"} {
+	for _, w := range []string{"param label = 2 m: influences no estimate",
+		"the limiting margin, exit quality in case hot (use 1.2), moves with: riser_bore -0.05 per 10 %", "param riser_bore = 10 mm: keeps every margin from 9.2 mm", "exit quality in case hot -0.05"} {
 		if !strings.Contains(b.String(), w) {
 			t.Errorf("text lacks %q:\n%s", w, b.String())
 		}
