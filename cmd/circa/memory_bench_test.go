@@ -6,48 +6,81 @@ import (
 	"io"
 	"math/rand"
 	"os"
+	"os/exec"
 	"path/filepath"
 	"runtime"
 	"runtime/metrics"
+	"strconv"
 	"strings"
 	"sync/atomic"
 	"testing"
 	"time"
+
+	"circa/textfile"
 )
 
-var memSize = flag.Int("memsize", 4<<20, "size in bytes of the inputs of BenchmarkMemory (at most the 16 MiB read cap)")
+var memSize = flag.Int("memsize", 4<<20, "total size in bytes of the inputs of BenchmarkMemory; past the read cap the input is split into included files")
 
-// memInput writes a file of about n bytes of one kind: "params", a valid
-// file of parameters with comments; "loop", one loop of many pipes;
-// "errors", a syntax error on every line; "binary", random bytes.
-func memInput(b *testing.B, kind string, n int) string {
+// memPart writes about n bytes of one kind of text to path: "params", a
+// valid file of parameters with comments; "loop", one loop of many pipes;
+// "errors", a syntax error on every line; "binary", random bytes. Names
+// carry the part's number, so the parts of one input do not clash.
+func memPart(b *testing.B, path, kind string, part, n int) {
 	var sb strings.Builder
+	sb.Grow(n + 128)
 	switch kind {
 	case "params":
 		for i := 0; sb.Len() < n; i++ {
-			fmt.Fprintf(&sb, "param p%d = %d mm  # bore %d\n", i, i%97+1, i)
+			fmt.Fprintf(&sb, "param p%d_%d = %d mm  # bore %d\n", part, i, i%97+1, i)
 		}
 	case "loop":
-		sb.WriteString("loop l {\n  fluid water\n")
+		fmt.Fprintf(&sb, "loop l%d {\n  fluid water\n", part)
 		for i := 0; sb.Len() < n; i++ {
-			fmt.Fprintf(&sb, "  node n%d at (0, 0, %d) mm\n  pipe q%d from n%d to n%d { length 1 m; bore 8 mm }\n", i, i%50, i, i, i+1)
+			fmt.Fprintf(&sb, "  node n%d at (0, 0, %d) mm\n  pipe q%d_%d from n%d to n%d { length 1 m; bore 8 mm }\n", i, i%50, part, i, i, i+1)
 		}
 		sb.WriteString("}\n")
 	case "errors":
 		for i := 0; sb.Len() < n; i++ {
-			fmt.Fprintf(&sb, "param x%d = 3 $ (\n", i)
+			fmt.Fprintf(&sb, "param x%d_%d = 3 $ (\n", part, i)
 		}
 	case "binary":
-		rng := rand.New(rand.NewSource(1))
+		rng := rand.New(rand.NewSource(int64(part + 1)))
 		buf := make([]byte, n)
 		rng.Read(buf)
 		sb.Write(buf)
 	}
-	p := filepath.Join(b.TempDir(), kind+".loop")
-	if err := os.WriteFile(p, []byte(sb.String()), 0o644); err != nil {
+	if err := os.WriteFile(path, []byte(sb.String()), 0o644); err != nil {
 		b.Fatal(err)
 	}
-	return p
+}
+
+// memInput writes an input of about n bytes of one kind and returns the
+// file to check and the files to format. An input larger than the read cap
+// is split into parts of at most 15 MB that the root file includes.
+func memInput(b *testing.B, kind string, n int) (root string, parts []string, size int64) {
+	dir := b.TempDir()
+	const maxPart = 15_000_000
+	if n <= min(maxPart, textfile.MaxSize) {
+		root = filepath.Join(dir, kind+".loop")
+		memPart(b, root, kind, 0, n)
+		st, _ := os.Stat(root)
+		return root, []string{root}, st.Size()
+	}
+	k := (n + maxPart - 1) / maxPart
+	var inc strings.Builder
+	for i := range k {
+		p := filepath.Join(dir, fmt.Sprintf("%s%d.loop", kind, i))
+		memPart(b, p, kind, i, n/k)
+		fmt.Fprintf(&inc, "include %q\n", filepath.Base(p))
+		parts = append(parts, p)
+		st, _ := os.Stat(p)
+		size += st.Size()
+	}
+	root = filepath.Join(dir, kind+".loop")
+	if err := os.WriteFile(root, []byte(inc.String()), 0o644); err != nil {
+		b.Fatal(err)
+	}
+	return root, parts, size + int64(inc.Len())
 }
 
 // peakHeap samples the bytes of live and not yet swept heap objects while
@@ -81,27 +114,79 @@ func peakHeap(f func()) uint64 {
 	return peak.Load()
 }
 
+// memChildEnv makes the test binary run one circa command and exit, so
+// BenchmarkMemory can read a command's peak resident size on its own.
+const memChildEnv = "CIRCA_MEMORY_BENCH_CHILD"
+
+func TestMain(m *testing.M) {
+	if os.Getenv(memChildEnv) == "1" {
+		rc := run(os.Args[1:], strings.NewReader(""), io.Discard, io.Discard)
+		// The peak resident size of this process since it started, which
+		// the kernel keeps as VmHWM.
+		if st, err := os.ReadFile("/proc/self/status"); err == nil {
+			for _, l := range strings.Split(string(st), "\n") {
+				if rest, ok := strings.CutPrefix(l, "VmHWM:"); ok {
+					fmt.Print(strings.TrimSpace(strings.TrimSuffix(strings.TrimSpace(rest), "kB")))
+				}
+			}
+		}
+		os.Exit(rc)
+	}
+	os.Exit(m.Run())
+}
+
+// peakRSS runs the command in a child process and returns its peak
+// resident size in bytes (0 where the system does not tell). The child's
+// own count is read: the wait status's maximum would include the parent's
+// size at the fork.
+func peakRSS(b *testing.B, args []string) uint64 {
+	cmd := exec.Command(os.Args[0], args...)
+	cmd.Env = append(os.Environ(), memChildEnv+"=1")
+	out, err := cmd.Output()
+	if err != nil {
+		if _, ok := err.(*exec.ExitError); !ok {
+			b.Fatal(err)
+		}
+	}
+	kb, err := strconv.ParseUint(string(out), 10, 64)
+	if err != nil {
+		return 0
+	}
+	return kb * 1024
+}
+
 // BenchmarkMemory runs check, estimate and fmt -d on large inputs of each
-// kind and reports the bytes allocated per run and the peak heap, also as
-// a multiple of the input's size (target: at most 10). Run with
+// kind and reports the bytes allocated per run, the peak heap and the
+// command's peak resident size when run on its own, the last two also as
+// multiples of the input's size (target: at most 10). Run with
 // -benchtime 1x; -memsize sets the input size.
 func BenchmarkMemory(b *testing.B) {
 	for _, kind := range []string{"params", "loop", "errors", "binary"} {
-		path := memInput(b, kind, *memSize)
-		st, _ := os.Stat(path)
-		for _, args := range [][]string{{"check", "--no-estimates"}, {"check"}, {"fmt", "-d"}} {
+		root, parts, size := memInput(b, kind, *memSize)
+		// estimate runs without the design guidance, whose search over each
+		// parameter is another matter than the memory of reading the file.
+		for _, args := range [][]string{{"check", "--no-estimates"}, {"check"}, {"estimate", "--no-guidance"}, {"fmt", "-d"}} {
 			name := kind + "/" + strings.Join(args, "_")
+			files := []string{root}
+			if args[0] == "fmt" {
+				files = parts
+			}
+			argv := append(append([]string(nil), args...), files...)
 			b.Run(name, func(b *testing.B) {
 				b.ReportAllocs()
-				b.SetBytes(st.Size())
+				b.SetBytes(size)
 				var peak uint64
 				for b.Loop() {
 					peak = max(peak, peakHeap(func() {
-						run(append(append([]string(nil), args...), path), strings.NewReader(""), io.Discard, io.Discard)
+						run(argv, strings.NewReader(""), io.Discard, io.Discard)
 					}))
 				}
+				b.StopTimer()
+				rss := peakRSS(b, argv)
 				b.ReportMetric(float64(peak), "peak-heap-B")
-				b.ReportMetric(float64(peak)/float64(st.Size()), "peak/input")
+				b.ReportMetric(float64(peak)/float64(size), "peak/input")
+				b.ReportMetric(float64(rss), "peak-rss-B")
+				b.ReportMetric(float64(rss)/float64(size), "rss/input")
 			})
 		}
 	}
