@@ -154,6 +154,8 @@ type Model struct {
 	// readDiags are the findings of reading and parsing, which a variant
 	// resolved from the same files (With) repeats.
 	readDiags []Diagnostic
+	// syntaxDropped is set by DropSyntax: the trees are gone.
+	syntaxDropped bool
 }
 
 // Param is a named quantity.

@@ -5,6 +5,7 @@
 package lang
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"slices"
@@ -173,6 +174,9 @@ func firstRef(e *Expr) *Ident {
 // twice, or given a value of another dimension than the file's is an
 // *OverrideError; the model is then nil.
 func (m *Model) With(ovs ...Override) (*Model, error) {
+	if m.syntaxDropped {
+		return nil, errors.New("the model's syntax trees were dropped: it cannot be resolved again")
+	}
 	v := newModel(m.Root)
 	v.Files, v.Order = m.Files, m.Order
 	v.Diags = slices.Clone(m.readDiags)
@@ -240,4 +244,28 @@ func (r *resolver) overridden(ps *paramState, q units.Quantity, ut string, ok bo
 		return q, ut, ok
 	}
 	return o.Value, o.Unit, true
+}
+
+// DropSyntax lets the model's syntax trees go, for a caller that needs only
+// the model, the texts and their comments from here on (circa check once
+// the model is resolved): the files get copies without statements, and
+// parameters and parts forget their expressions and statements. A large
+// file's tree is several times the size of its model. The files the model
+// shared with others are left as they were; the model can no longer be
+// resolved again (With fails).
+func (m *Model) DropSyntax() {
+	files := make(map[string]*File, len(m.Files))
+	for path, f := range m.Files {
+		nf := *f
+		nf.Stmts = nil
+		files[path] = &nf
+	}
+	m.Files = files
+	for _, p := range m.Params {
+		p.Expr = nil
+	}
+	for _, p := range m.Parts {
+		p.Stmts = nil
+	}
+	m.syntaxDropped = true
 }

@@ -262,3 +262,40 @@ func BenchmarkWithLoad(b *testing.B) {
 		Load("../testdata/examples/ferry-cabinet.loop", nil)
 	}
 }
+
+// TestDropSyntax checks that a model without its trees keeps what a report
+// reads (texts, Mappers, comments, values and their locations), leaves the
+// files it shared untouched, and refuses to be resolved again.
+func TestDropSyntax(t *testing.T) {
+	src := []byte("# note\nparam d = 8 mm\npart p { bore d }\nloop l {\n  fluid water\n  node a at (0, 0, 0) m\n  node b at (0, 0, 1) m\n  pipe q from a to b { length 1 m; use p }\n}\n")
+	m := LoadSource("/x.loop", src, nil)
+	if len(m.Diags) > 0 {
+		t.Fatalf("unexpected findings: %v", m.Diags[0].Message())
+	}
+	shared := m.Files["/x.loop"]
+	variant, err := m.With()
+	if err != nil {
+		t.Fatal(err)
+	}
+	m.DropSyntax()
+	f := m.Files["/x.loop"]
+	if f == shared || f.Stmts != nil || shared.Stmts == nil {
+		t.Fatalf("DropSyntax must give the model its own file without statements and leave the shared one as it was")
+	}
+	if string(f.Src) != string(src) || f.Mapper == nil || len(f.Comments) != 1 {
+		t.Fatalf("the file lost its text, Mapper or comments: %d comments", len(f.Comments))
+	}
+	if variant.Files["/x.loop"] != shared {
+		t.Fatalf("the variant's file changed")
+	}
+	bore := m.Loops[0].Components[0].Bore
+	if !bore.Set || math.Abs(bore.SI-0.008) > 1e-15 || string(src[bore.Span().Start:bore.Span().End]) != "d" {
+		t.Fatalf("bore = %+v at %v, want 8 mm written as d", bore, bore.Span())
+	}
+	if m.Params[0].Expr != nil || m.Parts[0].Stmts != nil {
+		t.Fatalf("the parameter's expression or the part's statements were kept")
+	}
+	if _, err := m.With(); err == nil {
+		t.Fatalf("With on a model without its trees must fail")
+	}
+}

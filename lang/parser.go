@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"strings"
+	"unsafe"
 
 	"github.com/alecthomas/participle/v2"
 	"github.com/alecthomas/participle/v2/lexer"
@@ -17,6 +18,8 @@ const MaxNesting = 100
 // Parse parses one .loop text. It never fails: syntax errors are collected
 // in File.Errors (at most one per line) and every statement that parsed is
 // kept, so a half-typed line leaves the rest of the file usable.
+// The file keeps src as its text and its strings share src's memory: src
+// must not change afterwards.
 func Parse(path string, src []byte) *File { return parse(path, src, false) }
 
 // parse is Parse; grammarOnly turns the fast path off, so tests can compare
@@ -30,7 +33,9 @@ func parse(path string, src []byte, grammarOnly bool) *File {
 // finished parser too, for what it saw.
 func parseMapped(path string, src []byte, m *Mapper, grammarOnly bool) (*File, *parser) {
 	f := &File{Path: path, Src: src, Mapper: m}
-	sc := newScanner(src)
+	// The tree's names and numbers share src's memory, which the file
+	// holds as its text anyway, instead of a copy of it.
+	sc := newScannerOf(src, unsafe.String(unsafe.SliceData(src), len(src)))
 	sc.nextLine()
 	p := &parser{f: f, sc: sc, toks: sc.toks, grammarOnly: grammarOnly}
 	p.run()

@@ -124,6 +124,8 @@ func runCheck(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 				status = exitUsage
 				continue
 			}
+			// The report needs the model and the texts, not the trees.
+			m.DropSyntax()
 			runs = append(runs, output.File{Path: "<stdin>", Model: m, Report: check.RunReport(m, opts)})
 			continue
 		}
@@ -142,6 +144,8 @@ func runCheck(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 				status = exitUsage
 				continue
 			}
+			// The report needs the model and the texts, not the trees.
+			m.DropSyntax()
 			runs = append(runs, output.File{Path: f, Model: m, Report: check.RunReport(m, opts)})
 		}
 	}
