@@ -14,10 +14,10 @@ import (
 // and it holds only when every other margin holds too. Its ends are exact:
 // the charge margin's use is linear in the charge on each side.
 func chargeGuide(l *lang.Loop, lr *flow.LoopResult, res *flow.Result, keep func(Where) bool) *Param {
-	if !l.Charge.Set || lr.ChargeRange == nil {
+	cr := casesCharge(lr)
+	if !l.Charge.Set || cr == nil {
 		return nil
 	}
-	cr := lr.ChargeRange
 	p := &Param{Param: "charge", Value: l.Charge.SI, Unit: l.Charge.Unit(), Influences: true}
 	r := &Range{}
 	p.Range = r
@@ -61,6 +61,30 @@ func chargeGuide(l *lang.Loop, lr *flow.LoopResult, res *flow.Result, keep func(
 	}
 	p.Sensitivities = chargeSens(l, lr)
 	return p
+}
+
+// casesCharge intersects the charge ranges of the loop's cases, leaving
+// out sweep points as the rest of the guidance does.
+func casesCharge(lr *flow.LoopResult) *flow.ChargeRange {
+	var out *flow.ChargeRange
+	for ci := range lr.Cases {
+		c := &lr.Cases[ci]
+		r := c.ChargeRange
+		if c.Grid || r == nil {
+			continue
+		}
+		if out == nil {
+			out = &flow.ChargeRange{Charge: r.Charge, Low: r.Low, High: r.High, LowCase: c.Case, HighCase: c.Case, HighBy: r.HighBy}
+			continue
+		}
+		if r.Low > out.Low {
+			out.Low, out.LowCase = r.Low, c.Case
+		}
+		if r.High < out.High {
+			out.High, out.HighCase, out.HighBy = r.High, c.Case, r.HighBy
+		}
+	}
+	return out
 }
 
 // chargeSens differentiates each case's charge margin: on the short side its
