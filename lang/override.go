@@ -193,6 +193,7 @@ func (m *Model) With(ovs ...Override) (*Model, error) {
 	if err := r.overrideErr; err != nil {
 		return nil, err
 	}
+	keepUnset(v, m)
 	for _, o := range ovs {
 		if r.overrides[o.Name].Param == nil {
 			cands := make([]string, 0, len(r.params))
@@ -268,4 +269,33 @@ func (m *Model) DropSyntax() {
 		p.Stmts = nil
 	}
 	m.syntaxDropped = true
+}
+
+// keepUnset carries into the variant v the limits and methods of its base
+// m where v's files set none: defaults the caller changed after resolving
+// m (an editor's settings) hold for the variant too.
+func keepUnset(v, m *Model) {
+	lv, lm := &v.Limits, &m.Limits
+	for _, f := range []struct {
+		dst *Value
+		src Value
+	}{{&lv.ExitQuality, lm.ExitQuality}, {&lv.CHFRatio, lm.CHFRatio}, {&lv.Flooding, lm.Flooding}, {&lv.TiltMargin, lm.TiltMargin},
+		{&lv.WallMargin, lm.WallMargin}, {&lv.HeadRatio, lm.HeadRatio}, {&lv.SaturationMax, lm.SaturationMax}} {
+		if !f.dst.Set && !f.dst.Bad {
+			*f.dst = f.src
+		}
+	}
+	mv, mm := &v.Methods, &m.Methods
+	for _, f := range []struct {
+		dst *Choice
+		src Choice
+	}{{&mv.Void, mm.Void}, {&mv.Friction, mm.Friction}, {&mv.SinglePhase, mm.SinglePhase}, {&mv.CHF, mm.CHF},
+		{&mv.SatState, mm.SatState}, {&mv.Condensation, mm.Condensation}} {
+		if !f.dst.Set {
+			*f.dst = f.src
+		}
+	}
+	if !mv.CellsSet {
+		mv.Cells = mm.Cells
+	}
 }

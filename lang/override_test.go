@@ -299,3 +299,29 @@ func TestDropSyntax(t *testing.T) {
 		t.Fatalf("With on a model without its trees must fail")
 	}
 }
+
+// Limits and methods the caller gave the base model where its files set
+// none (an editor's settings) hold for its variants; those the files set
+// are the variant's own.
+func TestWithKeepsUnsetLimits(t *testing.T) {
+	fsys := overrideFS()
+	fsys["main.loop"] = append(fsys["main.loop"], []byte("limits {\n  chf_ratio 2.5\n}\n")...)
+	base := Load("main.loop", fsys)
+	if len(base.Diags) > 0 {
+		t.Fatal(base.Diags[0].Message())
+	}
+	base.Limits.ExitQuality.SI = 0.4
+	base.Limits.CHFRatio.SI = 9
+	base.Methods.Void.Name = "zivi"
+	base.Methods.Cells = 7
+	v, err := base.With(Override{Name: "stack_height", Value: units.Quantity{SI: 0.5, Dim: units.Length}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if v.Limits.ExitQuality.SI != 0.4 || v.Methods.Void.Name != "zivi" || v.Methods.Cells != 7 {
+		t.Errorf("unset limits and methods not kept: %+v %+v", v.Limits.ExitQuality, v.Methods)
+	}
+	if v.Limits.CHFRatio.SI != 2.5 {
+		t.Errorf("the file's chf_ratio %g, want 2.5", v.Limits.CHFRatio.SI)
+	}
+}
