@@ -62,8 +62,8 @@ func TestDocumentSymbolsOutline(t *testing.T) {
 			t.Errorf("%s: detail %q kind %d, want %q %d", w.name, detail(s), s.Kind, w.detail, w.kind)
 		}
 	}
-	if len(got) != 6 {
-		t.Errorf("%d top-level symbols, want the loop, four cases and the param (the parts live in another file)", len(got))
+	if len(got) != 7 {
+		t.Errorf("%d top-level symbols, want the loop, four cases and the two params (the parts live in another file)", len(got))
 	}
 	p := byName["stack_height"]
 	if p.Range != (rng{pos{4, 0}, pos{4, 26}}) || p.SelectionRange != (rng{pos{4, 6}, pos{4, 18}}) {
