@@ -40,7 +40,30 @@ func codeActionRequest(ctx context.Context, s *Server, sn *snapshot, params []by
 			out = append(out, ca)
 		}
 	}
+	out = append(out, s.guidedActions(sn, path, want, diags)...)
 	return out, nil
+}
+
+// guidedActions offers the design guidance's fixes of the margin findings
+// in the range, once the guidance is computed.
+func (s *Server) guidedActions(sn *snapshot, path string, want lang.Span, diags []lang.Diagnostic) []protocol.CommandOrCodeAction {
+	g := s.guides.get(sn.analysisFor(path))
+	if g == nil {
+		return nil
+	}
+	var out []protocol.CommandOrCodeAction
+	kind := protocol.CodeActionKindQuickFix
+	for _, d := range diags {
+		fixes := g.fixes[fixKey{d.Rule, d.Loc}]
+		if len(fixes) == 0 || d.Loc.Span.End < want.Start || d.Loc.Span.Start > want.End {
+			continue
+		}
+		pd := sn.toProtocolDiag(path, d)
+		for _, f := range fixes {
+			out = append(out, &protocol.CodeAction{Title: f.Title, Kind: &kind, Diagnostics: []protocol.Diagnostic{pd}, Edit: sn.workspaceEdit(path, f.Edits)})
+		}
+	}
+	return out
 }
 
 func (sn *snapshot) workspaceEdit(defaultPath string, edits []lang.Edit) *protocol.WorkspaceEdit {

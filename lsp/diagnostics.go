@@ -73,6 +73,7 @@ func (s *Server) analyse(snap *snapshot) {
 	if s.opts.LogTiming && snap.ctx.Err() == nil {
 		s.logTiming(snap, roots, first, wait)
 	}
+	s.queueGuidance(snap)
 	complete := true
 	for _, a := range roots {
 		if _, est, ok := a.checks(); ok {

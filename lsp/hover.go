@@ -188,7 +188,8 @@ func (s *Server) refHover(c *cursor, r lang.Ref) string {
 				if err != nil {
 					u = units.Unit{}
 				}
-				return fmt.Sprintf("param `%s`\n\n", p.Name) + quantityTable(p.Value.SI, siUnit(u), isDifferenceText(p.Value.Unit()))
+				return fmt.Sprintf("param `%s`\n\n", p.Name) + quantityTable(p.Value.SI, siUnit(u), isDifferenceText(p.Value.Unit())) +
+					paramGuidanceHover(s.guides.get(c.a).param(p.Name))
 			}
 		}
 	case lang.RefComponent:

@@ -63,6 +63,14 @@ func inlayHintRequest(ctx context.Context, s *Server, sn *snapshot, params []byt
 			}
 		}
 	}
+	if sn.settings.RangeHints {
+		g := s.guides.get(a)
+		for _, p := range m.Params {
+			if label := rangeHint(g.param(p.Name)); label != "" && p.File == path {
+				hint(mp.LineEnd(mp.OffsetLine(p.Span.Start)), label)
+			}
+		}
+	}
 	for _, cs := range m.Cases {
 		if cs.File != path {
 			continue

@@ -93,6 +93,7 @@ type Server struct {
 
 	slowWork    chan struct{}
 	slowPending *snapshot // latest snapshot waiting for the complete checks (under mu)
+	guides      guideStore
 	exit        chan int
 	done        chan struct{}
 
@@ -164,6 +165,7 @@ func (s *Server) run(ctx context.Context, rwc io.ReadWriteCloser) int {
 	s.mu.Unlock()
 	go s.worker(ctx)
 	go s.slowWorker(ctx)
+	go s.guideWorker(ctx)
 	go s.out.run(s)
 	defer s.out.close()
 	s.conn.Go(ctx, s.handle)

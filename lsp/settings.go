@@ -23,6 +23,9 @@ type Settings struct {
 	Limits map[string]string `json:"limits"`
 	// InlayHints shows computed mass flow, exit quality and rise closure.
 	InlayHints bool `json:"inlayHints"`
+	// RangeHints shows, with the inlay hints, each parameter's feasible
+	// range after its line (the design guidance, computed in the background).
+	RangeHints bool `json:"rangeHints"`
 	// MarginChecks says when to run the margin rules, whose tilt-limit
 	// search costs hundreds of estimates: "auto" (when one estimate took
 	// less than 10 ms), "always" or "never".
