@@ -28,6 +28,7 @@ export function serverSettings(): Record<string, unknown> {
     friction: c.get<string>("methods.friction", ""),
     limits,
     inlayHints: c.get<boolean>("inlayHints.enabled", true),
+    rangeHints: c.get<boolean>("inlayHints.ranges", false),
     marginChecks: c.get<string>("marginChecks", "auto"),
   };
 }

@@ -11,6 +11,7 @@ const config = {
   "methods.friction": "",
   limits: { exit_quality: "0.4", tilt_margin: " 8 deg ", flooding: "" },
   "inlayHints.enabled": false,
+  "inlayHints.ranges": true,
   marginChecks: "never",
 };
 const record = { clients: [], notifications: [], commands: {}, configListeners: [], errors: [] };
@@ -74,6 +75,7 @@ const ext = require("../out/extension.js");
     friction: "",
     limits: { exit_quality: "0.4", tilt_margin: "8 deg" },
     inlayHints: false,
+    rangeHints: true,
     marginChecks: "never",
   };
   assert.deepStrictEqual(c.clientOptions.initializationOptions, want);
