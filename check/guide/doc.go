@@ -20,6 +20,9 @@
 //     held at their worst points during the searches (reduce.go). Where the
 //     margins' slopes at the value as written foretell a limit, the first
 //     step goes just past it.
+//     Where the fill charge as written ends or blocks a range, the range
+//     is searched again with the charge re-set to suit each value: every
+//     other margin holding and some charge suiting every case.
 //   - Sensitivities: each margin's use differentiated by central
 //     differences (a step of 0.1 % of the value), per unit of the
 //     parameter as written and per 10 % of it, ranked by size. A parameter

@@ -135,7 +135,7 @@ func (gd *guider) tryFluid(li int, l *lang.Loop, sp lang.FluidSpec) Fluid {
 	// The charge would be set for the fluid: its margin is left out of the
 	// ranking, and the range it needs is reported instead.
 	s, _ := summarize(&flow.Result{Loops: []flow.LoopResult{lr}}, 0, func(w Where) bool {
-		return w.Margin != flow.MarginCharge && (gd.keep == nil || gd.keep(w))
+		return w.Margin != flow.MarginCharge && gd.plain(w)
 	})
 	f.Use, f.Limit = s.Use, s.Limit
 	switch {

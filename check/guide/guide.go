@@ -76,6 +76,10 @@ type Param struct {
 	Influences bool `json:"influences"`
 	// Range is the feasible range, other parameters as written.
 	Range *Range `json:"range,omitempty"`
+	// Recharged is, where the charge margin ends or blocks Range, the range
+	// with the loop's charge re-set to suit each value: every other margin
+	// holds and some charge suits every case.
+	Recharged *Range `json:"range_recharged,omitempty"`
 	// Sensitivities are the margins' changes with the parameter, largest
 	// first.
 	Sensitivities []Sensitivity `json:"sensitivities,omitempty"`
@@ -100,9 +104,13 @@ type guider struct {
 	// full is the estimate as asked for; fast leaves out the tilt search,
 	// which only adds the tilt margin, for the range searches.
 	full, fast flow.Options
-	keep       func(Where) bool
-	sem        chan struct{}
-	estimates  atomic.Int64
+	// plain counts the margins of the guidance (Options.Margins), the
+	// charge margin as written among them; recharged counts, instead of
+	// the charge margin, whether some charge suits every case.
+	plain, recharged func(Where) bool
+	base             *flow.Result
+	sem              chan struct{}
+	estimates        atomic.Int64
 	// points are where the cases with a profile or an envelope were worst
 	// in the design as written (nil when there are none).
 	points fixed
@@ -132,7 +140,15 @@ func Compute(ctx context.Context, m *lang.Model, opts Options) (*Guidance, error
 	if workers <= 0 {
 		workers = runtime.GOMAXPROCS(0)
 	}
-	gd := &guider{ctx: ctx, m: m, full: opts.Flow, keep: opts.Margins, sem: make(chan struct{}, workers)}
+	gd := &guider{ctx: ctx, m: m, full: opts.Flow, sem: make(chan struct{}, workers)}
+	user := opts.Margins
+	gd.plain = func(w Where) bool { return w.Margin != MarginChargeWindow && (user == nil || user(w)) }
+	gd.recharged = func(w Where) bool {
+		if w.Margin == MarginChargeWindow {
+			return user == nil || user(Where{Loop: w.Loop, Margin: flow.MarginCharge})
+		}
+		return w.Margin != flow.MarginCharge && (user == nil || user(w))
+	}
 	gd.full.Workers, gd.full.Cancel, gd.full.Sweep = 1, ctx.Done(), nil
 	gd.fast = gd.full
 	gd.fast.NoTilt = true
@@ -160,14 +176,13 @@ func Compute(ctx context.Context, m *lang.Model, opts Options) (*Guidance, error
 	if err := ctx.Err(); err != nil {
 		return nil, err
 	}
+	gd.base = base
 	var wg sync.WaitGroup
 	if needed(m) {
 		gd.points = fixed{}.with(base)
 	}
-	s0, ms0 := summarize(base, 0, gd.keep)
-	f0, _ := summarize(base, 0, func(w Where) bool {
-		return w.Margin != flow.MarginTilt && (gd.keep == nil || gd.keep(w))
-	})
+	s0, ms0 := summarize(base, 0, gd.plain)
+	f0, _ := summarize(base, 0, func(w Where) bool { return w.Margin != flow.MarginTilt && gd.plain(w) })
 	g.Use, g.Limit = s0.Use, s0.Limit
 	if s0.Stop != nil {
 		g.Stop = s0.Stop.Kind
@@ -185,7 +200,7 @@ func Compute(ctx context.Context, m *lang.Model, opts Options) (*Guidance, error
 	for _, l := range m.Loops {
 		lg := Loop{Loop: l.Name}
 		if lr := base.LoopOf(m, l); lr != nil {
-			lg.Charge = chargeGuide(l, lr, base, gd.keep)
+			lg.Charge = chargeGuide(l, lr, base, gd.plain)
 		}
 		g.Loops = append(g.Loops, lg)
 	}
@@ -219,6 +234,8 @@ type mode struct {
 	opts       *flow.Options
 	structural bool
 	reduce     fixed
+	// keep says which margins count (nil: those of the guidance, plain).
+	keep func(Where) bool
 }
 
 // at estimates the design with parameter p set to x (SI), in mode md, one
@@ -253,7 +270,11 @@ func (gd *guider) at(p *lang.Param, x float64, md mode) (Sample, margins, *flow.
 	if err != nil {
 		return Sample{X: x, Stop: &Stop{Kind: StopError, Message: err.Error()}}, nil, nil
 	}
-	s, ms := summarize(res, x, gd.keep)
+	keep := md.keep
+	if keep == nil {
+		keep = gd.plain
+	}
+	s, ms := summarize(res, x, keep)
 	return s, ms, res
 }
 
@@ -288,18 +309,51 @@ func (gd *guider) param(out *Param, p *lang.Param, s0, f0 Sample, ms0 margins) {
 		return
 	}
 	out.Sensitivities = sens
+	r, ok := gd.rangeOf(p, ax, sens, s0, f0, gd.plain)
+	if !ok {
+		return
+	}
+	out.Range = &r
+	if !chargeBound(r) {
+		return
+	}
+	// The fill charge ends or blocks the range: the range again with the
+	// charge re-set to suit each value.
+	keep := gd.recharged
+	rs0, _ := summarize(gd.base, x0, keep)
+	rf0, _ := summarize(gd.base, x0, func(w Where) bool { return w.Margin != flow.MarginTilt && keep(w) })
+	if rr, ok := gd.rangeOf(p, ax, sens, rs0, rf0, keep); ok {
+		out.Recharged = &rr
+	}
+}
+
+// chargeBound reports whether the charge margin ends a range, or limits
+// the design where no value is feasible.
+func chargeBound(r Range) bool {
+	switch {
+	case r.Feasible:
+		return r.Low.Limit.Margin == flow.MarginCharge || r.High.Limit.Margin == flow.MarginCharge
+	case r.Best != nil:
+		return r.Best.Limit.Margin == flow.MarginCharge
+	}
+	return r.Limit.Margin == flow.MarginCharge
+}
+
+// rangeOf searches p's feasible range counting the margins keep counts (s0
+// and f0 are the design as written with and without the tilt search).
+func (gd *guider) rangeOf(p *lang.Param, ax axis, sens []Sensitivity, s0, f0 Sample, keep func(Where) bool) (Range, bool) {
 	pts := gd.points
-	search, start := mode{opts: &gd.fast, reduce: pts}, f0
+	search, start := mode{opts: &gd.fast, reduce: pts, keep: keep}, f0
 	if f0.Feasible() != s0.Feasible() {
-		search, start = mode{opts: &gd.full, reduce: pts}, s0
+		search, start = mode{opts: &gd.full, reduce: pts, keep: keep}, s0
 	}
 	var r Range
 	for round := 0; ; round++ {
 		f := func(x float64) Sample { s, _, _ := gd.at(p, x, search); return s }
 		var ok bool
-		r, ok = findRange(gd.ctx, f, ax, start, foretell(sens, search.opts == &gd.full, gd.keep, perLog(p)))
+		r, ok = findRange(gd.ctx, f, ax, start, foretell(sens, search.opts == &gd.full, keep, perLog(p)))
 		if !ok {
-			return
+			return r, false
 		}
 		exact := search.opts == &gd.full && search.structural && search.reduce == nil
 		if exact || !r.Feasible {
@@ -307,15 +361,15 @@ func (gd *guider) param(out *Param, p *lang.Param, s0, f0 Sample, ms0 margins) {
 			// the full estimate only adds margins.
 			break
 		}
-		ends, results := gd.ends(p, r)
+		ends, results := gd.ends(p, r, keep)
 		if ends[0].Feasible() && ends[1].Feasible() {
 			break
 		}
 		if round >= 2 || pts == nil && search.opts == &gd.full && search.structural {
-			search, start = mode{opts: &gd.full, structural: true}, s0
+			search, start = mode{opts: &gd.full, structural: true, keep: keep}, s0
 			continue
 		}
-		next := mode{opts: search.opts, structural: search.structural, reduce: pts}
+		next := mode{opts: search.opts, structural: search.structural, reduce: pts, keep: keep}
 		for i, e := range ends {
 			switch {
 			case e.Feasible():
@@ -342,7 +396,7 @@ func (gd *guider) param(out *Param, p *lang.Param, s0, f0 Sample, ms0 margins) {
 			r.Reason = s0.Stop.Message
 		}
 	}
-	out.Range = &r
+	return r, true
 }
 
 // perLog converts a change per 10 % of p into one per unit of the
@@ -380,7 +434,7 @@ func foretell(sens []Sensitivity, tilt bool, keep func(Where) bool, perLog float
 // ends checks both ends of a range, at once: first with the structural
 // checks alone, which are quick, then, when both pass, with the full
 // estimate.
-func (gd *guider) ends(p *lang.Param, r Range) ([2]Sample, [2]*flow.Result) {
+func (gd *guider) ends(p *lang.Param, r Range, keep func(Where) bool) ([2]Sample, [2]*flow.Result) {
 	var out [2]Sample
 	var res [2]*flow.Result
 	xs := [2]float64{r.Low.Value, r.High.Value}
@@ -398,7 +452,7 @@ func (gd *guider) ends(p *lang.Param, r Range) ([2]Sample, [2]*flow.Result) {
 	if out[0].Stop != nil || out[1].Stop != nil {
 		return out, res
 	}
-	both(mode{opts: &gd.full})
+	both(mode{opts: &gd.full, keep: keep})
 	return out, res
 }
 

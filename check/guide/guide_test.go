@@ -7,6 +7,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -267,6 +268,48 @@ func TestRobust(t *testing.T) {
 		for _, p := range g.Params {
 			if r := p.Range; r != nil && r.Feasible && (r.Low == nil || r.High == nil || r.Low.Value > r.High.Value) {
 				t.Errorf("%s: %s range %+v", name, p.Param, r)
+			}
+		}
+	}
+}
+
+// Where the charge as written ends a range, the range with the charge re-set
+// reaches further; inside it, beyond the plain range, the file estimated
+// afresh through its text has every margin but the charge within its limit
+// and cases whose charge ranges overlap.
+func TestRecharged(t *testing.T) {
+	const path = "../../testdata/examples/rack-door.loop"
+	src, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	m := load(t, path, string(src))
+	g, err := Compute(context.Background(), m, Options{Params: []string{"lift"}, Flow: flow.Options{NoTilt: true}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	p := paramOf(t, g, "lift")
+	r, rr := p.Range, p.Recharged
+	if r == nil || !r.Feasible || r.Low.Limit.Margin != flow.MarginCharge {
+		t.Fatalf("the rack door's lift range no longer ends at the charge: %+v", r)
+	}
+	if rr == nil || !rr.Feasible || !(rr.Low.Value < r.Low.Value) {
+		t.Fatalf("recharged %+v, plain low end %g", rr, r.Low.Value)
+	}
+	x := 0.5 * (rr.Low.Value + r.Low.Value)
+	text := strings.Replace(string(src), "param lift = 1.2 m", "param lift = "+strconv.FormatFloat(x, 'g', -1, 64)+" m", 1)
+	res, err := flow.Estimate(load(t, path, text), flow.Options{NoTilt: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	l := res.Loops[0]
+	if l.ChargeRange == nil || l.ChargeRange.Low > l.ChargeRange.High {
+		t.Errorf("lift %g m: no charge suits every case: %+v", x, l.ChargeRange)
+	}
+	for _, c := range l.Cases {
+		for _, mg := range c.Margins {
+			if mg.Margin != flow.MarginCharge && mg.Use > 1 {
+				t.Errorf("lift %g m: %s in case %s uses %g", x, mg.Margin, c.Case, mg.Use)
 			}
 		}
 	}

@@ -2,6 +2,7 @@ package guide
 
 import (
 	"fmt"
+	"math"
 	"strings"
 
 	"circa/check/flow"
@@ -36,6 +37,9 @@ func summarize(res *flow.Result, x float64, keep func(Where) bool) (Sample, marg
 		}
 	}
 	for _, l := range res.Loops {
+		if w, use, ok := chargeWindow(&l); ok {
+			note(w, use)
+		}
 		for _, f := range l.Findings {
 			if f.Severity == "error" {
 				stop(&Stop{Kind: StopError, Message: f.Message})
@@ -74,6 +78,35 @@ func summarize(res *flow.Result, x float64, keep func(Where) bool) (Sample, marg
 		}
 	}
 	return s, ms
+}
+
+// MarginChargeWindow is the guidance's own margin for a loop's charge
+// re-set to suit: whether some charge suits every case. Its use is
+// 1 + (largest low end − smallest high end)/charge, at most 1 while the
+// cases' charge ranges overlap.
+const MarginChargeWindow = "charge_window"
+
+// chargeWindow is a loop's charge window margin, when its cases give charge
+// ranges.
+func chargeWindow(l *flow.LoopResult) (Where, float64, bool) {
+	var lo, hi, ch float64
+	have := false
+	for ci := range l.Cases {
+		c := &l.Cases[ci]
+		r := c.ChargeRange
+		if c.Grid || r == nil {
+			continue
+		}
+		if !have {
+			lo, hi, ch, have = r.Low, r.High, r.Charge, true
+			continue
+		}
+		lo, hi = math.Max(lo, r.Low), math.Min(hi, r.High)
+	}
+	if !have || !(ch > 0) {
+		return Where{}, 0, false
+	}
+	return Where{Loop: l.Loop, Margin: MarginChargeWindow}, 1 + (lo-hi)/ch, true
 }
 
 // caseStop says why a case's estimate is not usable, or returns nil: it
@@ -128,6 +161,7 @@ var marginWords = map[string]string{
 	flow.MarginCharge:      "charge",
 	flow.MarginHead:        "loss reserve",
 	flow.MarginTilt:        "tilt margin",
+	MarginChargeWindow:     "the charge range every case accepts",
 }
 
 // Describe says where a margin is, in words: "exit quality at cold_plate in

@@ -231,6 +231,9 @@ func boundOf(in, out Sample) Bound {
 	}
 	b.Limit = out.Limit
 	b.Reason = out.Limit.Describe() + " reaches its limit"
+	if out.Limit.Margin == MarginChargeWindow {
+		b.Reason = "no charge suits every case"
+	}
 	return b
 }
 

@@ -68,6 +68,9 @@ func (gd *guider) sensitivities(p *lang.Param, unit string, ax axis, s0 Sample, 
 	scale := unitScale(unit)
 	var out []Sensitivity
 	for w, u0 := range ms0 {
+		if w.Margin == MarginChargeWindow {
+			continue
+		}
 		up, okP := mp[w]
 		um, okM := mm[w]
 		if !okP || !okM || !usable(u0) || !usable(up) || !usable(um) {

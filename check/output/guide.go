@@ -113,6 +113,9 @@ func paramText(w io.Writer, what string, p *guide.Param) {
 		return
 	}
 	fmt.Fprintln(w, RangeText(p.Range, p.Unit))
+	if p.Recharged != nil {
+		fmt.Fprintf(w, "    with the charge re-set to suit each value: %s\n", RangeText(p.Recharged, p.Unit))
+	}
 	if len(p.Sensitivities) == 0 {
 		return
 	}
