@@ -156,6 +156,9 @@ type Model struct {
 	readDiags []Diagnostic
 	// syntaxDropped is set by DropSyntax: the trees are gone.
 	syntaxDropped bool
+	// tables holds the profile tables the model read, by path, so that a
+	// variant resolves its profiles without reading them again.
+	tables map[string]tableRead
 }
 
 // Param is a named quantity.

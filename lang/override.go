@@ -181,6 +181,7 @@ func (m *Model) With(ovs ...Override) (*Model, error) {
 	v.Files, v.Order = m.Files, m.Order
 	v.Diags = slices.Clone(m.readDiags)
 	v.readDiags = m.readDiags
+	v.tables = m.tables
 	r := newResolver(v, nil)
 	r.overrides = make(map[string]*Overridden, len(ovs))
 	for _, o := range ovs {

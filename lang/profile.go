@@ -320,7 +320,7 @@ func (r *resolver) profileTable(p *Profile, str *Str) bool {
 		path = filepath.Join(filepath.Dir(p.File), filepath.FromSlash(path))
 	}
 	p.Table = path
-	data, err := r.fs.ReadFile(path)
+	data, err := r.readTable(path)
 	if err != nil {
 		msg := err.Error()
 		var pe *os.PathError
@@ -341,6 +341,29 @@ func (r *resolver) profileTable(p *Profile, str *Str) bool {
 	}
 	p.Columns, p.Rows = cols, rows
 	return true
+}
+
+// tableRead is the outcome of reading a table file.
+type tableRead struct {
+	data []byte
+	err  error
+}
+
+// readTable reads a table file once per model: a variant of the model
+// (Model.With) has no file system and reuses what the model read.
+func (r *resolver) readTable(path string) ([]byte, error) {
+	if t, ok := r.m.tables[path]; ok {
+		return t.data, t.err
+	}
+	if r.fs == nil {
+		return nil, fmt.Errorf("%s was not read with the model", path)
+	}
+	data, err := r.fs.ReadFile(path)
+	if r.m.tables == nil {
+		r.m.tables = map[string]tableRead{}
+	}
+	r.m.tables[path] = tableRead{data, err}
+	return data, err
 }
 
 // ReadProfileCSV reads a profile table: comma-separated, '#' comments, a

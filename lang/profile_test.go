@@ -198,3 +198,28 @@ func FuzzProfileCSV(f *testing.F) {
 		}
 	})
 }
+
+// A variant of a model (With) resolves its profiles from the tables the
+// model read, without a file system.
+func TestProfileTableInVariant(t *testing.T) {
+	fs := memFS{"m/brake.csv": []byte("time (s), pitch (deg)\n0, 0\n4, -2.3\n")}
+	base := LoadSource("p.loop", []byte("param q = 1 kW\nloop l {\n  fluid R134a\n}\ncase c {\n  profile \"m/brake.csv\"\n}\ncase d {\n  profile \"none.csv\"\n}\n"), fs)
+	v, err := base.With()
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, m := range []*Model{base, v} {
+		if p := m.Case("c").Profile; p == nil || len(p.Rows) != 2 || p.Rows[1].Time != 4 {
+			t.Errorf("profile %+v", p)
+		}
+		n := 0
+		for _, d := range m.Diags {
+			if d.Rule == "file-unreadable" && strings.Contains(d.Message(), "none.csv") {
+				n++
+			}
+		}
+		if n != 1 {
+			t.Errorf("%d findings for the missing table, want 1: %v", n, m.Diags)
+		}
+	}
+}
