@@ -9,6 +9,8 @@ import (
 	"strings"
 	"sync"
 
+	"go.lsp.dev/jsonrpc2"
+
 	"circa/check/flow"
 	"circa/check/guide"
 	"circa/check/output"
@@ -124,10 +126,31 @@ func (s *Server) guideWorker(ctx context.Context) {
 			}
 			s.guides.put(sn, a, g)
 		}
-		if sn.ctx.Err() == nil && hook != nil {
-			hook(sn.id)
+		if sn.ctx.Err() == nil {
+			s.refreshRangeHints(ctx, sn)
+			if hook != nil {
+				hook(sn.id)
+			}
 		}
 	}
+}
+
+// refreshRangeHints asks the client to ask for its inlay hints again once
+// the ranges they show are computed, when it shows them and can be asked.
+func (s *Server) refreshRangeHints(ctx context.Context, sn *snapshot) {
+	s.mu.Lock()
+	can := s.caps.inlayRefresh && s.conn != nil
+	s.mu.Unlock()
+	if !can || !sn.settings.InlayHints || !sn.settings.RangeHints {
+		return
+	}
+	// A call back to the client must not wait on the read loop.
+	cctx := jsonrpc2.DetachContext(ctx)
+	go func() {
+		if _, err := s.conn.Call(cctx, "workspace/inlayHint/refresh", nil, nil); err != nil {
+			s.logf("asking for the inlay hints again: %v", err)
+		}
+	}()
 }
 
 // computeGuidance works out the guidance of an analysis whose checks are

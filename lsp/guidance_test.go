@@ -217,10 +217,18 @@ func TestGuidedQuickFixClearsWarning(t *testing.T) {
 // parameter's line gives the range in short.
 func TestGuidedHoverAndHint(t *testing.T) {
 	c := newGuidedClient(t, Options{Debounce: -1})
-	c.initialize(map[string]any{"processId": nil, "rootUri": nil, "capabilities": map[string]any{},
+	c.initialize(map[string]any{"processId": nil, "rootUri": nil,
+		"capabilities":          map[string]any{"workspace": map[string]any{"inlayHint": map[string]any{"refreshSupport": true}}},
 		"initializationOptions": map[string]any{"rangeHints": true}})
 	uri, text := openFile(t, c, "../testdata/examples/rack-door.loop")
 	c.waitGuided()
+	// The client is asked for its hints again once the ranges are there.
+	for deadline := time.Now().Add(c.timeout()); len(c.serverCalls("workspace/inlayHint/refresh")) == 0; {
+		if time.Now().After(deadline) {
+			t.Fatal("no workspace/inlayHint/refresh after the guidance")
+		}
+		time.Sleep(5 * time.Millisecond)
+	}
 	m := lang.Load(strings.TrimPrefix(uri, "file://"), nil)
 	g, err := guide.Compute(context.Background(), m, guide.Options{Flow: flow.Options{NoTilt: true}})
 	if err != nil {

@@ -34,6 +34,9 @@ func (s *Server) initialize(params []byte) (any, error) {
 		if w.Configuration != nil {
 			s.caps.configPull = *w.Configuration
 		}
+		if w.InlayHint != nil && w.InlayHint.RefreshSupport != nil {
+			s.caps.inlayRefresh = *w.InlayHint.RefreshSupport
+		}
 	}
 	if t := p.Capabilities.TextDocument; t != nil && t.DocumentSymbol != nil && t.DocumentSymbol.HierarchicalDocumentSymbolSupport != nil {
 		s.caps.hierarchicalDS = *t.DocumentSymbol.HierarchicalDocumentSymbolSupport

@@ -116,6 +116,7 @@ type clientCaps struct {
 	relatedInfo    bool
 	hierarchicalDS bool
 	hoverPlain     bool // the client declares hover content formats and Markdown is not among them
+	inlayRefresh   bool // the client answers workspace/inlayHint/refresh
 }
 
 type pubState struct {
