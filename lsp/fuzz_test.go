@@ -4,6 +4,7 @@ import (
 	"context"
 	"encoding/json"
 	"io"
+	"reflect"
 	"strings"
 	"testing"
 
@@ -116,6 +117,14 @@ func FuzzDocumentSync(f *testing.F) {
 			}
 			if got := d.mapper.OffsetPosition(len(d.text), enc); got != eof {
 				t.Fatalf("enc %d, %s: the end of the text is at %v, the client has it at %v", enc, what, got, eof)
+			}
+			// The tree parsed from the last version's is the text's.
+			full := lang.Parse(path, d.text)
+			if errs, ok := d.syntaxErrors(); !ok || !reflect.DeepEqual(errs, full.Errors) {
+				t.Fatalf("%s: syntax errors %v, a full parse gives %v", what, errs, full.Errors)
+			}
+			if f := d.File(); f == nil || !reflect.DeepEqual(f.Stmts, full.Stmts) || !reflect.DeepEqual(f.Errors, full.Errors) || !reflect.DeepEqual(f.Comments, full.Comments) {
+				t.Fatalf("%s: the document's tree differs from a full parse of %q", what, d.text)
 			}
 		}
 		check(1, "didOpen")
