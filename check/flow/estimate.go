@@ -21,6 +21,9 @@ type Options struct {
 	// Void and Friction override the methods block (names as in loop files,
 	// underscores or hyphens).
 	Void, Friction string
+	// Saturation overrides the methods block's saturation_state ("single"
+	// or "local").
+	Saturation string
 	// Cells overrides the number of cells per heated component.
 	Cells int
 	// NoTilt skips the search for the attitudes at which circulation stops.
@@ -177,15 +180,15 @@ func estimateLoop(m *lang.Model, l *lang.Loop, methods MethodsUsed, points []poi
 	}
 	if p.net != nil {
 		lr.Network = !p.net.ring
-		if p.methods.Saturation == "local" {
-			for i, a := range lr.Assumptions {
-				if strings.HasPrefix(a, "one saturation state") {
-					if p.net.ring {
-						lr.Assumptions[i] = "saturation at the local pressure, marched around the loop from the condenser outlet at the case's saturation pressure; liquid density and viscosity at the liquid's own temperature"
-					} else {
-						lr.Assumptions[i] = "one saturation state per loop and case for all properties (saturation at local pressure is estimated for single loops only)"
-					}
-				}
+		for i, a := range lr.Assumptions {
+			if !strings.HasPrefix(a, "one saturation state") {
+				continue
+			}
+			switch {
+			case p.methods.Saturation == "local" && p.net.ring:
+				lr.Assumptions[i] = "saturation at the local pressure, marched around the loop from the condenser outlet at the case's saturation pressure; liquid density and viscosity at the liquid's own temperature"
+			case p.methods.Saturation == "local":
+				lr.Assumptions[i] = "saturation at the local pressure, marched through each branch from its upstream junction; the junction pressures follow from the first condenser's outlet, at the case's saturation pressure, through the branches' pressure changes; liquid density and viscosity at the liquid's own temperature"
 			}
 		}
 		for _, cp := range p.net.comps {
@@ -325,6 +328,9 @@ func chooseMethods(ms lang.Methods, opts Options) (MethodsUsed, error) {
 	}
 	if opts.Friction != "" {
 		mu.Friction = underscore(opts.Friction)
+	}
+	if opts.Saturation != "" {
+		mu.Saturation = opts.Saturation
 	}
 	if _, err := correlate.ParseVoidMethod(hyphen(mu.Void)); err != nil {
 		return mu, err
@@ -541,8 +547,28 @@ func (p *prepared) newState(pt point, cr *CaseResult) (*state, []Finding) {
 	s.sat = sat
 	cr.SatPressure = sat.P
 	s.fl = p.fl
-	s.local = p.methods.Saturation == "local" && net.ring
+	s.local = p.methods.Saturation == "local"
 	s.pIn = make([]float64, len(net.comps))
+	s.refCond = -1
+	if s.local && !net.ring {
+		s.pj = make([]float64, net.nj)
+		for j := range s.pj {
+			s.pj[j] = sat.P
+		}
+		s.pLo, s.pHi = 0, math.Inf(1)
+		if lo, err := p.fl.AtT(p.info.Tmin); err == nil {
+			s.pLo = lo.P
+		}
+		if hi, err := p.fl.AtT(p.info.Tmax); err == nil {
+			s.pHi = hi.P
+		}
+		for ci, cp := range net.comps {
+			if cp.kind == lang.Condenser {
+				s.refCond = ci
+				break
+			}
+		}
+	}
 	pr := 0.0
 	if p.info.Pc > 0 {
 		pr = sat.P / p.info.Pc

@@ -207,29 +207,45 @@ func (s *state) faceX(cp *comp, dir, xin, xout float64, k, n int) float64 {
 func (s *state) localStates(m float64, states []ComponentState) {
 	p := s.sat.P
 	for _, ld := range s.ringOrder(0, m) {
-		cs := &states[ld.ci]
 		if s.local {
 			p = s.pIn[ld.ci]
 		}
-		pOut := p - cs.DpTotal
-		satI, _ := s.satAt(p)
-		satO, _ := s.satAt(pOut)
-		xin, xout := cs.XIn, cs.XOut
-		ls := &LocalState{PressureIn: p, SatTempIn: satI.T, SatTempOut: satO.T,
-			XIn: s.localX(xin, satI), XOut: s.localX(xout, satO)}
-		if cs.Kind == lang.Evaporator.String() {
-			if ls.XIn < 0 {
-				ls.SubcoolingIn = -ls.XIn * satI.Hlv / satI.CpL
-			}
-			ls.BoilingOnset = s.boilingOnset(ld.ci, ld.dir, xin, xout, p, pOut)
-		}
-		if s.local {
-			cs.XIn, cs.XOut = ls.XIn, ls.XOut
-			s.localOutlet(ld.ci, cs, xout, pOut)
-		}
-		cs.Local = ls
-		p = pOut
+		p = s.localState(ld.ci, ld.dir, p, &states[ld.ci])
 	}
+}
+
+// localStatesNet is localStates for a network in local mode, each
+// component from the inlet pressure its branch's march gave it; dirs holds
+// each component's direction of traversal.
+func (s *state) localStatesNet(dirs []float64, states []ComponentState) {
+	for ci := range states {
+		if dirs[ci] != 0 {
+			s.localState(ci, dirs[ci], s.pIn[ci], &states[ci])
+		}
+	}
+}
+
+// localState fills component ci's local-saturation state from its inlet
+// pressure p and returns its outlet pressure.
+func (s *state) localState(ci int, dir, p float64, cs *ComponentState) float64 {
+	pOut := p - cs.DpTotal
+	satI, _ := s.satAt(p)
+	satO, _ := s.satAt(pOut)
+	xin, xout := cs.XIn, cs.XOut
+	ls := &LocalState{PressureIn: p, SatTempIn: satI.T, SatTempOut: satO.T,
+		XIn: s.localX(xin, satI), XOut: s.localX(xout, satO)}
+	if cs.Kind == lang.Evaporator.String() {
+		if ls.XIn < 0 {
+			ls.SubcoolingIn = -ls.XIn * satI.Hlv / satI.CpL
+		}
+		ls.BoilingOnset = s.boilingOnset(ci, dir, xin, xout, p, pOut)
+	}
+	if s.local {
+		cs.XIn, cs.XOut = ls.XIn, ls.XOut
+		s.localOutlet(ci, cs, xout, pOut)
+	}
+	cs.Local = ls
+	return pOut
 }
 
 // boilingOnset finds where the local quality of an evaporator crosses zero,
@@ -280,4 +296,113 @@ func (s *state) localOutlet(ci int, cs *ComponentState, xout, pOut float64) {
 	if cs.MassFlow < 0 {
 		cs.VelLiquid, cs.VelVapour = -cs.VelLiquid, -cs.VelVapour
 	}
+}
+
+// junctionPressures sets the junction pressures of a network in local mode
+// for the flows and qualities of ev. The condenser refCond's outlet is at
+// the case's saturation pressure; every other junction follows from it
+// through the branches' pressure changes along a spanning tree. Since each
+// branch's change depends (weakly) on the pressure it starts from, the
+// pressures are iterated to a fixed point from those of the previous
+// evaluation; ev.dp holds the last changes marched. Without a condenser in
+// the network every junction stays at the saturation pressure.
+func (s *state) junctionPressures(ev *eval) {
+	n := s.net
+	rb := -1
+	for bi, b := range n.branches {
+		for _, lg := range b.legs {
+			if lg.ci == s.refCond {
+				rb = bi
+			}
+		}
+	}
+	if rb < 0 || n.nj == 0 {
+		return
+	}
+	if s.jAdj == nil {
+		s.jAdj = make([][]int, n.nj)
+		for bi, b := range n.branches {
+			s.jAdj[b.from] = append(s.jAdj[b.from], bi)
+			if b.to != b.from {
+				s.jAdj[b.to] = append(s.jAdj[b.to], bi)
+			}
+		}
+	}
+	next := make([]float64, n.nj)
+	seen := make([]bool, n.nj)
+	queue := make([]int, 0, n.nj)
+	tol := 1e-7 + 1e-12*s.sat.P
+	// Damped fixed-point iteration: a step that changes the pressures more
+	// than the one before halves the damping (a riser on the edge of
+	// flashing answers a small pressure change with a large one in weight).
+	omega, prev := 1.0, math.Inf(1)
+	if len(s.pjGood) != len(s.pj) {
+		s.pjGood = make([]float64, len(s.pj))
+	}
+	copy(s.pjGood, s.pj)
+	for it := 0; it < 100; it++ {
+		for bi, b := range n.branches {
+			up := b.from
+			if ev.mb[bi] < 0 {
+				up = b.to
+			}
+			ev.dp[bi] = s.branchDP(bi, ev.mb[bi], ev.xj[up], nil)
+		}
+		root := n.branches[rb].from
+		if ev.mb[rb] < 0 {
+			root = n.branches[rb].to
+		}
+		for j := range seen {
+			seen[j] = false
+		}
+		next[root] = s.pj[root] + s.sat.P - s.pRef
+		seen[root] = true
+		queue = append(queue[:0], root)
+		for len(queue) > 0 {
+			u := queue[0]
+			queue = queue[1:]
+			for _, bi := range s.jAdj[u] {
+				b := &n.branches[bi]
+				switch {
+				case b.from == u && !seen[b.to]:
+					next[b.to] = next[u] - ev.dp[bi]
+					seen[b.to] = true
+					queue = append(queue, b.to)
+				case b.to == u && !seen[b.from]:
+					next[b.from] = next[u] + ev.dp[bi]
+					seen[b.from] = true
+					queue = append(queue, b.from)
+				}
+			}
+		}
+		change := 0.0
+		for j := range next {
+			if seen[j] && finite(next[j]) {
+				change = math.Max(change, math.Abs(next[j]-s.pj[j]))
+			}
+		}
+		if change <= tol {
+			return
+		}
+		if change > prev {
+			omega = math.Max(omega/2, 1.0/64)
+		}
+		prev = change
+		clamped := false
+		for j := range next {
+			if seen[j] && finite(next[j]) {
+				v := s.pj[j] + omega*(next[j]-s.pj[j])
+				s.pj[j] = math.Min(math.Max(v, s.pLo), s.pHi)
+				clamped = clamped || s.pj[j] != v
+			}
+		}
+		if clamped {
+			// Pressures beyond the fluid's range (a trial flow far from
+			// any balance): no fixed point to find.
+			break
+		}
+	}
+
+	// No fixed point: the next evaluation starts from the last one found.
+	copy(s.pj, s.pjGood)
 }

@@ -39,17 +39,26 @@ func component(t *testing.T, cr *CaseResult, name string) ComponentState {
 	return ComponentState{}
 }
 
-// TestSingleStateUnchanged: naming the single saturation state gives the
-// same estimate, to the bit, as saying nothing (the default every existing
-// reference test runs with).
-func TestSingleStateUnchanged(t *testing.T) {
+// TestSingleStateDefault: saying nothing gives the same estimate, to the
+// bit, as naming the single state; naming local saturation (or choosing it
+// in the options) gives a different one. TestSingleStateGolden holds the
+// single state to the estimates circa gave before local saturation reached
+// networks.
+func TestSingleStateDefault(t *testing.T) {
 	for _, src := range []string{strings.ReplaceAll(ring, "HEAT", "800 W"), strings.ReplaceAll(vacuumLoop, "HEAT", "300 W")} {
 		a := estimate(t, load(t, src), Options{NoTilt: true})
 		b := estimate(t, load(t, src+"methods { saturation_state single }\n"), Options{NoTilt: true})
+		c := estimate(t, load(t, src+"methods { saturation_state local }\n"), Options{NoTilt: true})
+		d := estimate(t, load(t, src), Options{NoTilt: true, Saturation: "local"})
 		ja, _ := json.Marshal(a)
 		jb, _ := json.Marshal(b)
+		jc, _ := json.Marshal(c)
+		jd, _ := json.Marshal(d)
 		if string(ja) != string(jb) {
 			t.Errorf("saturation_state single differs from the default:\n%s\n%s", ja, jb)
+		}
+		if string(ja) == string(jc) || string(jc) != string(jd) {
+			t.Errorf("local saturation, named or chosen in the options, must differ from the default and agree with itself")
 		}
 	}
 }
@@ -65,7 +74,7 @@ func TestSingleStateUnchanged(t *testing.T) {
 // the liquid enters 20.0 K subcooled. The single state sees it saturated.
 func TestLocalSaturationVacuumLoop(t *testing.T) {
 	src := strings.ReplaceAll(vacuumLoop, "HEAT", "300 W")
-	single := only(t, estimate(t, load(t, src), Options{NoTilt: true}))
+	single := only(t, estimate(t, load(t, src+"methods { saturation_state single }\n"), Options{NoTilt: true}))
 	r := estimate(t, load(t, src+"methods { saturation_state local }\n"), Options{NoTilt: true})
 	if r.Loops[0].Methods.Saturation != "local" {
 		t.Fatalf("methods %+v", r.Loops[0].Methods)

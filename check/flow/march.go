@@ -72,6 +72,16 @@ type state struct {
 	local bool
 	fl    fluid.Fluid
 	pIn   []float64 // by comps index: inlet pressure, Pa (local mode: set before each march)
+	// Networks in local mode: junction pressures (kept from the last
+	// evaluation as the next one's start), the condenser whose outlet is at
+	// the saturation pressure and its outlet pressure as last marched.
+	pj      []float64
+	refCond int
+	pRef    float64
+	jAdj    [][]int   // by junction: the branches that meet there
+	pjGood  []float64 // pj as the last converged evaluation left them
+	pLo     float64   // the fluid's saturation pressure range, Pa
+	pHi     float64
 }
 
 // scaled applies the loss scale to a component's pressure-change parts.

@@ -270,8 +270,13 @@ func (p *prepared) lossReserve(s *state, cr *CaseResult, f []float64) {
 		// Already above the limit as estimated: the exit-quality margin
 		// says so; this one reports only a design that loses the limit.
 		if x0 <= xl {
+			from := fmt.Sprintf("%.2f", x0)
+			if x0 < 0 {
+				// A subcooled outlet (local saturation): "-0.00" would hide it.
+				from = fmt.Sprintf("a subcooled outlet (x = %.2g)", x0)
+			}
 			cr.Findings = append(cr.Findings, p.finding(RuleHead, "warning", cr.Case, where, xk, xl, "", "head_ratio",
-				"with friction and local losses %.2g times the estimate, the exit quality of evaporator %s rises from %.2f to %.2f, above the limit %.2f, in case %s", k, where, x0, xk, xl, cr.Case))
+				"with friction and local losses %.2g times the estimate, the exit quality of evaporator %s rises from %s to %.2f, above the limit %.2f, in case %s", k, where, from, xk, xl, cr.Case))
 		}
 	}
 	if m.Use > 1e300 {

@@ -204,6 +204,7 @@ func (s *state) headAtVanishingFlow(f []float64, mf float64) float64 {
 func (p *prepared) record(s *state, ev *eval, f []float64, cr *CaseResult) {
 	n := s.net
 	states := make([]ComponentState, len(n.comps))
+	dirs := make([]float64, len(n.comps))
 	for bi, b := range n.branches {
 		m := ev.mb[bi]
 		up := b.from
@@ -211,6 +212,7 @@ func (p *prepared) record(s *state, ev *eval, f []float64, cr *CaseResult) {
 			up = b.to
 		}
 		s.branchDP(bi, m, ev.xj[up], func(ci int, dir, mc, xin, xout float64, q parts) {
+			dirs[ci] = dir
 			cp := &n.comps[ci]
 			cs := ComponentState{Component: cp.name, Kind: cp.kind.String(), MassFlow: mc, MassFlux: mc / cp.A,
 				XIn: xin, XOut: xout, DpFriction: q.fric, DpLocal: q.local, DpAccel: q.acc, DpGravity: q.grav,
@@ -248,6 +250,8 @@ func (p *prepared) record(s *state, ev *eval, f []float64, cr *CaseResult) {
 	}
 	if n.ring {
 		s.localStates(ev.mb[0], states)
+	} else if s.local {
+		s.localStatesNet(dirs, states)
 	}
 	cr.Components = states
 	// The loop flow: through the condensers.

@@ -133,7 +133,7 @@ func (s *state) branchDP(bi int, m, xin float64, visit func(ci int, dir, m, xin,
 // branchGrav is the gravity term Σ ∫ρ_m b·ŝ ds of branch bi along the flow
 // at flow m from its upstream junction quality xin.
 func (s *state) branchGrav(bi int, m, xin float64) float64 {
-	if s.local {
+	if s.local && s.net.ring {
 		var g float64
 		s.branchDPLocal(bi, m, func(ci int, dir, m, xin, xout float64, q parts) { g += q.grav })
 		return g
@@ -147,12 +147,22 @@ func (s *state) branchGrav(bi int, m, xin float64) float64 {
 // branchParts is branchDP that also returns the branch's gravity term
 // along the flow.
 func (s *state) branchParts(bi int, m, xin float64, visit func(ci int, dir, m, xin, xout float64, q parts)) (dp, grav float64) {
-	if s.local {
+	if s.local && s.net.ring {
 		return s.branchDPLocal(bi, m, visit), 0
 	}
 	b := &s.net.branches[bi]
 	x := xin
 	var loss float64
+	// Local saturation in a network: the pressure is marched from the
+	// upstream junction's (see junctionPressures).
+	local, p := s.local, 0.0
+	if local {
+		up := b.from
+		if m < 0 {
+			up = b.to
+		}
+		p = s.pj[up]
+	}
 	// Momentum flux leaving the previous component: the step to the next
 	// component's inlet (an area change) counts as its acceleration, so
 	// the acceleration terms telescope along the branch. A single loop
@@ -167,11 +177,20 @@ func (s *state) branchParts(bi int, m, xin float64, visit func(ci int, dir, m, x
 		prev, havePrev = s.momentum(last, m, xin), true
 	}
 	step := func(lg leg, dir float64) {
+		if local {
+			s.pIn[lg.ci] = p
+		}
 		xo, q := s.march(lg.ci, dir, m, x, nil)
 		if havePrev {
 			q.acc = q.mOut - prev
 		}
 		prev, havePrev = q.mOut, true
+		if local {
+			p -= q.loss()
+			if lg.ci == s.refCond {
+				s.pRef = p
+			}
+		}
 		if visit != nil {
 			visit(lg.ci, dir, m*lg.sign, x, xo, q)
 		}
@@ -190,6 +209,16 @@ func (s *state) branchParts(bi int, m, xin float64, visit func(ci int, dir, m, x
 			q.acc = last - prev
 		} else {
 			q.acc = last - first
+		}
+		if local {
+			// Local saturation: the chain stays one liquid tube only while
+			// the liquid is below saturation at both its ends.
+			sat0, _ := s.satAt(p)
+			sat1, _ := s.satAt(p - q.loss())
+			if s.localX(x, sat0) > 0 || s.localX(x, sat1) > 0 {
+				return false
+			}
+			p -= q.loss()
 		}
 		prev, havePrev = last, true
 		loss += q.loss()
@@ -242,6 +271,9 @@ func (s *state) momentum(ci int, m, x float64) float64 {
 func (s *state) evaluate(f []float64, ev *eval) {
 	s.branchFlows(f, ev)
 	s.mix(ev)
+	if s.local && !s.net.ring {
+		s.junctionPressures(ev)
+	}
 	for bi, b := range s.net.branches {
 		up := b.from
 		if ev.mb[bi] < 0 {

@@ -125,11 +125,16 @@ func withCases(m *lang.Model, cs []*lang.Case) *lang.Model {
 }
 
 func exitQuality(cr flow.CaseResult) float64 {
-	x := 0.0
+	// Below 0 when every outlet is subcooled (local saturation at a light
+	// load): the plot shows it rather than a flat zero.
+	x := math.Inf(-1)
 	for _, c := range cr.Components {
 		if c.Kind == "evaporator" && c.XOut > x {
 			x = c.XOut
 		}
+	}
+	if math.IsInf(x, -1) {
+		return 0
 	}
 	return finite(x)
 }
