@@ -56,16 +56,16 @@ func Figures(m *lang.Model, o Options) (figs []*Figure, errs []error) {
 				continue
 			}
 			f.Name = l.Name + "-" + f.Name
-			f.Title += variantNote(m)
+			f.Title += VariantNote(m)
 			figs = append(figs, f)
 		}
 	}
 	return figs, errs
 }
 
-// variantNote is the title's note of the parameters given other values
+// VariantNote is the title's note of the parameters given other values
 // than their files' for the run: " (variant: riser_bore=10mm)".
-func variantNote(m *lang.Model) string {
+func VariantNote(m *lang.Model) string {
 	if len(m.Overrides) == 0 {
 		return ""
 	}

@@ -108,6 +108,7 @@ func runPlot(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 				continue
 			}
 			f.Name = l.Name + "-" + f.Name
+			f.Title += picture.VariantNote(m)
 			figs = append(figs, f)
 		}
 	}
