@@ -18,12 +18,13 @@ import (
 	"circa/units"
 )
 
-// marginOf maps a margin finding's rule to the margin it reports.
+// marginOf maps a margin finding's rule to the margin it reports. The tilt
+// margin is left out: its search is too slow to check every candidate with.
 var marginOf = map[string]string{
 	flow.RuleExitQuality: flow.MarginExitQuality, flow.RuleDryout: flow.MarginExitQuality,
 	flow.RuleCHF: flow.MarginCHF, flow.RuleFlooding: flow.MarginFlooding, flow.RuleWall: flow.MarginWall,
 	flow.RuleJunction: flow.MarginJunction, flow.RulePressure: flow.MarginPressure, flow.RuleCondenser: flow.MarginCondenser,
-	flow.RuleCharge: flow.MarginCharge, flow.RuleHead: flow.MarginHead, flow.RuleTilt: flow.MarginTilt,
+	flow.RuleCharge: flow.MarginCharge, flow.RuleHead: flow.MarginHead,
 }
 
 // IsMargin reports whether a finding is a margin the guidance can act on.

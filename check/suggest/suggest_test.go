@@ -135,3 +135,22 @@ func TestNearestInside(t *testing.T) {
 		}
 	}
 }
+
+// Only the margins a candidate can be checked against get fixes: not the
+// tilt margin (its search is left out of the check), not a note.
+func TestIsMargin(t *testing.T) {
+	for _, tc := range []struct {
+		d    lang.Diagnostic
+		want bool
+	}{
+		{lang.Diagnostic{Rule: "margin-exit-quality", Severity: lang.Warning}, true},
+		{lang.Diagnostic{Rule: "margin-charge", Severity: lang.Error}, true},
+		{lang.Diagnostic{Rule: "margin-tilt", Severity: lang.Warning}, false},
+		{lang.Diagnostic{Rule: "margin-exit-quality", Severity: lang.Info}, false},
+		{lang.Diagnostic{Rule: "rise-mismatch", Severity: lang.Error}, false},
+	} {
+		if got := IsMargin(tc.d); got != tc.want {
+			t.Errorf("%s %s: %v, want %v", tc.d.Rule, tc.d.Severity, got, tc.want)
+		}
+	}
+}
