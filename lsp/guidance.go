@@ -26,6 +26,7 @@ import (
 type guidance struct {
 	g     *guide.Guidance // nil for a model with errors
 	fixes map[fixKey][]lang.Fix
+	note  string // why there is none
 }
 
 // fixKey names a finding: its rule and where it is.
@@ -169,7 +170,7 @@ func (s *Server) computeGuidance(ctx context.Context, a *analysis) (out *guidanc
 	}()
 	for _, d := range m.Diags {
 		if d.Severity == lang.Error {
-			return &guidance{}
+			return &guidance{note: "none until the file's errors are fixed"}
 		}
 	}
 	fo := flow.Options{NoTilt: true}
@@ -217,9 +218,14 @@ func (g *guidance) param(name string) *guide.Param {
 const hoverLevers = 3
 
 // paramGuidanceHover renders a parameter's feasible range and its biggest
-// levers for its hover, as circa estimate prints them.
-func paramGuidanceHover(gp *guide.Param) string {
+// levers for its hover, as circa estimate prints them, or why there are
+// none.
+func paramGuidanceHover(g *guidance, name string) string {
+	gp := g.param(name)
 	if gp == nil {
+		if g != nil && g.note != "" {
+			return "\n**Design guidance**: " + g.note + "\n"
+		}
 		return ""
 	}
 	var b strings.Builder

@@ -338,3 +338,26 @@ func TestGuidanceFollowsDiagnostics(t *testing.T) {
 		t.Errorf("%d analyses guided, want 1", len(c.srv.guides.by))
 	}
 }
+
+// A file with errors gets no guidance, and the hover on a parameter says
+// why.
+func TestGuidanceNoneWithErrors(t *testing.T) {
+	c := newGuidedClient(t, Options{Debounce: -1})
+	c.initialize(nil)
+	uri := "file:///tmp/guide-errors.loop"
+	text := "param h = 1 m\nloop l {\n  fluid water\n  node a at (0, 0, h)\n  pipe p from a to nowhere { length 1 m }\n}\n"
+	c.notify("textDocument/didOpen", map[string]any{"textDocument": map[string]any{"uri": uri, "languageId": "loop", "version": 1, "text": text}})
+	c.waitGuided()
+	var hover struct {
+		Contents struct {
+			Value string `json:"value"`
+		} `json:"contents"`
+	}
+	if err := json.Unmarshal(c.mustCall("textDocument/hover", map[string]any{"textDocument": map[string]any{"uri": uri},
+		"position": map[string]int{"line": 0, "character": 6}}), &hover); err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(hover.Contents.Value, "Design guidance**: none until the file's errors are fixed") {
+		t.Errorf("hover on h:\n%s", hover.Contents.Value)
+	}
+}

@@ -189,7 +189,7 @@ func (s *Server) refHover(c *cursor, r lang.Ref) string {
 					u = units.Unit{}
 				}
 				return fmt.Sprintf("param `%s`\n\n", p.Name) + quantityTable(p.Value.SI, siUnit(u), isDifferenceText(p.Value.Unit())) +
-					paramGuidanceHover(s.guides.get(c.a).param(p.Name))
+					paramGuidanceHover(s.guides.get(c.a), p.Name)
 			}
 		}
 	case lang.RefComponent:
