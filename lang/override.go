@@ -172,7 +172,8 @@ func firstRef(e *Expr) *Ident {
 // is not changed, so several variants of one model may be resolved at once
 // from different goroutines. A parameter the files do not declare, given
 // twice, or given a value of another dimension than the file's is an
-// *OverrideError; the model is then nil.
+// *OverrideError; the model is then nil. A variant's own overrides hold in
+// its variants, unless given again.
 func (m *Model) With(ovs ...Override) (*Model, error) {
 	if m.syntaxDropped {
 		return nil, errors.New("the model's syntax trees were dropped: it cannot be resolved again")
@@ -190,6 +191,15 @@ func (m *Model) With(ovs ...Override) (*Model, error) {
 		}
 		r.overrides[o.Name] = &Overridden{Override: o}
 	}
+	// The base's own overrides, first, where not given again.
+	var all []Override
+	for _, o := range m.Overrides {
+		if _, again := r.overrides[o.Name]; !again {
+			r.overrides[o.Name] = &Overridden{Override: o.Override}
+			all = append(all, o.Override)
+		}
+	}
+	ovs = append(all, ovs...)
 	r.resolve()
 	if err := r.overrideErr; err != nil {
 		return nil, err

@@ -325,3 +325,37 @@ func TestWithKeepsUnsetLimits(t *testing.T) {
 		t.Errorf("the file's chf_ratio %g, want 2.5", v.Limits.CHFRatio.SI)
 	}
 }
+
+// A variant of a variant keeps the first one's overrides, unless it gives
+// the same parameter again.
+func TestWithOfVariant(t *testing.T) {
+	base := Load("main.loop", overrideFS())
+	h, _ := ParseOverride("stack_height=0.5 m")
+	v, err := base.With(h)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s, _ := ParseOverride("sink=30 degC")
+	w, err := v.With(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got := w.Loops[0].Components[0].Length.SI; got != 0.5 {
+		t.Errorf("length %g, want the first variant's 0.5 m", got)
+	}
+	// 30 °C = 303.15 K (SI Brochure 9th ed., 2.3.1).
+	if got := w.Loops[0].Components[1].Sink.SI; math.Abs(got-303.15) > 1e-9 {
+		t.Errorf("sink %g K, want 303.15", got)
+	}
+	if len(w.Overrides) != 2 || w.Overrides[0].Name != "stack_height" || w.Overrides[1].Name != "sink" {
+		t.Errorf("overrides %+v", w.Overrides)
+	}
+	h2, _ := ParseOverride("stack_height=0.3 m")
+	x, err := v.With(h2)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got := x.Loops[0].Components[0].Length.SI; got != 0.3 || len(x.Overrides) != 1 || x.Overrides[0].File.SI != 0.4 {
+		t.Errorf("length %g, overrides %+v: want 0.3 m over the file's 0.4 m", got, x.Overrides)
+	}
+}

@@ -253,3 +253,50 @@ func TestPlotAndReportVary(t *testing.T) {
 		t.Errorf("report: %d %s", code, errs)
 	}
 }
+
+// A sweep of a variant varies the variant: --set holds at every point.
+func TestVaryWithSet(t *testing.T) {
+	chargeUse := func(out string, sweep bool) float64 {
+		t.Helper()
+		var est struct {
+			Loops []struct {
+				Worst []struct {
+					Margin string  `json:"margin"`
+					Use    float64 `json:"use"`
+				} `json:"worst"`
+			} `json:"loops"`
+			Points []struct {
+				Loops []struct {
+					Margins []struct {
+						Margin string  `json:"margin"`
+						Use    float64 `json:"use"`
+					} `json:"margins"`
+				} `json:"loops"`
+			} `json:"points"`
+		}
+		if err := json.Unmarshal([]byte(out), &est); err != nil {
+			t.Fatal(err)
+		}
+		if sweep {
+			for _, m := range est.Points[0].Loops[0].Margins {
+				if m.Margin == "charge" {
+					return m.Use
+				}
+			}
+		} else {
+			for _, m := range est.Loops[0].Worst {
+				if m.Margin == "charge" {
+					return m.Use
+				}
+			}
+		}
+		t.Fatal("no charge margin")
+		return 0
+	}
+	_, plain, _ := runEstimateCmd(t, rackDoor, "--no-tilt", "--no-guidance", "--format", "json", "--set", "lift=1.0m")
+	_, swept, errs := runEstimateCmd(t, rackDoor, "--format", "json", "--set", "lift=1.0m", "--vary", "plate_height=0.35m,0.4m")
+	_, file, _ := runEstimateCmd(t, rackDoor, "--format", "json", "--vary", "plate_height=0.35m,0.4m")
+	if a, b, c := chargeUse(plain, false), chargeUse(swept, true), chargeUse(file, true); a != b || b == c {
+		t.Errorf("charge use %g with --set alone, %g swept with --set, %g swept without: %s", a, b, c, errs)
+	}
+}
