@@ -235,16 +235,30 @@ func src(f *File, s Span) string {
 // Closest returns the candidate nearest to s by edit distance, or "" when
 // none is close enough to be a likely typo.
 func Closest(s string, cands []string) string {
-	best, bestD := "", 1<<30
-	for _, c := range cands {
-		d := editDistance(strings.ToLower(s), strings.ToLower(c))
-		if d < bestD || (d == bestD && c < best) {
-			best, bestD = c, d
-		}
-	}
 	limit := len(s)/3 + 1
 	if limit > 3 {
 		limit = 3
+	}
+	// Only a candidate within the limit can be the answer, and one whose
+	// length differs by more is not: a file of many names is searched
+	// without computing most distances, into one table.
+	rs := []rune(strings.ToLower(s))
+	var rc []rune
+	var table []int
+	best, bestD := "", 1<<30
+	for _, c := range cands {
+		rc = rc[:0]
+		for _, r := range strings.ToLower(c) {
+			rc = append(rc, r)
+		}
+		if len(rc) > len(rs)+limit || len(rc) < len(rs)-limit {
+			continue
+		}
+		var d int
+		d, table = runeDistance(rs, rc, table)
+		if d < bestD || (d == bestD && c < best) {
+			best, bestD = c, d
+		}
 	}
 	if bestD > limit {
 		return ""
@@ -256,14 +270,24 @@ func Closest(s string, cands []string) string {
 // deletions, substitutions and swaps of two neighbours each count one, so
 // a transposed pair of letters ("ez" for "ze") is one slip.
 func editDistance(a, b string) int {
-	ra, rb := []rune(a), []rune(b)
-	d := make([][]int, len(ra)+1)
-	for i := range d {
-		d[i] = make([]int, len(rb)+1)
-		d[i][0] = i
+	d, _ := runeDistance([]rune(a), []rune(b), nil)
+	return d
+}
+
+// runeDistance is editDistance over runes, its table taken from buf when
+// it is large enough; it returns the table for the next call.
+func runeDistance(ra, rb []rune, buf []int) (int, []int) {
+	w := len(rb) + 1
+	n := (len(ra) + 1) * w
+	if cap(buf) < n {
+		buf = make([]int, n)
 	}
-	for j := range d[0] {
-		d[0][j] = j
+	d := buf[:n]
+	for i := 0; i <= len(ra); i++ {
+		d[i*w] = i
+	}
+	for j := 0; j < w; j++ {
+		d[j] = j
 	}
 	for i := 1; i <= len(ra); i++ {
 		for j := 1; j <= len(rb); j++ {
@@ -271,13 +295,14 @@ func editDistance(a, b string) int {
 			if ra[i-1] == rb[j-1] {
 				cost = 0
 			}
-			d[i][j] = min(d[i-1][j]+1, d[i][j-1]+1, d[i-1][j-1]+cost)
+			v := min(d[(i-1)*w+j]+1, d[i*w+j-1]+1, d[(i-1)*w+j-1]+cost)
 			if i > 1 && j > 1 && ra[i-1] == rb[j-2] && ra[i-2] == rb[j-1] {
-				d[i][j] = min(d[i][j], d[i-2][j-2]+1)
+				v = min(v, d[(i-2)*w+j-2]+1)
 			}
+			d[i*w+j] = v
 		}
 	}
-	return d[len(ra)][len(rb)]
+	return d[len(ra)*w+len(rb)], buf
 }
 
 func sqrt(x float64) float64 { return math.Sqrt(x) }

@@ -192,3 +192,23 @@ func TestLoadSourceSyntaxAndModel(t *testing.T) {
 		t.Fatalf("component %+v", c)
 	}
 }
+
+// TestClosestSkipsFarLengths checks that the suggestion among many names is
+// the one an exhaustive search gives: the nearest within the limit, ties
+// to the first in order, none past the limit.
+func TestClosestSkipsFarLengths(t *testing.T) {
+	cands := []string{"riser_long_name", "riser", "Riser2", "ri", "downcomer", "rsier"}
+	for _, tc := range []struct{ s, want string }{
+		{"riser", "riser"},
+		{"risr", "riser"},    // one deletion
+		{"rsier", "rsier"},   // exact beats the swap
+		{"RISER2", "Riser2"}, // case is ignored
+		{"downcomr", "downcomer"},
+		{"xyz", ""}, // nothing within the limit
+		{"r", "ri"}, // one insertion, within len/3+1 = 1
+	} {
+		if got := Closest(tc.s, cands); got != tc.want {
+			t.Errorf("Closest(%q) = %q, want %q", tc.s, got, tc.want)
+		}
+	}
+}
