@@ -617,3 +617,11 @@ func (r *resolver) envelopeAxis(file string, st *Stmt) (EnvelopeAxis, bool) {
 	}
 	return ax, true
 }
+
+// ReadsTable reports whether resolving the model read the table file at
+// path (a profile's CSV file), so that a change to it calls for resolving
+// again.
+func (m *Model) ReadsTable(path string) bool {
+	_, ok := m.tables[path]
+	return ok
+}

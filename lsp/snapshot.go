@@ -202,7 +202,7 @@ func (a *analysis) dependsOn(path string) bool {
 		return true
 	}
 	_, ok := a.model.Files[path]
-	return ok || path == a.root
+	return ok || path == a.root || a.model.ReadsTable(path)
 }
 
 // overlay reads open documents from the snapshot and the rest from disk.
