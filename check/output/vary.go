@@ -39,6 +39,9 @@ func VaryText(w io.Writer, r *vary.Result) error {
 	for _, c := range r.Cautions {
 		fmt.Fprintln(ew, "caution:", c)
 	}
+	for _, p := range r.Set {
+		fmt.Fprintln(ew, Printable(ParamSetText(p)))
+	}
 	fmt.Fprintf(ew, "sweep: %s\n", Printable(VaryHeading(r)))
 	if !r.Tilt {
 		fmt.Fprintln(ew, "the tilt limits are not searched at sweep points")
@@ -119,6 +122,9 @@ func VaryCSV(w io.Writer, r *vary.Result) error {
 	ew := &errWriter{w: w}
 	for _, c := range r.Cautions {
 		fmt.Fprintln(ew, "# caution:", c)
+	}
+	for _, p := range r.Set {
+		fmt.Fprintln(ew, "# "+Printable(ParamSetText(p)))
 	}
 	fmt.Fprintf(ew, "# sweep: %s\n", Printable(VaryHeading(r)))
 	cw := csv.NewWriter(ew)

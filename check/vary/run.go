@@ -22,6 +22,9 @@ type Result struct {
 	// sweep leaves them out unless asked, the search repeating the estimate
 	// many times.
 	Tilt bool `json:"tilt"`
+	// Set lists the parameters the swept model was given in place of its
+	// files' values (circa estimate --set): they hold at every point.
+	Set []flow.ParamSet `json:"set,omitempty"`
 }
 
 // Param is one axis of a sweep.
@@ -83,7 +86,7 @@ func Run(ctx context.Context, m *lang.Model, axes []Axis, o Options) (*Result, e
 	if len(axes) == 2 && axes[0].Param == axes[1].Param {
 		return nil, fmt.Errorf("%s is varied twice", axes[0].Param)
 	}
-	res := &Result{Cautions: append([]string(nil), flow.Cautions...), Tilt: o.Tilt}
+	res := &Result{Cautions: append([]string(nil), flow.Cautions...), Tilt: o.Tilt, Set: flow.ParamsSet(m)}
 	first := make([]lang.Override, len(axes))
 	for i, a := range axes {
 		if len(a.Values) == 0 {
@@ -104,14 +107,18 @@ func Run(ctx context.Context, m *lang.Model, axes []Axis, o Options) (*Result, e
 			}
 		}
 	}
-	for i, a := range axes {
-		p := Param{Param: a.Param, Dimension: flow.ParamsSet(probe)[i].Dimension, Unit: a.Unit}
+	set := flow.ParamsSet(probe)
+	for _, a := range axes {
+		p := Param{Param: a.Param, Unit: a.Unit}
 		for _, v := range a.Values {
 			p.Values = append(p.Values, v.Value.SI)
 			p.Written = append(p.Written, v.Written())
 		}
-		ps := flow.ParamsSet(probe)[i]
-		p.FileValue, p.FileWritten = ps.FileValue, ps.FileWritten
+		for _, ps := range set {
+			if ps.Param == a.Param {
+				p.Dimension, p.FileValue, p.FileWritten = ps.Dimension, ps.FileValue, ps.FileWritten
+			}
+		}
 		res.Params = append(res.Params, p)
 	}
 	// The grid, last axis fastest.

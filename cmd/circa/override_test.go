@@ -299,4 +299,11 @@ func TestVaryWithSet(t *testing.T) {
 	if a, b, c := chargeUse(plain, false), chargeUse(swept, true), chargeUse(file, true); a != b || b == c {
 		t.Errorf("charge use %g with --set alone, %g swept with --set, %g swept without: %s", a, b, c, errs)
 	}
+	if !strings.Contains(swept, `"set": [`) || !strings.Contains(swept, `"file_written": "0.35 m"`) {
+		t.Errorf("the sweep of a variant lists neither the parameter set nor the swept one's file value:\n%s", swept)
+	}
+	code, out, _ := runEstimateCmd(t, rackDoor, "--set", "lift=1.0m", "--vary", "plate_height=0.35m,0.4m")
+	if code != exitOK || !strings.Contains(out, "variant: lift = 1.0m in place of the file's 1.2 m\nsweep: plate_height from 0.35 m to 0.4 m, 2 values (the file's 0.35 m)\n") {
+		t.Errorf("text: %d %s", code, out)
+	}
 }
