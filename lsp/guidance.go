@@ -8,6 +8,7 @@ import (
 	"strconv"
 	"strings"
 	"sync"
+	"time"
 
 	"go.lsp.dev/jsonrpc2"
 
@@ -177,6 +178,19 @@ func (s *Server) computeGuidance(ctx context.Context, a *analysis) (out *guidanc
 	opts := guide.Options{Flow: fo, Workers: max(1, runtime.GOMAXPROCS(0)-1)}
 	if est != nil && !est.tilt && est.flowErr == nil {
 		opts.Base = est.flow
+	} else {
+		t0 := time.Now()
+		base, err := flow.Estimate(m, flow.Options{NoTilt: true, Cancel: ctx.Done()})
+		if ctx.Err() != nil {
+			return nil
+		}
+		if err == nil {
+			opts.Base = base
+		}
+		if cost := guidanceCost(m, time.Since(t0)); cost > guideBudget && a.settings.MarginChecks != "always" {
+			return &guidance{note: fmt.Sprintf("not computed while editing: it would take about %s (one estimate takes %s); circa estimate prints it, and marginChecks \"always\" computes it here",
+				cost.Round(time.Second), time.Since(t0).Round(time.Millisecond))}
+		}
 	}
 	g, err := guide.Compute(ctx, m, opts)
 	if err != nil || ctx.Err() != nil {
@@ -199,6 +213,18 @@ func (s *Server) computeGuidance(ctx context.Context, a *analysis) (out *guidanc
 		}
 	}
 	return out
+}
+
+// guideBudget bounds the background work the guidance may take; a
+// costlier file (a large network with many parameters) gets none unless
+// marginChecks is "always".
+const guideBudget = 20 * time.Second
+
+// guidanceCost guesses what the guidance of m costs from one estimate's
+// time: a few dozen estimates per parameter and per loop's charge, on one
+// worker.
+func guidanceCost(m *lang.Model, one time.Duration) time.Duration {
+	return one * time.Duration(40*(len(m.Params)+len(m.Loops)))
 }
 
 // paramGuidance returns the guidance of the parameter, when computed.

@@ -361,3 +361,14 @@ func TestGuidanceNoneWithErrors(t *testing.T) {
 		t.Errorf("hover on h:\n%s", hover.Contents.Value)
 	}
 }
+
+// The guidance's cost guess grows with the parameters and loops it ranges.
+func TestGuidanceCost(t *testing.T) {
+	m := lang.LoadSource("/x.loop", []byte("param a = 1 m\nparam b = 2 m\nloop l {\n  fluid water\n}\n"), nil)
+	if got := guidanceCost(m, 10*time.Millisecond); got != 1200*time.Millisecond {
+		t.Errorf("cost %v, want 40 estimates for each of 2 parameters and 1 charge, 1.2 s", got)
+	}
+	if guidanceCost(m, time.Second) <= guideBudget {
+		t.Error("a file whose estimate takes a second is guided in the background")
+	}
+}
