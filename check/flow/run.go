@@ -56,6 +56,9 @@ func (p *prepared) run(pt point, tilt bool, start []float64) (CaseResult, []floa
 			cr.Reason = "the network solution did not converge"
 		} else {
 			ok = true
+			if !pt.derived() {
+				f = p.networkBalances(s, ev, f, &cr)
+			}
 		}
 	}
 	if !ok {

@@ -295,6 +295,7 @@ func (s *state) evaluate(f []float64, ev *eval) {
 // root is one operating point of a single loop.
 type root struct {
 	m, slope float64
+	f        []float64 // a network's cycle flows at the balance (nil for a single loop)
 }
 
 // brent finds a root of f in [a, b] where f(a) and f(b) differ in sign

@@ -432,8 +432,8 @@ func budgetTable(w io.Writer, l *flow.LoopResult, c *flow.CaseResult) {
 	tw.Flush()
 }
 
-// StableRoots are the stable balances of a single loop's excess head, in
-// order of flow.
+// StableRoots are the stable balances of a case (a single loop's, or a
+// network's when it has several), in order of flow.
 func StableRoots(c *flow.CaseResult) []flow.Root {
 	var out []flow.Root
 	for _, r := range c.Roots {
