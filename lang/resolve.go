@@ -81,12 +81,14 @@ func resolveRoot(m *Model, root string, src []byte, fsys FS) *Model {
 func (r *resolver) resolve() {
 	m := r.m
 	// About one name is used or declared per statement: sizing the list
-	// once spares a large file the copies of a growing one.
+	// once spares a large file the copies of a growing one. A statement
+	// that did not parse declares and uses nothing: a file of bad lines
+	// gets no room for them.
 	n, params := 0, 0
 	for _, f := range m.Files {
 		n += countStmts(f.Stmts)
 		for _, s := range f.Stmts {
-			if s.Keyword() == "param" {
+			if !s.Bad && s.Keyword() == "param" {
 				params++
 			}
 		}
@@ -103,9 +105,13 @@ func (r *resolver) resolve() {
 	m.Diags = dedupe(m.Diags)
 }
 
+// countStmts counts the statements that parsed, blocks included.
 func countStmts(ss []*Stmt) int {
-	n := len(ss)
+	n := 0
 	for _, s := range ss {
+		if !s.Bad {
+			n++
+		}
 		if s.Block != nil {
 			n += countStmts(s.Block.Stmts)
 		}
