@@ -164,4 +164,9 @@ func init() {
 	} {
 		Register(&Rule{ID: r.id, Category: CategoryLanguage, Severity: lang.Error, Summary: r.summary, Rationale: r.rationale, Example: r.example, Fix: r.fix})
 	}
+	Register(&Rule{ID: "unusual-value", Category: CategoryLanguage, Severity: lang.Warning,
+		Summary:   "a possible value that is unusual for its field",
+		Rationale: "A limit ratio below 1 makes the check weaker than the estimate it guards, which is seldom meant.",
+		Example:   "limits { chf_ratio 0.8 }",
+		Fix:       "Check the value; a ratio of 1.5 to 2 or more is common practice."})
 }

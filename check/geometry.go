@@ -153,7 +153,11 @@ func notPositive(c *Context) {
 			if f.zeroOK {
 				want = "zero or positive"
 			}
-			c.Reportf(valueLoc(f.v, compLoc(comp)), "%s of %s %s must be %s, not %s", f.name, comp.Kind, comp.Name, want, qAs(f.v.SI, f.v, f.unit))
+			got := qAs(f.v.SI, f.v, f.unit)
+			if ps := c.Model.ParamsIn(f.v.Loc()); len(ps) > 0 {
+				got += " (from param " + strings.Join(ps, ", ") + ")"
+			}
+			c.Reportf(valueLoc(f.v, compLoc(comp)), "%s of %s %s must be %s, not %s", f.name, comp.Kind, comp.Name, want, got)
 		}
 	}
 }

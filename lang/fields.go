@@ -163,11 +163,11 @@ func (r *resolver) loopField(l *Loop, s *Stmt) {
 	case "fluid":
 		r.fluidField(l, s)
 	case "charge":
-		l.Charge = r.qty(file, s, needMass)
+		l.Charge = r.inRange("charge", file, r.qty(file, s, needMass))
 	case "design_pressure":
-		l.DesignPressure = r.qty(file, s, needPressure)
+		l.DesignPressure = r.inRange("design_pressure", file, r.qty(file, s, needPressure))
 	case "saturation":
-		l.Saturation = r.qty(file, s, needTemp)
+		l.Saturation = r.inRange("saturation", file, r.qty(file, s, needTemp))
 	default:
 		r.unknownWord(file, s, append(append([]string(nil), loopKeywords...), "param"), "in a loop")
 		// It may be a misspelt component, whose absence the whole-loop
@@ -402,10 +402,7 @@ func (r *resolver) componentField(c *Component, file string, s *Stmt) {
 		// A wrong channel count would scale every flow; nothing is computed from it.
 		v.Bad = kw == "channels"
 	}
-	if need := FieldNeeds[kw]; need.Dim == units.ThermalResistance && v.Set && !(v.SI >= 0) {
-		r.errorf("bad-value", file, v.Span(), "%s must be zero or more, not %s K/W", kw, strconv.FormatFloat(v.SI, 'g', 6, 64))
-		v.Set, v.Bad = false, true
-	}
+	v = r.inRange(kw, file, v)
 	if v.Set || !dst.Set {
 		if !v.Set {
 			v.SI = dst.SI // keep the default when the value was bad
@@ -441,7 +438,7 @@ func (r *resolver) caseField(c *Case, s *Stmt) {
 	case "heat", "sink":
 		need := FieldNeeds[kw]
 		if kw == "sink" && len(s.Args) == 1 {
-			c.Sink = r.qty(file, s, need)
+			c.Sink = r.inRange(kw, file, r.qty(file, s, need))
 			return
 		}
 		if len(s.Args) != 2 || nameOf(s.Args[0].Expr) == nil || s.Args[1].Expr == nil {
@@ -463,6 +460,9 @@ func (r *resolver) caseField(c *Case, s *Stmt) {
 			return
 		}
 		v := r.expr(file, s.Args[1].Expr, need)
+		if kw == "sink" {
+			v = r.inRange(kw, file, v)
+		}
 		ld := CompValue{Comp: comp, NameSpan: id.Span(), File: file, Value: v}
 		for _, prev := range append(c.Heat, c.Sinks...) {
 			if prev.Comp == comp && ((kw == "heat") == (comp.Kind == Evaporator)) {
@@ -477,15 +477,15 @@ func (r *resolver) caseField(c *Case, s *Stmt) {
 			c.Sinks = append(c.Sinks, ld)
 		}
 	case "pitch":
-		c.Pitch = r.qty(file, s, needAngle)
+		c.Pitch = r.inRange(kw, file, r.qty(file, s, needAngle))
 	case "roll":
-		c.Roll = r.qty(file, s, needAngle)
+		c.Roll = r.inRange(kw, file, r.qty(file, s, needAngle))
 	case "yaw":
-		c.Yaw = r.qty(file, s, needAngle)
+		c.Yaw = r.inRange(kw, file, r.qty(file, s, needAngle))
 	case "accel":
 		c.Accel = r.vectorField(file, s, needAccel)
 	case "saturation":
-		c.Saturation = r.qty(file, s, needTemp)
+		c.Saturation = r.inRange(kw, file, r.qty(file, s, needTemp))
 	default:
 		r.unknownWord(file, s, CaseFields, "in a case")
 	}
@@ -578,7 +578,7 @@ func (r *resolver) limitField(file string, s *Stmt) {
 		r.unknownWord(file, s, LimitFields, "in limits")
 		return
 	}
-	v := r.qty(file, s, FieldNeeds[s.Keyword()])
+	v := r.inRange(s.Keyword(), file, r.qty(file, s, FieldNeeds[s.Keyword()]))
 	if v.Set {
 		*dst = v
 	}

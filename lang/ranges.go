@@ -1,0 +1,126 @@
+// Ranges: the physically possible values of each numeric field, checked
+// where the value is written so that a sign slip or an impossible limit is
+// reported at its text instead of turning into a meaningless estimate.
+
+package lang
+
+import (
+	"math"
+	"strings"
+
+	"circa/units"
+)
+
+// valueRange is the span of values a field can take, in SI. A value outside
+// [min, max] (or on an open end) is an error; a possible value outside
+// [usualMin, +∞) draws a warning instead.
+type valueRange struct {
+	min, max         float64
+	minOpen, maxOpen bool
+	want             string // the allowed range in words, for the message
+	unit             string // display unit of a computed value
+	usualMin         float64
+	usual            string // why a value below usualMin is suspect ("" for none)
+}
+
+const absZero = "above absolute zero (−273.15 °C)"
+
+var inf = math.Inf(1)
+
+// fieldRanges lists, per field, the values it can take. Sizes of a
+// component's tubes (length, bore, areas, volume) are checked by the
+// not-positive rule, which knows that bends and fittings may have no length;
+// rise and run carry a direction and take any sign; an evaporator's negative
+// load is reported by the estimate.
+var fieldRanges = map[string]valueRange{
+	"charge":          {min: 0, max: inf, minOpen: true, want: "more than 0 kg", unit: "kg"},
+	"design_pressure": {min: 0, max: inf, minOpen: true, want: "above 0 bar absolute (−1.01325 bar(g))", unit: "bar"},
+	"saturation":      {min: 0, max: inf, minOpen: true, want: absZero, unit: "degC"},
+	"wall_limit":      {min: 0, max: inf, minOpen: true, want: absZero, unit: "degC"},
+	"junction_limit":  {min: 0, max: inf, minOpen: true, want: absZero, unit: "degC"},
+	"sink":            {min: 0, max: inf, minOpen: true, want: absZero, unit: "degC"},
+	"outlet":          {min: 0, max: inf, minOpen: true, want: absZero, unit: "degC"},
+	"saturation_max":  {min: 0, max: inf, minOpen: true, want: absZero, unit: "degC"},
+	"loss":            {min: 0, max: inf, want: "zero or more (a loss coefficient takes pressure away)", unit: ""},
+	"heat_flux":       {min: 0, max: inf, minOpen: true, want: "more than 0 W/m² (an evaporator takes heat in)", unit: "W/cm2"},
+	"roughness_boiling": {min: 0, max: inf, minOpen: true,
+		want: "more than 0 µm (the boiling correlation takes its logarithm; leave it out for the 1 µm default)", unit: "um"},
+	"conductance":          {min: 0, max: inf, want: "zero or more", unit: "W/K"},
+	"coolant_htc":          {min: 0, max: inf, minOpen: true, want: "more than 0 W/(m² K)", unit: "W/(m2 K)"},
+	"subcool":              {min: 0, max: inf, want: "zero or more (the outlet liquid is at or below its saturation temperature)", unit: "K"},
+	"junction_to_case":     {min: 0, max: inf, want: "zero or more", unit: "K/W"},
+	"interface_resistance": {min: 0, max: inf, want: "zero or more", unit: "K/W"},
+	"spreading_resistance": {min: 0, max: inf, want: "zero or more", unit: "K/W"},
+	"pitch":                {min: -maxPitch, max: maxPitch, want: "within ±90° (a pitch past a quarter turn is the same attitude as a smaller pitch with roll and yaw turned by 180°)", unit: "deg"},
+	"roll":                 {min: -maxRoll, max: maxRoll, want: "within ±180°", unit: "deg"},
+	"yaw":                  {min: -maxRoll, max: maxRoll, want: "within ±180°", unit: "deg"},
+	"exit_quality":         {min: 0, max: 1, minOpen: true, want: "more than 0 and at most 1 (a vapour mass fraction)", unit: ""},
+	"flooding":             {min: 0, max: 1, minOpen: true, want: "more than 0 and at most 1 (a fraction of the flooding limit)", unit: ""},
+	"chf_ratio": {min: 0, max: inf, minOpen: true, want: "more than 0", unit: "",
+		usualMin: 1, usual: "a ratio below 1 accepts a heat flux above the estimated critical heat flux"},
+	"head_ratio": {min: 0, max: inf, minOpen: true, want: "more than 0", unit: "",
+		usualMin: 1, usual: "a ratio below 1 tests the loop with less friction than the estimate itself"},
+	"tilt_margin": {min: 0, max: inf, want: "zero or more", unit: "deg"},
+	"wall_margin": {min: 0, max: inf, want: "zero or more", unit: "K"},
+}
+
+// inRange reports a value of field kw that lies outside its range, at the
+// value's text. An impossible value is an error and comes back unset and
+// bad, so that nothing is estimated from it; an unusual one is a warning and
+// is kept.
+func (r *resolver) inRange(kw, file string, v Value) Value {
+	rg, ok := fieldRanges[kw]
+	if !ok || !v.Set {
+		return v
+	}
+	x := v.SI
+	low := x < rg.min || (rg.minOpen && x == rg.min)
+	high := x > rg.max || (rg.maxOpen && x == rg.max)
+	switch {
+	case low || high:
+		r.errorf("bad-value", file, v.Span(), "%s must be %s, not %s", kw, rg.want, r.valueText(file, v, rg.unit))
+		v.Set, v.Bad = false, true
+	case rg.usual != "" && x < rg.usualMin:
+		r.diag("unusual-value", Warning, file, v.Span(), "%s %s is unusual: %s", kw, r.valueText(file, v, rg.unit), rg.usual)
+	}
+	return v
+}
+
+// valueText shows a value as written; a value computed from parameters
+// also shows what it came to and which parameters it came from.
+func (r *resolver) valueText(file string, v Value, unit string) string {
+	text := src(r.m.Files[file], v.Span())
+	ps := r.m.ParamsIn(v.Loc())
+	if len(ps) == 0 {
+		return text
+	}
+	u := units.Unit{}
+	if v.Unit() != "" {
+		unit = v.Unit()
+	}
+	if unit != "" {
+		if pu, err := units.Parse(unit); err == nil {
+			u = pu
+		}
+	}
+	word := "param "
+	if len(ps) > 1 {
+		word = "params "
+	}
+	return text + " = " + units.Format(v.SI, u) + " (from " + word + strings.Join(ps, ", ") + ")"
+}
+
+// ParamsIn returns the parameters used within loc, in the order written,
+// each once.
+func (m *Model) ParamsIn(loc Location) []string {
+	var ps []string
+	for _, ref := range m.Refs {
+		if ref.Kind != RefParam || ref.IsDecl || ref.File != loc.File || ref.Span.Start < loc.Span.Start || ref.Span.End > loc.Span.End {
+			continue
+		}
+		if indexOf(ps, ref.Name) < 0 {
+			ps = append(ps, ref.Name)
+		}
+	}
+	return ps
+}
