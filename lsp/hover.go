@@ -246,7 +246,8 @@ func nodeHover(l *lang.Loop, n *lang.Node) string {
 
 func (s *Server) componentHover(c *cursor, comp *lang.Component) string {
 	var b strings.Builder
-	fmt.Fprintf(&b, "%s `%s` in loop `%s`", comp.Kind, comp.Name, comp.Loop.Name)
+	b.WriteString(headlined(fmt.Sprintf("%s `%s`", comp.Kind, comp.Name), s.componentHeadline(c, comp)))
+	fmt.Fprintf(&b, "\n\nin loop `%s`", comp.Loop.Name)
 	if comp.From != nil {
 		fmt.Fprintf(&b, ", from `%s`", comp.From.Name)
 	}
@@ -296,11 +297,11 @@ func ownValue(v lang.Value, unit string) string {
 
 func (s *Server) caseHover(c *cursor, cs *lang.Case) string {
 	var b strings.Builder
-	fmt.Fprintf(&b, "case `%s`", cs.Name)
+	what := fmt.Sprintf("case `%s`", cs.Name)
 	if c.m.Nominal == cs {
-		b.WriteString(" (nominal)")
+		what += " (nominal)"
 	}
-	b.WriteString("\n\n")
+	b.WriteString(headlined(what, s.caseHeadline(c, cs)) + "\n\n")
 	for _, h := range cs.Heat {
 		if h.Comp != nil {
 			fmt.Fprintf(&b, "- heat on `%s`: %s%s\n", h.Comp.Name, asWritten(h.Value, "W"), ownValue(h.Comp.Heat, "W"))

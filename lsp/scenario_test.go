@@ -38,6 +38,7 @@ import (
 //	format FILE | symbols FILE | tokens FILE | folds FILE | hints FILE | actions FILE POS-POS
 //	call METHOD JSON              any request ($FILE names are replaced by URIs)
 //	~ "TEXT"... / !~ "TEXT"       the last reply's strings hold (or lack) each TEXT
+//	first "TEXT"...               the last hover's first paragraph holds each TEXT
 //	has "LABEL"... / lacks "LABEL"... the completion list has (or lacks) each label
 //	tok FILE POS TYPE             after tokens: a semantic token of TYPE starts at POS
 //	null | count N | error CODE | want JSON
@@ -322,6 +323,26 @@ func (sc *scenario) run(n int, line string) {
 			}
 			if strings.Contains(text, want) != (cmd == "~") {
 				t.Errorf("line %d: reply %s %q:\n%s", n, map[bool]string{true: "lacks", false: "holds"}[cmd == "~"], want, text)
+			}
+		}
+	case "first":
+		// first "TEXT"...: the hover's first paragraph holds each TEXT.
+		var h struct {
+			Contents struct{ Value string } `json:"contents"`
+		}
+		if sc.lastErr != nil || json.Unmarshal(sc.last, &h) != nil {
+			t.Fatalf("line %d: not a hover: %s %v", n, sc.last, sc.lastErr)
+		}
+		// A long first line is wrapped; it is still one paragraph.
+		para, _, _ := strings.Cut(h.Contents.Value, "\n\n")
+		first := strings.ReplaceAll(para, "\n", " ")
+		for _, a := range args {
+			want, err := strconv.Unquote(a)
+			if err != nil {
+				t.Fatalf("line %d: %v", n, err)
+			}
+			if !strings.Contains(first, want) {
+				t.Errorf("line %d: first paragraph lacks %q:\n%s", n, want, h.Contents.Value)
 			}
 		}
 	case "has", "lacks":
