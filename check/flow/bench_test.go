@@ -59,6 +59,22 @@ func BenchmarkSingleCase(b *testing.B) {
 	cpuPerOp(b, u0)
 }
 
+// BenchmarkSingleCaseLocal is BenchmarkSingleCase with the saturation
+// state taken at the local pressure along the loop (target < 1 ms).
+func BenchmarkSingleCaseLocal(b *testing.B) {
+	m := benchModel(b, 20, 1)
+	opts := Options{Case: m.Cases[0].Name, NoTilt: true, Workers: 1, Saturation: "local"}
+	if r := benchOnce(b, m, opts); !r.Loops[0].Cases[0].Circulates {
+		b.Fatal("benchmark loop does not circulate")
+	}
+	b.ResetTimer()
+	u0 := cpuTime()
+	for i := 0; i < b.N; i++ {
+		benchOnce(b, m, opts)
+	}
+	cpuPerOp(b, u0)
+}
+
 // BenchmarkEnvelope is a 1,000-point envelope of the same loop: both of its
 // cases over 10 pitches × 10 rolls × 5 accelerations, on every core
 // (target < 0.5 s).

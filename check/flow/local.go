@@ -149,6 +149,11 @@ func (s *state) marchLocal(ci int, dir float64, m, xin float64, rec func(cellRec
 	dg := bd / float64(n)
 	var q parts
 	p := s.pIn[ci]
+	if rec == nil && xout == xin && xin <= 0 && !localCellByCell {
+		if q, ok := s.liquidTubeLocal(cp, G, xin, bd, p); ok {
+			return xout, q
+		}
+	}
 	satI, plI := s.satAt(p)
 	q.mIn, _ = s.momLocal(G, xin, cosInc, satI, plI)
 	dpPrev := 0.0
@@ -177,6 +182,35 @@ func (s *state) marchLocal(ci int, dir float64, m, xin float64, rec func(cellRec
 	q.acc = q.mOut - q.mIn
 	q.local = cp.K * G * G / (2 * rhoHOut)
 	return xout, s.scaled(q)
+}
+
+// localCellByCell, set by tests only, marches every tube cell by cell.
+var localCellByCell bool
+
+// liquidTubeLocal is marchLocal for a tube of liquid at reference enthalpy
+// x ≤ 0 that neither heats nor cools it: density, viscosity and so the
+// pressure gradient are the same in every cell, and the pressure is linear
+// along the tube. Since the saturated liquid's enthalpy rises with the
+// pressure, the liquid stays below its local saturation everywhere when it
+// does at the lower of the tube's end pressures: then one saturation lookup
+// replaces one per cell, and the parts are those the cells sum to. ok is
+// false where the liquid may flash inside the tube.
+func (s *state) liquidTubeLocal(cp *comp, G, x, bd, pIn float64) (parts, bool) {
+	rho, mu := s.liquid(x)
+	dpdz := s.liquidGradient(G, cp.D, cp.rr, rho, mu)
+	q := parts{fric: dpdz * cp.L, grav: rho * bd}
+	d := q.fric - q.grav
+	if s.lossScale > 0 && s.lossScale != 1 {
+		d = s.lossScale*q.fric - q.grav
+	}
+	sat, _ := s.satAt(math.Min(pIn, pIn-d))
+	if !(s.localX(x, sat) <= 0) {
+		return parts{}, false
+	}
+	q.mIn = G * G / rho
+	q.mOut = q.mIn
+	q.local = cp.K * G * G / (2 * rho)
+	return s.scaled(q), true
 }
 
 // faceX is the reference enthalpy at cell face k of n: linear in the heated
