@@ -140,13 +140,14 @@ func (r *resolver) declareParam(file string, st *Stmt) {
 		r.duplicate(file, name, "parameter", prev.p.Decl)
 		return
 	}
-	// A parameter and its evaluation state come from one chunk: a file of
-	// many parameters costs a few hundred allocations, not two per line.
-	e := r.paramSlab.alloc()
-	e.param = Param{Decl: r.decl(file, st, name), Expr: st.Args[2].Expr}
-	p := &e.param
-	e.state.p = p
-	r.params[name.Name] = &e.state
+	// Parameters and their evaluation states come from chunks of their
+	// own: a file of many parameters costs a few hundred allocations, not
+	// two per line, and the model does not keep the states alive.
+	p := r.paramSlab.alloc()
+	*p = Param{Decl: r.decl(file, st, name), Expr: st.Args[2].Expr}
+	ps := r.stateSlab.alloc()
+	ps.p = p
+	r.params[name.Name] = ps
 	r.m.Params = append(r.m.Params, p)
 	r.ref(RefParam, name.Name, nil, file, name.Span(), true)
 }

@@ -97,7 +97,8 @@ func (r *resolver) resolve() {
 	if params > 0 {
 		r.params = make(map[string]*paramState, params)
 		m.Params = make([]*Param, 0, params)
-		r.paramSlab.buf = make([]paramEntry, 0, params)
+		r.paramSlab.buf = make([]Param, 0, params)
+		r.stateSlab.buf = make([]paramState, 0, params)
 	}
 	r.declare()
 	r.fill()
@@ -139,11 +140,6 @@ func dedupe(ds []Diagnostic) []Diagnostic {
 	return out
 }
 
-type paramEntry struct {
-	param Param
-	state paramState
-}
-
 type paramState struct {
 	p     *Param
 	state int // 0 unevaluated, 1 evaluating, 2 done
@@ -170,8 +166,10 @@ type resolver struct {
 	// when it is a lone quantity (hinted).
 	unitHint units.Need
 	hinted   bool
-	// paramSlab holds the declared parameters with their state.
-	paramSlab slab[paramEntry]
+	// paramSlab holds the declared parameters, stateSlab their evaluation
+	// state.
+	paramSlab slab[Param]
+	stateSlab slab[paramState]
 	// compBuf holds the components of the loop being declared.
 	compBuf []Component
 	// overrides replace parameters' values (With); overrideErr is the
