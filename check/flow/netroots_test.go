@@ -91,3 +91,43 @@ func ledineggSource(t *testing.T) string {
 	}
 	return string(b)
 }
+
+// TestTwinReturnsStable: the Ledinegg criterion flags a branch as statically
+// unstable where d(Δp_branch)/dṁ falls below the slope of the head the rest
+// of the network offers at its junctions, so that a small surplus of flow
+// grows. At the reported (stable) balance of twinLedinegg the two identical
+// returns, each a condenser delivering 50 K subcooled liquid into an
+// unheated downcomer, carry the same flow; between their junctions each
+// pays friction rising with flow and gives out liquid whose momentum flux
+// G²/ρ_l rises with it too, so each return's curve rises and a shift of flow
+// from one to the other is pushed back (Ledinegg 1938's criterion as
+// textbooks state it, e.g. Todreas and Kazimi, Nuclear Systems I, from
+// memory). The two returns' slopes are alike and positive, and no branch is
+// flagged.
+func TestTwinReturnsStable(t *testing.T) {
+	c := only(t, estimate(t, load(t, twinLedinegg), Options{NoTilt: true}))
+	if c.Stability == nil || len(c.Stability.Branches) != 4 {
+		t.Fatalf("stability %+v", c.Stability)
+	}
+	var returns []BranchStability
+	for _, b := range c.Stability.Branches {
+		if strings.HasPrefix(b.Components[0], "cooler") {
+			returns = append(returns, b)
+		}
+		if !b.Stable {
+			t.Errorf("branch %v flagged: slope %g, external %g Pa/(kg/s)", b.Components, b.Slope, b.External)
+		}
+	}
+	if len(returns) != 2 {
+		t.Fatalf("returns %+v", returns)
+	}
+	a, b := returns[0], returns[1]
+	if !(a.Slope > 0) || math.Abs(a.Slope-b.Slope) > 1e-6*math.Abs(a.Slope) {
+		t.Errorf("return slopes %g and %g Pa/(kg/s), want alike and positive", a.Slope, b.Slope)
+	}
+	for _, f := range c.Findings {
+		if f.Rule == RuleUnstable && strings.HasPrefix(f.Message, "branch ") {
+			t.Errorf("finding %s", f.Message)
+		}
+	}
+}

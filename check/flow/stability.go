@@ -14,8 +14,9 @@ import (
 // design, not a dynamic analysis.
 //
 // Static (Ledinegg) stability of a network branch: the branch's own
-// pressure-drop curve, slope S = d(p_from − p_to)/dṁ at its inlet state, is
-// set against the external curve of the rest of the network seen from the
+// pressure-drop curve between its junctions, slope S = d(p_from − p_to)/dṁ
+// at its inlet state with the momentum flux it carries in drawn from its
+// upstream junction (see branchSlope), is set against the external curve of the rest of the network seen from the
 // branch's two junctions, slope −R_ext, where R_ext is the effective slope
 // of all the other branches (combined as a linear network of slopes). The
 // branch is statically stable when S + R_ext > 0; for two parallel channels
@@ -84,7 +85,15 @@ func (p *prepared) stability(s *state, ev *eval, cr *CaseResult) {
 	}
 }
 
-// branchSlope is d(p_from − p_to)/dṁ of branch bi at its inlet state.
+// branchSlope is d(p_from − p_to)/dṁ of branch bi at its inlet state, the
+// branch taken between its two junctions as between plenums: the momentum
+// flux it carries in is drawn from the pressure of its upstream junction.
+// branchDP counts acceleration from the branch's own inlet momentum flux,
+// which telescopes to the right balance around any cycle but, differentiated
+// branch by branch, credits a condensing branch with a deceleration recovery
+// G²x(1/ρ_g − 1/ρ_l) that grows as ṁ² while the junction pays nothing for
+// the faster inflow: two identical condensing returns in parallel would each
+// show a falling curve.
 func (s *state) branchSlope(bi int, ev *eval) float64 {
 	b := &s.net.branches[bi]
 	m := ev.mb[bi]
@@ -92,8 +101,25 @@ func (s *state) branchSlope(bi int, ev *eval) float64 {
 	if m < 0 {
 		up = b.to
 	}
+	dp := func(m float64) float64 {
+		return s.branchDP(bi, m, ev.xj[up], nil) + math.Copysign(s.inletMomentum(bi, m, ev.xj[up]), m)
+	}
 	h := math.Max(1e-4*math.Abs(m), 1e-9)
-	return (s.branchDP(bi, m+h, ev.xj[up], nil) - s.branchDP(bi, m-h, ev.xj[up], nil)) / (2 * h)
+	return (dp(m+h) - dp(m-h)) / (2 * h)
+}
+
+// inletMomentum is the momentum flux G²/ρ (two-phase: its separated-flow
+// form) with which flow m enters branch bi at quality xin.
+func (s *state) inletMomentum(bi int, m, xin float64) float64 {
+	b := &s.net.branches[bi]
+	if len(b.legs) == 0 {
+		return 0
+	}
+	first := b.legs[0].ci
+	if m < 0 {
+		first = b.legs[len(b.legs)-1].ci
+	}
+	return s.momentum(first, m, xin)
 }
 
 // externalSlope is the effective slope of every branch but skip between
