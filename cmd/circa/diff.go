@@ -49,7 +49,9 @@ func viewString(b []byte) string { return unsafe.String(unsafe.SliceData(b), len
 
 // editScript returns the line edits that turn a into b.
 func editScript(a, b []string) []diffOp {
-	ops := make([]diffOp, 0, max(len(a), len(b))+16)
+	// A script has at most one op per line of either text: reserved at
+	// once, a long script is never copied into a doubled array.
+	ops := make([]diffOp, 0, len(a)+len(b))
 	return diffLines(ops, a, b)
 }
 
