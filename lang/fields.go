@@ -459,10 +459,7 @@ func (r *resolver) caseField(c *Case, s *Stmt) {
 		if comp == nil {
 			return
 		}
-		v := r.expr(file, s.Args[1].Expr, need)
-		if kw == "sink" {
-			v = r.inRange(kw, file, v)
-		}
+		v := r.inRange(kw, file, r.expr(file, s.Args[1].Expr, need))
 		ld := CompValue{Comp: comp, NameSpan: id.Span(), File: file, Value: v}
 		for _, prev := range append(c.Heat, c.Sinks...) {
 			if prev.Comp == comp && ((kw == "heat") == (comp.Kind == Evaporator)) {

@@ -68,7 +68,7 @@ func TestFieldRange(t *testing.T) {
 			"loop l {\n  fluid water\n  " + pick(inLoop, "charge 0.5 kg") + "\n  node a\n  node b\n" +
 			"  evaporator e from a to b {\n    length 1 m\n    rise 0.5 m\n    bore 10 mm\n    heat 1 kW\n    " + pick(inEvap, "wall_limit 90 degC") + "\n  }\n" +
 			"  condenser k from b to a {\n    length 1 m\n    rise -0.5 m\n    bore 10 mm\n    " + pick(inCond, "sink 20 degC") + "\n  }\n}\n" +
-			"case c {\n  " + pick(inCase, "heat e 1 kW") + "\n}\n" +
+			"case c {\n  " + pick(inCase, "yaw 0 deg") + "\n}\n" +
 			"limits {\n  " + pick(inLimits, "exit_quality 0.5") + "\n}\n"
 	}
 	for _, c := range []struct {
@@ -80,6 +80,9 @@ func TestFieldRange(t *testing.T) {
 	}{
 		{inLoop, "design_pressure -2 bar(g)", "bad-value", "-2 bar(g)", "design_pressure must be above 0 bar absolute"},
 		{inLoop, "saturation -300 degC", "bad-value", "-300 degC", "saturation must be above absolute zero"},
+		{inEvap, "heat -2 kW", "bad-value", "-2 kW", "heat must be zero or more"},
+		{inCase, "heat e -0.5 kW", "bad-value", "-0.5 kW", "heat must be zero or more"},
+		{inCase, "heat e (1 kW - two * 1 kW)", "bad-value", "(1 kW - two * 1 kW)", "heat must be zero or more (an evaporator takes heat in), not (1 kW - two * 1 kW) = -1000 W (from param two)"},
 		{inEvap, "loss -0.5", "bad-value", "-0.5", "loss must be zero or more"},
 		{inEvap, "heat_flux -3 W/cm2", "bad-value", "-3 W/cm2", "heat_flux must be more than 0 W/m²"},
 		{inEvap, "roughness_boiling 0 um", "bad-value", "0 um", "roughness_boiling must be more than 0 µm"},

@@ -30,8 +30,7 @@ var inf = math.Inf(1)
 // fieldRanges lists, per field, the values it can take. Sizes of a
 // component's tubes (length, bore, areas, volume) are checked by the
 // not-positive rule, which knows that bends and fittings may have no length;
-// rise and run carry a direction and take any sign; an evaporator's negative
-// load is reported by the estimate.
+// rise and run carry a direction and take any sign.
 var fieldRanges = map[string]valueRange{
 	"charge":          {min: 0, max: inf, minOpen: true, want: "more than 0 kg", unit: "kg"},
 	"design_pressure": {min: 0, max: inf, minOpen: true, want: "above 0 bar absolute (−1.01325 bar(g))", unit: "bar"},
@@ -41,6 +40,7 @@ var fieldRanges = map[string]valueRange{
 	"sink":            {min: 0, max: inf, minOpen: true, want: absZero, unit: "degC"},
 	"outlet":          {min: 0, max: inf, minOpen: true, want: absZero, unit: "degC"},
 	"saturation_max":  {min: 0, max: inf, minOpen: true, want: absZero, unit: "degC"},
+	"heat":            {min: 0, max: inf, want: "zero or more (an evaporator takes heat in)", unit: "W"},
 	"loss":            {min: 0, max: inf, want: "zero or more (a loss coefficient takes pressure away)", unit: ""},
 	"heat_flux":       {min: 0, max: inf, minOpen: true, want: "more than 0 W/m² (an evaporator takes heat in)", unit: "W/cm2"},
 	"roughness_boiling": {min: 0, max: inf, minOpen: true,
