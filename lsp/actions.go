@@ -6,6 +6,7 @@ import (
 	"go.lsp.dev/protocol"
 	"go.lsp.dev/uri"
 
+	"circa/check/suggest"
 	"circa/lang"
 )
 
@@ -40,16 +41,26 @@ func codeActionRequest(ctx context.Context, s *Server, sn *snapshot, params []by
 			out = append(out, ca)
 		}
 	}
-	out = append(out, s.guidedActions(sn, path, want, diags)...)
+	out = append(out, s.guidedActions(ctx, sn, path, want, diags)...)
 	return out, nil
 }
 
 // guidedActions offers the design guidance's fixes of the margin findings
-// in the range, once the guidance is computed.
-func (s *Server) guidedActions(sn *snapshot, path string, want lang.Span, diags []lang.Diagnostic) []protocol.CommandOrCodeAction {
-	g := s.guides.get(sn.analysisFor(path))
+// in the range, once the guidance is computed; a file whose guidance is
+// left for on demand computes it when a margin finding is in the range.
+func (s *Server) guidedActions(ctx context.Context, sn *snapshot, path string, want lang.Span, diags []lang.Diagnostic) []protocol.CommandOrCodeAction {
+	a := sn.analysisFor(path)
+	g := s.guides.get(a)
 	if g == nil {
 		return nil
+	}
+	if g.onDemand {
+		for _, d := range diags {
+			if suggest.IsMargin(d) && d.Loc.Span.End >= want.Start && d.Loc.Span.Start <= want.End {
+				g = s.guidanceOnDemand(ctx, sn, a, nil)
+				break
+			}
+		}
 	}
 	var out []protocol.CommandOrCodeAction
 	kind := protocol.CodeActionKindQuickFix

@@ -73,7 +73,6 @@ func (s *Server) analyse(snap *snapshot) {
 	if s.opts.LogTiming && snap.ctx.Err() == nil {
 		s.logTiming(snap, roots, first, wait)
 	}
-	s.queueGuidance(snap)
 	complete := true
 	for _, a := range roots {
 		if _, est, ok := a.checks(); ok {
@@ -89,6 +88,9 @@ func (s *Server) analyse(snap *snapshot) {
 		s.onAnalysed(snap.id)
 	}
 	if complete {
+		// The guidance follows the complete diagnostics, never runs
+		// beside them.
+		s.queueGuidance(snap)
 		if s.onComplete != nil {
 			s.onComplete(snap.id)
 		}
@@ -146,6 +148,7 @@ func (s *Server) slowWorker(ctx context.Context) {
 				}
 			}
 		}
+		s.queueGuidance(snap)
 		if s.onComplete != nil {
 			s.onComplete(snap.id)
 		}

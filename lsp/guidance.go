@@ -28,6 +28,10 @@ type guidance struct {
 	g     *guide.Guidance // nil for a model with errors
 	fixes map[fixKey][]lang.Fix
 	note  string // why there is none
+	// onDemand says the guidance was too costly to compute in the
+	// background: a hover on a parameter or a code action on a margin
+	// finding computes what it needs.
+	onDemand bool
 }
 
 // fixKey names a finding: its rule and where it is.
@@ -122,7 +126,15 @@ func (s *Server) guideWorker(ctx context.Context) {
 			if s.guides.get(a) != nil {
 				continue
 			}
-			g := s.computeGuidance(sn.ctx, a)
+			var g *guidance
+			switch why := s.backgroundGuidance(a); why {
+			case "":
+				g = s.computeGuidance(sn.ctx, a, nil)
+			case noGuidance:
+				continue
+			default:
+				g = &guidance{onDemand: true, note: why}
+			}
 			if g == nil || sn.ctx.Err() != nil {
 				break
 			}
@@ -155,9 +167,69 @@ func (s *Server) refreshRangeHints(ctx context.Context, sn *snapshot) {
 	}()
 }
 
+// noGuidance says a root has nothing to guide: no parameter and no loop.
+const noGuidance = "nothing to guide"
+
+// backgroundGuidance says why the guidance of an analysis whose checks are
+// done is not computed in the background ("" when it is): a root with no
+// parameter and no charge has none, and one whose guidance would cost more
+// than guideBudget of estimates gets it on demand, so that it never
+// competes with the next edit's diagnostics for long.
+func (s *Server) backgroundGuidance(a *analysis) string {
+	_, est, ok := a.checks()
+	if !ok {
+		return noGuidance
+	}
+	m := a.Model()
+	for _, d := range m.Diags {
+		if d.Severity == lang.Error {
+			return ""
+		}
+	}
+	if len(m.Params)+len(m.Loops) == 0 {
+		return noGuidance
+	}
+	if a.settings.MarginChecks == "always" {
+		return ""
+	}
+	budget := guideBudget
+	if s.opts.guideBudget > 0 {
+		budget = s.opts.guideBudget
+	}
+	if cost := guidanceCost(m, est.tookOrZero()); cost > budget {
+		return fmt.Sprintf("computed on demand in this file: all of it would take about %s of estimates", cost.Round(100*time.Millisecond))
+	}
+	return ""
+}
+
+// guidanceOnDemand computes the guidance a request asks for (the named
+// parameters, or all of it for nil) when the background left it out; a
+// newer edit or the request's cancellation stops it. Guidance of the whole
+// file is kept for the next request.
+func (s *Server) guidanceOnDemand(ctx context.Context, sn *snapshot, a *analysis, params []string) *guidance {
+	g := s.guides.get(a)
+	if g == nil || !g.onDemand {
+		return g
+	}
+	ctx, cancel := context.WithCancel(ctx)
+	defer cancel()
+	stop := context.AfterFunc(sn.ctx, cancel)
+	defer stop()
+	out := s.computeGuidance(ctx, a, params)
+	if out == nil {
+		return g
+	}
+	if params == nil && sn.ctx.Err() == nil {
+		s.guides.put(sn, a, out)
+	}
+	return out
+}
+
 // computeGuidance works out the guidance of an analysis whose checks are
-// done: nil when cancelled or when the checks are not there.
-func (s *Server) computeGuidance(ctx context.Context, a *analysis) (out *guidance) {
+// done, for the named parameters (nil: all of them, with the quick fixes
+// of the margin findings): nil when cancelled or when the checks are not
+// there.
+func (s *Server) computeGuidance(ctx context.Context, a *analysis, params []string) (out *guidance) {
 	diags, est, ok := a.checks()
 	if !ok {
 		return nil
@@ -175,21 +247,16 @@ func (s *Server) computeGuidance(ctx context.Context, a *analysis) (out *guidanc
 		}
 	}
 	fo := flow.Options{NoTilt: true}
-	opts := guide.Options{Flow: fo, Workers: max(1, runtime.GOMAXPROCS(0)-1)}
+	opts := guide.Options{Flow: fo, Workers: max(1, runtime.GOMAXPROCS(0)-1), Params: params}
 	if est != nil && !est.tilt && est.flowErr == nil {
 		opts.Base = est.flow
 	} else {
-		t0 := time.Now()
 		base, err := flow.Estimate(m, flow.Options{NoTilt: true, Cancel: ctx.Done()})
 		if ctx.Err() != nil {
 			return nil
 		}
 		if err == nil {
 			opts.Base = base
-		}
-		if cost := guidanceCost(m, time.Since(t0)); cost > guideBudget && a.settings.MarginChecks != "always" {
-			return &guidance{note: fmt.Sprintf("not computed while editing: it would take about %s (one estimate takes %s); circa estimate prints it, and marginChecks \"always\" computes it here",
-				cost.Round(time.Second), time.Since(t0).Round(time.Millisecond))}
 		}
 	}
 	g, err := guide.Compute(ctx, m, opts)
@@ -200,6 +267,9 @@ func (s *Server) computeGuidance(ctx context.Context, a *analysis) (out *guidanc
 		return &guidance{}
 	}
 	out = &guidance{g: g, fixes: map[fixKey][]lang.Fix{}}
+	if params != nil {
+		return out
+	}
 	for _, d := range diags {
 		if !suggest.IsMargin(d) {
 			continue
@@ -215,16 +285,30 @@ func (s *Server) computeGuidance(ctx context.Context, a *analysis) (out *guidanc
 	return out
 }
 
-// guideBudget bounds the background work the guidance may take; a
-// costlier file (a large network with many parameters) gets none unless
-// marginChecks is "always".
-const guideBudget = 20 * time.Second
+// guideBudget bounds the background work the guidance may take, about a
+// second or two of estimates; a costlier file (a large network, a file of
+// many parameters) gets it on demand unless marginChecks is "always".
+const guideBudget = 2 * time.Second
 
 // guidanceCost guesses what the guidance of m costs from one estimate's
 // time: a few dozen estimates per parameter and per loop's charge, on one
-// worker.
+// worker. An estimate is taken to cost at least a few tens of
+// microseconds, so that a file of thousands of parameters whose estimate
+// stops early is not guided in the background.
 func guidanceCost(m *lang.Model, one time.Duration) time.Duration {
-	return one * time.Duration(40*(len(m.Params)+len(m.Loops)))
+	return max(one, minEstimate) * time.Duration(40*(len(m.Params)+len(m.Loops)))
+}
+
+// minEstimate is the least an estimate is taken to cost.
+const minEstimate = 50 * time.Microsecond
+
+// paramGuidance is the guidance a hover on the named parameter shows,
+// computed for it alone when the file's is left for on demand.
+func (s *Server) paramGuidance(c *cursor, name string) *guidance {
+	if c.ctx == nil {
+		return s.guides.get(c.a)
+	}
+	return s.guidanceOnDemand(c.ctx, c.snap, c.a, []string{name})
 }
 
 // paramGuidance returns the guidance of the parameter, when computed.

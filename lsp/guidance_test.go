@@ -25,6 +25,11 @@ type guidedClient struct {
 }
 
 func newGuidedClient(t *testing.T, opts Options) *guidedClient {
+	if opts.guideBudget == 0 {
+		// The guidance's content is under test, not its budget, which
+		// a race build's slow estimates would exceed.
+		opts.guideBudget = time.Hour
+	}
 	g := &guidedClient{testClient: newTestClient(t, opts), guided: map[uint64]bool{}}
 	g.srv.guides.mu.Lock()
 	g.srv.guides.onGuided = func(id uint64) {
@@ -370,5 +375,62 @@ func TestGuidanceCost(t *testing.T) {
 	}
 	if guidanceCost(m, time.Second) <= guideBudget {
 		t.Error("a file whose estimate takes a second is guided in the background")
+	}
+}
+
+// A file of many parameters (a large generated one) starts no background
+// guidance, whose few dozen estimates per parameter would hold the
+// processor for minutes; a hover on a parameter computes its range alone,
+// the one circa estimate gives it.
+func TestGuidanceOnDemandInLargeFile(t *testing.T) {
+	c := newGuidedClient(t, Options{Debounce: -1, guideBudget: guideBudget})
+	c.initialize(nil)
+	path, err := filepath.Abs("../testdata/examples/rack-door.loop")
+	if err != nil {
+		t.Fatal(err)
+	}
+	src, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var b strings.Builder
+	b.Write(src)
+	for i := 0; i < 20000; i++ {
+		fmt.Fprintf(&b, "param spare%d = %d mm\n", i, i+1)
+	}
+	text := b.String()
+	// Beside the example, whose include it reads.
+	large := filepath.Join(filepath.Dir(path), "large.loop")
+	uri := "file://" + large
+	c.notify("textDocument/didOpen", map[string]any{"textDocument": map[string]any{"uri": uri, "languageId": "loop", "version": 1, "text": text}})
+	c.waitGuided()
+	c.srv.mu.Lock()
+	sn := c.srv.snap
+	c.srv.mu.Unlock()
+	g := c.srv.guides.get(sn.analysisFor(large))
+	if g == nil || !g.onDemand || g.g != nil {
+		t.Fatalf("guidance of a file of 20,000 parameters: %+v, want none in the background", g)
+	}
+	m := lang.LoadSource(large, []byte(text), nil)
+	want, err := guide.Compute(context.Background(), m, guide.Options{Flow: flow.Options{NoTilt: true}, Params: []string{"lift"}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(want.Params) != 1 || want.Params[0].Range == nil {
+		t.Fatalf("guidance of lift: %+v", want.Params)
+	}
+	line := strings.Count(text[:strings.Index(text, "param lift")], "\n")
+	var hover struct {
+		Contents struct {
+			Value string `json:"value"`
+		} `json:"contents"`
+	}
+	if err := json.Unmarshal(c.mustCall("textDocument/hover", map[string]any{"textDocument": map[string]any{"uri": uri},
+		"position": map[string]int{"line": line, "character": 7}}), &hover); err != nil {
+		t.Fatal(err)
+	}
+	h := strings.Join(strings.Fields(hover.Contents.Value), " ")
+	if !strings.Contains(h, "feasible range: "+output.RangeText(want.Params[0].Range, want.Params[0].Unit)) {
+		t.Errorf("hover on lift:\n%s\nwant the range %q", h, output.RangeText(want.Params[0].Range, want.Params[0].Unit))
 	}
 }

@@ -23,6 +23,9 @@ type cursor struct {
 	a    *analysis
 	m    *lang.Model
 	f    *lang.File
+	// ctx is the request's, for what a hover computes on demand (nil:
+	// nothing is).
+	ctx context.Context
 }
 
 func (c *cursor) snapServer() *Server { return c.snap.srv }
@@ -64,6 +67,7 @@ func hoverRequest(ctx context.Context, s *Server, sn *snapshot, params []byte) (
 	if !ok {
 		return nil, nil
 	}
+	c.ctx = ctx
 	text, sp, ok := s.hoverText(c)
 	if !ok {
 		return nil, nil
@@ -189,7 +193,7 @@ func (s *Server) refHover(c *cursor, r lang.Ref) string {
 					u = units.Unit{}
 				}
 				return fmt.Sprintf("param `%s`\n\n", p.Name) + quantityTable(p.Value.SI, siUnit(u), isDifferenceText(p.Value.Unit())) +
-					paramGuidanceHover(s.guides.get(c.a), p.Name)
+					paramGuidanceHover(s.paramGuidance(c, p.Name), p.Name)
 			}
 		}
 	case lang.RefComponent:

@@ -34,6 +34,9 @@ type Options struct {
 	// keeps the process under (runtime/debug.SetMemoryLimit), raised with
 	// the size of the open documents (see memoryLimitFor).
 	MemoryLimit int64
+	// guideBudget replaces the background guidance's budget (0: the
+	// default), for tests of the guidance itself on a slow race build.
+	guideBudget time.Duration
 }
 
 // MemoryLimit is the soft heap limit `circa serve` runs under unless the
