@@ -6,6 +6,7 @@ package lang
 
 import (
 	"math"
+	"sort"
 	"strings"
 
 	"circa/units"
@@ -123,4 +124,64 @@ func (m *Model) ParamsIn(loc Location) []string {
 		}
 	}
 	return ps
+}
+
+// ParamsReaching returns the top-level parameters whose values reach a
+// field of a loop, component, case, limit or method: named there, or named
+// by another parameter that does, at any depth. A parameter outside the set
+// changes no estimate whatever its value. The set is found from the
+// references alone, in time proportional to their number.
+func (m *Model) ParamsReaching() map[string]bool {
+	// The span of each parameter's expression, by file, in file order.
+	type span struct {
+		start, end int
+		name       string
+	}
+	exprs := map[string][]span{}
+	for _, p := range m.Params {
+		if p.Expr == nil {
+			continue
+		}
+		s := p.Expr.Span()
+		exprs[p.File] = append(exprs[p.File], span{s.Start, s.End, p.Name})
+	}
+	for _, ss := range exprs {
+		sort.Slice(ss, func(i, j int) bool { return ss[i].start < ss[j].start })
+	}
+	// within returns the parameter whose expression holds the reference.
+	within := func(ref Ref) (string, bool) {
+		ss := exprs[ref.File]
+		i := sort.Search(len(ss), func(i int) bool { return ss[i].start > ref.Span.Start }) - 1
+		if i >= 0 && ref.Span.End <= ss[i].end {
+			return ss[i].name, true
+		}
+		return "", false
+	}
+	uses := map[string][]string{}
+	reach := map[string]bool{}
+	var todo []string
+	for _, ref := range m.Refs {
+		if ref.Kind != RefParam || ref.IsDecl {
+			continue
+		}
+		if by, ok := within(ref); ok {
+			uses[by] = append(uses[by], ref.Name)
+			continue
+		}
+		if !reach[ref.Name] {
+			reach[ref.Name] = true
+			todo = append(todo, ref.Name)
+		}
+	}
+	for len(todo) > 0 {
+		n := todo[len(todo)-1]
+		todo = todo[:len(todo)-1]
+		for _, u := range uses[n] {
+			if !reach[u] {
+				reach[u] = true
+				todo = append(todo, u)
+			}
+		}
+	}
+	return reach
 }

@@ -53,3 +53,16 @@ func cpuTime() int64 {
 	}
 	return ru.Utime.Nano() + ru.Stime.Nano()
 }
+
+// BenchmarkGuidanceManyParams computes the guidance of a file of 20,000
+// parameters, three of which reach the estimate: the others are found
+// inert from the references, in time proportional to the file.
+func BenchmarkGuidanceManyParams(b *testing.B) {
+	m := manyParams(b, 20000)
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		if _, err := Compute(context.Background(), m, Options{}); err != nil {
+			b.Fatal(err)
+		}
+	}
+}

@@ -3,9 +3,11 @@ package guide
 import (
 	"context"
 	"errors"
+	"fmt"
 	"math"
 	"runtime"
 	"slices"
+	"strconv"
 	"sync"
 	"sync/atomic"
 
@@ -43,6 +45,9 @@ type Options struct {
 type Guidance struct {
 	// Message says why there is no guidance (a file with errors).
 	Message string `json:"message,omitempty"`
+	// Skipped says why no parameter was searched: more of them reach the
+	// estimate than the guidance searches (MaxSearched).
+	Skipped string `json:"skipped,omitempty"`
 	// Use and Limit are the largest margin use of the design as written and
 	// where it is; Stop says why the design has no usable estimate.
 	Use   float64 `json:"use"`
@@ -74,6 +79,9 @@ type Param struct {
 	// Influences is false for a parameter no estimate depends on (a label,
 	// a coordinate used only by geometry checks): it has no range.
 	Influences bool `json:"influences"`
+	// Skipped marks a parameter that reaches the estimate but was not
+	// searched (Guidance.Skipped says why): it has no range.
+	Skipped bool `json:"skipped,omitempty"`
 	// Range is the feasible range, other parameters as written.
 	Range *Range `json:"range,omitempty"`
 	// Recharged is, where the charge margin ends or blocks Range, the range
@@ -187,10 +195,24 @@ func Compute(ctx context.Context, m *lang.Model, opts Options) (*Guidance, error
 	if s0.Stop != nil {
 		g.Stop = s0.Stop.Kind
 	}
+	// A parameter that reaches no field of the estimate is inert whatever
+	// its value: only the others are searched.
+	reach := m.ParamsReaching()
+	var search []int
 	for i, p := range todo {
-		if !used(m, p.Name) || !p.Value.Set {
-			continue
+		if reach[p.Name] && p.Value.Set {
+			search = append(search, i)
 		}
+	}
+	if limit := searchLimit(m); len(search) > limit {
+		g.Skipped = skipped(len(search), limit)
+		for _, i := range search {
+			g.Params[i].Influences, g.Params[i].Skipped = true, true
+		}
+		search = nil
+	}
+	for _, i := range search {
+		p := todo[i]
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
@@ -216,14 +238,35 @@ func Compute(ctx context.Context, m *lang.Model, opts Options) (*Guidance, error
 	return g, nil
 }
 
-// used reports whether any expression names the parameter.
-func used(m *lang.Model, name string) bool {
-	for _, r := range m.Refs {
-		if r.Kind == lang.RefParam && !r.IsDecl && r.Name == name {
-			return true
-		}
+// MaxSearched is the most parameters the guidance searches, each with
+// some tens of estimates; MaxWork bounds that number times the file's
+// parameters, which every estimate resolves again. Beyond either, no
+// parameter is searched, so that the guidance of a large file ends in time
+// proportional to its size.
+const (
+	MaxSearched = 200
+	MaxWork     = 2_000_000
+)
+
+// searchLimit is the most parameters the guidance searches in m.
+func searchLimit(m *lang.Model) int {
+	n := MaxWork / max(len(m.Params), 1)
+	return max(min(n, MaxSearched), 1)
+}
+
+// skipped says why n parameters that reach the estimate were not searched.
+func skipped(n, limit int) string {
+	return fmt.Sprintf("guidance skipped: %s parameters reach the estimate; the limit for a file of this size is %s — use --set or --vary to study a few",
+		thousands(n), thousands(limit))
+}
+
+// thousands writes n with a comma between groups of three digits.
+func thousands(n int) string {
+	s := strconv.Itoa(n)
+	for i := len(s) - 3; i > 0; i -= 3 {
+		s = s[:i] + "," + s[i:]
 	}
-	return false
+	return s
 }
 
 // mode is how a variant is evaluated: with which estimate options (full or

@@ -39,6 +39,9 @@ func GuidanceText(w io.Writer, g *guide.Guidance, res *flow.Result) error {
 		fmt.Fprintf(ew, "  %s\n", g.Message)
 		return ew.err
 	}
+	if g.Skipped != "" {
+		fmt.Fprintf(ew, "  %s\n", g.Skipped)
+	}
 	if line := limitingLevers(g); line != "" {
 		fmt.Fprintln(ew, line)
 	}
@@ -110,6 +113,10 @@ func paramText(w io.Writer, what string, p *guide.Param) {
 	fmt.Fprintf(w, "  %s = %s: ", what, ValueIn(p.Value, p.Unit))
 	if !p.Influences {
 		fmt.Fprintln(w, "influences no estimate")
+		return
+	}
+	if p.Skipped {
+		fmt.Fprintln(w, "reaches the estimate; not searched")
 		return
 	}
 	fmt.Fprintln(w, RangeText(p.Range, p.Unit))
