@@ -83,7 +83,8 @@ func Parse(s string) (Unit, error) {
 		return Unit{}, err
 	}
 	if cacheSize.Load() < cacheLimit {
-		if _, loaded := cache.LoadOrStore(s, u); !loaded {
+		// The key is a copy: s may share a buffer its caller reuses.
+		if _, loaded := cache.LoadOrStore(strings.Clone(s), u); !loaded {
 			cacheSize.Add(1)
 		}
 	}
