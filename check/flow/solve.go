@@ -7,6 +7,7 @@ import (
 	"gonum.org/v1/gonum/mat"
 
 	"circa/check/correlate"
+	"circa/check/rootfind"
 )
 
 // Bracketing grid for the single-loop mass flow, kg/s. The grid ends at
@@ -298,66 +299,11 @@ type root struct {
 	f        []float64 // a network's cycle flows at the balance (nil for a single loop)
 }
 
-// brent finds a root of f in [a, b] where f(a) and f(b) differ in sign
-// (Brent 1973, Algorithms for Minimization without Derivatives, ch. 4).
+// brent finds a root of f in [a, b] where f(a) and f(b) differ in sign.
 func brent(f func(float64) float64, a, b, fa, fb, tol float64) float64 {
-	c, fc := a, fa
-	d := b - a
-	e := d
-	for i := 0; i < 100; i++ {
-		if (fb > 0) == (fc > 0) {
-			c, fc = a, fa
-			d = b - a
-			e = d
-		}
-		if math.Abs(fc) < math.Abs(fb) {
-			a, b, c = b, c, b
-			fa, fb, fc = fb, fc, fb
-		}
-		t := 2*1e-15*math.Abs(b) + 0.5*tol
-		mid := 0.5 * (c - b)
-		if math.Abs(mid) <= t || fb == 0 {
-			return b
-		}
-		if math.Abs(e) >= t && math.Abs(fa) > math.Abs(fb) {
-			var p, q float64
-			sv := fb / fa
-			if a == c {
-				p = 2 * mid * sv
-				q = 1 - sv
-			} else {
-				q0 := fa / fc
-				r := fb / fc
-				p = sv * (2*mid*q0*(q0-r) - (b-a)*(r-1))
-				q = (q0 - 1) * (r - 1) * (sv - 1)
-			}
-			if p > 0 {
-				q = -q
-			} else {
-				p = -p
-			}
-			if 2*p < math.Min(3*mid*q-math.Abs(t*q), math.Abs(e*q)) {
-				e = d
-				d = p / q
-			} else {
-				d = mid
-				e = d
-			}
-		} else {
-			d = mid
-			e = d
-		}
-		a, fa = b, fb
-		if math.Abs(d) > t {
-			b += d
-		} else if mid > 0 {
-			b += t
-		} else {
-			b -= t
-		}
-		fb = f(b)
-	}
-	return b
+	g := func(x float64) (float64, struct{}, bool) { return f(x), struct{}{}, true }
+	pa, pb := rootfind.Point[struct{}]{X: a, F: fa}, rootfind.Point[struct{}]{X: b, F: fb}
+	return rootfind.Brent(g, pa, pb, rootfind.Options{Tol: tol}).Root.X
 }
 
 // flowGrid returns the logarithmic bracketing grid.

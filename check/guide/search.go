@@ -3,6 +3,8 @@ package guide
 import (
 	"context"
 	"math"
+
+	"circa/check/rootfind"
 )
 
 // Sample is what the estimate says at one value of a parameter.
@@ -278,80 +280,28 @@ func refine(ctx context.Context, f eval, ax axis, dir int, ui, uo float64, in, o
 // usable sample until the bracket is within tol, returning the bracket. It
 // returns early, with the bracket so far, when it meets a stop.
 func brent(ctx context.Context, f eval, ax axis, dir int, ui, uo float64, in, out Sample, tol float64) (Sample, Sample, float64, float64, bool) {
-	// b is the latest estimate, c the other end of the sign change, a the
-	// previous b.
-	a, fa, sa := ui, gap(in), in
-	b, fb, sb := uo, gap(out), out
-	c, fc, sc := a, fa, sa
-	d := b - a
-	e := d
-	result := func() (Sample, Sample, float64, float64, bool) {
-		if sb.Feasible() {
-			return sb, sc, b, c, true
+	g := func(u float64) (float64, Sample, bool) {
+		s := f(ax.at(u, dir))
+		if s.Stop != nil {
+			return 0, s, false
 		}
-		return sc, sb, c, b, true
+		return gap(s), s, true
 	}
-	for i := 0; i < 100; i++ {
-		if ctx.Err() != nil {
-			r1, r2, u1, u2, _ := result()
-			return r1, r2, u1, u2, false
+	a := rootfind.Point[Sample]{X: ui, F: gap(in), State: in}
+	b := rootfind.Point[Sample]{X: uo, F: gap(out), State: out}
+	r := rootfind.Brent(g, a, b, rootfind.Options{Tol: tol, WidthOnly: true, Cancelled: func() bool { return ctx.Err() != nil }})
+	if r.Unusable {
+		// A stop between the ends: the bracket's feasible end and this
+		// point continue by bisection.
+		held := r.Root
+		if r.Other.State.Feasible() {
+			held = r.Other
 		}
-		if (fb > 0) == (fc > 0) {
-			c, fc, sc = a, fa, sa
-			d = b - a
-			e = d
-		}
-		if math.Abs(fc) < math.Abs(fb) {
-			a, b, c = b, c, b
-			fa, fb, fc = fb, fc, fb
-			sa, sb, sc = sb, sc, sb
-		}
-		t := 2*1e-15*math.Abs(b) + 0.5*tol
-		mid := 0.5 * (c - b)
-		if math.Abs(c-b) <= tol || fb == 0 && sb.Feasible() {
-			return result()
-		}
-		if math.Abs(e) >= t && math.Abs(fa) > math.Abs(fb) {
-			var p, q float64
-			sv := fb / fa
-			if a == c {
-				p = 2 * mid * sv
-				q = 1 - sv
-			} else {
-				q0 := fa / fc
-				r := fb / fc
-				p = sv * (2*mid*q0*(q0-r) - (b-a)*(r-1))
-				q = (q0 - 1) * (r - 1) * (sv - 1)
-			}
-			if p > 0 {
-				q = -q
-			} else {
-				p = -p
-			}
-			if 2*p < math.Min(3*mid*q-math.Abs(t*q), math.Abs(e*q)) {
-				e, d = d, p/q
-			} else {
-				d, e = mid, mid
-			}
-		} else {
-			d, e = mid, mid
-		}
-		a, fa, sa = b, fb, sb
-		if math.Abs(d) > t {
-			b += d
-		} else {
-			b += math.Copysign(t, mid)
-		}
-		sb = f(ax.at(b, dir))
-		if sb.Stop != nil {
-			// A stop between the ends: the bracket's feasible end and this
-			// point continue by bisection.
-			if sc.Feasible() {
-				return sc, sb, c, b, true
-			}
-			return sa, sb, a, b, true
-		}
-		fb = gap(sb)
+		return held.State, r.At.State, held.X, r.At.X, true
 	}
-	return result()
+	lo, hi := r.Root, r.Other
+	if !lo.State.Feasible() {
+		lo, hi = hi, lo
+	}
+	return lo.State, hi.State, lo.X, hi.X, !r.Cancelled
 }
