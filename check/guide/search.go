@@ -126,7 +126,6 @@ type eval func(x float64) Sample
 // first limit on this side: the search tries just past it first, so that
 // the bracket is tight, then steps on beyond it.
 func side(ctx context.Context, f eval, ax axis, dir int, s0 Sample, guess float64) (Bound, bool) {
-	in, inU := s0, 0.0
 	us := ax.steps()
 	if guess > 0 && guess < us[len(us)-1] {
 		first := guess * guessPast
@@ -138,21 +137,7 @@ func side(ctx context.Context, f eval, ax axis, dir int, s0 Sample, guess float6
 		}
 		us = rest
 	}
-	for _, u := range us {
-		if ctx.Err() != nil {
-			return Bound{}, false
-		}
-		s := f(ax.at(u, dir))
-		if !s.Feasible() {
-			lo, hi, ok := refine(ctx, f, ax, dir, inU, u, in, s)
-			if !ok {
-				return Bound{}, false
-			}
-			return boundOf(lo, hi), true
-		}
-		in, inU = s, u
-	}
-	return Bound{Value: in.X, Unbounded: true}, true
+	return outward(ctx, f, ax, dir, s0, 0, us)
 }
 
 // guessPast is how far past a foretold limit the first step goes: a margin
@@ -200,8 +185,16 @@ func seek(ctx context.Context, f eval, ax axis, dir int, s0 Sample) (inner Bound
 
 // sideFrom continues outward past a feasible seed at coordinate u0.
 func sideFrom(ctx context.Context, f eval, ax axis, dir int, seed Sample, u0 float64) (Bound, bool) {
-	in, inU := seed, u0
-	for _, u := range ax.steps() {
+	return outward(ctx, f, ax, dir, seed, u0, ax.steps())
+}
+
+// outward steps from the feasible sample in at coordinate inU through the
+// coordinates us beyond it, on side dir, to the first infeasible sample,
+// and returns the bound between them; unbounded at the last step when every
+// one is feasible.
+func outward(ctx context.Context, f eval, ax axis, dir int, in Sample, inU float64, us []float64) (Bound, bool) {
+	u0 := inU
+	for _, u := range us {
 		if u <= u0 {
 			continue
 		}
