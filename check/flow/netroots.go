@@ -116,6 +116,17 @@ func (p *prepared) networkBalances(s *state, ev *eval, f []float64, cr *CaseResu
 	if len(roots) < 2 {
 		return f
 	}
+	if best := p.recordBalances(roots, "the excess head along the network's flow pattern", cr); best >= 0 {
+		return roots[best].f
+	}
+	return f
+}
+
+// recordBalances records the balances roots (ascending in flow) in cr, with
+// a finding for each statically unstable one, where head (the excess head
+// the balance is on) rises with flow, and returns the index of the stable
+// balance of highest flow (−1: none is stable).
+func (p *prepared) recordBalances(roots []root, head string, cr *CaseResult) int {
 	best := -1
 	for i, r := range roots {
 		cr.Roots = append(cr.Roots, Root{MassFlow: r.m, Slope: r.slope, Stable: r.slope < 0})
@@ -123,11 +134,8 @@ func (p *prepared) networkBalances(s *state, ev *eval, f []float64, cr *CaseResu
 			best = i
 		} else {
 			cr.Findings = append(cr.Findings, p.finding(RuleUnstable, "warning", cr.Case, "", r.m, 0, "kg/s", "",
-				"statically unstable balance (Ledinegg: the excess head along the network's flow pattern rises with flow) at %.3g g/s in case %s", r.m*1e3, cr.Case))
+				"statically unstable balance (Ledinegg: %s rises with flow) at %.3g g/s in case %s", head, r.m*1e3, cr.Case))
 		}
 	}
-	if best >= 0 {
-		return roots[best].f
-	}
-	return f
+	return best
 }

@@ -30,17 +30,7 @@ func (p *prepared) run(pt point, tilt bool, start []float64) (CaseResult, []floa
 	ok := false
 	if p.net.ring {
 		roots, e0 := s.ringRoots(ev)
-		best := -1
-		for i, r := range roots {
-			cr.Roots = append(cr.Roots, Root{MassFlow: r.m, Slope: r.slope, Stable: r.slope < 0})
-			if r.slope < 0 {
-				best = i
-			} else {
-				cr.Findings = append(cr.Findings, p.finding(RuleUnstable, "warning", cr.Case, "", r.m, 0, "kg/s", "",
-					"statically unstable balance (Ledinegg: excess head rises with flow) at %.3g g/s in case %s", r.m*1e3, cr.Case))
-			}
-		}
-		if best >= 0 {
+		if best := p.recordBalances(roots, "excess head", &cr); best >= 0 {
 			f, ok = []float64{roots[best].m}, true
 		} else {
 			cr.Reason = p.noFlowReason(s, ev, cr.Heat, e0)
