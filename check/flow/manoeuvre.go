@@ -3,7 +3,6 @@ package flow
 import (
 	"fmt"
 	"math"
-	"sort"
 	"strconv"
 
 	"circa/check/geom"
@@ -160,16 +159,7 @@ func worstInstants(ins []Instant) []Margin {
 			}
 		}
 	}
-	names := make([]string, 0, len(best))
-	for k := range best {
-		names = append(names, k)
-	}
-	sort.Strings(names)
-	out := make([]Margin, len(names))
-	for i, n := range names {
-		out[i] = best[n]
-	}
-	return out
+	return byMargin(best)
 }
 
 // instantFindings adds to the case the findings of its profile's instants,

@@ -906,6 +906,12 @@ func worst(cases []CaseResult) []Margin {
 			}
 		}
 	}
+	return byMargin(best)
+}
+
+// byMargin lists the worst of each margin, in the order of the margins'
+// names.
+func byMargin(best map[string]Margin) []Margin {
 	names := make([]string, 0, len(best))
 	for k := range best {
 		names = append(names, k)
