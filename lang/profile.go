@@ -13,6 +13,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"sort"
 	"strconv"
 	"strings"
 
@@ -88,26 +89,23 @@ const (
 	maxRoll  = math.Pi
 )
 
-func columnNeed(name string) units.Need {
-	switch name {
-	case "time":
-		return units.Need{Dim: units.Time}
-	case "accel_x", "accel_y", "accel_z":
-		return needAccel
+// columnField is the case field a profile column gives at each instant:
+// pitch, roll and yaw are the case's own fields and each accel_ column a
+// component of its accel, so a column's value is read as that field's
+// (its dimension and its range); time is the profile's own.
+func columnField(col string) string {
+	if strings.HasPrefix(col, "accel_") {
+		return "accel"
 	}
-	return needAngle
+	return col
 }
 
-// angleRange returns the largest magnitude an angle column may take (0 for
-// columns that are not angles).
-func angleRange(name string) float64 {
-	switch name {
-	case "pitch":
-		return maxPitch
-	case "roll", "yaw":
-		return maxRoll
+// columnNeed is the dimension of a column's values: its case field's.
+func columnNeed(col string) units.Need {
+	if col == "time" {
+		return units.Need{Dim: units.Time}
 	}
-	return 0
+	return FieldNeeds[columnField(col)]
 }
 
 func degText(rad float64) string {
@@ -270,13 +268,8 @@ func (r *resolver) profileRow(p *Profile, s *Stmt) bool {
 			ok = false
 			continue
 		}
-		v := r.expr(file, a.Expr, columnNeed(col))
+		v := r.inRange(columnField(col), file, r.expr(file, a.Expr, columnNeed(col)))
 		if !v.Set {
-			ok = false
-			continue
-		}
-		if lim := angleRange(col); lim > 0 && math.Abs(v.SI) > lim+1e-12 {
-			r.errorf("bad-value", file, v.Span(), "%s must lie within ±%s, not %s", col, degText(lim), degText(v.SI))
 			ok = false
 			continue
 		}
@@ -301,8 +294,12 @@ func (r *resolver) profileTimes(p *Profile) bool {
 		}
 		t := strconv.FormatFloat(b.Time, 'g', -1, 64)
 		if p.Table != "" {
-			r.errorf("bad-value", p.File, b.TimeSpan, "%s line %d: time %s s is %s (line %d has %s s)",
-				filepath.Base(p.Table), b.Line, t, what, a.Line, strconv.FormatFloat(a.Time, 'g', -1, 64))
+			data := r.m.tables[p.Table].data
+			col := indexOf(p.Columns, "time") + 1
+			d := r.errorf("bad-value", p.Table, tableSpan(data, b.Line, col), "time %s s is %s (line %d has %s s)",
+				t, what, a.Line, strconv.FormatFloat(a.Time, 'g', -1, 64))
+			d.Related = append(d.Related, Related{Loc: Location{File: p.Table, Span: tableSpan(data, a.Line, col)}, Message: "the row before"},
+				Related{Loc: Location{File: p.File, Span: b.TimeSpan}, Message: "the profile that reads this table"})
 		} else {
 			d := r.errorf("bad-value", p.File, b.TimeSpan, "time %s s is %s (the row before has %s s)", t, what, strconv.FormatFloat(a.Time, 'g', -1, 64))
 			d.Related = append(d.Related, Related{Loc: Location{File: p.File, Span: a.Span}, Message: "the row before"})
@@ -332,8 +329,8 @@ func (r *resolver) profileTable(p *Profile, str *Str) bool {
 	}
 	cols, rows, terr := ReadProfileCSV(data)
 	if terr != nil {
-		terr.File = str.Value()
-		r.errorf("bad-table", p.File, str.Span(), "%s", terr.Error())
+		d := r.errorf("bad-table", path, tableSpan(data, terr.Line, terr.Column), "%s", tableMessage(terr))
+		d.Related = append(d.Related, Related{Loc: Location{File: p.File, Span: str.Span()}, Message: "the profile that reads this table"})
 		return false
 	}
 	for i := range rows {
@@ -343,10 +340,68 @@ func (r *resolver) profileTable(p *Profile, str *Str) bool {
 	return true
 }
 
+// tableMessage is a table error's text without its place, which the
+// finding's location gives.
+func tableMessage(e *fluid.TableError) string {
+	if e.Name != "" {
+		return e.Name + ": " + e.Msg
+	}
+	return e.Msg
+}
+
+// tableSpan locates field col (one-based; 0 for the whole line) of line
+// (one-based, lines ending at '\n' as ReadProfileCSV reads them; 0 for the
+// start of the file) in a table's text, without the blanks and quotes
+// around the field.
+func tableSpan(data []byte, line, col int) Span {
+	start := 0
+	if bytes.HasPrefix(data, []byte("\uFEFF")) {
+		start = len("\uFEFF")
+	}
+	if line <= 0 {
+		return Span{start, start}
+	}
+	for l := 1; l < line; l++ {
+		k := bytes.IndexByte(data[start:], '\n')
+		if k < 0 {
+			return Span{len(data), len(data)}
+		}
+		start += k + 1
+	}
+	end := len(data)
+	if k := bytes.IndexByte(data[start:], '\n'); k >= 0 {
+		end = start + k
+	}
+	if end > start && data[end-1] == '\r' {
+		end--
+	}
+	for f := 1; f < col; f++ {
+		k := bytes.IndexByte(data[start:end], ',')
+		if k < 0 {
+			break
+		}
+		start += k + 1
+	}
+	if col > 0 {
+		if k := bytes.IndexByte(data[start:end], ','); k >= 0 {
+			end = start + k
+		}
+	}
+	trim := func(c byte) bool { return c == ' ' || c == '\t' || c == '"' }
+	for start < end && trim(data[start]) {
+		start++
+	}
+	for end > start && trim(data[end-1]) {
+		end--
+	}
+	return Span{start, end}
+}
+
 // tableRead is the outcome of reading a table file.
 type tableRead struct {
-	data []byte
-	err  error
+	data   []byte
+	err    error
+	mapper *Mapper // positions in data, for findings located in the table
 }
 
 // readTable reads a table file once per model: a variant of the model
@@ -362,7 +417,11 @@ func (r *resolver) readTable(path string) ([]byte, error) {
 	if r.m.tables == nil {
 		r.m.tables = map[string]tableRead{}
 	}
-	r.m.tables[path] = tableRead{data, err}
+	t := tableRead{data: data, err: err}
+	if err == nil {
+		t.mapper = NewMapper(data)
+	}
+	r.m.tables[path] = t
 	return data, err
 }
 
@@ -415,8 +474,8 @@ func ReadProfileCSV(data []byte) (cols []string, rows []ProfileRow, err *fluid.T
 			if math.IsNaN(si) || math.IsInf(si, 0) {
 				return nil, nil, bad("value %q out of range", f)
 			}
-			if lim := angleRange(cols[j]); lim > 0 && math.Abs(si) > lim+1e-12 {
-				return nil, nil, bad("%s must lie within ±%s, not %s", cols[j], degText(lim), degText(si))
+			if want := rangeWant(columnField(cols[j]), si); want != "" {
+				return nil, nil, bad("%s must be %s, not %s", cols[j], want, degText(si))
 			}
 			row.set(cols[j], si)
 		}
@@ -607,12 +666,9 @@ func (r *resolver) envelopeAxis(file string, st *Stmt) (EnvelopeAxis, bool) {
 			return ax, false
 		}
 	}
-	if lim := angleRange(name); lim > 0 {
-		for _, v := range []Value{lo, hi} {
-			if math.Abs(v.SI) > lim+1e-12 {
-				r.errorf("bad-value", file, v.Span(), "%s must lie within ±%s, not %s", name, degText(lim), degText(v.SI))
-				return ax, false
-			}
+	for _, v := range []Value{lo, hi} {
+		if !r.inRange(columnField(name), file, v).Set {
+			return ax, false
 		}
 	}
 	return ax, true
@@ -624,4 +680,24 @@ func (r *resolver) envelopeAxis(file string, st *Stmt) (EnvelopeAxis, bool) {
 func (m *Model) ReadsTable(path string) bool {
 	_, ok := m.tables[path]
 	return ok
+}
+
+// Tables lists the table files (profiles' CSV files) the model read, in
+// path order.
+func (m *Model) Tables() []string {
+	out := make([]string, 0, len(m.tables))
+	for p := range m.tables {
+		out = append(out, p)
+	}
+	sort.Strings(out)
+	return out
+}
+
+// Mapper returns the positions of a file the model read: a loop file, or
+// a table that a finding may point into (nil for a file it did not read).
+func (m *Model) Mapper(path string) *Mapper {
+	if f := m.Files[path]; f != nil {
+		return f.Mapper
+	}
+	return m.tables[path].mapper
 }

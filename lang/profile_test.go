@@ -117,26 +117,54 @@ func TestProfileCSV(t *testing.T) {
 		t.Errorf("row %+v", r)
 	}
 
-	for _, tc := range []struct{ name, csv, msg string }{
-		{"wrong unit", "time (s), pitch (m)\n0, 1\n", `brake.csv: line 1, column 2 (pitch): unit "m" is not an angle`},
-		{"no unit", "time (s), accel_y\n0, 1\n", `line 1, column 2 (accel_y): no unit`},
-		{"time unit", "time (kg), pitch (deg)\n0, 1\n", `line 1, column 1 (time): unit "kg" is not a time`},
-		{"unknown unit", "time (s), pitch (degs)\n0, 1\n", `line 1, column 2 (pitch): unit "degs"`},
-		{"unclosed unit", "time (s, pitch (deg)\n0, 1\n", `line 1, column 1: unit in "time (s" not closed`},
-		{"not a number", "time (s), pitch (deg)\n0, 1\n1, abc\n", `line 3, column 2 (pitch): not a number "abc"`},
-		{"field count", "time (s), pitch (deg)\n0, 1, 2\n", `line 2: 3 fields`},
-		{"angle range", "time (s), roll (deg)\n0, 181\n", `line 2, column 2 (roll): roll must lie within ±180°`},
-		{"order", "time (s), roll (deg)\n0, 1\n2, 1\n1, 1\n", `brake.csv line 4: time 1 s is out of order`},
-		{"duplicate", "time (min), roll (deg)\n0, 1\n0, 1\n", `line 3: time 0 s is given twice`},
-		{"no time", "pitch (deg)\n1\n", `missing column time`},
-		{"unknown column", "time (s), rol (deg)\n0, 1\n", `did you mean roll?`},
-		{"empty", "# nothing\n", `no header`},
-		{"no rows", "time (s)\n", `no rows`},
+	// A table's finding points into the table, at the line and field it
+	// is about, and back at the profile that reads it. at is the text the
+	// finding covers; line its one-based line in the table.
+	for _, tc := range []struct {
+		name, csv, at string
+		line          int
+		msg           string
+	}{
+		{"wrong unit", "time (s), pitch (m)\n0, 1\n", "pitch (m)", 1, `pitch: unit "m" is not an angle`},
+		{"no unit", "time (s), accel_y\n0, 1\n", "accel_y", 1, `accel_y: no unit`},
+		{"time unit", "time (kg), pitch (deg)\n0, 1\n", "time (kg)", 1, `time: unit "kg" is not a time`},
+		{"unknown unit", "time (s), pitch (degs)\n0, 1\n", "pitch (degs)", 1, `pitch: unit "degs"`},
+		{"unclosed unit", "time (s, pitch (deg)\n0, 1\n", "time (s", 1, `unit in "time (s" not closed`},
+		{"not a number", "time (s), pitch (deg)\n0, 1\n1, abc\n", "abc", 3, `pitch: not a number "abc"`},
+		{"quoted", "time (s), pitch (deg)\r\n0, 1\r\n1,  \"x1\" \r\n", "x1", 3, `pitch: not a number "x1"`},
+		{"field count", "time (s), pitch (deg)\n0, 1, 2\n", "0, 1, 2", 2, `3 fields`},
+		{"angle range", "# c\ntime (s), roll (deg)\n0, 181\n", "181", 3, `roll: roll must be within ±180°, not 181°`},
+		{"order", "time (s), roll (deg)\n0, 1\n2, 1\n1, 1\n", "1", 4, `time 1 s is out of order`},
+		{"duplicate", "roll (deg), time (min)\n1, 0\n1, 0\n", "0", 3, `time 0 s is given twice`},
+		{"no time", "pitch (deg)\n1\n", "pitch (deg)", 1, `missing column time`},
+		{"unknown column", "time (s), rol (deg)\n0, 1\n", "rol (deg)", 1, `did you mean roll?`},
+		{"empty", "# nothing\n", "", 1, `no header`},
+		{"no rows", "time (s)\n", "", 1, `no rows`},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
-			d, at := profileFinding(t, "  profile \"m/brake.csv\"", memFS{"m/brake.csv": []byte(tc.csv)})
-			if at != `"m/brake.csv"` || !strings.Contains(d.Message(), tc.msg) {
-				t.Errorf("got %s at %s: %s\nwant at the path, containing %q", d.Rule, at, d.Message(), tc.msg)
+			fs := memFS{"m/brake.csv": []byte(tc.csv)}
+			src := "loop l {\n  fluid R134a\n}\ncase c {\n  profile \"m/brake.csv\"\n}\n"
+			m := LoadSource("p.loop", []byte(src), fs)
+			if len(m.Diags) != 1 {
+				t.Fatalf("%d findings, want 1: %v", len(m.Diags), m.Diags)
+			}
+			d := m.Diags[0]
+			if d.Loc.File != "m/brake.csv" || !strings.Contains(d.Message(), tc.msg) {
+				t.Fatalf("got %s in %s: %s\nwant in m/brake.csv, containing %q", d.Rule, d.Loc.File, d.Message(), tc.msg)
+			}
+			if at := tc.csv[d.Loc.Span.Start:d.Loc.Span.End]; at != tc.at {
+				t.Errorf("finding covers %q, want %q", at, tc.at)
+			}
+			mp := m.Mapper("m/brake.csv")
+			if mp == nil {
+				t.Fatal("no positions for the table")
+			}
+			if l := mp.OffsetPosition(d.Loc.Span.Start, UTF8).Line + 1; l != tc.line {
+				t.Errorf("finding on line %d, want %d", l, tc.line)
+			}
+			back := d.Related[len(d.Related)-1].Loc
+			if back.File != "p.loop" || src[back.Span.Start:back.Span.End] != `"m/brake.csv"` {
+				t.Errorf("related %+v does not point at the profile statement", d.Related)
 			}
 		})
 	}

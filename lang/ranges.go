@@ -75,16 +75,28 @@ func (r *resolver) inRange(kw, file string, v Value) Value {
 		return v
 	}
 	x := v.SI
-	low := x < rg.min || (rg.minOpen && x == rg.min)
-	high := x > rg.max || (rg.maxOpen && x == rg.max)
 	switch {
-	case low || high:
+	case rg.outside(x):
 		r.errorf("bad-value", file, v.Span(), "%s must be %s, not %s", kw, rg.want, r.valueText(file, v, rg.unit))
 		v.Set, v.Bad = false, true
 	case rg.usual != "" && x < rg.usualMin:
 		r.diag("unusual-value", Warning, file, v.Span(), "%s %s is unusual: %s", kw, r.valueText(file, v, rg.unit), rg.usual)
 	}
 	return v
+}
+
+func (rg valueRange) outside(x float64) bool {
+	return x < rg.min || (rg.minOpen && x == rg.min) || x > rg.max || (rg.maxOpen && x == rg.max)
+}
+
+// rangeWant says what a value x of field kw must be when x is outside the
+// field's range, and is "" within it: a value read from a table is held to
+// the range of the field it gives.
+func rangeWant(kw string, x float64) string {
+	if rg, ok := fieldRanges[kw]; ok && rg.outside(x) {
+		return rg.want
+	}
+	return ""
 }
 
 // valueText shows a value as written; a value computed from parameters

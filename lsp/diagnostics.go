@@ -277,16 +277,23 @@ func rootVersion(snap *snapshot, a *analysis) int32 {
 }
 
 // fileDiags gathers each file's findings from the snapshot's analyses. A
-// file included by an open file takes its findings from the includer (where
-// its names resolve); an open file that nothing includes takes its own.
+// file included by an open file, or a table it reads, takes its findings
+// from the includer (where its names resolve); an open file that nothing
+// includes takes its own.
 func fileDiags(snap *snapshot, full bool) map[string][]lang.Diagnostic {
 	roots := snap.sortedRoots()
 	owner := map[string]*analysis{}
 	for _, a := range roots {
-		for path := range a.Model().Files {
+		m := a.Model()
+		for path := range m.Files {
 			if path == a.root {
 				continue
 			}
+			if _, ok := owner[path]; !ok {
+				owner[path] = a
+			}
+		}
+		for _, path := range m.Tables() {
 			if _, ok := owner[path]; !ok {
 				owner[path] = a
 			}

@@ -32,7 +32,7 @@ func rangeFormattingRequest(ctx context.Context, s *Server, sn *snapshot, params
 // with a range, only those touching the range's lines.
 func formatEdits(sn *snapshot, u uri.URI, rg *protocol.Range) (any, error) {
 	d, ok := sn.docs[pathOf(u)]
-	if !ok {
+	if !ok || isTable(d.path) {
 		return nil, nil
 	}
 	hunks, err := formatHunks(d)

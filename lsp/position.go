@@ -14,9 +14,7 @@ func (sn *snapshot) mapperFor(path string) *lang.Mapper {
 		return d.mapper
 	}
 	if a := sn.analysisFor(path); a != nil {
-		if f := a.file(path); f != nil {
-			return f.Mapper
-		}
+		return a.Model().Mapper(path)
 	}
 	return nil
 }

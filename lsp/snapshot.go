@@ -6,6 +6,7 @@ import (
 	"path/filepath"
 	"runtime/debug"
 	"sort"
+	"strings"
 	"sync"
 	"sync/atomic"
 	"time"
@@ -353,6 +354,11 @@ func (s *Server) changeLocked(docs map[string]*document, changed []string, setti
 	}
 	fs := overlay{docs: docs, disk: &s.disk}
 	for path := range docs {
+		if isTable(path) {
+			// A table is data that loop files read, not a loop file: its
+			// findings come from the analyses that read it.
+			continue
+		}
 		if a, ok := old.roots[path]; ok && !settingsChanged && !touches(a, changed) {
 			n.roots[path] = a
 			continue
@@ -415,17 +421,24 @@ func (sn *snapshot) sortedRoots() []*analysis {
 }
 
 // analysisFor returns the analysis whose model holds path: its own when the
-// file is open, else one of the open files that include it.
+// file is open, else one of the open files that include it or read it as a
+// table.
 func (sn *snapshot) analysisFor(path string) *analysis {
 	if a, ok := sn.roots[path]; ok {
 		return a
 	}
 	for _, a := range sn.sortedRoots() {
-		if _, ok := a.Model().Files[path]; ok {
+		if m := a.Model(); m.Files[path] != nil || m.ReadsTable(path) {
 			return a
 		}
 	}
 	return nil
+}
+
+// isTable reports whether path names a table (a profile's or a fluid's
+// CSV file) rather than a loop file.
+func isTable(path string) bool {
+	return strings.EqualFold(filepath.Ext(path), ".csv")
 }
 
 // file returns the parsed file and its mapper for path in the analysis.

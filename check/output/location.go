@@ -13,14 +13,14 @@ type Pos struct {
 	Line, Byte, Char, UTF16 int
 }
 
-// Position locates a byte offset in a model's file; ok is false when the
-// file is not known (then only the path can be shown).
+// Position locates a byte offset in a file the model read (a loop file or
+// a table); ok is false when the file is not known (then only the path can be shown).
 func Position(m *lang.Model, file string, off int) (Pos, bool) {
-	f := m.Files[file]
-	if f == nil || f.Mapper == nil {
+	mp := m.Mapper(file)
+	if mp == nil {
 		return Pos{Line: 1, Byte: 1, Char: 1, UTF16: 1}, false
 	}
-	return mapperPos(f.Mapper, off), true
+	return mapperPos(mp, off), true
 }
 
 func mapperPos(mp *lang.Mapper, off int) Pos {

@@ -71,11 +71,11 @@ func Text(w io.Writer, files []File, fs []Finding, colour bool) error {
 // would act on are printed escaped (see Printable), the caret widened to
 // match.
 func caret(b *strings.Builder, m *lang.Model, loc lang.Location, s, e Pos, paint func(string) string) {
-	f := m.Files[loc.File]
-	if f == nil || f.Mapper == nil {
+	mp := m.Mapper(loc.File)
+	if mp == nil {
 		return
 	}
-	text := f.Mapper.LineText(s.Line - 1)
+	text := mp.LineText(s.Line - 1)
 	var line, pad strings.Builder
 	n := 0 // printed width of the span
 	last := s.Char
