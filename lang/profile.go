@@ -112,25 +112,29 @@ func degText(rad float64) string {
 	return strconv.FormatFloat(rad*180/math.Pi, 'g', 6, 64) + "°"
 }
 
-// set stores a column's SI value in a row.
-func (row *ProfileRow) set(col string, v float64) {
+// at is where a row keeps a column's SI value.
+func (row *ProfileRow) at(col string) *float64 {
 	switch col {
 	case "time":
-		row.Time = v
+		return &row.Time
 	case "pitch":
-		row.Pitch = v
+		return &row.Pitch
 	case "roll":
-		row.Roll = v
+		return &row.Roll
 	case "yaw":
-		row.Yaw = v
+		return &row.Yaw
 	case "accel_x":
-		row.Accel[0] = v
+		return &row.Accel[0]
 	case "accel_y":
-		row.Accel[1] = v
+		return &row.Accel[1]
 	case "accel_z":
-		row.Accel[2] = v
+		return &row.Accel[2]
 	}
+	return new(float64)
 }
+
+// set stores a column's SI value in a row.
+func (row *ProfileRow) set(col string, v float64) { *row.at(col) = v }
 
 // caseProfile reads "profile { columns …; row … }" or "profile "FILE.csv"".
 func (r *resolver) caseProfile(c *Case, s *Stmt) {
@@ -561,22 +565,8 @@ func finishProfile(c *Case) {
 	for i := range p.Rows {
 		row := &p.Rows[i]
 		for _, col := range ProfileColumns[1:] {
-			if has[col] {
-				continue
-			}
-			switch col {
-			case "pitch":
-				row.Pitch = own.Pitch
-			case "roll":
-				row.Roll = own.Roll
-			case "yaw":
-				row.Yaw = own.Yaw
-			case "accel_x":
-				row.Accel[0] = own.Accel[0]
-			case "accel_y":
-				row.Accel[1] = own.Accel[1]
-			case "accel_z":
-				row.Accel[2] = own.Accel[2]
+			if !has[col] {
+				row.set(col, *own.at(col))
 			}
 		}
 	}
