@@ -433,7 +433,9 @@ type Methods struct {
 	CHF         Choice
 	SatState    Choice // "single" or "local"
 	// Condensation is the in-tube coefficient of condensers given by
-	// geometry: "film" (Nusselt, Chato) or "shah" (Shah 1979).
+	// geometry: "film" (Nusselt, Chato), or a forced-convection correlation:
+	// "shah" (Shah 1979), "boyko_kruzhilin", "akers_deans_crosser" or
+	// "cavallini_smith_zecchin".
 	Condensation Choice
 	Cells        int
 	CellsSet     bool
@@ -454,7 +456,7 @@ var MethodChoices = map[string][]string{
 	"single_phase":     {"churchill", "colebrook"},
 	"chf":              {"lienhard_dhir", "zuber", "katto_ohno"},
 	"saturation_state": {"single", "local"},
-	"condensation":     {"film", "shah"},
+	"condensation":     {"film", "shah", "boyko_kruzhilin", "akers_deans_crosser", "cavallini_smith_zecchin"},
 }
 
 // DefaultMethods returns the documented defaults.

@@ -58,21 +58,27 @@ func filmCoef(c, length, a, dT, sub float64, p Props) float64 {
 // Shah1979Mean is Shah's (1979) coefficient averaged over the quality
 // between xOut and xIn (0 ≤ xOut < xIn ≤ 1), W/(m²K): the mean over a tube
 // whose quality falls linearly along it, as in a condenser of uniform heat
-// flux. The bracket's powers of x and 1−x are steep at both ends, so it
-// integrates by Simpson's rule on 32 intervals after the substitution
-// x = xOut + (xIn − xOut)(3u² − 2u³), which flattens both ends.
+// flux (see [CondensationMethod.Mean]).
 func Shah1979Mean(G, xIn, xOut, D float64, p Props) float64 {
+	return CondShah1979.Mean(G, xIn, xOut, D, p)
+}
+
+// qualityMean averages h(x) over x between xOut and xIn. The in-tube
+// coefficients are steep in x and 1−x at both ends, so it integrates by
+// Simpson's rule on 32 intervals after the substitution
+// x = xOut + (xIn − xOut)(3u² − 2u³), which flattens both ends.
+func qualityMean(h func(x float64) float64, xIn, xOut float64) float64 {
 	xIn, xOut = clampQuality(xIn), clampQuality(xOut)
 	if xIn < xOut {
 		xIn, xOut = xOut, xIn
 	}
 	if xIn == xOut {
-		return Shah1979(G, xIn, D, p)
+		return h(xIn)
 	}
 	const n = 32
 	w := xIn - xOut
 	f := func(u float64) float64 {
-		return Shah1979(G, xOut+w*u*u*(3-2*u), D, p) * 6 * u * (1 - u)
+		return h(xOut+w*u*u*(3-2*u)) * 6 * u * (1 - u)
 	}
 	sum := f(0) + f(1)
 	for i := 1; i < n; i++ {

@@ -59,6 +59,19 @@
 //     memory.
 //   - [Shah1979]: film condensation in tubes, M.M. Shah, Int. J. Heat Mass
 //     Transfer 22 (1979) 547–556.
+//   - [BoykoKruzhilin]: condensation in tubes, L.D. Boyko, G.N. Kruzhilin,
+//     Int. J. Heat Mass Transfer 10 (1967) 361–373, in the form of G.F.
+//     Hewitt, G.L. Shires, T.R. Bott, Process Heat Transfer (1994).
+//   - [AkersDeansCrosser]: condensation in horizontal tubes, W.W. Akers,
+//     H.A. Deans, O.K. Crosser, Chem. Eng. Prog. Symp. Ser. 55(29) (1959),
+//     in the form of S. Kakaç (ed.), Boilers, Evaporators and Condensers
+//     (1991).
+//   - [CavalliniSmithZecchin]: forced-convection condensation in tubes,
+//     A. Cavallini, J.R. Smith, R. Zecchin, Int. Heat Transfer Conf., Tokyo
+//     (1974) 309–313, in the form of Kakaç (1991).
+//     These three are checked against the values the open-source ht library
+//     (C. Bell) prints for them, Boyko–Kruzhilin also against Process Heat
+//     Transfer's worked example; [CondensationMethod] selects one.
 //   - [FilmVertical]: laminar film condensation on a vertical wall,
 //     W. Nusselt, Z. VDI 60 (1916) 541–546, with the film-subcooling latent
 //     heat of W.M. Rohsenow, Trans. ASME 78 (1956) 1645–1648.

@@ -220,6 +220,11 @@ func TestNoNaN(t *testing.T) {
 					ok("AccelerationTerm α", AccelerationTerm(300, x, v, p), x, v, p)
 				}
 				ok("Shah1979", Shah1979(v, x, 0.01, p), v, x)
+				for _, m := range []CondensationMethod{CondShah1979, CondBoykoKruzhilin, CondAkersDeansCrosser, CondCavalliniSmithZecchin} {
+					ok("Condensation", m.Coefficient(v, x, 0.01, p), m, v, x, p)
+					ok("Condensation D", m.Coefficient(300, x, v, p), m, v, x, p)
+					ok("Condensation mean", m.Mean(v, x, 0, 0.01, p), m, v, x, p)
+				}
 				ok("HomogeneousDensity", HomogeneousDensity(x, p), x)
 				ok("MixtureDensity", MixtureDensity(v, p), v)
 			}

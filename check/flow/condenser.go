@@ -1,7 +1,9 @@
 package flow
 
 import (
+	"fmt"
 	"math"
+	"strings"
 
 	"circa/check/correlate"
 	"circa/check/fluid"
@@ -15,11 +17,46 @@ import (
 // temperature). The film coefficient is Nusselt's for a tube within 45° of
 // the body force (a vertical condensing length) and Chato's stratified form
 // for a flatter one, each with the body-force component it feels. With
-// methods { condensation shah } the coefficient is instead Shah's (1979)
-// forced-convection one, averaged over the quality from saturated vapour to
-// liquid, at the mass flux that condenses the heat the condenser rejects:
-// the least flow that can carry that heat, so the lowest coefficient a wet
-// inflow would give.
+// methods { condensation shah } (or boyko_kruzhilin, akers_deans_crosser,
+// cavallini_smith_zecchin) the coefficient is instead that forced-convection
+// correlation, averaged over the quality from saturated vapour to liquid, at
+// the mass flux that condenses the heat the condenser rejects: the least
+// flow that can carry that heat, so the lowest coefficient a wet inflow
+// would give.
+
+// condModel is the in-tube coefficient of geometry condensers: the laminar
+// film, or the forced-convection correlation m when forced is set.
+type condModel struct {
+	forced bool
+	m      correlate.CondensationMethod
+}
+
+// parseCondensation reads a condensation method name as written in loop
+// files ("film", "shah", "boyko_kruzhilin", ...).
+func parseCondensation(name string) (condModel, error) {
+	if name == "film" {
+		return condModel{}, nil
+	}
+	m, err := correlate.ParseCondensationMethod(hyphen(name))
+	if err != nil {
+		return condModel{}, fmt.Errorf("unknown condensation method %q (want film, %s)", name,
+			strings.ReplaceAll(strings.Join(correlate.CondensationMethodNames(), ", "), "-", "_"))
+	}
+	return condModel{forced: true, m: m}, nil
+}
+
+// source names the forced-convection correlation and its year.
+func (cm condModel) source() string {
+	switch cm.m {
+	case correlate.CondBoykoKruzhilin:
+		return "Boyko & Kruzhilin 1967"
+	case correlate.CondAkersDeansCrosser:
+		return "Akers, Deans & Crosser 1959"
+	case correlate.CondCavalliniSmithZecchin:
+		return "Cavallini, Smith & Zecchin 1974"
+	}
+	return "Shah 1979"
+}
 
 // byGeometry reports whether a condenser's conductance comes from its
 // geometry: no conductance and no outlet temperature, and a bore and length.
@@ -101,15 +138,16 @@ func tubeCount(c *lang.Component) float64 {
 
 // filmRejection is the heat (W) a geometry condenser rejects at saturation
 // temperature T with its coolant at ts, body force b, saturated properties
-// p; by Shah's coefficient when shah is set, else by the laminar film.
-func filmRejection(shah bool, cp comp, b geom.Vec3, T, ts float64, p correlate.Props) float64 {
+// p; by the forced-convection correlation when cm has one, else by the
+// laminar film.
+func filmRejection(cm condModel, cp comp, b geom.Vec3, T, ts float64, p correlate.Props) float64 {
 	dT := T - ts
 	if !(dT > 0) {
 		return 0
 	}
 	area := math.Pi * cp.D * cp.L * tubeCount(cp.c)
-	if shah {
-		return shahRejection(cp, area, dT, p)
+	if cm.forced {
+		return forcedRejection(cm.m, cp, area, dT, p)
 	}
 	bm := b.Norm()
 	cos := 0.0
@@ -140,30 +178,56 @@ func filmRejection(shah bool, cp comp, b geom.Vec3, T, ts float64, p correlate.P
 	return ho * area * (dT - (lo+hi)/2)
 }
 
-// shahRejection is the heat (W) a geometry condenser of inner area area
-// rejects across dT by Shah's mean coefficient at the mass flux
-// G = q/(h_lv·A_flow) that condenses it. Shah's h is h1·G^0.8 (h1 at
-// G = 1 kg/m²s), so with the tube wall at the coolant temperature
-// q = h1 (q/(h_lv A_flow))^0.8 area dT has the closed form
-// q = (h1 area dT)^5/(h_lv A_flow)^4; with a coolant side in series it is
-// bisected on q.
-func shahRejection(cp comp, area, dT float64, p correlate.Props) float64 {
+// forcedRejection is the heat (W) a geometry condenser of inner area area
+// rejects across dT by the mean coefficient of m at the mass flux
+// G = q/(h_lv·A_flow) that condenses it. Where m's h is h1·G^n (h1 at
+// G = 1 kg/m²s; n = 0.8 for Shah, Boyko–Kruzhilin, Cavallini–Smith–Zecchin)
+// and the tube wall is at the coolant temperature, q = h1 (q/(h_lv A_flow))^n
+// area dT has the closed form q = (c area dT)^(1/(1−n)), c = h1/(h_lv A_flow)^n;
+// otherwise (a coolant side in series, or Akers–Deans–Crosser's two
+// exponents) q is bisected.
+func forcedRejection(m correlate.CondensationMethod, cp comp, area, dT float64, p correlate.Props) float64 {
 	af := math.Pi / 4 * cp.D * cp.D * tubeCount(cp.c)
-	h1 := correlate.Shah1979Mean(1, 1, 0, cp.D, p)
-	if !(h1 > 0) || !(af > 0) || !(p.Hlv > 0) {
+	if !(af > 0) || !(p.Hlv > 0) || !(area > 0) {
 		return 0
 	}
-	c := h1 / math.Pow(p.Hlv*af, 0.8) // h = c·q^0.8
-	ho := cp.c.CoolantHTC.SI
-	if !cp.c.CoolantHTC.Set || !(ho > 0) || !finite(ho) {
-		return math.Pow(c*area*dT, 5)
+	h := func(q float64) float64 { return m.Mean(q/(p.Hlv*af), 1, 0, cp.D, p) }
+	if n, ok := m.MassFluxExponent(); ok {
+		h1 := m.Mean(1, 1, 0, cp.D, p)
+		if !(h1 > 0) {
+			return 0
+		}
+		c := h1 / math.Pow(p.Hlv*af, n)
+		h = func(q float64) float64 { return c * math.Pow(q, n) }
 	}
-	// f(q) = q − area·dT/(1/h(q) + 1/ho): negative for small q (h ∝ q^0.8),
-	// not negative at the coolant-side limit q = ho·area·dT.
+	ho := cp.c.CoolantHTC.SI
+	coolant := cp.c.CoolantHTC.Set && ho > 0 && finite(ho)
+	if n, ok := m.MassFluxExponent(); ok && !coolant {
+		return math.Pow(h(1)*area*dT, 1/(1-n))
+	}
+	// f(q) = q − area·dT/(1/h(q) + 1/ho): negative for small q (h rises
+	// slower than q), not negative at the coolant-side limit q = ho·area·dT;
+	// without a coolant side the upper end is found by growing it.
+	rej := func(q float64) float64 {
+		hq := h(q)
+		if !(hq > 0) {
+			return 0
+		}
+		if !coolant {
+			return hq * area * dT
+		}
+		return area * dT / (1/hq + 1/ho)
+	}
 	lo, hi := 0.0, ho*area*dT
-	for i := 0; i < 100 && hi-lo > 1e-12*hi; i++ {
+	if !coolant {
+		hi = 1.0
+		for i := 0; i < 200 && hi-rej(hi) < 0; i++ {
+			hi *= 4
+		}
+	}
+	for i := 0; i < 200 && hi-lo > 1e-12*hi; i++ {
 		q := (lo + hi) / 2
-		if q-area*dT/(1/(c*math.Pow(q, 0.8))+1/ho) < 0 {
+		if q-rej(q) < 0 {
 			lo = q
 		} else {
 			hi = q
@@ -176,7 +240,7 @@ func shahRejection(cp comp, area, dT float64, p correlate.Props) float64 {
 // condensers reject qTot in case c: conductance condensers by UA·(T − T_sink),
 // geometry condensers by their film. It bisects on T between the highest
 // sink and the fluid's top; ok is false when even the top cannot reject it.
-func geometrySaturation(shah bool, fl fluid.Fluid, info fluid.Info, c *lang.Case, conds []comp, sinks []float64, b geom.Vec3, qTot float64) (float64, bool) {
+func geometrySaturation(cm condModel, fl fluid.Fluid, info fluid.Info, c *lang.Case, conds []comp, sinks []float64, b geom.Vec3, qTot float64) (float64, bool) {
 	lo := info.Tmin
 	for _, ts := range sinks {
 		lo = math.Max(lo, ts)
@@ -194,7 +258,7 @@ func geometrySaturation(shah bool, fl fluid.Fluid, info fluid.Info, c *lang.Case
 		var q float64
 		for i, cp := range conds {
 			if byGeometryIn(c, cp) {
-				q += filmRejection(shah, cp, b, T, sinks[i], p)
+				q += filmRejection(cm, cp, b, T, sinks[i], p)
 			} else {
 				ua, _ := conductanceIn(c, cp)
 				q += ua * (T - sinks[i])

@@ -8,6 +8,7 @@ import (
 
 	"circa/check/correlate"
 	"circa/check/fluid"
+	"circa/lang"
 )
 
 // TestCondenserByGeometry gives the ring's horizontal condenser by its bore,
@@ -98,6 +99,61 @@ func TestCondenserShah(t *testing.T) {
 	series := only(t, estimate(t, load(t, strings.Replace(base, "conductance 150 W/K;", "coolant_htc 2000 W/(m2 K);", 1)), Options{NoTilt: true}))
 	if d := series.SatTemperature - 298.15; !(d > 15.92) || !(series.SatTemperature > alone.SatTemperature) {
 		t.Errorf("series ΔT %.2f K (Shah alone %.2f K), want above the coolant side's 15.92 K", d, alone.SatTemperature-298.15)
+	}
+}
+
+// TestCondenserForcedMethods selects each further forced-convection
+// condensation correlation for the ring's geometry condenser: as for Shah,
+// the saturation temperature must make the method's mean coefficient from
+// x = 1 to 0, at the mass flux that condenses the load, reject it; with a
+// coolant side in series, Q = A·ΔT/(1/h + 1/ho).
+func TestCondenserForcedMethods(t *testing.T) {
+	for _, c := range []struct {
+		name, source string
+		m            correlate.CondensationMethod
+	}{
+		{"boyko_kruzhilin", "Boyko & Kruzhilin 1967", correlate.CondBoykoKruzhilin},
+		{"akers_deans_crosser", "Akers, Deans & Crosser 1959", correlate.CondAkersDeansCrosser},
+		{"cavallini_smith_zecchin", "Cavallini, Smith & Zecchin 1974", correlate.CondCavalliniSmithZecchin},
+	} {
+		for _, ho := range []float64{0, 2000} {
+			src := strings.ReplaceAll(ring, "HEAT", "300 W")
+			side := ""
+			if ho > 0 {
+				side = fmt.Sprintf("; coolant_htc %g W/(m2 K)", ho)
+			}
+			src = strings.Replace(src, "conductance 150 W/K; sink 25 degC", "sink 25 degC; tubes 2"+side, 1)
+			r := estimate(t, load(t, src+"methods { condensation "+c.name+" }\n"), Options{NoTilt: true})
+			if r.Loops[0].Methods.Condensation != c.name {
+				t.Fatalf("methods %+v", r.Loops[0].Methods)
+			}
+			cr := only(t, r)
+			T := cr.SatTemperature
+			fl, _ := fluid.Lookup("R134a")
+			sat, _ := fl.AtT(T)
+			p := correlate.Props{RhoL: sat.RhoL, RhoV: sat.RhoV, MuL: sat.MuL, KL: sat.KL, CpL: sat.CpL, Hlv: sat.Hlv}
+			G := 300 / (sat.Hlv * math.Pi / 4 * 0.01 * 0.01 * 2)
+			h := c.m.Mean(G, 1, 0, 0.01, p)
+			area := math.Pi * 0.01 * 0.3 * 2
+			q := h * area * (T - 298.15)
+			if ho > 0 {
+				q = area * (T - 298.15) / (1/h + 1/ho)
+			}
+			if math.Abs(q-300) > 1e-3*300 {
+				t.Errorf("%s, coolant %g: T_sat %.3f °C rejects %.2f W, want 300 W", c.name, ho, T-273.15, q)
+			}
+			hasA := false
+			for _, a := range r.Loops[0].Assumptions {
+				hasA = hasA || strings.Contains(a, c.source)
+			}
+			if !hasA {
+				t.Errorf("assumptions do not name %s: %q", c.source, r.Loops[0].Assumptions)
+			}
+		}
+	}
+	if _, err := chooseMethods(lang.Methods{Condensation: lang.Choice{Name: "nusselt"}}, Options{}); err == nil ||
+		!strings.Contains(err.Error(), "cavallini_smith_zecchin") {
+		t.Errorf("unknown condensation method: %v", err)
 	}
 }
 

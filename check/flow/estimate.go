@@ -71,8 +71,8 @@ type prepared struct {
 	void     correlate.VoidMethod
 	fric     correlate.Friction
 	chfK     float64
-	chfFlow  bool // flow-boiling CHF (Katto–Ohno) instead of the pool-boiling form
-	condShah bool // geometry condensers by Shah (1979) instead of the laminar film
+	chfFlow  bool      // flow-boiling CHF (Katto–Ohno) instead of the pool-boiling form
+	cond     condModel // the in-tube coefficient of geometry condensers
 	limits   lang.Limits
 	lay      *geom.Layout // node positions, for liquid-column heights
 	findings []Finding
@@ -192,9 +192,9 @@ func estimateLoop(m *lang.Model, l *lang.Loop, methods MethodsUsed, points []poi
 			}
 		}
 		for _, cp := range p.net.comps {
-			if byGeometry(cp) && p.condShah {
+			if byGeometry(cp) && p.cond.forced {
 				lr.Assumptions = append(lr.Assumptions, "condensers given by geometry: forced-convection condensation inside their tubes "+
-					"(Shah 1979), averaged over the quality from saturated vapour to liquid at the mass flux that condenses the "+
+					"("+p.cond.source()+"), averaged over the quality from saturated vapour to liquid at the mass flux that condenses the "+
 					"condenser's share of the load; the tube wall at the coolant temperature unless coolant_htc gives the coolant side")
 				break
 			}
@@ -347,8 +347,8 @@ func chooseMethods(ms lang.Methods, opts Options) (MethodsUsed, error) {
 	if mu.Saturation != "single" && mu.Saturation != "local" {
 		return mu, fmt.Errorf("unknown saturation state %q (want single or local)", mu.Saturation)
 	}
-	if mu.Condensation != "film" && mu.Condensation != "shah" {
-		return mu, fmt.Errorf("unknown condensation method %q (want film or shah)", mu.Condensation)
+	if _, err := parseCondensation(mu.Condensation); err != nil {
+		return mu, err
 	}
 	if mu.Cells > 100000 {
 		mu.Cells = 100000
@@ -382,7 +382,7 @@ func prepare(m *lang.Model, l *lang.Loop, mu MethodsUsed) *prepared {
 		p.chfK = correlate.Zuber
 	}
 	p.chfFlow = mu.CHF == "katto_ohno"
-	p.condShah = mu.Condensation == "shah"
+	p.cond, _ = parseCondensation(mu.Condensation)
 	var err error
 	switch {
 	case l.Fluid.Table != "":
@@ -518,7 +518,7 @@ func (p *prepared) newState(pt point, cr *CaseResult) (*state, []Finding) {
 		T, cr.SatSource = outletT, "condenser outlet"
 	case film && missing == "":
 		var ok bool
-		T, ok = geometrySaturation(p.condShah, p.fl, p.info, pt.c, conds, sinks, geom.BodyForceAt(pt.yaw, pt.pitch, pt.roll, pt.accel), qTot)
+		T, ok = geometrySaturation(p.cond, p.fl, p.info, pt.c, conds, sinks, geom.BodyForceAt(pt.yaw, pt.pitch, pt.roll, pt.accel), qTot)
 		cr.SatSource = "condenser balance"
 		if !ok {
 			find(RuleCondenser, "error", conds[0].name, T, p.info.Tmax, "K", "the condensers cannot reject %.0f W in case %s below the top of the fluid's range (%.2f °C): no estimate", qTot, cname, p.info.Tmax-273.15)

@@ -425,7 +425,7 @@ func (p *prepared) condenserMargin(s *state, cr *CaseResult) {
 		if geo {
 			g = 0
 			if dT := s.sat.T - ts; dT > 0 {
-				g = filmRejection(p.condShah, cp, s.b, s.sat.T, ts, s.p) / dT
+				g = filmRejection(p.cond, cp, s.b, s.sat.T, ts, s.p) / dT
 			}
 		}
 		ua += g

@@ -61,7 +61,11 @@ type MethodsUsed struct {
 	CHF         string `json:"chf"`
 	Saturation  string `json:"saturation"` // "single": one state per case; "local": at each cell's pressure
 	// Condensation is the in-tube coefficient of condensers given by
-	// geometry: "film" (Nusselt 1916, Chato 1962) or "shah" (Shah 1979).
+	// geometry: "film" (Nusselt 1916, Chato 1962), or one of the
+	// forced-convection correlations "shah" (Shah 1979), "boyko_kruzhilin"
+	// (Boyko & Kruzhilin 1967), "akers_deans_crosser" (Akers, Deans &
+	// Crosser 1959), "cavallini_smith_zecchin" (Cavallini, Smith & Zecchin
+	// 1974).
 	Condensation string `json:"condensation"`
 	Cells        int    `json:"cells"`
 }
