@@ -29,6 +29,10 @@ type Stmt struct {
 
 	Block *Block // nil when the statement has no block
 	Bad   bool   // the statement did not parse; Word may still be set
+	// head is set on a statement read without its parts (see
+	// parseHeads): Args is nil and the parts are parsed again from the
+	// text when they are needed.
+	head bool
 }
 
 // Span returns the statement's head span (without its block).

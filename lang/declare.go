@@ -25,7 +25,7 @@ func kindOf(word string) (Kind, bool) {
 func (r *resolver) declare() {
 	r.loopStmts = map[*Loop]*Stmt{}
 	r.compStmts = map[*Component]*Stmt{}
-	r.nodeAt = map[*Node]*Expr{}
+	r.nodeAt = map[*Node]*Stmt{}
 	r.caseStmts = map[*Case]*Stmt{}
 	for _, path := range r.m.Order {
 		f := r.m.Files[path]
@@ -33,7 +33,20 @@ func (r *resolver) declare() {
 			if st.Bad {
 				continue
 			}
-			switch kw := st.Keyword(); kw {
+			kw := st.Keyword()
+			switch kw {
+			case "param":
+				// declareParam reads the parts itself.
+			case "loop":
+				// The loop's own parts; its statements are read one at a
+				// time.
+				st = r.full(path, st)
+			default:
+				// What the model keeps of a part, a case, limits or
+				// methods is their whole tree; they are few.
+				st = r.fullTree(path, st)
+			}
+			switch kw {
 			case "include":
 			case "param":
 				r.declareParam(path, st)
@@ -131,6 +144,8 @@ func (r *resolver) unknownWord(file string, st *Stmt, known []string, where stri
 }
 
 func (r *resolver) declareParam(file string, st *Stmt) {
+	head := st
+	st = r.full(file, st)
 	if len(st.Args) != 3 || st.Args[0].Expr == nil || nameOf(st.Args[0].Expr) == nil || st.Args[1].Key != "=" || st.Args[2].Expr == nil {
 		r.shapeError(file, st, "param needs a name and a value: param NAME = VALUE")
 		return
@@ -147,6 +162,11 @@ func (r *resolver) declareParam(file string, st *Stmt) {
 	*p = Param{Decl: r.decl(file, st, name), Expr: st.Args[2].Expr}
 	ps := r.stateSlab.alloc()
 	ps.p = p
+	if head.head {
+		// The value is parsed again when it is evaluated, so that the
+		// tree of a large file of parameters is not kept whole.
+		p.Expr, ps.st = nil, head
+	}
 	r.params[name.Name] = ps
 	r.m.Params = append(r.m.Params, p)
 	r.ref(RefParam, name.Name, nil, file, name.Span(), true)
@@ -206,6 +226,8 @@ func (r *resolver) declareLoop(file string, st *Stmt) {
 		if s.Keyword() != "node" && s.Keyword() != "junction" {
 			continue
 		}
+		head := s
+		s = r.full(file, s)
 		if len(s.Args) == 0 || nameOf(s.Args[0].Expr) == nil {
 			r.errorf("syntax", file, s.Span(), "%s needs a name: %s NAME [at (X, Y, Z) UNIT]", s.Keyword(), s.Keyword())
 			l.Unresolved = true
@@ -229,8 +251,9 @@ func (r *resolver) declareLoop(file string, st *Stmt) {
 				n.At.Bad = true
 				continue
 			}
-			// Evaluated when filling, once every file's parameters are declared.
-			r.nodeAt[n] = rest[1].Expr
+			// Evaluated when filling, once every file's parameters are
+			// declared, from Args[2], which is rest[1].
+			r.nodeAt[n] = head
 		}
 		if s.Block != nil {
 			r.errorf("syntax", file, Span{s.Block.Open, s.Block.Open + 1}, "a node takes no block")
@@ -250,6 +273,9 @@ func (r *resolver) declareLoop(file string, st *Stmt) {
 }
 
 func (r *resolver) declareComponent(file string, s *Stmt, l *Loop, k Kind, nodes map[string]*Node) {
+	// Filling reads the statement again; the head is all it keeps.
+	head := s
+	s = r.full(file, s)
 	parts := s.Args
 	if len(parts) == 0 || nameOf(parts[0].Expr) == nil {
 		if k == Reservoir {
@@ -317,7 +343,7 @@ func (r *resolver) declareComponent(file string, s *Stmt, l *Loop, k Kind, nodes
 	}
 	r.comps[nm.Name] = c
 	l.Components = append(l.Components, c)
-	r.compStmts[c] = s
+	r.compStmts[c] = head
 	r.ref(RefComponent, nm.Name, l, file, nm.Span(), true)
 }
 

@@ -351,7 +351,8 @@ func (r *resolver) param(name string) (units.Quantity, bool) {
 		return units.Quantity{}, false
 	}
 	ps.state = 1
-	q, ut, ok := r.eval(ps.p.File, ps.p.Expr)
+	e := r.paramExpr(ps)
+	q, ut, ok := r.eval(ps.p.File, e)
 	if ps.state == 2 { // a cycle was reported while evaluating
 		return units.Quantity{}, false
 	}
@@ -360,7 +361,7 @@ func (r *resolver) param(name string) (units.Quantity, bool) {
 	}
 	ps.state, ps.q, ps.ok = 2, q, ok
 	if ok {
-		ps.p.Value = r.atV(Value{SI: q.SI, Set: true}, ps.p.File, ps.p.Expr.Span(), ut)
+		ps.p.Value = r.atV(Value{SI: q.SI, Set: true}, ps.p.File, e.Span(), ut)
 		ps.p.Dim, ps.p.AbsTemp = q.Dim, q.AbsTemp
 	}
 	return q, ok

@@ -19,8 +19,8 @@ import (
 func (r *resolver) fill() {
 	for _, l := range r.m.Loops {
 		for _, n := range l.Nodes {
-			if e := r.nodeAt[n]; e != nil {
-				n.At = r.vector(n.File, e, needLength)
+			if st := r.nodeAt[n]; st != nil {
+				n.At = r.vector(n.File, r.full(n.File, st).Args[2].Expr, needLength)
 			}
 			if n.At.Bad {
 				l.Unresolved = true
@@ -47,7 +47,7 @@ func (r *resolver) fill() {
 				_ = k
 				continue
 			}
-			r.loopField(l, s)
+			r.loopField(l, r.fullTree(l.File, s))
 		}
 		if l.Charge.Bad || l.DesignPressure.Bad || l.Saturation.Bad {
 			l.Unresolved = true
@@ -247,6 +247,7 @@ func (r *resolver) componentFields(c *Component, st *Stmt) {
 			c.Unresolved = true
 			continue
 		}
+		s = r.fullTree(c.File, s)
 		if s.Keyword() == "use" {
 			id := (*Ident)(nil)
 			if len(s.Args) == 1 {

@@ -39,6 +39,10 @@ func (r *resolver) read(path string, src []byte, stack []string, from Location) 
 		r.errorf("file-unreadable", from.File, from.Span, "%s is larger than %d MiB", path, MaxFileSize>>20)
 		return
 	}
+	if r.heads {
+		r.readParsed(parseHeads(path, src), stack)
+		return
+	}
 	r.readParsed(Parse(path, src), stack)
 }
 
@@ -54,7 +58,7 @@ func (r *resolver) readParsed(f *File, stack []string) {
 		if st.Keyword() != "include" || st.Bad {
 			continue
 		}
-		s, ok := r.stringArg(path, st)
+		s, ok := r.stringArg(path, r.full(path, st))
 		if !ok {
 			continue
 		}

@@ -70,6 +70,10 @@ type parser struct {
 	// tree: the statements are not kept (see FormatSource).
 	sink formatSink
 	held []*heldStmt // with a sink, the open blocks' statements by depth
+	// heads, when set, keeps of each statement that the fast path reads
+	// only its head (span, word, block), from heads' own chunks: its
+	// parts are given back at once (see parseHeads).
+	heads *headNodes
 }
 
 // heldStmt is what an open block's statement keeps while its block is read
@@ -282,6 +286,11 @@ func (p *parser) statement() {
 		mark := p.nodes.mark()
 		if stmt, ok := q.stmt(); ok {
 			p.cur = q.i
+			if p.heads != nil && p.sink == nil {
+				stmt = p.heads.keep(stmt)
+				p.nodes.release(mark)
+				p.nodes.argPtrs.reset()
+			}
 			depth := len(p.stack)
 			p.add(stmt)
 			p.terminator(stmt)

@@ -42,6 +42,26 @@ func LoadSource(root string, src []byte, fsys FS) *Model {
 	return resolveRoot(newModel(root), root, src, fsys)
 }
 
+// LoadSourceModel is LoadSource followed by DropSyntax, for a caller that
+// needs only the model, the texts and their comments (circa check): the
+// files keep of each statement only its head while they are resolved, and
+// the resolver parses a statement's parts again when it reads them, so a
+// large file's whole tree, several times the size of its model, never
+// exists at once. The model is the one LoadSource and DropSyntax give.
+func LoadSourceModel(root string, src []byte, fsys FS) *Model {
+	if fsys == nil {
+		fsys = OSFS{}
+	}
+	m := newModel(root)
+	r := newResolver(m, fsys)
+	r.heads = true
+	r.read(root, src, nil, Location{})
+	m.readDiags = slices.Clone(m.Diags)
+	r.resolve()
+	m.DropSyntax()
+	return m
+}
+
 // LoadParsed resolves the parsed file f as the root (an editor buffer
 // parsed by Reparse); includes are read through fsys. The model holds f
 // itself, which it does not change.
@@ -142,7 +162,8 @@ func dedupe(ds []Diagnostic) []Diagnostic {
 
 type paramState struct {
 	p     *Param
-	state int // 0 unevaluated, 1 evaluating, 2 done
+	st    *Stmt // the statement, when the parameter keeps no expression (heads)
+	state int   // 0 unevaluated, 1 evaluating, 2 done
 	q     units.Quantity
 	ok    bool
 }
@@ -158,7 +179,7 @@ type resolver struct {
 	// loop statements kept for pass two
 	loopStmts map[*Loop]*Stmt
 	compStmts map[*Component]*Stmt
-	nodeAt    map[*Node]*Expr // coordinates, evaluated when filling
+	nodeAt    map[*Node]*Stmt // node statements with coordinates, evaluated when filling
 	caseStmts map[*Case]*Stmt
 	limStmts  []fileStmt
 	methStmts []fileStmt
@@ -178,6 +199,10 @@ type resolver struct {
 	overrideErr *OverrideError
 	// sites holds where the values were written, a chunk at a time.
 	sites slab[site]
+	// heads is set when the files are read keeping only the heads of
+	// their statements (LoadSourceModel); hp parses their parts again.
+	heads bool
+	hp    *headParser
 }
 
 // atV returns v written at span of file, its site taken from the resolver's

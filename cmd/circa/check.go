@@ -119,13 +119,11 @@ func runCheck(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 				status = exitUsage
 				continue
 			}
-			m, ok := set.apply("check", lang.LoadSource("<stdin>", src, nil), stderr)
+			m, ok := set.load("check", "<stdin>", src, stderr)
 			if !ok {
 				status = exitUsage
 				continue
 			}
-			// The report needs the model and the texts, not the trees.
-			m.DropSyntax()
 			runs = append(runs, output.File{Path: "<stdin>", Model: m, Report: check.RunReport(m, opts)})
 			continue
 		}
@@ -139,13 +137,11 @@ func runCheck(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 				status = exitUsage
 				continue
 			}
-			m, ok := set.apply("check", lang.LoadSource(f, src, nil), stderr)
+			m, ok := set.load("check", f, src, stderr)
 			if !ok {
 				status = exitUsage
 				continue
 			}
-			// The report needs the model and the texts, not the trees.
-			m.DropSyntax()
 			runs = append(runs, output.File{Path: f, Model: m, Report: check.RunReport(m, opts)})
 		}
 	}

@@ -41,6 +41,20 @@ func (s *setFlag) Set(v string) error {
 // apply resolves m again with the parameters set. A parameter the file
 // does not declare, or a value of the wrong dimension, is printed as a
 // usage error and ok is false.
+// load resolves the text src of path for a report, which needs the model
+// and the texts, not the trees: without --set the trees are never kept
+// whole (LoadSourceModel); a variant is resolved from them first.
+func (s setFlag) load(cmd, path string, src []byte, stderr io.Writer) (*lang.Model, bool) {
+	if len(s) == 0 {
+		return lang.LoadSourceModel(path, src, nil), true
+	}
+	m, ok := s.apply(cmd, lang.LoadSource(path, src, nil), stderr)
+	if ok {
+		m.DropSyntax()
+	}
+	return m, ok
+}
+
 func (s setFlag) apply(cmd string, m *lang.Model, stderr io.Writer) (*lang.Model, bool) {
 	if len(s) == 0 {
 		return m, true

@@ -1,0 +1,91 @@
+package lang
+
+import (
+	"os"
+	"path/filepath"
+	"reflect"
+	"strings"
+	"testing"
+)
+
+// sameModel checks that LoadSourceModel gives the model LoadSource and
+// DropSyntax give.
+func sameModel(t *testing.T, path string, src []byte) {
+	t.Helper()
+	want := LoadSource(path, src, nil)
+	want.DropSyntax()
+	got := LoadSourceModel(path, src, nil)
+	if !reflect.DeepEqual(got, want) {
+		t.Errorf("%s: LoadSourceModel differs from LoadSource and DropSyntax:\n%s", path, modelDiff(got, want))
+	}
+}
+
+// modelDiff names the first parts of two models that differ.
+func modelDiff(got, want *Model) string {
+	var out []string
+	gv, wv := reflect.ValueOf(got).Elem(), reflect.ValueOf(want).Elem()
+	for i := range gv.NumField() {
+		name := gv.Type().Field(i).Name
+		if !gv.Field(i).CanInterface() {
+			continue
+		}
+		if !reflect.DeepEqual(gv.Field(i).Interface(), wv.Field(i).Interface()) {
+			out = append(out, name)
+		}
+	}
+	if !reflect.DeepEqual(got.Diags, want.Diags) {
+		for i := range max(len(got.Diags), len(want.Diags)) {
+			if i >= len(got.Diags) || i >= len(want.Diags) || !reflect.DeepEqual(got.Diags[i], want.Diags[i]) {
+				var g, w Diagnostic
+				if i < len(got.Diags) {
+					g = got.Diags[i]
+				}
+				if i < len(want.Diags) {
+					w = want.Diags[i]
+				}
+				out = append(out, "diag "+g.Message()+" | want "+w.Message())
+				break
+			}
+		}
+	}
+	return strings.Join(out, "\n")
+}
+
+// TestLoadSourceModel compares the two ways of loading on the examples, on
+// the fuzz corpora and on texts where a statement's parts are read again
+// from the middle of a line, after a byte-order mark or after lone
+// carriage returns.
+func TestLoadSourceModel(t *testing.T) {
+	for p, src := range exampleFiles(t) {
+		sameModel(t, p, src)
+	}
+	corpus, _ := filepath.Glob(filepath.Join("testdata", "fuzz", "*", "*"))
+	for _, p := range corpus {
+		b, err := os.ReadFile(p)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if src, err := parseCorpusBytes(b); err == nil {
+			sameModel(t, p, src)
+		}
+	}
+	for i, src := range []string{
+		"\ufeffparam a = 3 mm\nparam b = -a * 2 + (1 m) / 4\n",
+		"param a = 3 mm; param b = a^2 # area\rparam c = b*-1\r\n",
+		"loop l { fluid water; node a at (0, 0, 0) mm; node b at (0,0,-1) m\n pipe p from a to b { length 1 m; bore a_bore }\n}\nparam a_bore = 8 mm\n",
+		"part bp { bore 8 mm; length 2 m }\nloop l {\n fluid water\n node a\n node b\n pipe p from a to b { use bp }\n evaporator e from b to a { use bp; heat 50 W }\n}\ncase c nominal { heat e 40 W; sink 20 degC }\nlimits { exit_quality 0.4 }\nmethods { friction friedel }\n",
+		"param a = 3 mm $\nparam b = a +\nloop l {\n node a at (0 0 0)\n pipe from a\n}\n",
+		"param a = b\nparam b = a\nparam c = 1 km; param c = 2 m\n",
+	} {
+		sameModel(t, "text"+string(rune('a'+i))+".loop", []byte(src))
+	}
+}
+
+// FuzzLoadSourceModel checks that loading for the model alone gives the
+// model LoadSource and DropSyntax give, whatever the text.
+func FuzzLoadSourceModel(f *testing.F) {
+	addSeeds(f)
+	f.Fuzz(func(t *testing.T, src []byte) {
+		sameModel(t, "fuzz.loop", src)
+	})
+}
