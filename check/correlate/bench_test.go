@@ -72,3 +72,18 @@ func BenchmarkSinglePhase(b *testing.B) {
 		})
 	}
 }
+
+// BenchmarkCondensationMean is the cost of one quality-averaged in-tube
+// coefficient, which a geometry condenser evaluates once per trial
+// saturation temperature (Akers–Deans–Crosser once per bisection step).
+func BenchmarkCondensationMean(b *testing.B) {
+	p := r134a40
+	for _, m := range []CondensationMethod{CondShah1979, CondBoykoKruzhilin, CondAkersDeansCrosser, CondCavalliniSmithZecchin} {
+		b.Run(m.String(), func(b *testing.B) {
+			b.ReportAllocs()
+			for b.Loop() {
+				sink += m.Mean(300, 1, 0, 0.01, p)
+			}
+		})
+	}
+}
