@@ -98,7 +98,7 @@ func runEstimate(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 		}
 		opts.Sweep = &sw
 	}
-	m, rc, ok := loadClean(file, "estimate", "no estimate and no design guidance", set, stderr)
+	m, rc, ok := loadClean(file, "estimate", "no estimate and no design guidance", set, (noGuide || format == "csv") && len(vy) == 0, stderr)
 	if !ok {
 		return rc
 	}

@@ -137,12 +137,20 @@ func oneFile(fl *flag.FlagSet, args []string, stderr io.Writer) (file string, rc
 // (estimate, plot): the errors are printed and ok is false when there are
 // any, rc then being the command's status (exitUsage when the file cannot
 // be read or a --set does not apply, exitFindings when it has errors).
-func loadClean(file, cmd, nothing string, set setFlag, stderr io.Writer) (m *lang.Model, rc int, ok bool) {
+//
+// With modelOnly the caller needs the model and the texts, not the trees
+// (an estimate without guidance or sweeps, which resolve variants).
+func loadClean(file, cmd, nothing string, set setFlag, modelOnly bool, stderr io.Writer) (m *lang.Model, rc int, ok bool) {
 	src, ok := readSource(cmd, file, nil, stderr)
 	if !ok {
 		return nil, exitUsage, false
 	}
-	if m, ok = set.apply(cmd, lang.LoadSource(file, src, lang.OSFS{}), stderr); !ok {
+	if modelOnly {
+		m, ok = set.load(cmd, file, src, stderr)
+	} else {
+		m, ok = set.apply(cmd, lang.LoadSource(file, src, lang.OSFS{}), stderr)
+	}
+	if !ok {
 		return m, exitUsage, false
 	}
 	bad := false

@@ -79,7 +79,7 @@ func runPlot(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 		}
 		exts = append(exts, f)
 	}
-	m, rc, ok := loadClean(file, "plot", "no figures", set, stderr)
+	m, rc, ok := loadClean(file, "plot", "no figures", set, false, stderr)
 	if !ok {
 		return rc
 	}
