@@ -550,17 +550,22 @@ func (p *prepared) newState(pt point, cr *CaseResult) (*state, []Finding) {
 	s.local = p.methods.Saturation == "local"
 	s.pIn = make([]float64, len(net.comps))
 	s.refCond = -1
-	if s.local && !net.ring {
-		s.pj = make([]float64, net.nj)
-		for j := range s.pj {
-			s.pj[j] = sat.P
-		}
+	if s.local {
 		s.pLo, s.pHi = 0, math.Inf(1)
 		if lo, err := p.fl.AtT(p.info.Tmin); err == nil {
 			s.pLo = lo.P
 		}
 		if hi, err := p.fl.AtT(p.info.Tmax); err == nil {
 			s.pHi = hi.P
+		}
+		if s.pLo > 0 && s.pHi < math.Inf(1) {
+			s.grid = &satGrid{lnRef: math.Log(sat.P)}
+		}
+	}
+	if s.local && !net.ring {
+		s.pj = make([]float64, net.nj)
+		for j := range s.pj {
+			s.pj[j] = sat.P
 		}
 		for ci, cp := range net.comps {
 			if cp.kind == lang.Condenser {

@@ -82,6 +82,9 @@ type state struct {
 	pjGood  []float64 // pj as the last converged evaluation left them
 	pLo     float64   // the fluid's saturation pressure range, Pa
 	pHi     float64
+	// grid caches the saturated states of the local march (one case's;
+	// copies of the state share it, on one goroutine).
+	grid *satGrid
 }
 
 // scaled applies the loss scale to a component's pressure-change parts.

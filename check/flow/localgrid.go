@@ -1,0 +1,507 @@
+package flow
+
+import (
+	"math"
+
+	"circa/check/correlate"
+	"circa/check/geom"
+	"circa/lang"
+)
+
+// The local march asks for the saturated state at the pressure of every
+// cell. A look-up in the fluid's table inverts its pressure spline, and the
+// friction methods built on the liquid-only and vapour-only gradients
+// prepare two Churchill factors per property set: done per cell that is
+// most of an estimate's cost. So each case keeps the saturated states on a
+// grid uniform in ln p, filled as the march first reaches each node, and a
+// cell takes its properties linearly interpolated in ln p between the two
+// nodes around its pressure; a tube marched at one mass flux prepares its
+// friction once per node it crosses and interpolates the gradient between
+// them.
+//
+// Accuracy: linear interpolation over a step h in ln p (linear in p within
+// an interval, the same order) errs by about h²/8 times the property's
+// relative second derivative. The vapour density is nearly proportional
+// to p (relative second derivative ≈ 1), so its error is about 1.25e-5 at
+// h = 0.01; the liquid enthalpy's is a few parts in 10⁶ of the latent heat,
+// and so of the local quality. TestLocalGridProperties checks the
+// interpolated states against the table across the nodes, and
+// TestLocalFastMarch the estimates against the fine march that looks every
+// cell up exactly (flows within 1e-4 relative).
+
+// satGridStep is the grid's step in ln p.
+const satGridStep = 0.01
+
+// satNode is the saturated state at one grid pressure.
+type satNode struct {
+	ok      bool
+	hl, hlv float64 // saturated liquid enthalpy and latent heat, J/kg
+	pl      correlate.Props
+}
+
+// satGrid holds a case's saturated states at p_k = p_ref·e^(k·h) for the
+// nodes the march has reached, k from k0.
+type satGrid struct {
+	lnRef float64
+	k0    int
+	nodes []satNode
+	// The interval of the last look-up: nodes ka and ka+1 at pa and pb.
+	ka     int
+	pa, pb float64
+}
+
+// clampP clamps a pressure to the fluid's saturation range.
+func (s *state) clampP(p float64) float64 {
+	if !(p > s.pLo) {
+		return s.pLo
+	}
+	if !(p < s.pHi) {
+		return s.pHi
+	}
+	return p
+}
+
+// localProps is the saturated state the local march takes at one
+// pressure: interpolated between grid nodes k and k+1 with weight t on the
+// upper one (exact: looked up directly, k unused).
+type localProps struct {
+	hl, hlv float64
+	pl      correlate.Props
+	k       int
+	t       float64
+	exact   bool
+}
+
+// localExact, set by tests only, has the local march look up every cell's
+// saturated state and prepare its friction directly instead of through the
+// grid, march liquid tubes like the others, and size the adiabatic tubes'
+// steps by the embedded error estimate at tolerance localTolFine: the fine
+// march that the grid's march is checked against.
+var localExact bool
+
+// node returns grid node k, computing it on first use.
+func (s *state) node(k int) *satNode {
+	g := s.grid
+	if len(g.nodes) == 0 {
+		g.k0 = k
+		g.nodes = make([]satNode, 1, 16)
+	}
+	if k < g.k0 {
+		n := g.k0 - k
+		grown := make([]satNode, n+len(g.nodes), n+cap(g.nodes))
+		copy(grown[n:], g.nodes)
+		g.nodes, g.k0 = grown, k
+	}
+	for k-g.k0 >= len(g.nodes) {
+		g.nodes = append(g.nodes, satNode{})
+	}
+	nd := &g.nodes[k-g.k0]
+	if !nd.ok {
+		sat, pl := s.satAt(math.Exp(g.lnRef + float64(k)*satGridStep))
+		*nd = satNode{ok: true, hl: sat.HL, hlv: sat.Hlv, pl: pl}
+	}
+	return nd
+}
+
+// propsAt is the saturated state of the local march at pressure p,
+// clamped to the fluid's range.
+func (s *state) propsAt(p float64) localProps {
+	if localExact || s.grid == nil {
+		sat, pl := s.satAt(p)
+		return localProps{hl: sat.HL, hlv: sat.Hlv, pl: pl, exact: true}
+	}
+	p = s.clampP(p)
+	g := s.grid
+	var k int
+	var t float64
+	if p >= g.pa && p < g.pb {
+		// The interval of the last look-up: linear in p within it (the
+		// same order of accuracy as linear in ln p), with no logarithm.
+		k, t = g.ka, (p-g.pa)/(g.pb-g.pa)
+	} else {
+		u := (math.Log(p) - g.lnRef) / satGridStep
+		fk := math.Floor(u)
+		k = int(fk)
+		g.ka = k
+		g.pa = math.Exp(g.lnRef + fk*satGridStep)
+		g.pb = math.Exp(g.lnRef + (fk+1)*satGridStep)
+		t = (p - g.pa) / (g.pb - g.pa)
+		if !(t >= 0 && t <= 1) {
+			t = math.Min(math.Max(t, 0), 1)
+			g.pb = g.pa // not reused
+		}
+	}
+	a, b := s.node(k), s.node(k+1)
+	lp := localProps{k: k, t: t}
+	lp.hl = a.hl + t*(b.hl-a.hl)
+	lp.hlv = a.hlv + t*(b.hlv-a.hlv)
+	pa, pb := &a.pl, &b.pl
+	lp.pl = *pa
+	lp.pl.RhoL = pa.RhoL + t*(pb.RhoL-pa.RhoL)
+	lp.pl.RhoV = pa.RhoV + t*(pb.RhoV-pa.RhoV)
+	lp.pl.MuL = pa.MuL + t*(pb.MuL-pa.MuL)
+	lp.pl.MuV = pa.MuV + t*(pb.MuV-pa.MuV)
+	lp.pl.Sigma = pa.Sigma + t*(pb.Sigma-pa.Sigma)
+	lp.pl.KL = pa.KL + t*(pb.KL-pa.KL)
+	lp.pl.CpL = pa.CpL + t*(pb.CpL-pa.CpL)
+	lp.pl.Hlv = lp.hlv
+	lp.pl.ReducedPressure = pa.ReducedPressure + t*(pb.ReducedPressure-pa.ReducedPressure)
+	return lp
+}
+
+// localXp is the local quality of reference enthalpy x at state lp.
+func (s *state) localXp(x float64, lp *localProps) float64 {
+	return (s.sat.HL + x*s.sat.Hlv - lp.hl) / lp.hlv
+}
+
+// tubeFriction is the friction prepared for one tube at one mass flux at
+// grid nodes k and k+1, for the methods that prepare single-phase factors
+// (the others prepare nothing, so they take the interpolated properties).
+type tubeFriction struct {
+	valid bool
+	k     int
+	a, b  correlate.PreparedFriction
+}
+
+// preparesFactors reports whether the friction method computes Churchill
+// factors when prepared.
+func (s *state) preparesFactors() bool {
+	return s.fric.Method == correlate.MullerSteinhagenHeck || s.fric.Method == correlate.Friedel
+}
+
+// gradientLocal is the two-phase (or vapour) friction gradient at local
+// quality xl and state lp in tube cp at mass flux G.
+func (s *state) gradientLocal(tf *tubeFriction, cp *comp, G, xl float64, lp *localProps) float64 {
+	if lp.exact || !s.preparesFactors() {
+		pf := s.fric.Prepare(G, cp.D, cp.rr, lp.pl, s.bmag)
+		return pf.Gradient(xl)
+	}
+	prep := func(k int) correlate.PreparedFriction {
+		return s.fric.Prepare(G, cp.D, cp.rr, s.node(k).pl, s.bmag)
+	}
+	switch {
+	case tf.valid && tf.k == lp.k:
+	case tf.valid && tf.k+1 == lp.k:
+		tf.a, tf.b = tf.b, prep(lp.k+1)
+	case tf.valid && tf.k-1 == lp.k:
+		tf.a, tf.b = prep(lp.k), tf.a
+	default:
+		tf.a, tf.b = prep(lp.k), prep(lp.k+1)
+	}
+	tf.valid, tf.k = true, lp.k
+	ga, gb := tf.a.Gradient(xl), tf.b.Gradient(xl)
+	return ga + lp.t*(gb-ga)
+}
+
+// cellLocal evaluates one cell of reference enthalpy x at local state lp:
+// friction gradient, void, mixture and homogeneous densities and the local
+// quality. Liquid keeps the density and viscosity of its own temperature.
+func (s *state) cellLocal(tf *tubeFriction, cp *comp, G, x, cosInc float64, lp *localProps) (dpdz, alpha, rhoM, rhoH, xl float64) {
+	xl = s.localXp(x, lp)
+	switch {
+	case xl <= 0:
+		rho, mu := s.liquid(math.Min(x, 0))
+		return s.liquidGradient(G, cp.D, cp.rr, rho, mu), 0, rho, rho, xl
+	case xl >= 1:
+		return s.gradientLocal(tf, cp, G, 1, lp), 1, lp.pl.RhoV, lp.pl.RhoV, xl
+	}
+	alpha = correlate.VoidFraction(s.void, xl, G, lp.pl, s.bmag, cosInc)
+	return s.gradientLocal(tf, cp, G, xl, lp), alpha, correlate.MixtureDensity(alpha, lp.pl), correlate.HomogeneousDensity(xl, lp.pl), xl
+}
+
+// momLocal is the momentum flux and homogeneous density at reference
+// enthalpy x and local state lp.
+func (s *state) momLocal(G, x, cosInc float64, lp *localProps) (mom, rhoH float64) {
+	xl := s.localXp(x, lp)
+	if xl <= 0 {
+		rho, _ := s.liquid(math.Min(x, 0))
+		return G * G / rho, rho
+	}
+	alpha := correlate.VoidFraction(s.void, xl, G, lp.pl, s.bmag, cosInc)
+	return correlate.AccelerationTerm(G, xl, alpha, lp.pl), correlate.HomogeneousDensity(xl, lp.pl)
+}
+
+// marchLocal is march in local mode: component ci from its inlet pressure
+// s.pIn[ci]. Recorded cells carry the local quality.
+//
+// Heated and cooled components are marched over the method's cells, as the
+// single state marches them; a cell across which the local quality passes
+// 0 (boiling onset) or 1 is split there, each part evaluated on its own
+// side, as the single state's march splits a cell at a phase boundary. A
+// tube that neither heats nor cools changes its state only through its
+// pressure, dp/ds = −F(p): it is integrated by an adaptive Runge–Kutta
+// method of third order (Bogacki & Shampine 1989) whose steps keep the
+// estimated error of the pressure under localTol of the liquid's
+// hydrostatic gradient per metre. Where the saturation hardly moves over
+// the tube's pressure change (most refrigerant loops) that is one step of
+// four evaluations; where liquid flashes as it rises at low pressure, and
+// the void fraction climbs steeply from zero, the steps shrink there.
+func (s *state) marchLocal(ci int, dir float64, m, xin float64, rec func(cellRec)) (float64, parts) {
+	cp := &s.net.comps[ci]
+	am := math.Abs(m)
+	G := am / cp.A
+	xout := s.outletX(ci, am, xin)
+	bd := s.bDisp[ci] * dir
+	cosInc := s.cosInc[ci]
+	n := s.cells
+	if cp.L == 0 {
+		n = 1
+	}
+	var q parts
+	p := s.pIn[ci]
+	if rec == nil && xout == xin && xin <= 0 && !localExact {
+		if q, ok := s.liquidTubeLocal(cp, G, xin, bd, p); ok {
+			return xout, q
+		}
+	}
+	mc := localMarch{s: s, cp: cp, G: G, cosInc: cosInc, rec: rec, bd: bd}
+	if cp.L > 0 {
+		mc.bUnit = bd / cp.L
+	}
+	lp := s.propsAt(p)
+	q.mIn, _ = s.momLocal(G, xin, cosInc, &lp)
+	mc.xlA = s.localXp(xin, &lp)
+	switch {
+	case cp.L == 0:
+		mc.step(xin, xin, 0, p, 0)
+		p -= mc.d
+	case xout == xin:
+		p = mc.adiabatic(xin, p, mc.tol())
+	default:
+		ds := cp.L / float64(n)
+		g := 0.0
+		for k := 0; k < n; k++ {
+			xa, xb := s.faceX(cp, dir, xin, xout, k, n), s.faceX(cp, dir, xin, xout, k+1, n)
+			mc.step(xa, xb, ds, p, g)
+			p -= mc.d
+			g = mc.d / ds
+		}
+	}
+	q.fric, q.grav = mc.fric, mc.grav
+	lp = s.propsAt(p)
+	var rhoHOut float64
+	q.mOut, rhoHOut = s.momLocal(G, xout, cosInc, &lp)
+	q.acc = q.mOut - q.mIn
+	q.local = cp.K * G * G / (2 * rhoHOut)
+	return xout, s.scaled(q)
+}
+
+// localStepRho and localStepLnP bound the change of the mixture density,
+// as a fraction of the liquid density, and of ln p over one step of an
+// adiabatic tube in the grid's march: the third-order step then errs by
+// about the cube of those fractions of the step's pressure change.
+const (
+	localStepRho = 0.02
+	localStepLnP = 0.05
+)
+
+// localTolFine is the fine march's error tolerance per metre, as a
+// fraction of the liquid's hydrostatic gradient ρ_l·|b| (or of the loss
+// gradient where that is larger).
+const localTolFine = 1e-8
+
+// localMaxSteps bounds the evaluations of one adiabatic tube.
+const localMaxSteps = 400
+
+// localMarch accumulates the cells of one component's local march.
+type localMarch struct {
+	s          *state
+	cp         *comp
+	G, cosInc  float64
+	bUnit      float64 // b·ŝ along the flow, m/s²
+	bd         float64 // b·(displacement along the flow), J/kg
+	rec        func(cellRec)
+	tf         tubeFriction
+	fric, grav float64
+	d          float64 // the last step's pressure loss, Pa
+	xlA        float64 // local quality at the current step's start
+}
+
+// localEval is the state of one evaluation of an adiabatic tube: the
+// cell's values and the loss gradient F = dp/ds lost, Pa/m.
+type localEval struct {
+	dpdz, alpha, rhoM, rhoH, xl, F float64
+}
+
+// at evaluates the tube's state at reference enthalpy x and pressure p.
+func (mc *localMarch) at(x, p float64) localEval {
+	s := mc.s
+	lp := s.propsAt(p)
+	var e localEval
+	e.dpdz, e.alpha, e.rhoM, e.rhoH, e.xl = s.cellLocal(&mc.tf, mc.cp, mc.G, x, mc.cosInc, &lp)
+	k := 1.0
+	if s.lossScale > 0 {
+		k = s.lossScale
+	}
+	e.F = k*e.dpdz - e.rhoM*mc.bUnit
+	return e
+}
+
+// tol is the fine march's error tolerance of an adiabatic tube, per metre.
+func (mc *localMarch) tol() float64 {
+	return localTolFine * mc.s.p.RhoL * math.Max(mc.s.bmag, 1e-3*geom.Gn)
+}
+
+// adiabatic integrates a tube of constant reference enthalpy x from
+// pressure p with Bogacki–Shampine's embedded 3(2) pair, first same as
+// last; it returns the outlet pressure. Friction and gravity are
+// integrated with the same weights as the pressure.
+func (mc *localMarch) adiabatic(x, p, tol float64) float64 {
+	L := mc.cp.L
+	h, left := L, L
+	hMin := 1e-6 * L
+	k1 := mc.at(x, p)
+	for steps := 0; left > 0; steps++ {
+		h = math.Min(h, left)
+		if left-h < 1e-9*L {
+			h = left
+		}
+		k2 := mc.at(x, p-h/2*k1.F)
+		k3 := mc.at(x, p-3*h/4*k2.F)
+		pn := p - h*(2*k1.F+3*k2.F+4*k3.F)/9
+		k4 := mc.at(x, pn)
+		// The step's size: within the fine march, the embedded error
+		// estimate against the tolerance per metre (on the hydrostatic
+		// scale, or on the loss gradient where friction dominates, as at
+		// trial flows far above the balance); in the grid's march, the
+		// change of mixture density and of ln p over the step, since the
+		// interpolated properties have a kink at each node that the
+		// estimate would take for error.
+		var f float64
+		if localExact {
+			err := h * math.Abs(-5*k1.F/72+k2.F/12+k3.F/9-k4.F/8)
+			th := math.Max(tol, localTolFine*math.Abs(k1.F)) * h
+			f = 4
+			if err > 0 {
+				f = math.Min(4, math.Max(0.2, 0.9*math.Cbrt(th/err)))
+			}
+		} else {
+			drho := math.Abs(k4.rhoM-k1.rhoM) / (localStepRho * mc.s.p.RhoL)
+			dlnp := math.Abs(math.Log(mc.s.clampP(pn)/mc.s.clampP(p))) / localStepLnP
+			f = 4
+			if v := math.Max(drho, dlnp); v > 0 {
+				f = math.Min(4, math.Max(0.2, 0.9/v))
+			}
+		}
+		// Below the fluid's range (a trial flow far above any balance,
+		// whose friction drains the pressure) the state is the range's
+		// end and no longer changes: the step is taken as it is.
+		ok := f >= 0.9 || h <= hMin || steps >= localMaxSteps || !finite(f) || !(pn > mc.s.pLo)
+		if ok {
+			w1, w2, w3 := 2*h/9, h/3, 4*h/9
+			mc.fric += w1*k1.dpdz + w2*k2.dpdz + w3*k3.dpdz
+			mc.grav += (w1*k1.rhoM + w2*k2.rhoM + w3*k3.rhoM) * mc.bUnit
+			if mc.rec != nil {
+				mc.rec(cellRec{x: (2*k1.xl + 3*k2.xl + 4*k3.xl) / 9, alpha: (2*k1.alpha + 3*k2.alpha + 4*k3.alpha) / 9,
+					rhoM: (2*k1.rhoM + 3*k2.rhoM + 4*k3.rhoM) / 9, rhoH: (2*k1.rhoH + 3*k2.rhoH + 4*k3.rhoH) / 9, ds: h})
+			}
+			p, left, k1 = pn, left-h, k4
+		}
+		if !finite(f) {
+			f = 1
+		}
+		h = math.Max(h*f, hMin)
+		if !(p > mc.s.pLo) {
+			h = left
+		}
+	}
+	return p
+}
+
+// step marches one cell of length ds whose faces have reference enthalpy
+// xa and xb, from pressure p with predicted loss gradient g (Pa/m). When the
+// local quality at the predicted end lies across 0 or 1 from its start, the
+// cell is split at the crossing (found linear in the cell) and each part
+// takes the state at its own midpoint.
+func (mc *localMarch) step(xa, xb, ds, p, g float64) {
+	s := mc.s
+	lpB := s.propsAt(p - g*ds)
+	xlB := s.localXp(xb, &lpB)
+	w := 1.0
+	for _, c := range [2]float64{0, 1} {
+		if (mc.xlA-c)*(xlB-c) < 0 {
+			w = (c - mc.xlA) / (xlB - mc.xlA)
+		}
+	}
+	mc.d = 0
+	if w > 0 && w < 1 {
+		mc.part(xa+(xb-xa)*w/2, w*ds, p-g*ds*w/2, ds)
+		mc.part(xa+(xb-xa)*(1+w)/2, (1-w)*ds, p-g*ds*(1+w)/2, ds)
+	} else {
+		mc.part((xa+xb)/2, ds, p-g*ds/2, ds)
+	}
+	mc.xlA = xlB
+}
+
+// part evaluates length ds of a cell of length cell at reference enthalpy
+// x and pressure p.
+func (mc *localMarch) part(x, ds, p, cell float64) {
+	s := mc.s
+	lp := s.propsAt(p)
+	dpdz, alpha, rhoM, rhoH, xl := s.cellLocal(&mc.tf, mc.cp, mc.G, x, mc.cosInc, &lp)
+	grav := rhoM * mc.bUnit * ds
+	if mc.cp.L == 0 {
+		grav = rhoM * mc.bd
+	}
+	mc.fric += dpdz * ds
+	mc.grav += grav
+	d := dpdz*ds - grav
+	if s.lossScale > 0 && s.lossScale != 1 {
+		d = s.lossScale*dpdz*ds - grav
+	}
+	mc.d += d
+	if mc.rec != nil {
+		mc.rec(cellRec{x: xl, alpha: alpha, rhoM: rhoM, rhoH: rhoH, ds: ds})
+	}
+}
+
+// flashTol is the local quality up to which liquid counts as not flashing:
+// liquid leaving a condenser saturated has local quality zero within the
+// round-off of the saturation look-ups.
+const flashTol = 1e-9
+
+// liquidTubeLocal is marchLocal for a tube of liquid at reference enthalpy
+// x ≤ 0 that neither heats nor cools it: density, viscosity and so the
+// pressure gradient are the same in every cell, and the pressure is linear
+// along the tube. Since the saturated liquid's enthalpy rises with the
+// pressure, the liquid stays below its local saturation everywhere when it
+// does at the lower of the tube's end pressures: then one saturation lookup
+// replaces one per cell, and the parts are those the cells sum to. ok is
+// false where the liquid may flash inside the tube.
+func (s *state) liquidTubeLocal(cp *comp, G, x, bd, pIn float64) (parts, bool) {
+	rho, mu := s.liquid(x)
+	dpdz := s.liquidGradient(G, cp.D, cp.rr, rho, mu)
+	q := parts{fric: dpdz * cp.L, grav: rho * bd}
+	d := q.fric - q.grav
+	if s.lossScale > 0 && s.lossScale != 1 {
+		d = s.lossScale*q.fric - q.grav
+	}
+	lp := s.propsAt(math.Min(pIn, pIn-d))
+	if !(s.localXp(x, &lp) <= flashTol) {
+		return parts{}, false
+	}
+	q.mIn = G * G / rho
+	q.mOut = q.mIn
+	q.local = cp.K * G * G / (2 * rho)
+	return s.scaled(q), true
+}
+
+// faceX is the reference enthalpy at cell face k of n: linear in the heated
+// fraction passed in an evaporator, linear in length elsewhere.
+func (s *state) faceX(cp *comp, dir, xin, xout float64, k, n int) float64 {
+	f := float64(k) / float64(n)
+	if cp.kind == lang.Evaporator {
+		lo, hi := cp.heatedFrom, cp.heatedTo
+		if dir < 0 {
+			lo, hi = 1-hi, 1-lo
+		}
+		switch {
+		case f <= lo:
+			return xin
+		case f >= hi:
+			return xout
+		}
+		return xin + (xout-xin)*(f-lo)/(hi-lo)
+	}
+	return xin + (xout-xin)*f
+}
