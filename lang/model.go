@@ -481,8 +481,9 @@ type Allow struct {
 	Used bool
 }
 
-// RefKind says what a reference names.
-type RefKind int
+// RefKind says what a reference names. It is a byte so that a Ref, of
+// which a file has about one a statement, packs it with IsDecl.
+type RefKind uint8
 
 const (
 	RefParam RefKind = iota
@@ -495,11 +496,11 @@ const (
 
 // Ref is one use or declaration of a name.
 type Ref struct {
-	Kind   RefKind
 	Name   string
 	Loop   *Loop // for nodes
 	File   string
 	Span   Span
+	Kind   RefKind
 	IsDecl bool
 }
 
