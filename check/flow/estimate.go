@@ -54,6 +54,9 @@ type point struct {
 	envelope         bool // a combination of the case's envelope search
 	yaw, pitch, roll float64
 	accel            geom.Vec3
+	// warm, for an instant of a profile, is what its worker kept from the
+	// instant before (nil: a cold search).
+	warm *ringWarm
 }
 
 // derived reports whether the point is one of a sweep or a profile rather
@@ -210,12 +213,19 @@ func estimateLoop(m *lang.Model, l *lang.Loop, methods MethodsUsed, points []poi
 	if p.net != nil && p.fl != nil {
 		// Each worker takes a run of consecutive points, so a network's
 		// Newton iteration starts from the previous point's balance.
-		runChunks(len(points), opts.Workers, func(i int, start []float64) []float64 {
+		runChunks(len(points), opts.Workers, func(i int, start []float64, w *ringWarm) []float64 {
 			if p.cancelled() {
 				return nil
 			}
 			var f []float64
-			lr.Cases[i], f = p.run(points[i], !opts.NoTilt && !points[i].derived(), start)
+			pt := points[i]
+			if pt.profile {
+				if w.c != pt.c {
+					*w = ringWarm{c: pt.c}
+				}
+				pt.warm = w
+			}
+			lr.Cases[i], f = p.run(pt, !opts.NoTilt && !pt.derived(), start)
 			return f
 		})
 		lr.Cases = p.gatherProfiles(points, lr.Cases)
@@ -245,28 +255,31 @@ func caseName(c *lang.Case) string {
 
 // runChunks splits 0..n−1 into up to workers runs of consecutive indices
 // and calls f on each run in order, on its own goroutine, passing what f
-// returned for the previous index of the run (nil for the first).
-func runChunks(n, workers int, f func(i int, prev []float64) []float64) {
+// returned for the previous index of the run (nil for the first) and the
+// run's own warm start for a profile's instants.
+func runChunks(n, workers int, f func(i int, prev []float64, w *ringWarm) []float64) {
 	if workers <= 0 {
 		workers = runtime.GOMAXPROCS(0)
 	}
 	workers = max(min(workers, n), 1)
 	if workers == 1 {
 		var prev []float64
+		w := new(ringWarm)
 		for i := 0; i < n; i++ {
-			prev = f(i, prev)
+			prev = f(i, prev, w)
 		}
 		return
 	}
 	var wg sync.WaitGroup
-	for w := 0; w < workers; w++ {
-		lo, hi := w*n/workers, (w+1)*n/workers
+	for k := 0; k < workers; k++ {
+		lo, hi := k*n/workers, (k+1)*n/workers
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
 			var prev []float64
+			w := new(ringWarm)
 			for i := lo; i < hi; i++ {
-				prev = f(i, prev)
+				prev = f(i, prev, w)
 			}
 		}()
 	}
@@ -649,6 +662,7 @@ func (s *state) setBody(b geom.Vec3) {
 func (s *state) withLossScale(k float64) *state {
 	c := *s
 	c.lossScale = k
+	c.warm = s.warm.scaled(k)
 	// Only exit qualities to three digits are read from this solve: a
 	// residual of 1e-6 of the head, and half the cells (halving them changes
 	// the flow by about 1e-4), are ample.

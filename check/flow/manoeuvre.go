@@ -3,6 +3,7 @@ package flow
 import (
 	"fmt"
 	"math"
+	"slices"
 	"strconv"
 
 	"circa/check/geom"
@@ -60,16 +61,18 @@ const manoeuvreNoise = 0.01 * geom.Gn
 // changes faster than its loop can follow.
 const CautionManoeuvre = "Where a manoeuvre changes attitude or acceleration within less than the fluid's transit time round the loop, the quasi-static estimate no longer holds: liquid and vapour lag behind the body force, so a transient model or a test is needed there."
 
-// profilePoints returns the distinct attitudes of a case's profile as
-// points, and for each row the index of its point among them.
+// profilePoints returns a point for each distinct body force of a case's
+// profile, and for each row the index of its point among them. An instant
+// is a steady state of the body force alone (a turn about the vertical, a
+// change of yaw alone, leaves it as it was), so rows that share one share
+// its solution.
 func profilePoints(c *lang.Case) ([]point, []int) {
 	pr := c.Profile
-	type key struct{ yaw, pitch, roll, ax, ay, az float64 }
-	at := map[key]int{}
+	at := map[geom.Vec3]int{}
 	var pts []point
 	idx := make([]int, len(pr.Rows))
 	for i, r := range pr.Rows {
-		k := key{r.Yaw, r.Pitch, r.Roll, r.Accel[0], r.Accel[1], r.Accel[2]}
+		k := geom.BodyForceAt(r.Yaw, r.Pitch, r.Roll, geom.Vec3(r.Accel))
 		j, ok := at[k]
 		if !ok {
 			j = len(pts)
@@ -115,7 +118,7 @@ func (p *prepared) profileResult(base *CaseResult, c *lang.Case, res []CaseResul
 	pr := &Profile{Instants: make([]Instant, len(idx))}
 	for i, row := range c.Profile.Rows {
 		r := &res[idx[i]]
-		in := Instant{Time: row.Time, Yaw: r.Yaw, Pitch: r.Pitch, Roll: r.Roll, Accel: r.Accel, BodyForce: r.BodyForce,
+		in := Instant{Time: row.Time, Yaw: row.Yaw, Pitch: row.Pitch, Roll: row.Roll, Accel: row.Accel, BodyForce: r.BodyForce,
 			Circulates: r.Circulates, Reason: r.Reason, MassFlow: r.MassFlow}
 		if r.Circulates {
 			in.Transit = r.Totals.Transit
@@ -129,7 +132,7 @@ func (p *prepared) profileResult(base *CaseResult, c *lang.Case, res []CaseResul
 			in.Margins = append(in.Margins, m)
 		}
 		if in.BodyForce == [3]float64{} {
-			in.BodyForce = [3]float64(geom.BodyForceAt(r.Yaw, r.Pitch, r.Roll, geom.Vec3(r.Accel)))
+			in.BodyForce = [3]float64(geom.BodyForceAt(row.Yaw, row.Pitch, row.Roll, geom.Vec3(row.Accel)))
 		}
 		pr.Instants[i] = in
 	}
@@ -282,4 +285,208 @@ func (p *prepared) findingAt(t *float64, rule, sev, cs, comp string, v, lim floa
 	f := p.finding(rule, sev, cs, comp, v, lim, unit, field, format, args...)
 	f.Time = t
 	return f
+}
+
+// ringWarm carries a single loop's excess head on its bracketing grid from
+// one instant of a profile to the next, on one worker. Each instant is a
+// steady state a small change of body force away from the one before, so
+// the head curve moves little between rows: the next instant evaluates the
+// head only where its sign could have changed, and refines each balance
+// from where the one before was.
+type ringWarm struct {
+	c    *lang.Case // the case whose instants these are
+	grid []float64
+	// e is the excess head at each grid point as last evaluated, and drift
+	// the most it may have moved since: the sum, over the instants that
+	// skipped the point, of the largest change seen at the sampled points.
+	e, drift []float64
+	// roots are the balances of the last instant.
+	roots []root
+	// loss is the search of the same instants with the losses scaled by
+	// lossK (the head-ratio margin's solve).
+	loss  *ringWarm
+	lossK float64
+}
+
+// scaled is the warm start of the instants' solves with the losses scaled
+// by k (nil without a warm start).
+func (w *ringWarm) scaled(k float64) *ringWarm {
+	if w == nil {
+		return nil
+	}
+	if w.loss == nil || w.lossK != k {
+		w.loss, w.lossK = &ringWarm{c: w.c}, k
+	}
+	return w.loss
+}
+
+// stableRootAt is highestStableRoot, warm-started at an instant of a
+// profile.
+func (s *state) stableRootAt(ev *eval) (float64, bool) {
+	if s.warm == nil {
+		return s.highestStableRoot(ev)
+	}
+	roots, _ := s.instantRoots(ev, s.warm)
+	for i := len(roots) - 1; i >= 0; i-- {
+		if roots[i].slope < 0 {
+			return roots[i].m, true
+		}
+	}
+	return 0, false
+}
+
+// Warm-start constants: every warmSample-th grid point (and both ends) is
+// evaluated at every instant, which measures how far the head curve
+// moved; another point is evaluated again once its last head is within
+// warmSafety times its accumulated drift of zero, so that no sign change
+// of the cold search's grid is missed.
+const (
+	warmSample = 8
+	warmSafety = 4
+)
+
+// instantRoots is ringRoots for one instant of a profile, warm-started
+// from the instant before on the same worker (w; nil: a cold search). The
+// brackets it refines are the cold search's, the grid points whose head
+// it does not evaluate keep their sign; a balance is refined from a
+// bracket around the one before, to the cold search's tolerance.
+func (s *state) instantRoots(ev *eval, w *ringWarm) ([]root, float64) {
+	if w == nil {
+		return s.ringRoots(ev)
+	}
+	f := []float64{0}
+	E := func(m float64) float64 {
+		f[0] = m
+		s.evaluate(f, ev)
+		return ev.e[0]
+	}
+	g := s.ringGrid()
+	n := len(g)
+	cold := !slices.Equal(g, w.grid)
+	cur := make([]float64, n)
+	have := make([]bool, n)
+	get := func(j int) {
+		if !have[j] {
+			cur[j], have[j] = E(g[j]), true
+		}
+	}
+	if cold {
+		w.grid = append(w.grid[:0], g...)
+		w.e = make([]float64, n)
+		w.drift = make([]float64, n)
+		w.roots = nil
+		for j := range g {
+			get(j)
+		}
+	} else {
+		d := 0.0
+		for j := 0; j < n; j += warmSample {
+			get(j)
+			d = math.Max(d, math.Abs(cur[j]-w.e[j]))
+		}
+		get(n - 1)
+		d = math.Max(d, math.Abs(cur[n-1]-w.e[n-1]))
+		if !finite(d) {
+			for j := range g {
+				get(j)
+			}
+		}
+		for j := range g {
+			if have[j] {
+				continue
+			}
+			w.drift[j] += d
+			if !(math.Abs(w.e[j]) > warmSafety*w.drift[j]) {
+				get(j)
+			}
+		}
+	}
+	val := func(j int) float64 {
+		if have[j] {
+			return cur[j]
+		}
+		return w.e[j]
+	}
+	// Both ends of every sign change are evaluated at this instant; each
+	// new value may reveal another change, so go on until none is left.
+	for again := true; again; {
+		again = false
+		for j := 1; j < n; j++ {
+			if (val(j) > 0) != (val(j-1) > 0) && (!have[j] || !have[j-1]) {
+				get(j)
+				get(j - 1)
+				again = true
+			}
+		}
+	}
+	var roots []root
+	for j := 1; j < n; j++ {
+		if (cur[j] > 0) == (cur[j-1] > 0) || !have[j] || !have[j-1] {
+			continue
+		}
+		a, b, ea, eb := g[j-1], g[j], cur[j-1], cur[j]
+		if prev, ok := rootIn(w.roots, a, b); ok {
+			a, b, ea, eb = narrowBracket(E, prev, a, b, ea, eb)
+		}
+		r := brent(E, a, b, ea, eb, 1e-12*g[j])
+		h := 1e-6 * r
+		roots = append(roots, root{m: r, slope: (E(r+h) - E(r-h)) / (2 * h)})
+	}
+	for j := range g {
+		if have[j] {
+			w.e[j], w.drift[j] = cur[j], 0
+		}
+	}
+	w.roots = append(w.roots[:0], roots...)
+	if cur[n-1] > 0 {
+		roots = append(roots, extendRoots(E, g[n-1])...)
+		w.grid = w.grid[:0] // above the grid: the next instant searches cold
+	}
+	return roots, cur[0]
+}
+
+// rootIn returns the balance of roots that lies in (a, b).
+func rootIn(roots []root, a, b float64) (float64, bool) {
+	for _, r := range roots {
+		if r.m > a && r.m < b {
+			return r.m, true
+		}
+	}
+	return 0, false
+}
+
+// narrowBracket shrinks the bracket [a, b] of a sign change of E around
+// prev, the balance of the instant before: it steps out from prev, each
+// step eight times the last, until E changes sign, and returns the
+// smaller bracket with E at its ends.
+func narrowBracket(E func(float64) float64, prev, a, b, ea, eb float64) (float64, float64, float64, float64) {
+	ep := E(prev)
+	if ep == 0 || !finite(ep) {
+		return a, b, ea, eb
+	}
+	// The sign change lies on the side of prev whose end differs from it.
+	up := (ep > 0) == (ea > 0)
+	for h := 1e-4 * prev; ; h *= 8 {
+		if up {
+			x := prev + h
+			if x >= b {
+				return prev, b, ep, eb
+			}
+			ex := E(x)
+			if (ex > 0) != (ep > 0) {
+				return prev, x, ep, ex
+			}
+			prev, ep = x, ex
+		} else {
+			x := prev - h
+			if x <= a {
+				return a, prev, ea, ep
+			}
+			ex := E(x)
+			if (ex > 0) != (ep > 0) {
+				return x, prev, ex, ep
+			}
+			prev, ep = x, ex
+		}
+	}
 }

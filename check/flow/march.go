@@ -52,6 +52,9 @@ type state struct {
 	// flow, and consecutive tubes of one bore in a branch share it. Copies
 	// of the state share the cache (one goroutine's).
 	pfc *frictionCache
+	// warm is, for an instant of a profile, the search its worker kept
+	// from the instant before (nil: a cold search).
+	warm *ringWarm
 	// gravOnly has march return the gravity term alone (the other parts
 	// zero), for the head at vanishing flow.
 	gravOnly bool

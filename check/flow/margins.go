@@ -295,7 +295,7 @@ func (p *prepared) underLosses(s *state, k float64, start []float64) (x float64,
 	ev := t.newEval()
 	var f []float64
 	if p.net.ring {
-		m, ok := t.highestStableRoot(ev)
+		m, ok := t.stableRootAt(ev)
 		if !ok {
 			return 0, "", false
 		}

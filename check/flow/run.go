@@ -29,7 +29,8 @@ func (p *prepared) run(pt point, tilt bool, start []float64) (CaseResult, []floa
 	var f []float64
 	ok := false
 	if p.net.ring {
-		roots, e0 := s.ringRoots(ev)
+		s.warm = pt.warm
+		roots, e0 := s.instantRoots(ev, s.warm)
 		if best := p.recordBalances(roots, "excess head", &cr); best >= 0 {
 			f, ok = []float64{roots[best].m}, true
 		} else {
