@@ -4,6 +4,7 @@ import (
 	"bufio"
 	"context"
 	"encoding/json"
+	"errors"
 	"fmt"
 	"io"
 	"net"
@@ -12,6 +13,8 @@ import (
 	"sync"
 	"testing"
 	"time"
+
+	"go.lsp.dev/jsonrpc2"
 )
 
 // testClient speaks the protocol to an in-process server over a pipe. It
@@ -119,9 +122,9 @@ func (c *testClient) read() {
 			c.fail(err)
 			return
 		}
-		var m rpcMessage
-		if err := json.Unmarshal(body, &m); err != nil {
-			c.t.Errorf("server sent invalid JSON: %s", body)
+		m, err := decodeRPC(body)
+		if err != nil {
+			c.t.Errorf("server sent a message a JSON-RPC client cannot read (%v): %.200s", err, body)
 			continue
 		}
 		c.mu.Lock()
@@ -157,6 +160,49 @@ func (c *testClient) read() {
 		}
 		c.mu.Unlock()
 	}
+}
+
+// decodeRPC reads one frame as a client built on the protocol's own
+// JSON-RPC library does: one scan of the message, with the params and the
+// result left raw for the caller to decode into protocol types.
+func decodeRPC(body []byte) (rpcMessage, error) {
+	msg, err := jsonrpc2.DecodeMessage(body)
+	if err != nil {
+		return rpcMessage{}, err
+	}
+	m := rpcMessage{JSONRPC: "2.0"}
+	switch x := msg.(type) {
+	case *jsonrpc2.Call:
+		m.ID, m.Method, m.Params = rawID(x.ID()), x.Method(), json.RawMessage(x.Params())
+	case *jsonrpc2.Notification:
+		m.Method, m.Params = x.Method(), json.RawMessage(x.Params())
+	case *jsonrpc2.Response:
+		m.ID = rawID(x.ID())
+		if e := x.Err(); e != nil {
+			var je *jsonrpc2.Error
+			if !errors.As(e, &je) {
+				return rpcMessage{}, fmt.Errorf("response error of type %T", e)
+			}
+			m.Error = &rpcError{Code: int(je.Code), Message: je.Message}
+		} else if m.Result = json.RawMessage(x.Result()); m.Result == nil {
+			m.Result = json.RawMessage("null")
+		}
+	default:
+		return rpcMessage{}, fmt.Errorf("unexpected message %T", msg)
+	}
+	return m, nil
+}
+
+// rawID is the JSON text of a message id, null when it has none.
+func rawID(id jsonrpc2.ID) json.RawMessage {
+	if n, ok := id.Number(); ok {
+		return strconv.AppendInt(nil, n, 10)
+	}
+	if s, ok := id.StringValue(); ok {
+		b, _ := json.Marshal(s)
+		return b
+	}
+	return json.RawMessage("null")
 }
 
 // answer sets the result the client replies to the server's requests of
