@@ -2,9 +2,13 @@ package lsp
 
 import (
 	"encoding/json"
+	"math/rand/v2"
 	"os"
 	"path/filepath"
+	"strings"
 	"testing"
+
+	"circa/lang"
 )
 
 // TestDocumentSymbolsOutline checks the outline of the ferry example: its
@@ -53,7 +57,7 @@ func TestDocumentSymbolsOutline(t *testing.T) {
 	for _, w := range []struct {
 		name, detail string
 		kind         int
-	}{{"cabinet", "loop", 3}, {"harbour", "nominal case", 24}, {"beam_sea", "case", 24}, {"stack_height", "param", 14}} {
+	}{{"cabinet", "loop", 3}, {"harbour", "nominal case", 24}, {"beam_sea", "case", 24}, {"stack_height", "0.4 m", 14}} {
 		s, ok := byName[w.name]
 		if !ok {
 			t.Fatalf("no symbol %q in %v", w.name, got)
@@ -121,5 +125,84 @@ func TestDocumentSymbolsFollowEdits(t *testing.T) {
 	}
 	if len(syms) != 2 || syms[0].Name != "z" || syms[1].Name != "b" || syms[1].Range.Start.Line != 2 {
 		t.Errorf("after the edit: %+v, want z on line 0 and b on line 2", syms)
+	}
+}
+
+// TestOutlinerPositions checks the outline's line-remembering conversion
+// against the mapper at every offset of texts with every kind of line end,
+// multi-byte and invalid characters, visited in order and at random.
+func TestOutlinerPositions(t *testing.T) {
+	pieces := []string{"param a = 1 mm", "\n", "\r\n", "\r", "µ", "𝜃", "\xff", "  ", "{", "x", "\t"}
+	rng := rand.New(rand.NewPCG(1, 2))
+	for trial := range 300 {
+		var b strings.Builder
+		for range rng.IntN(30) {
+			b.WriteString(pieces[rng.IntN(len(pieces))])
+		}
+		text := []byte(b.String())
+		m := lang.NewMapper(text)
+		for _, enc := range []lang.Encoding{lang.UTF16, lang.UTF8, lang.UTF32} {
+			offs := make([]int, 0, len(text)+3)
+			for off := -1; off <= len(text)+1; off++ {
+				offs = append(offs, off)
+			}
+			if trial%2 == 1 {
+				rng.Shuffle(len(offs), func(i, j int) { offs[i], offs[j] = offs[j], offs[i] })
+			}
+			o := &outliner{m: m, enc: enc}
+			for _, off := range offs {
+				if got, want := o.position(off), m.OffsetPosition(off, enc); got != want {
+					t.Fatalf("%q enc %d offset %d: %v, want %v", text, enc, off, got, want)
+				}
+			}
+		}
+	}
+}
+
+// TestOutlineStrings checks the outline's JSON strings decode to what
+// encoding/json makes of the same text, control and invalid bytes included.
+func TestOutlineStrings(t *testing.T) {
+	for _, s := range []string{"", "p1", `a"b\c`, "tab\there\nnl\r\x00\x1f", "µ°²𝜃", "bad\xffbyte\xc3", "</script>&", "\u2028"} {
+		var got, want string
+		if err := json.Unmarshal(appendJSONString(nil, s), &got); err != nil {
+			t.Fatalf("%q: %v in %s", s, err, appendJSONString(nil, s))
+		}
+		ref, _ := json.Marshal(s)
+		json.Unmarshal(ref, &want)
+		if got != want {
+			t.Errorf("%q decodes to %q, want %q", s, got, want)
+		}
+	}
+}
+
+// TestDocumentSymbolsValueDetail checks a parameter's detail is its value
+// as written, a long one cut at a character with an ellipsis, and that
+// cutting it leaves the document's text as it was.
+func TestDocumentSymbolsValueDetail(t *testing.T) {
+	c := newTestClient(t, Options{Debounce: -1})
+	c.initialize(nil)
+	uri := "file:///tmp/detail.loop"
+	long := "1 mm + 2 mm + 3 mm + 4 mm + 5 mm + 6 mm + 7 mm + 8 mm"
+	text := "param short = 12 mm  # a comment\nparam long = " + long + "   \n"
+	c.notify("textDocument/didOpen", map[string]any{"textDocument": map[string]any{"uri": uri, "languageId": "loop", "version": 1, "text": text}})
+	var syms []struct {
+		Name   string
+		Detail string
+	}
+	params := map[string]any{"textDocument": map[string]any{"uri": uri}}
+	if err := json.Unmarshal(c.mustCall("textDocument/documentSymbol", params), &syms); err != nil {
+		t.Fatal(err)
+	}
+	if len(syms) != 2 || syms[0].Detail != "12 mm" {
+		t.Fatalf("symbols %+v, want short with detail 12 mm", syms)
+	}
+	if d := syms[1].Detail; !strings.HasSuffix(d, "…") || !strings.HasPrefix(long, strings.TrimSuffix(d, "…")) || len(d) > valueDetail+len("…") {
+		t.Errorf("long value's detail %q, want at most %d bytes of %q and an ellipsis", d, valueDetail, long)
+	}
+	c.srv.mu.Lock()
+	got := string(c.srv.snap.docs["/tmp/detail.loop"].text)
+	c.srv.mu.Unlock()
+	if got != text {
+		t.Errorf("the document's text changed to %q", got)
 	}
 }
