@@ -153,12 +153,22 @@ func isMarginWarning(d lspDiag) bool {
 // The examples that warn get, once the guidance is computed, a quick fix
 // on their margin warnings that, applied in the editor, makes the warning
 // go away when the file is checked again.
+//
+// tilt.loop is pitched 42° towards its condenser, 9.3° short of where the
+// condenser's centre drops to the evaporator's level (atan(0.5 m / 0.4 m)
+// = 51.3°), inside its 10° tilt margin; a higher condenser moves that
+// attitude away. Its tilt-margin warning gets a fix checked with the tilt
+// search.
 func TestGuidedQuickFixClearsWarning(t *testing.T) {
-	for _, name := range []string{"forestry-inverter", "ferry-cabinet"} {
-		t.Run(name, func(t *testing.T) {
+	tilt := filepath.Join(t.TempDir(), "tilt.loop")
+	if err := os.WriteFile(tilt, []byte(tiltFixLoop), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	for _, path := range []string{"../testdata/examples/forestry-inverter.loop", "../testdata/examples/ferry-cabinet.loop", tilt} {
+		t.Run(strings.TrimSuffix(filepath.Base(path), ".loop"), func(t *testing.T) {
 			c := newGuidedClient(t, Options{Debounce: -1})
 			c.initialize(nil)
-			uri, text := openFile(t, c, "../testdata/examples/"+name+".loop")
+			uri, text := openFile(t, c, path)
 			c.waitGuided()
 			var warned []lspDiag
 			for _, d := range c.diagnostics(uri) {
@@ -177,7 +187,7 @@ func TestGuidedQuickFixClearsWarning(t *testing.T) {
 			if err := json.Unmarshal(raw, &actions); err != nil {
 				t.Fatal(err)
 			}
-			fixed := 0
+			fixed, fixedTilt := 0, false
 			for _, w := range warned {
 				var fix *lspAction
 				for i, a := range actions {
@@ -193,6 +203,7 @@ func TestGuidedQuickFixClearsWarning(t *testing.T) {
 					t.Fatalf("fix %q edits %+v", fix.Title, fix.Edit.Changes)
 				}
 				fixed++
+				fixedTilt = fixedTilt || w.Code == "margin-tilt"
 				t.Logf("%s: %s", w.Code, fix.Title)
 				// Apply it, check again, and put the file back.
 				c.notify("textDocument/didChange", map[string]any{"textDocument": map[string]any{"uri": uri, "version": 2 * fixed},
@@ -213,9 +224,36 @@ func TestGuidedQuickFixClearsWarning(t *testing.T) {
 			if fixed == 0 {
 				t.Errorf("no margin warning got a fix; actions: %+v", actions)
 			}
+			if path == tilt && !fixedTilt {
+				t.Errorf("the tilt-margin warning got no fix; warnings %+v, actions: %+v", warned, actions)
+			}
 		})
 	}
 }
+
+const tiltFixLoop = `param lift = 0.5 m
+
+loop cart {
+  fluid R1233zd(E)
+  node base at (0, 0, 0) m
+  node top at (0, 0, 0.3 m)
+  node coil_top at (0.4 m, 0, lift + 0.3 m)
+  node coil_bottom at (0.4 m, 0, lift)
+  evaporator plate from base to top { bore 8 mm; length 0.3 m; rise 0.3 m; heat 200 W }
+  pipe riser from top to coil_top { bore 8.2 mm; length 1.4 m }
+  condenser coil from coil_top to coil_bottom { bore 8.2 mm; length 0.9 m; conductance 95 W/K; sink 30 °C }
+  pipe downcomer from coil_bottom to base { bore 8.2 mm; length 1.45 m }
+}
+
+limits {
+  tilt_margin 10 deg
+}
+
+case tipped {
+  heat plate 200 W
+  pitch -42 deg
+}
+`
 
 // Hover on a parameter shows its feasible range as circa estimate prints
 // it and its biggest levers; with rangeHints on, an inlay hint after the

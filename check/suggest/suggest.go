@@ -18,14 +18,18 @@ import (
 	"circa/units"
 )
 
-// marginOf maps a margin finding's rule to the margin it reports. The tilt
-// margin is left out: its search is too slow to check every candidate with.
+// marginOf maps a margin finding's rule to the margin it reports.
 var marginOf = map[string]string{
 	flow.RuleExitQuality: flow.MarginExitQuality, flow.RuleDryout: flow.MarginExitQuality,
 	flow.RuleCHF: flow.MarginCHF, flow.RuleFlooding: flow.MarginFlooding, flow.RuleWall: flow.MarginWall,
 	flow.RuleJunction: flow.MarginJunction, flow.RulePressure: flow.MarginPressure, flow.RuleCondenser: flow.MarginCondenser,
-	flow.RuleCharge: flow.MarginCharge, flow.RuleHead: flow.MarginHead,
+	flow.RuleCharge: flow.MarginCharge, flow.RuleHead: flow.MarginHead, flow.RuleTilt: flow.MarginTilt,
 }
+
+// MaxTiltChecks bounds the candidates a tilt-margin finding's fixes are
+// checked with: each check runs the tilt search, some tens of estimates,
+// where another margin's check is one estimate per case.
+const MaxTiltChecks = 6
 
 // IsMargin reports whether a finding is a margin the guidance can act on.
 func IsMargin(d lang.Diagnostic) bool {
@@ -35,7 +39,9 @@ func IsMargin(d lang.Diagnostic) bool {
 
 // Options adjust the suggestions.
 type Options struct {
-	// Flow are the estimate's options; the tilt search is left out.
+	// Flow are the estimate's options; the tilt search is left out, except
+	// for a tilt-margin finding, whose fixes are searched and checked with
+	// it.
 	Flow flow.Options
 	// Workers bounds the estimates run at once (0: GOMAXPROCS).
 	Workers int
@@ -97,8 +103,9 @@ type candidate struct {
 // parameter or a loop's charge to the nearest round value inside its
 // feasible range — where every margin holds when there is one, else where
 // the finding's margin does — each kept only if checking the variant (the
-// tilt search left out) no longer reports the finding and reports no more
-// errors. A parameter that leaves the loop short of charge, or with too
+// tilt search left out, unless the finding is the tilt margin's: then at
+// most MaxTiltChecks candidates are checked, with it) no longer reports
+// the finding and reports no more errors. A parameter that leaves the loop short of charge, or with too
 // much, gets the charge set in the same fix when that settles it. every,
 // when not nil, is m's guidance for every margin, computed with the same
 // options. It returns nil for a finding that is not a margin's, and ctx's
@@ -108,7 +115,8 @@ func Fixes(ctx context.Context, m *lang.Model, d lang.Diagnostic, every *guide.G
 	if !ok || !IsMargin(d) {
 		return nil, nil
 	}
-	o.Flow.NoTilt, o.Flow.Sweep = true, nil
+	tilt := t.margin == flow.MarginTilt
+	o.Flow.NoTilt, o.Flow.Sweep = !tilt, nil
 	maxFixes := o.Max
 	if maxFixes <= 0 {
 		maxFixes = 3
@@ -131,12 +139,12 @@ func Fixes(ctx context.Context, m *lang.Model, d lang.Diagnostic, every *guide.G
 		}
 		return cands[i].change < cands[j].change
 	})
-	base := check.RunReport(m, check.Options{NoTilt: true})
+	base := check.RunReport(m, check.Options{NoTilt: !tilt})
 	baseErrors := errorsIn(base.Diagnostics)
 	var out []lang.Fix
 	tried := map[string]bool{}
 	for _, c := range cands {
-		if len(out) == maxFixes {
+		if len(out) == maxFixes || tilt && len(tried) == MaxTiltChecks {
 			break
 		}
 		if err := ctx.Err(); err != nil {
@@ -148,7 +156,7 @@ func Fixes(ctx context.Context, m *lang.Model, d lang.Diagnostic, every *guide.G
 		}
 		tried[key] = true
 		set := []candidate{c}
-		v, rep := verify(m, set)
+		v, rep := verify(m, set, tilt)
 		if v == nil {
 			continue
 		}
@@ -156,7 +164,7 @@ func Fixes(ctx context.Context, m *lang.Model, d lang.Diagnostic, every *guide.G
 			// The parameter moves the liquid: try the charge the variant
 			// needs with it.
 			if ch, ok := chargeFor(ctx, v, t.loop.Name, o); ok {
-				if v2, rep2 := verify(m, append(set, ch)); v2 != nil && !reports(rep2, flow.RuleCharge, lang.Location{}) {
+				if v2, rep2 := verify(m, append(set, ch), tilt); v2 != nil && !reports(rep2, flow.RuleCharge, lang.Location{}) {
 					set, rep = append(set, ch), rep2
 				}
 			}
@@ -230,9 +238,10 @@ func chargeFor(ctx context.Context, v *lang.Model, loop string, o Options) (cand
 	return candidate{}, false
 }
 
-// verify resolves m with the candidates' values and checks it (the tilt
-// search left out). The model is nil when the values do not resolve.
-func verify(m *lang.Model, set []candidate) (*lang.Model, *check.Report) {
+// verify resolves m with the candidates' values and checks it (with the
+// tilt search when tilt is set). The model is nil when the values do not
+// resolve.
+func verify(m *lang.Model, set []candidate, tilt bool) (*lang.Model, *check.Report) {
 	var ovs []lang.Override
 	for _, c := range set {
 		if c.param != nil {
@@ -253,7 +262,7 @@ func verify(m *lang.Model, set []candidate) (*lang.Model, *check.Report) {
 	if errorsIn(v.Diags) > errorsIn(m.Diags) {
 		return nil, nil
 	}
-	return v, check.RunReport(v, check.Options{NoTilt: true})
+	return v, check.RunReport(v, check.Options{NoTilt: !tilt})
 }
 
 // reports says whether the report has a finding of rule at loc (anywhere,

@@ -136,8 +136,8 @@ func TestNearestInside(t *testing.T) {
 	}
 }
 
-// Only the margins a candidate can be checked against get fixes: not the
-// tilt margin (its search is left out of the check), not a note.
+// Only margin findings at warning or above get fixes, the tilt margin's
+// among them; not a note, not another rule.
 func TestIsMargin(t *testing.T) {
 	for _, tc := range []struct {
 		d    lang.Diagnostic
@@ -145,12 +145,80 @@ func TestIsMargin(t *testing.T) {
 	}{
 		{lang.Diagnostic{Rule: "margin-exit-quality", Severity: lang.Warning}, true},
 		{lang.Diagnostic{Rule: "margin-charge", Severity: lang.Error}, true},
-		{lang.Diagnostic{Rule: "margin-tilt", Severity: lang.Warning}, false},
+		{lang.Diagnostic{Rule: "margin-tilt", Severity: lang.Warning}, true},
 		{lang.Diagnostic{Rule: "margin-exit-quality", Severity: lang.Info}, false},
 		{lang.Diagnostic{Rule: "rise-mismatch", Severity: lang.Error}, false},
 	} {
 		if got := IsMargin(tc.d); got != tc.want {
 			t.Errorf("%s %s: %v, want %v", tc.d.Rule, tc.d.Severity, got, tc.want)
+		}
+	}
+}
+
+// tiltLoop circulates in case tipped, pitched 42° towards its condenser,
+// 9.3° short of where the condenser's centre drops to the evaporator's
+// level (atan(0.5 m / 0.4 m) = 51.3°): inside the 10° tilt margin. A
+// higher condenser (lift) moves that attitude away.
+const tiltLoop = `param lift = 0.5 m
+
+loop cart {
+  fluid R1233zd(E)
+  node base at (0, 0, 0) m
+  node top at (0, 0, 0.3 m)
+  node coil_top at (0.4 m, 0, lift + 0.3 m)
+  node coil_bottom at (0.4 m, 0, lift)
+  evaporator plate from base to top { bore 8 mm; length 0.3 m; rise 0.3 m; heat 200 W }
+  pipe riser from top to coil_top { bore 8.2 mm; length 1.4 m }
+  condenser coil from coil_top to coil_bottom { bore 8.2 mm; length 0.9 m; conductance 95 W/K; sink 30 °C }
+  pipe downcomer from coil_bottom to base { bore 8.2 mm; length 1.45 m }
+}
+
+limits {
+  tilt_margin 10 deg
+}
+
+case tipped {
+  heat plate 200 W
+  pitch -42 deg
+}
+`
+
+// A tilt-margin warning gets a fix, found and checked with the tilt
+// search: written into the file, checked again in full, the warning is
+// gone and no error has come.
+func TestTiltFix(t *testing.T) {
+	const path = "tilt.loop"
+	fsys := memFS{path: []byte(tiltLoop)}
+	m := lang.Load(path, fsys)
+	var tilt *lang.Diagnostic
+	for _, d := range check.Run(m, check.Options{}) {
+		if d.Rule == "margin-tilt" && d.Severity == lang.Warning {
+			tilt = &d
+		}
+	}
+	if tilt == nil {
+		t.Fatal("no tilt-margin warning")
+	}
+	for _, d := range check.Run(m, check.Options{NoTilt: true}) {
+		if d.Rule == "margin-tilt" {
+			t.Fatal("the tilt margin is reported without the tilt search")
+		}
+	}
+	fixes, err := Fixes(context.Background(), m, *tilt, nil, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(fixes) == 0 {
+		t.Fatal("no fix for the tilt margin")
+	}
+	for _, f := range fixes {
+		t.Logf("%s", f.Title)
+		fs2 := memFS{path: []byte(tiltLoop)}
+		apply(t, fs2, f)
+		for _, d := range check.Run(lang.Load(path, fs2), check.Options{}) {
+			if d.Rule == "margin-tilt" && d.Severity <= lang.Warning || d.Severity == lang.Error {
+				t.Errorf("fix %q leaves %s: %s", f.Title, d.Rule, d.Message())
+			}
 		}
 	}
 }
