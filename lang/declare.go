@@ -40,11 +40,11 @@ func (r *resolver) declare() {
 			case "loop":
 				// The loop's own parts; its statements are read one at a
 				// time.
-				st = r.full(path, st)
+				st = r.kept(path, st, false)
 			default:
 				// What the model keeps of a part, a case, limits or
 				// methods is their whole tree; they are few.
-				st = r.fullTree(path, st)
+				st = r.kept(path, st, true)
 			}
 			switch kw {
 			case "include":
@@ -145,6 +145,7 @@ func (r *resolver) unknownWord(file string, st *Stmt, known []string, where stri
 
 func (r *resolver) declareParam(file string, st *Stmt) {
 	head := st
+	defer r.release(r.mark())
 	st = r.full(file, st)
 	if len(st.Args) != 3 || st.Args[0].Expr == nil || nameOf(st.Args[0].Expr) == nil || st.Args[1].Key != "=" || st.Args[2].Expr == nil {
 		r.shapeError(file, st, "param needs a name and a value: param NAME = VALUE")
@@ -215,8 +216,12 @@ func (r *resolver) declareLoop(file string, st *Stmt) {
 	}
 	nodeBuf := make([]Node, 0, nNodes)
 	r.compBuf = make([]Component, 0, nComps)
-	// Nodes first, so components may name nodes declared after them.
+	// Nodes first, so components may name nodes declared after them. Each
+	// node's parts are read into the same temporary nodes.
+	nodeMark := r.mark()
+	defer r.release(nodeMark)
 	for _, s := range st.Block.Stmts {
+		r.release(nodeMark)
 		if s.Bad {
 			// What the statement meant is unknown: it may be a node or a
 			// component the loop needs.
@@ -275,6 +280,7 @@ func (r *resolver) declareLoop(file string, st *Stmt) {
 func (r *resolver) declareComponent(file string, s *Stmt, l *Loop, k Kind, nodes map[string]*Node) {
 	// Filling reads the statement again; the head is all it keeps.
 	head := s
+	defer r.release(r.mark())
 	s = r.full(file, s)
 	parts := s.Args
 	if len(parts) == 0 || nameOf(parts[0].Expr) == nil {

@@ -351,6 +351,7 @@ func (r *resolver) param(name string) (units.Quantity, bool) {
 		return units.Quantity{}, false
 	}
 	ps.state = 1
+	defer r.release(r.mark())
 	e := r.paramExpr(ps)
 	q, ut, ok := r.eval(ps.p.File, e)
 	if ps.state == 2 { // a cycle was reported while evaluating

@@ -20,7 +20,9 @@ func (r *resolver) fill() {
 	for _, l := range r.m.Loops {
 		for _, n := range l.Nodes {
 			if st := r.nodeAt[n]; st != nil {
+				m := r.mark()
 				n.At = r.vector(n.File, r.full(n.File, st).Args[2].Expr, needLength)
+				r.release(m)
 			}
 			if n.At.Bad {
 				l.Unresolved = true
@@ -47,7 +49,9 @@ func (r *resolver) fill() {
 				_ = k
 				continue
 			}
+			m := r.mark()
 			r.loopField(l, r.fullTree(l.File, s))
+			r.release(m)
 		}
 		if l.Charge.Bad || l.DesignPressure.Bad || l.Saturation.Bad {
 			l.Unresolved = true
@@ -241,6 +245,7 @@ func (r *resolver) componentFields(c *Component, st *Stmt) {
 		return
 	}
 	// Parts first, then the component's own fields, which win.
+	defer r.release(r.mark())
 	var own []*Stmt
 	for _, s := range st.Block.Stmts {
 		if s.Bad {

@@ -40,17 +40,46 @@ func parseHeads(path string, src []byte) *File {
 }
 
 // headParser parses again the statements of which a file keeps only the
-// head, with one scanner and one set of node chunks for all of them.
+// head, with one scanner for all of them. What the model keeps (parts,
+// cases, limits, methods, loops' own parts) is parsed into keep; what the
+// resolver reads and forgets (a parameter's value, a component's fields)
+// into tmp, whose nodes are handed out again once the reader is done
+// with them (mark, release), so resolving a large file does not make a
+// whole tree's worth of garbage for each pass.
 type headParser struct {
-	f     *File
-	sc    scanner
-	nodes nodes
+	sc   scanner
+	q    fastParser
+	keep nodes
+	tmp  nodes
 }
 
-// full returns st with its parts: st itself when it has them, else a copy
-// parsed again from its line, exactly as Parse reads it. The copy shares
-// st's block, whose statements may be heads too.
-func (h *headParser) full(f *File, st *Stmt) *Stmt {
+// tmpMark is how much of the temporary nodes is in use.
+type tmpMark struct {
+	nodes nodesMark
+	args  **Arg
+	nargs int
+}
+
+// mark returns the temporary nodes' fill, for release.
+func (h *headParser) mark() tmpMark {
+	return tmpMark{h.tmp.mark(), unsafe.SliceData(h.tmp.argPtrs.buf), len(h.tmp.argPtrs.buf)}
+}
+
+// release hands the temporary nodes parsed since m out again: nothing
+// parsed since may be used afterwards. Nodes in chunks started since stay
+// as they are, as slab.release leaves them.
+func (h *headParser) release(m tmpMark) {
+	h.tmp.release(m.nodes)
+	if p := &h.tmp.argPtrs; unsafe.SliceData(p.buf) == m.args && m.nargs <= len(p.buf) {
+		clear(p.buf[m.nargs:])
+		p.buf = p.buf[:m.nargs]
+	}
+}
+
+// full returns st with its parts, parsed into n: st itself when it has
+// them, else a copy parsed again from its line, exactly as Parse reads it.
+// The copy shares st's block, whose statements may be heads too.
+func (h *headParser) full(f *File, st *Stmt, n *nodes) *Stmt {
 	if !st.head {
 		return st
 	}
@@ -67,17 +96,18 @@ func (h *headParser) full(f *File, st *Stmt) *Stmt {
 	if ls == 0 {
 		h.sc = *newScannerOf(src, str)
 		h.sc.toks = append(toks, h.sc.toks...)
+		h.sc.comments = comments
 	} else {
-		h.sc = scanner{src: src, str: str, pos: ls, line: 1, lineStart: ls, toks: toks}
+		h.sc = scanner{src: src, str: str, pos: ls, line: 1, lineStart: ls, toks: toks, comments: comments}
 	}
 	h.sc.nextLine()
-	h.sc.comments = comments[:0]
 	i := 0
 	for i < len(h.sc.toks) && h.sc.toks[i].Pos.Offset < start {
 		i++
 	}
-	q := fastParser{toks: h.sc.toks, i: i, nodes: &h.nodes}
-	s, ok := q.stmt()
+	h.q = fastParser{toks: h.sc.toks, i: i, nodes: n}
+	s, ok := h.q.stmt()
+	h.q = fastParser{}
 	if !ok {
 		// A head is kept only of a statement the fast path read, which it
 		// reads again the same way; keep what is known regardless.
@@ -88,9 +118,9 @@ func (h *headParser) full(f *File, st *Stmt) *Stmt {
 }
 
 // fullTree returns st with its parts and those of every statement of its
-// blocks, for what the model keeps (parts, cases, limits, methods).
-func (h *headParser) fullTree(f *File, st *Stmt) *Stmt {
-	s := h.full(f, st)
+// blocks, parsed into n.
+func (h *headParser) fullTree(f *File, st *Stmt, n *nodes) *Stmt {
+	s := h.full(f, st, n)
 	if s.Block == nil || !anyHead(s.Block.Stmts) {
 		return s
 	}
@@ -101,7 +131,7 @@ func (h *headParser) fullTree(f *File, st *Stmt) *Stmt {
 	b := *s.Block
 	b.Stmts = make([]*Stmt, len(s.Block.Stmts))
 	for i, c := range s.Block.Stmts {
-		b.Stmts[i] = h.fullTree(f, c)
+		b.Stmts[i] = h.fullTree(f, c, n)
 	}
 	s.Block = &b
 	return s
@@ -116,30 +146,64 @@ func anyHead(ss []*Stmt) bool {
 	return false
 }
 
-// full returns st of file with its parts (see headParser.full).
+// parser returns the resolver's head parser.
+func (r *resolver) parser() *headParser {
+	if r.hp == nil {
+		r.hp = &headParser{}
+	}
+	return r.hp
+}
+
+// full returns st of file with its parts for a reader that forgets them:
+// they may be used only until the release of a mark taken before.
 func (r *resolver) full(file string, st *Stmt) *Stmt {
 	if !st.head {
 		return st
 	}
-	if r.hp == nil {
-		r.hp = &headParser{}
-	}
-	return r.hp.full(r.m.Files[file], st)
+	h := r.parser()
+	return h.full(r.m.Files[file], st, &h.tmp)
 }
 
-// fullTree returns st of file with its parts and its blocks' (see
-// headParser.fullTree).
+// fullTree is full with the parts of st's blocks too.
 func (r *resolver) fullTree(file string, st *Stmt) *Stmt {
 	if !st.head && (st.Block == nil || !anyHead(st.Block.Stmts)) {
 		return st
 	}
-	if r.hp == nil {
-		r.hp = &headParser{}
-	}
-	return r.hp.fullTree(r.m.Files[file], st)
+	h := r.parser()
+	return h.fullTree(r.m.Files[file], st, &h.tmp)
 }
 
-// paramExpr returns the expression of ps's parameter.
+// kept returns st of file with its parts for the model or a later pass
+// to keep; tree adds the parts of its blocks.
+func (r *resolver) kept(file string, st *Stmt, tree bool) *Stmt {
+	if !st.head && (!tree || st.Block == nil || !anyHead(st.Block.Stmts)) {
+		return st
+	}
+	h := r.parser()
+	if tree {
+		return h.fullTree(r.m.Files[file], st, &h.keep)
+	}
+	return h.full(r.m.Files[file], st, &h.keep)
+}
+
+// mark returns the fill of the temporary parts, for release.
+func (r *resolver) mark() tmpMark {
+	if !r.heads {
+		return tmpMark{}
+	}
+	return r.parser().mark()
+}
+
+// release hands out again the temporary parts parsed since m (from
+// mark): nothing full or fullTree returned since may be used afterwards.
+func (r *resolver) release(m tmpMark) {
+	if r.hp != nil {
+		r.hp.release(m)
+	}
+}
+
+// paramExpr returns the expression of ps's parameter, until the release
+// of a mark taken before.
 func (r *resolver) paramExpr(ps *paramState) *Expr {
 	if ps.p.Expr != nil || ps.st == nil {
 		return ps.p.Expr

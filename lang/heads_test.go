@@ -76,6 +76,15 @@ func TestLoadSourceModel(t *testing.T) {
 		"part bp { bore 8 mm; length 2 m }\nloop l {\n fluid water\n node a\n node b\n pipe p from a to b { use bp }\n evaporator e from b to a { use bp; heat 50 W }\n}\ncase c nominal { heat e 40 W; sink 20 degC }\nlimits { exit_quality 0.4 }\nmethods { friction friedel }\n",
 		"param a = 3 mm $\nparam b = a +\nloop l {\n node a at (0 0 0)\n pipe from a\n}\n",
 		"param a = b\nparam b = a\nparam c = 1 km; param c = 2 m\n",
+		// Values that name parameters declared later, at several depths,
+		// so that one statement's parts are read while another's are.
+		"param a = b + c * 2\nparam b = c^2 / (1 m) - (d)\nparam c = 3 m\nparam d = 1 mm\n" +
+			"part bp { bore d * 8; length a }\n" +
+			"loop l {\n fluid water\n saturation ts\n node x at (a, -b, c) mm\n node y at (0, 0, d) \n" +
+			" pipe p from x to y { use bp; rise c - a; loss k }\n" +
+			" condenser k1 from y to x { length 1 m; bore d; conductance ua; sink ts }\n}\n" +
+			"param ts = 40 degC\nparam ua = 2 W/K * k\nparam k = 3\n" +
+			"case c nominal { sink ts; pitch k * 1 deg }\n",
 	} {
 		sameModel(t, "text"+string(rune('a'+i))+".loop", []byte(src))
 	}

@@ -58,7 +58,7 @@ func (r *resolver) readParsed(f *File, stack []string) {
 		if st.Keyword() != "include" || st.Bad {
 			continue
 		}
-		s, ok := r.stringArg(path, r.full(path, st))
+		s, ok := r.stringArg(path, r.kept(path, st, false))
 		if !ok {
 			continue
 		}
