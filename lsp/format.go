@@ -114,99 +114,36 @@ type hunk struct {
 	text             string
 }
 
-// lineDiff compares two line lists with Myers' O(ND) algorithm and returns
-// the replaced ranges. Past a bound on the edit distance it returns one hunk
-// for the differing middle.
+// lineDiff compares two line lists and returns the replaced ranges, in
+// order: a change of as many lines as it replaces is one hunk a line, so
+// that a range formatting keeps only the lines it touches.
 func lineDiff(a, b []string) []hunk {
-	pre, suf := lang.CommonEnds(a, b)
-	am, bm := a[pre:len(a)-suf], b[pre:len(b)-suf]
-	if len(am) == 0 && len(bm) == 0 {
-		return nil
-	}
-	whole := []hunk{{pre, pre + len(am), join(bm)}}
-	const maxD = 2000
-	n, m := len(am), len(bm)
-	max := n + m
-	if max > maxD {
-		max = maxD
-	}
-	off := max + 1
-	v := make([]int, 2*max+3)
-	var trace [][]int
-	found := false
-	for d := 0; d <= max && !found; d++ {
-		snap := append([]int(nil), v...)
-		trace = append(trace, snap)
-		for k := -d; k <= d; k += 2 {
-			var x int
-			if k == -d || (k != d && v[off+k-1] < v[off+k+1]) {
-				x = v[off+k+1]
-			} else {
-				x = v[off+k-1] + 1
-			}
-			y := x - k
-			for x < n && y < m && am[x] == bm[y] {
-				x++
-				y++
-			}
-			v[off+k] = x
-			if x >= n && y >= m {
-				found = true
-				break
-			}
-		}
-	}
-	if !found {
-		return whole
-	}
-	// Walk back through the trace to list the kept line pairs.
-	type pair struct{ x, y int }
-	var keep []pair
-	x, y := n, m
-	for d := len(trace) - 1; d > 0; d-- {
-		vv := trace[d]
-		k := x - y
-		var pk int
-		if k == -d || (k != d && vv[off+k-1] < vv[off+k+1]) {
-			pk = k + 1
-		} else {
-			pk = k - 1
-		}
-		px := vv[off+pk]
-		py := px - pk
-		for x > px && y > py {
-			x--
-			y--
-			keep = append(keep, pair{x, y})
-		}
-		x, y = px, py
-	}
-	for x > 0 && y > 0 {
-		x--
-		y--
-		keep = append(keep, pair{x, y})
-	}
-	// keep is in reverse order; emit the gaps between kept pairs as hunks.
+	ops := lang.LineEdits(a, b)
 	var out []hunk
-	ax, by := 0, 0
-	flush := func(toX, toY int) {
-		switch {
-		case toX-ax == toY-by:
-			// As many lines out as in: one hunk per line, so a range
-			// formatting keeps only the lines it touches.
-			for i := 0; i < toX-ax; i++ {
-				out = append(out, hunk{pre + ax + i, pre + ax + i + 1, bm[by+i]})
-			}
-		case toX > ax || toY > by:
-			out = append(out, hunk{pre + ax, pre + toX, join(bm[by:toY])})
+	x, y := 0, 0 // the lines of a and of b at ops[k]
+	for k := 0; k < len(ops); {
+		if ops[k].Kind == ' ' {
+			x, y, k = x+1, y+1, k+1
+			continue
 		}
+		// A change: a[x:x+del] give way to b[y:y+add].
+		del, add := 0, 0
+		for ; k < len(ops) && ops[k].Kind != ' '; k++ {
+			if ops[k].Kind == '-' {
+				del++
+			} else {
+				add++
+			}
+		}
+		if del == add {
+			for i := 0; i < del; i++ {
+				out = append(out, hunk{x + i, x + i + 1, b[y+i]})
+			}
+		} else {
+			out = append(out, hunk{x, x + del, join(b[y : y+add])})
+		}
+		x, y = x+del, y+add
 	}
-	for i := len(keep) - 1; i >= 0; i-- {
-		p := keep[i]
-		flush(p.x, p.y)
-		ax, by = p.x+1, p.y+1
-	}
-	flush(n, m)
 	return out
 }
 
