@@ -76,17 +76,7 @@ func TestNetworkLocalSaturation(t *testing.T) {
 		if st == nil || len(st.Branches) != 3 {
 			t.Fatalf("%s: stability %+v", c.Case, st)
 		}
-		var a, b, rest BranchStability
-		for _, bs := range st.Branches {
-			switch bs.Components[1] {
-			case "stack_a":
-				a = bs
-			case "stack_b":
-				b = bs
-			default:
-				rest = bs
-			}
-		}
+		a, b, rest := stackBranches(st)
 		if want := -b.Slope * rest.Slope / (b.Slope + rest.Slope); math.Abs(a.External-want) > 1e-6*math.Abs(want) {
 			t.Errorf("%s: external slope at stack_a %g, two-channel form %g", c.Case, a.External, want)
 		}

@@ -24,6 +24,22 @@ func TestExternalSlopeHandWorked(t *testing.T) {
 	}
 }
 
+// stackBranches picks out of the two-stack examples' branches stack_a's,
+// stack_b's and the rest of the network's (riser, condenser, downcomer).
+func stackBranches(st *Stability) (a, b, rest BranchStability) {
+	for _, bs := range st.Branches {
+		switch bs.Components[1] {
+		case "stack_a":
+			a = bs
+		case "stack_b":
+			b = bs
+		default:
+			rest = bs
+		}
+	}
+	return a, b, rest
+}
+
 // TestNetworkStability runs the two-stack example: every branch gets its
 // static slope against the rest of the network, and the two parallel stacks'
 // external slope is the hand-worked two-channel form −S_B S_R/(S_B + S_R)
@@ -37,17 +53,7 @@ func TestNetworkStability(t *testing.T) {
 	if st == nil || len(st.Branches) != 3 || len(st.Channels) != 2 {
 		t.Fatalf("stability %+v", st)
 	}
-	var a, b, rest BranchStability
-	for _, bs := range st.Branches {
-		switch bs.Components[1] {
-		case "stack_a":
-			a = bs
-		case "stack_b":
-			b = bs
-		default:
-			rest = bs
-		}
-	}
+	a, b, rest := stackBranches(st)
 	want := -b.Slope * rest.Slope / (b.Slope + rest.Slope)
 	if math.Abs(a.External-want) > 1e-9*math.Abs(want) {
 		t.Errorf("external slope at stack_a %g, two-channel form %g", a.External, want)
