@@ -72,10 +72,24 @@ func profileFinding(t *testing.T, body string, fs memFS) (Diagnostic, string) {
 	return d, src[d.Loc.Span.Start:d.Loc.Span.End]
 }
 
+// bodyFinding is a case body and the one finding it must give: its rule,
+// the text it points at and words of its message.
+type bodyFinding struct{ name, body, rule, at, msg string }
+
+func checkFindings(t *testing.T, cases []bodyFinding) {
+	t.Helper()
+	for _, tc := range cases {
+		t.Run(tc.name, func(t *testing.T) {
+			d, at := profileFinding(t, tc.body, memFS{})
+			if d.Rule != tc.rule || at != tc.at || !strings.Contains(d.Message(), tc.msg) {
+				t.Errorf("got %s at %q: %s\nwant %s at %q containing %q", d.Rule, at, d.Message(), tc.rule, tc.at, tc.msg)
+			}
+		})
+	}
+}
+
 func TestProfileFindings(t *testing.T) {
-	for _, tc := range []struct {
-		name, body, rule, at, msg string
-	}{
+	checkFindings(t, []bodyFinding{
 		{"out of order", "profile {\n columns time pitch\n row 0 s 0 deg\n row 5 s 1 deg\n row 4 s 2 deg\n}", "bad-value", "4 s", "out of order"},
 		{"duplicate time", "profile {\n columns time pitch\n row 0 s 0 deg\n row 0 s 1 deg\n}", "bad-value", "0 s", "given twice"},
 		{"pitch range", "profile {\n columns time pitch\n row 0 s 91 deg\n}", "bad-value", "91 deg", "within ±90°"},
@@ -91,14 +105,7 @@ func TestProfileFindings(t *testing.T) {
 		{"twice", "profile {\n columns time\n row 0 s\n}\nprofile {\n columns time\n row 0 s\n}", "duplicate-name", "profile", "twice"},
 		{"not a path", "profile 3 s", "syntax", "profile 3 s", "CSV"},
 		{"unknown statement", "profile {\n columns time\n rows 0 s\n}", "unknown-field", "rows", "row"},
-	} {
-		t.Run(tc.name, func(t *testing.T) {
-			d, at := profileFinding(t, tc.body, memFS{})
-			if d.Rule != tc.rule || at != tc.at || !strings.Contains(d.Message(), tc.msg) {
-				t.Errorf("got %s at %q: %s\nwant %s at %q containing %q", d.Rule, at, d.Message(), tc.rule, tc.at, tc.msg)
-			}
-		})
-	}
+	})
 }
 
 func TestProfileCSV(t *testing.T) {
@@ -189,7 +196,7 @@ func TestEnvelope(t *testing.T) {
 	if a := e.Axes[1]; a.Name != "accel_y" || math.Abs(a.Lo+0.2*9.80665) > 1e-12 || a.Hi != -a.Lo {
 		t.Errorf("accel_y axis %+v", a)
 	}
-	for _, tc := range []struct{ name, body, rule, at, msg string }{
+	checkFindings(t, []bodyFinding{
 		{"order", "envelope {\n pitch 4 deg -8 deg\n}", "bad-value", "-8 deg", "below its low bound"},
 		{"range", "envelope {\n pitch 100 deg\n}", "bad-value", "100 deg", "within ±90°"},
 		{"negative half", "envelope {\n roll -5 deg\n}", "bad-value", "-5 deg", "half-range"},
@@ -198,14 +205,7 @@ func TestEnvelope(t *testing.T) {
 		{"twice", "envelope {\n roll 5 deg\n roll 6 deg\n}", "duplicate-name", "roll", "twice"},
 		{"empty", "envelope {\n}", "missing-value", "envelope", "no axis"},
 		{"no block", "envelope 5 deg", "syntax", "envelope 5 deg", "block of bounds"},
-	} {
-		t.Run(tc.name, func(t *testing.T) {
-			d, at := profileFinding(t, tc.body, memFS{})
-			if d.Rule != tc.rule || at != tc.at || !strings.Contains(d.Message(), tc.msg) {
-				t.Errorf("got %s at %q: %s\nwant %s at %q containing %q", d.Rule, at, d.Message(), tc.rule, tc.at, tc.msg)
-			}
-		})
-	}
+	})
 }
 
 // FuzzProfileCSV checks that reading any table never panics and that every
