@@ -35,6 +35,7 @@ const satGridStep = 0.01
 // satNode is the saturated state at one grid pressure.
 type satNode struct {
 	ok      bool
+	p       float64 // the node's pressure, Pa
 	hl, hlv float64 // saturated liquid enthalpy and latent heat, J/kg
 	pl      correlate.Props
 }
@@ -97,11 +98,42 @@ func (s *state) node(k int) *satNode {
 	}
 	nd := &g.nodes[k-g.k0]
 	if !nd.ok {
-		sat, pl := s.satAt(math.Exp(g.lnRef + float64(k)*satGridStep))
-		*nd = satNode{ok: true, hl: sat.HL, hlv: sat.Hlv, pl: pl}
+		p := math.Exp(g.lnRef + float64(k)*satGridStep)
+		sat, pl := s.satAt(p)
+		*nd = satNode{ok: true, p: p, hl: sat.HL, hlv: sat.Hlv, pl: pl}
 	}
 	return nd
 }
+
+// interval finds the grid interval around pressure p (clamped to the
+// fluid's range): nodes a and b and the weight t of b, linear in p within
+// the interval (the same order of accuracy as linear in ln p). The last
+// interval and its neighbours are found without a logarithm.
+func (s *state) interval(p float64) (a, b *satNode, k int, t float64) {
+	p = s.clampP(p)
+	g := s.grid
+	k = g.ka
+	switch {
+	case g.pb > g.pa && p >= g.pa && p < g.pb:
+	case g.pb > g.pa && p >= g.pb && p < g.pb*satGridRatio:
+		k++
+	case g.pb > g.pa && p < g.pa && p >= g.pa/satGridRatio:
+		k--
+	default:
+		k = int(math.Floor((math.Log(p) - g.lnRef) / satGridStep))
+	}
+	a, b = s.node(k), s.node(k+1)
+	g.ka, g.pa, g.pb = k, a.p, b.p
+	t = (p - a.p) / (b.p - a.p)
+	if !(t >= 0 && t <= 1) {
+		// Round-off at an interval's end.
+		t = math.Min(math.Max(t, 0), 1)
+	}
+	return a, b, k, t
+}
+
+// satGridRatio is the ratio of consecutive grid pressures, e^satGridStep.
+var satGridRatio = math.Exp(satGridStep)
 
 // propsAt is the saturated state of the local march at pressure p,
 // clamped to the fluid's range.
@@ -110,28 +142,7 @@ func (s *state) propsAt(p float64) localProps {
 		sat, pl := s.satAt(p)
 		return localProps{hl: sat.HL, hlv: sat.Hlv, pl: pl, exact: true}
 	}
-	p = s.clampP(p)
-	g := s.grid
-	var k int
-	var t float64
-	if p >= g.pa && p < g.pb {
-		// The interval of the last look-up: linear in p within it (the
-		// same order of accuracy as linear in ln p), with no logarithm.
-		k, t = g.ka, (p-g.pa)/(g.pb-g.pa)
-	} else {
-		u := (math.Log(p) - g.lnRef) / satGridStep
-		fk := math.Floor(u)
-		k = int(fk)
-		g.ka = k
-		g.pa = math.Exp(g.lnRef + fk*satGridStep)
-		g.pb = math.Exp(g.lnRef + (fk+1)*satGridStep)
-		t = (p - g.pa) / (g.pb - g.pa)
-		if !(t >= 0 && t <= 1) {
-			t = math.Min(math.Max(t, 0), 1)
-			g.pb = g.pa // not reused
-		}
-	}
-	a, b := s.node(k), s.node(k+1)
+	a, b, k, t := s.interval(p)
 	lp := localProps{k: k, t: t}
 	lp.hl = a.hl + t*(b.hl-a.hl)
 	lp.hlv = a.hlv + t*(b.hlv-a.hlv)
@@ -149,18 +160,47 @@ func (s *state) propsAt(p float64) localProps {
 	return lp
 }
 
+// localXAt is the local quality of reference enthalpy x at pressure p, as
+// propsAt's state gives it (without the other properties).
+func (s *state) localXAt(x, p float64) float64 {
+	if localExact || s.grid == nil {
+		lp := s.propsAt(p)
+		return s.localXp(x, &lp)
+	}
+	a, b, _, t := s.interval(p)
+	return (s.sat.HL + x*s.sat.Hlv - (a.hl + t*(b.hl-a.hl))) / (a.hlv + t*(b.hlv-a.hlv))
+}
+
 // localXp is the local quality of reference enthalpy x at state lp.
 func (s *state) localXp(x float64, lp *localProps) float64 {
 	return (s.sat.HL + x*s.sat.Hlv - lp.hl) / lp.hlv
 }
 
-// tubeFriction is the friction prepared for one tube at one mass flux at
-// grid nodes k and k+1, for the methods that prepare single-phase factors
-// (the others prepare nothing, so they take the interpolated properties).
+// tubeFriction holds the friction prepared for one tube at one mass flux
+// at the grid nodes the tube's cells reached last, for the methods that
+// prepare single-phase factors (the others prepare nothing, so they take
+// the interpolated properties).
 type tubeFriction struct {
-	valid bool
-	k     int
-	a, b  correlate.PreparedFriction
+	n    int // entries filled
+	next int // the entry the next miss replaces
+	k    [4]int
+	pf   [4]correlate.PreparedFriction
+}
+
+// at returns the friction prepared at node k.
+func (tf *tubeFriction) at(s *state, cp *comp, G float64, k int) *correlate.PreparedFriction {
+	for i := 0; i < tf.n; i++ {
+		if tf.k[i] == k {
+			return &tf.pf[i]
+		}
+	}
+	i := tf.next
+	tf.next = (i + 1) % len(tf.k)
+	if tf.n < len(tf.k) {
+		tf.n++
+	}
+	tf.k[i], tf.pf[i] = k, s.fric.Prepare(G, cp.D, cp.rr, s.node(k).pl, s.bmag)
+	return &tf.pf[i]
 }
 
 // preparesFactors reports whether the friction method computes Churchill
@@ -176,20 +216,8 @@ func (s *state) gradientLocal(tf *tubeFriction, cp *comp, G, xl float64, lp *loc
 		pf := s.fric.Prepare(G, cp.D, cp.rr, lp.pl, s.bmag)
 		return pf.Gradient(xl)
 	}
-	prep := func(k int) correlate.PreparedFriction {
-		return s.fric.Prepare(G, cp.D, cp.rr, s.node(k).pl, s.bmag)
-	}
-	switch {
-	case tf.valid && tf.k == lp.k:
-	case tf.valid && tf.k+1 == lp.k:
-		tf.a, tf.b = tf.b, prep(lp.k+1)
-	case tf.valid && tf.k-1 == lp.k:
-		tf.a, tf.b = prep(lp.k), tf.a
-	default:
-		tf.a, tf.b = prep(lp.k), prep(lp.k+1)
-	}
-	tf.valid, tf.k = true, lp.k
-	ga, gb := tf.a.Gradient(xl), tf.b.Gradient(xl)
+	ga := tf.at(s, cp, G, lp.k).Gradient(xl)
+	gb := tf.at(s, cp, G, lp.k+1).Gradient(xl)
 	return ga + lp.t*(gb-ga)
 }
 
@@ -415,8 +443,7 @@ func (mc *localMarch) adiabatic(x, p, tol float64) float64 {
 // takes the state at its own midpoint.
 func (mc *localMarch) step(xa, xb, ds, p, g float64) {
 	s := mc.s
-	lpB := s.propsAt(p - g*ds)
-	xlB := s.localXp(xb, &lpB)
+	xlB := s.localXAt(xb, p-g*ds)
 	w := 1.0
 	for _, c := range [2]float64{0, 1} {
 		if (mc.xlA-c)*(xlB-c) < 0 {
