@@ -431,7 +431,7 @@ type Methods struct {
 	Friction    Choice
 	SinglePhase Choice
 	CHF         Choice
-	SatState    Choice // "single" or "local"
+	SatState    Choice // "auto", "single" or "local"
 	// Condensation is the in-tube coefficient of condensers given by
 	// geometry: "film" (Nusselt, Chato), or a forced-convection correlation:
 	// "shah" (Shah 1979), "boyko_kruzhilin", "akers_deans_crosser" or
@@ -455,7 +455,7 @@ var MethodChoices = map[string][]string{
 	"friction":         {"muller_steinhagen_heck", "friedel", "lockhart_martinelli", "homogeneous_mcadams", "homogeneous_cicchitti", "homogeneous_dukler"},
 	"single_phase":     {"churchill", "colebrook"},
 	"chf":              {"lienhard_dhir", "zuber", "katto_ohno"},
-	"saturation_state": {"single", "local"},
+	"saturation_state": {"auto", "single", "local"},
 	"condensation":     {"film", "shah", "boyko_kruzhilin", "akers_deans_crosser", "cavallini_smith_zecchin"},
 }
 
@@ -466,7 +466,7 @@ func DefaultMethods() Methods {
 		Friction:     Choice{Name: "muller_steinhagen_heck"},
 		SinglePhase:  Choice{Name: "churchill"},
 		CHF:          Choice{Name: "lienhard_dhir"},
-		SatState:     Choice{Name: "single"},
+		SatState:     Choice{Name: "auto"},
 		Condensation: Choice{Name: "film"},
 		Cells:        40,
 	}

@@ -85,7 +85,7 @@ var wordDocs = map[string]string{
 	"friction":         "two-phase friction correlation",
 	"single_phase":     "single-phase friction factor",
 	"chf":              "critical heat flux correlation",
-	"saturation_state": "single saturated state per loop and case, or local pressure around the loop or through the network",
+	"saturation_state": "auto (local pressure where the liquid column shifts saturation by more than 5 K, else single), single saturated state per loop and case, or local pressure around the loop or through the network",
 	"condensation":     "in-tube condensation coefficient of condensers given by geometry",
 	"cells":            "cells per heated component in the quality march (4 to 10000)",
 }

@@ -21,8 +21,8 @@ type Options struct {
 	// Void and Friction override the methods block (names as in loop files,
 	// underscores or hyphens).
 	Void, Friction string
-	// Saturation overrides the methods block's saturation_state ("single"
-	// or "local").
+	// Saturation overrides the methods block's saturation_state ("auto",
+	// "single" or "local").
 	Saturation string
 	// Cells overrides the number of cells per heated component.
 	Cells int
@@ -188,6 +188,8 @@ func estimateLoop(m *lang.Model, l *lang.Loop, methods MethodsUsed, points []poi
 				continue
 			}
 			switch {
+			case p.methods.Saturation == "auto":
+				lr.Assumptions[i] = fmt.Sprintf("saturation at the local pressure in the cases where the weight of the liquid column raises the saturation temperature at an evaporator inlet by more than %g K (circa's screening rule), one saturation state per loop and case in the others; each case names its state", AutoLocalShift)
 			case p.methods.Saturation == "local" && p.net.ring:
 				lr.Assumptions[i] = "saturation at the local pressure, marched around the loop from the condenser outlet at the case's saturation pressure; liquid density and viscosity at the liquid's own temperature"
 			case p.methods.Saturation == "local":
@@ -357,8 +359,8 @@ func chooseMethods(ms lang.Methods, opts Options) (MethodsUsed, error) {
 	if mu.CHF != "lienhard_dhir" && mu.CHF != "zuber" && mu.CHF != "katto_ohno" {
 		return mu, fmt.Errorf("unknown critical heat flux method %q (want lienhard_dhir, zuber or katto_ohno)", mu.CHF)
 	}
-	if mu.Saturation != "single" && mu.Saturation != "local" {
-		return mu, fmt.Errorf("unknown saturation state %q (want single or local)", mu.Saturation)
+	if mu.Saturation != "single" && mu.Saturation != "local" && mu.Saturation != "auto" {
+		return mu, fmt.Errorf("unknown saturation state %q (want auto, single or local)", mu.Saturation)
 	}
 	if _, err := parseCondensation(mu.Condensation); err != nil {
 		return mu, err
@@ -560,33 +562,8 @@ func (p *prepared) newState(pt point, cr *CaseResult) (*state, []Finding) {
 	s.sat = sat
 	cr.SatPressure = sat.P
 	s.fl = p.fl
-	s.local = p.methods.Saturation == "local"
 	s.pIn = make([]float64, len(net.comps))
 	s.refCond = -1
-	if s.local {
-		s.pLo, s.pHi = 0, math.Inf(1)
-		if lo, err := p.fl.AtT(p.info.Tmin); err == nil {
-			s.pLo = lo.P
-		}
-		if hi, err := p.fl.AtT(p.info.Tmax); err == nil {
-			s.pHi = hi.P
-		}
-		if s.pLo > 0 && s.pHi < math.Inf(1) {
-			s.grid = &satGrid{lnRef: math.Log(sat.P)}
-		}
-	}
-	if s.local && !net.ring {
-		s.pj = make([]float64, net.nj)
-		for j := range s.pj {
-			s.pj[j] = sat.P
-		}
-		for ci, cp := range net.comps {
-			if cp.kind == lang.Condenser {
-				s.refCond = ci
-				break
-			}
-		}
-	}
 	pr := 0.0
 	if p.info.Pc > 0 {
 		pr = sat.P / p.info.Pc
@@ -619,6 +596,7 @@ func (p *prepared) newState(pt point, cr *CaseResult) (*state, []Finding) {
 		}
 	}
 	s.setBody(geom.BodyForceAt(pt.yaw, pt.pitch, pt.roll, pt.accel))
+	p.saturationState(s, cr)
 	return s, fs
 }
 

@@ -17,6 +17,106 @@ import (
 // temperature is subcooled whatever the reference says; a mixture rising
 // into lower pressure flashes.
 
+// AutoLocalShift is the shift of the saturation temperature by the liquid
+// column's weight above which saturation_state auto estimates a case at
+// local saturation, K. It is circa's own screening rule: below it the
+// single state's flows stay within about 1 % of the local march's on the
+// shipped examples; above it (water or R1233zd(E) at a few kPa to about
+// 1 bar under a tall column) the single state misses a subcooled inlet
+// and the flashing in the riser, and its flow can be several times too
+// high.
+const AutoLocalShift = 5.0 // K
+
+// saturationState sets the case's saturation state (single or local) and
+// what local saturation needs: the fluid's pressure range, the saturation
+// grid, and for a network its junction pressures.
+func (p *prepared) saturationState(s *state, cr *CaseResult) {
+	cr.ColumnShift = p.columnShift(s)
+	switch p.methods.Saturation {
+	case "local":
+		s.local = true
+	case "auto":
+		s.local = cr.ColumnShift > AutoLocalShift
+	}
+	cr.SatState = "single"
+	if !s.local {
+		return
+	}
+	cr.SatState = "local"
+	s.pLo, s.pHi = 0, math.Inf(1)
+	if lo, err := p.fl.AtT(p.info.Tmin); err == nil {
+		s.pLo = lo.P
+	}
+	if hi, err := p.fl.AtT(p.info.Tmax); err == nil {
+		s.pHi = hi.P
+	}
+	if s.pLo > 0 && s.pHi < math.Inf(1) {
+		s.grid = &satGrid{lnRef: math.Log(s.sat.P)}
+	}
+	if s.net.ring {
+		return
+	}
+	s.pj = make([]float64, s.net.nj)
+	for j := range s.pj {
+		s.pj[j] = s.sat.P
+	}
+	for ci, cp := range s.net.comps {
+		if cp.kind == lang.Condenser {
+			s.refCond = ci
+			break
+		}
+	}
+}
+
+// columnShift is the largest rise of the saturation temperature, K, that
+// the hydrostatic head ρ_l·|b|·H of a liquid column gives at an evaporator
+// inlet, H the height along the body force from the highest condenser
+// outlet down to that inlet (0 without node positions or body force).
+func (p *prepared) columnShift(s *state) float64 {
+	if p.lay == nil || !(s.bmag > 0) {
+		return 0
+	}
+	up := s.b.Scale(-1 / s.bmag)
+	height := func(n *lang.Node) (float64, bool) {
+		if n == nil || n.Index < 0 || n.Index >= len(p.lay.Pos) {
+			return 0, false
+		}
+		return p.lay.Pos[n.Index].Dot(up), true
+	}
+	top, ok := math.Inf(-1), false
+	for _, cp := range s.net.comps {
+		if cp.kind != lang.Condenser {
+			continue
+		}
+		if h, k := height(cp.c.To); k && h > top {
+			top, ok = h, true
+		}
+	}
+	if !ok {
+		return 0
+	}
+	low := math.Inf(1)
+	for _, cp := range s.net.comps {
+		if cp.kind != lang.Evaporator {
+			continue
+		}
+		if h, k := height(cp.c.From); k && h < low {
+			low = h
+		}
+	}
+	if !(top > low) || math.IsInf(low, 0) {
+		return 0
+	}
+	pin := s.sat.P + s.sat.RhoL*s.bmag*(top-low)
+	in, err := p.fl.AtP(pin)
+	if err != nil {
+		// Past the top of the fluid's range: certainly more than any
+		// threshold.
+		return math.Max(p.info.Tmax-s.sat.T, 0)
+	}
+	return math.Max(in.T-s.sat.T, 0)
+}
+
 // legDir is a component in flow order with its direction of traversal.
 type legDir struct {
 	ci  int

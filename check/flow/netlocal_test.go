@@ -17,10 +17,7 @@ import (
 // kelvin, so the flow moves by a few per cent at most.
 func TestNetworkLocalSaturation(t *testing.T) {
 	m := lang.Load("../../testdata/examples/ferry-cabinet.loop", lang.OSFS{})
-	single := estimate(t, m, Options{NoTilt: true})
-	if single.Loops[0].Methods.Saturation != "single" {
-		t.Fatalf("the default is %q", single.Loops[0].Methods.Saturation)
-	}
+	single := estimate(t, m, Options{NoTilt: true, Saturation: "single"})
 	r := estimate(t, m, Options{NoTilt: true, Saturation: "local"})
 	if r.Loops[0].Methods.Saturation != "local" || !strings.Contains(strings.Join(r.Loops[0].Assumptions, "; "), "upstream junction") {
 		t.Fatalf("methods %+v, assumptions %q", r.Loops[0].Methods, r.Loops[0].Assumptions)

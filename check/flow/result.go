@@ -59,7 +59,7 @@ type MethodsUsed struct {
 	Friction    string `json:"friction"`
 	SinglePhase string `json:"single_phase"`
 	CHF         string `json:"chf"`
-	Saturation  string `json:"saturation"` // "single": one state per case; "local": at each cell's pressure
+	Saturation  string `json:"saturation"` // "single": one state per case; "local": at each cell's pressure; "auto": local where the liquid column shifts saturation by more than AutoLocalShift
 	// Condensation is the in-tube coefficient of condensers given by
 	// geometry: "film" (Nusselt 1916, Chato 1962), or one of the
 	// forced-convection correlations "shah" (Shah 1979), "boyko_kruzhilin"
@@ -86,6 +86,15 @@ type CaseResult struct {
 	SatTemperature float64 `json:"saturation_temperature"` // K
 	SatPressure    float64 `json:"saturation_pressure"`    // Pa, absolute
 	SatSource      string  `json:"saturation_source"`      // "case", "loop", "condenser outlet", "condenser balance"
+	// SatState is the saturation state the case was estimated with:
+	// "single" or "local" (with saturation_state auto, as its liquid
+	// column decided; see ColumnShift).
+	SatState string `json:"saturation_state,omitempty"`
+	// ColumnShift is how far the weight of the tallest liquid column, from
+	// the highest condenser outlet down to an evaporator inlet, raises the
+	// saturation temperature there, K: what saturation_state auto decides
+	// by.
+	ColumnShift float64 `json:"column_shift,omitempty"`
 
 	Circulates bool    `json:"circulates"`
 	Reason     string  `json:"reason,omitempty"` // why not, when it does not

@@ -77,8 +77,11 @@ func loopText(w io.Writer, l *flow.LoopResult, env Envelopes) {
 	}
 	fmt.Fprintf(w, ", %s\n", kind)
 	sat := ""
-	if l.Methods.Saturation == "local" {
+	switch l.Methods.Saturation {
+	case "local":
 		sat = ", saturation at local pressure"
+	case "auto":
+		sat = fmt.Sprintf(", saturation at local pressure where the liquid column raises it by more than %g K (else one state)", flow.AutoLocalShift)
 	}
 	fmt.Fprintf(w, "methods: void %s, friction %s, single-phase %s, CHF %s%s, %d cells per heated component\n",
 		l.Methods.Void, l.Methods.Friction, l.Methods.SinglePhase, l.Methods.CHF, sat, l.Methods.Cells)
@@ -233,6 +236,9 @@ func caseText(w io.Writer, l *flow.LoopResult, c *flow.CaseResult, tilt *picture
 	if c.SatSource != "" {
 		fmt.Fprintf(w, ", saturation %s, %s (%s)", temperature(c.SatTemperature), pressureAs(c.SatPressure, l.DesignPressureUnit), c.SatSource)
 	}
+	if l.Methods.Saturation == "auto" && c.SatState != "" {
+		fmt.Fprintf(w, "; %s saturation state (liquid column %s K)", c.SatState, fixed(c.ColumnShift, 1))
+	}
 	fmt.Fprintln(w)
 	if len(c.Overrides) > 0 {
 		fmt.Fprintf(w, "  this case: %s\n", OverridesText(c.Overrides))
@@ -295,7 +301,7 @@ func stateTable(w io.Writer, c *flow.CaseResult) {
 // local pressure always, with the single state only where the two differ by
 // more than 1 K of evaporator-inlet subcooling.
 func localTable(w io.Writer, l *flow.LoopResult, c *flow.CaseResult) {
-	local := l.Methods.Saturation == "local"
+	local := c.SatState == "local" || c.SatState == "" && l.Methods.Saturation == "local"
 	if !local {
 		for _, s := range c.Components {
 			if s.Local != nil && s.Local.SubcoolingIn > 1 {

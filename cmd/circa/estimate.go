@@ -61,7 +61,7 @@ func runEstimate(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 	fl.StringVar(&format, "format", "text", "output format: text, json or csv")
 	fl.StringVar(&opts.Void, "void", "", "void-fraction method (overrides the methods block)")
 	fl.StringVar(&opts.Friction, "friction", "", "two-phase friction method (overrides the methods block)")
-	fl.StringVar(&opts.Saturation, "saturation", "", "saturation state: local (the default) or single (overrides the methods block)")
+	fl.StringVar(&opts.Saturation, "saturation", "", "saturation state: auto (the default), local or single (overrides the methods block)")
 	fl.IntVar(&opts.Cells, "cells", 0, "cells per heated component (overrides the methods block)")
 	fl.BoolVar(&opts.NoTilt, "no-tilt", false, "skip the search for the attitudes where circulation stops")
 	var noGuide, fluids bool
