@@ -46,7 +46,8 @@ type Guidance struct {
 	// Message says why there is no guidance (a file with errors).
 	Message string `json:"message,omitempty"`
 	// Skipped says why no parameter was searched: more of them reach the
-	// estimate than the guidance searches (MaxSearched).
+	// estimate than the guidance searches (MaxSearched, MaxWork), or
+	// searching them would take more steady states than MaxStates.
 	Skipped string `json:"skipped,omitempty"`
 	// Use and Limit are the largest margin use of the design as written and
 	// where it is; Stop says why the design has no usable estimate.
@@ -206,6 +207,10 @@ func Compute(ctx context.Context, m *lang.Model, opts Options) (*Guidance, error
 	}
 	if limit := searchLimit(m); len(search) > limit {
 		g.Skipped = skipped(len(search), limit)
+	} else if why := tooCostly(m, len(search), workOf(base, gd.points, !gd.full.NoTilt)); why != "" {
+		g.Skipped = why
+	}
+	if g.Skipped != "" {
 		for _, i := range search {
 			g.Params[i].Influences, g.Params[i].Skipped = true, true
 		}

@@ -7,6 +7,7 @@ import (
 	"strings"
 	"testing"
 
+	"circa/check/flow"
 	"circa/lang"
 )
 
@@ -139,3 +140,56 @@ func TestSearchLimit(t *testing.T) {
 		t.Errorf("thousands: %s", got)
 	}
 }
+
+// The searches' cost counts the steady states of each estimate, not the
+// parameters alone: the two parameters that reach the estimate in a file
+// of 150 cases (with the tilt search, about 424 steady states a case per
+// parameter) would take more than MaxStates, so none is searched and the
+// guidance says why; the same parameters in a file of 10 cases are
+// searched.
+func TestTooManyCasesSkipped(t *testing.T) {
+	build := func(cases int) *lang.Model {
+		src := "param orifice = 40324.84\nparam lift = 1 m\nparam q = 5 kW\n" + strings.Replace(handSource(t), "loss 40324.84", "loss orifice", 1)
+		src = strings.Replace(src, "case nominal { heat heater 5 kW }", "", 1)
+		for i := 0; i < cases; i++ {
+			fmt.Fprintf(&src2{&src}, "case c%d { heat heater q * %g }\n", i, 0.5+float64(i)/float64(2*cases))
+		}
+		if !strings.Contains(src, "loss orifice") {
+			t.Fatal("hand.loop no longer has the orifice this test varies")
+		}
+		m := lang.LoadSource(fmt.Sprintf("../../testdata/flow/hand-cases-%d.loop", cases), []byte(src), lang.OSFS{})
+		for _, d := range m.Diags {
+			t.Fatalf("%s", d.Message())
+		}
+		return m
+	}
+	g, err := Compute(context.Background(), build(150), Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	t.Log(g.Skipped)
+	want := "guidance skipped: searching the 2 parameters that reach the estimate would take about "
+	if !strings.HasPrefix(g.Skipped, want) || !strings.Contains(g.Skipped, "150 cases") || !strings.Contains(g.Skipped, "the limit is 100,000") {
+		t.Errorf("skipped: %q, want it to start %q and name the cases and the limit", g.Skipped, want)
+	}
+	if g.Estimates != 0 {
+		t.Errorf("%d estimates", g.Estimates)
+	}
+	for _, p := range g.Params {
+		if p.Influences != (p.Param != "lift") || p.Skipped != p.Influences || p.Range != nil {
+			t.Errorf("%s: influences %v, skipped %v, range %v", p.Param, p.Influences, p.Skipped, p.Range)
+		}
+	}
+	g, err = Compute(context.Background(), build(10), Options{Flow: flow.Options{NoTilt: true}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if g.Skipped != "" || g.Estimates == 0 {
+		t.Errorf("10 cases: skipped %q after %d estimates", g.Skipped, g.Estimates)
+	}
+}
+
+// src2 appends to a string.
+type src2 struct{ s *string }
+
+func (w *src2) Write(b []byte) (int, error) { *w.s += string(b); return len(b), nil }
