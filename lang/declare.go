@@ -166,7 +166,7 @@ func (r *resolver) declareParam(file string, st *Stmt) {
 	if head.head {
 		// The value is parsed again when it is evaluated, so that the
 		// tree of a large file of parameters is not kept whole.
-		p.Expr, ps.st = nil, head
+		p.Expr, ps.off, ps.head = nil, int32(head.Pos.Offset), true
 	}
 	r.params[name.Name] = ps
 	r.m.Params = append(r.m.Params, p)

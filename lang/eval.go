@@ -353,6 +353,10 @@ func (r *resolver) param(name string) (units.Quantity, bool) {
 	ps.state = 1
 	defer r.release(r.mark())
 	e := r.paramExpr(ps)
+	if e == nil {
+		ps.state, ps.ok = 2, false
+		return units.Quantity{}, false
+	}
 	q, ut, ok := r.eval(ps.p.File, e)
 	if ps.state == 2 { // a cycle was reported while evaluating
 		return units.Quantity{}, false

@@ -83,8 +83,20 @@ func (h *headParser) full(f *File, st *Stmt, n *nodes) *Stmt {
 	if !st.head {
 		return st
 	}
+	s, ok := h.parseAt(f, st.Pos.Offset, n)
+	if !ok {
+		// A head is kept only of a statement the fast path read, which it
+		// reads again the same way; keep what is known regardless.
+		return st
+	}
+	s.Block, s.Bad = st.Block, st.Bad
+	return s
+}
+
+// parseAt parses the head of the statement at offset start of f into n,
+// as the fast path read it.
+func (h *headParser) parseAt(f *File, start int, n *nodes) (*Stmt, bool) {
 	src := f.Src
-	start := st.Pos.Offset
 	ls := start
 	for ls > 0 && src[ls-1] != '\n' && !(src[ls-1] == '\r' && loneCR(src, ls-1)) {
 		ls--
@@ -108,13 +120,7 @@ func (h *headParser) full(f *File, st *Stmt, n *nodes) *Stmt {
 	h.q = fastParser{toks: h.sc.toks, i: i, nodes: n}
 	s, ok := h.q.stmt()
 	h.q = fastParser{}
-	if !ok {
-		// A head is kept only of a statement the fast path read, which it
-		// reads again the same way; keep what is known regardless.
-		return st
-	}
-	s.Block, s.Bad = st.Block, st.Bad
-	return s
+	return s, ok
 }
 
 // fullTree returns st with its parts and those of every statement of its
@@ -205,8 +211,12 @@ func (r *resolver) release(m tmpMark) {
 // paramExpr returns the expression of ps's parameter, until the release
 // of a mark taken before.
 func (r *resolver) paramExpr(ps *paramState) *Expr {
-	if ps.p.Expr != nil || ps.st == nil {
+	if ps.p.Expr != nil || !ps.head {
 		return ps.p.Expr
 	}
-	return r.full(ps.p.File, ps.st).Args[2].Expr
+	h := r.parser()
+	if s, ok := h.parseAt(r.m.Files[ps.p.File], int(ps.off), &h.tmp); ok && len(s.Args) == 3 {
+		return s.Args[2].Expr
+	}
+	return nil
 }

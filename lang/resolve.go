@@ -121,6 +121,14 @@ func (r *resolver) resolve() {
 		r.stateSlab.buf = make([]paramState, 0, params)
 	}
 	r.declare()
+	if r.heads {
+		// Filling reads what declaring kept (loops, cases, parts, the
+		// offsets of parameters), not the files' statements: the heads of
+		// the top level go now. The files are the resolver's own.
+		for _, f := range m.Files {
+			f.Stmts = nil
+		}
+	}
 	r.fill()
 	r.allows()
 	m.Diags = dedupe(m.Diags)
@@ -161,10 +169,14 @@ func dedupe(ds []Diagnostic) []Diagnostic {
 }
 
 type paramState struct {
-	p     *Param
-	st    *Stmt // the statement, when the parameter keeps no expression (heads)
-	state int   // 0 unevaluated, 1 evaluating, 2 done
-	q     units.Quantity
+	p *Param
+	q units.Quantity
+	// off is where the statement starts when head is set: the parameter
+	// keeps no expression, which is parsed again from there. A file is
+	// at most MaxFileSize bytes.
+	off   int32
+	head  bool
+	state int8 // 0 unevaluated, 1 evaluating, 2 done
 	ok    bool
 }
 
