@@ -354,12 +354,7 @@ func (s *state) instantRoots(ev *eval, w *ringWarm) ([]root, float64) {
 	if w == nil {
 		return s.ringRoots(ev)
 	}
-	f := []float64{0}
-	E := func(m float64) float64 {
-		f[0] = m
-		s.evaluate(f, ev)
-		return ev.e[0]
-	}
+	E := s.excessHead(ev)
 	g := s.ringGrid()
 	n := len(g)
 	cold := !slices.Equal(g, w.grid)

@@ -318,6 +318,17 @@ func flowGrid() []float64 {
 
 var grid = flowGrid()
 
+// excessHead is a single loop's excess head as a function of its mass
+// flow, evaluated in ev.
+func (s *state) excessHead(ev *eval) func(m float64) float64 {
+	f := []float64{0}
+	return func(m float64) float64 {
+		f[0] = m
+		s.evaluate(f, ev)
+		return ev.e[0]
+	}
+}
+
 // ringRoots brackets and refines every root of the single loop's excess
 // head on the flow grid; it also returns the excess head at the bottom of
 // the grid. When the excess head is still positive at the top of the grid
@@ -325,12 +336,7 @@ var grid = flowGrid()
 // above it on the same logarithmic steps until the excess head turns
 // negative or the flow reaches flowCeiling.
 func (s *state) ringRoots(ev *eval) ([]root, float64) {
-	f := []float64{0}
-	E := func(m float64) float64 {
-		f[0] = m
-		s.evaluate(f, ev)
-		return ev.e[0]
-	}
+	E := s.excessHead(ev)
 	g := s.ringGrid()
 	roots, e0 := findRoots(E, g)
 	top := g[len(g)-1]
@@ -345,12 +351,7 @@ func (s *state) ringRoots(ev *eval) ([]root, float64) {
 // that root: the brackets, refinements and slopes it takes are ringRoots'
 // own, so the root is the same to the bit.
 func (s *state) highestStableRoot(ev *eval) (float64, bool) {
-	f := []float64{0}
-	E := func(m float64) float64 {
-		f[0] = m
-		s.evaluate(f, ev)
-		return ev.e[0]
-	}
+	E := s.excessHead(ev)
 	g := s.ringGrid()
 	n := len(g)
 	next, eNext := g[n-1], E(g[n-1])
