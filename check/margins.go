@@ -114,6 +114,10 @@ var marginRules = []marginRule{
 	{flow.RuleNonFinite, lang.Warning, "the estimate produced non-finite numbers",
 		"A sign of a numerical problem: the numbers were replaced by 0 or the largest float and should not be trusted.",
 		"(no known trigger)", "Report the file."},
+	{flow.RuleCorrelationRange, lang.Info, "a correlation is applied outside the range of data it was fitted to",
+		correlationRangeRationale,
+		"methods { condensation shah }   # a low-flow thermosiphon condenser: Re_lo well below Shah's 350",
+		"Read the number as an extrapolation: compare with another method (methods { … }), with a test, or with a correlation fitted to these conditions; nothing is wrong with the design itself."},
 	{flow.RuleMethod, lang.Error, "an unknown estimate method",
 		"The estimate can only use the methods it knows.", "methods { void_fraction slip }", "Use one of the listed methods."},
 }
@@ -182,10 +186,15 @@ func reportEstimate(c *Context, id string) {
 				c.Report(diagnostic(c, f, nil))
 				continue
 			}
-			g := groups[f.Component]
+			key := f.Component
+			if f.Correlation != "" {
+				// One finding per component and correlation.
+				key += "\x00" + f.Correlation
+			}
+			g := groups[key]
 			if g == nil {
-				groups[f.Component] = &group{worst: f}
-				order = append(order, f.Component)
+				groups[key] = &group{worst: f}
+				order = append(order, key)
 				continue
 			}
 			// A case's profile repeats its case's findings at other
@@ -256,6 +265,9 @@ func worse(a, b flow.Finding) bool {
 	if sa != sb {
 		return sa < sb
 	}
+	if a.Rule == flow.RuleCorrelationRange {
+		return rangeFactor(a) > rangeFactor(b)
+	}
 	if lowerIsWorse[a.Rule] {
 		return a.Value < b.Value
 	}
@@ -321,6 +333,11 @@ func diagnostic(c *Context, f flow.Finding, others []string) lang.Diagnostic {
 	for _, name := range append([]string{f.Case}, others...) {
 		if cs := c.Model.Case(name); name != "" && cs != nil {
 			d.Related = append(d.Related, lang.Related{Loc: cs.NameLoc(), Message: "case " + cs.Name})
+		}
+	}
+	if f.Rule == flow.RuleCorrelationRange {
+		if ch, ok := methodChoice(c.Model.Methods, f.Correlation); ok && ch.Set && ch.File != "" {
+			d.Related = append(d.Related, lang.Related{Loc: lang.Location{File: ch.File, Span: ch.Span}, Message: "the method chosen"})
 		}
 	}
 	if v, ok := limitValue(c.Model, l, f); ok && v.Set && v.File() != "" {

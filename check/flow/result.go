@@ -324,6 +324,9 @@ type Finding struct {
 	Message    string `json:"message"`
 	// Time is the instant of the case's profile the finding comes from, s.
 	Time *float64 `json:"time,omitempty"`
+	// Correlation names the correlation a correlation-range finding is
+	// about ("Shah (1979)").
+	Correlation string `json:"correlation,omitempty"`
 }
 
 // Rule identifiers of the findings.
@@ -360,6 +363,9 @@ const (
 	RuleDensityWave     = "density-wave-risk"
 	RuleMaldistribution = "parallel-maldistribution"
 	RuleManoeuvre       = "manoeuvre-quasi-static"
+	// RuleCorrelationRange: a correlation applied outside the range of
+	// inputs its source states.
+	RuleCorrelationRange = "correlation-range"
 )
 
 // Cautions printed with every estimate.

@@ -86,6 +86,9 @@ func (p *prepared) run(pt point, tilt bool, start []float64) (CaseResult, []floa
 		p.stability(s, ev, &cr)
 	}
 	p.margins(s, &cr, f)
+	if !pt.derived() {
+		p.correlationRanges(s, &cr)
+	}
 	if tilt {
 		p.tilt(s, pt, &cr, f)
 	}
