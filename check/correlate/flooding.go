@@ -10,7 +10,11 @@ const (
 )
 
 // KutateladzeCK is the constant of the large-diameter Kutateladze flooding
-// form, ≈ 1.79 (from memory).
+// form, ≈ 1.79 ≈ √3.2: with no liquid flow a tube floods at a vapour
+// Kutateladze number of about 3.2 (Pushkina & Sorokin 1969). Both are from
+// memory; no printed form of the constant was found in the open sources
+// and general-purpose libraries searched (the fluids and ht libraries state
+// no flooding correlation).
 const KutateladzeCK = 1.79
 
 // WallisFraction is the fraction of the Wallis (1969) counter-current

@@ -183,6 +183,14 @@ func TestFlooding(t *testing.T) {
 	// σ 0.0589), jg 2, jf 0.005 m/s: (gσΔρ)^¼ = 4.84922; Ku_g = 0.318273,
 	// Ku_l = 0.0319123; (0.564156 + 0.178640)/1.79 = 0.414970.
 	near(t, "Kutateladze", KutateladzeFraction(2, 0.005, 957.9, 0.5955, 0.0589, gn, KutateladzeCK), 0.414970, 2e-6)
+	// C_K = √3.2 = 1.7889 to the three digits written: the Kutateladze number 3.2 at which
+	// a tube floods with no liquid flow (Pushkina & Sorokin 1969, from
+	// memory). Neither 1.79 nor 3.2 could be checked against a printed
+	// source: the fluids (Debian python3-fluids 1.0.22) and ht libraries
+	// hold no flooding correlation, and searches of open documentation,
+	// web pages and public code for the Kutateladze and Faghri–Chen–Morgan
+	// flooding forms found no citable printing.
+	near(t, "Kutateladze C_K", KutateladzeCK, math.Sqrt(3.2), 1e-3)
 	// Faghri, Chen & Morgan form (from memory), worked here: same water,
 	// D 0.02 m: Bo = 7.98468, K = 2.44712, A = 3.14159e-4 m²,
 	// (gσΔρ)^¼ = 4.84922, [ρv^−¼ + ρl^−¼]^−2 = 0.575568 → 4842.89 W.
