@@ -301,7 +301,7 @@ func (r *resolver) declareComponent(file string, s *Stmt, l *Loop, k Kind, nodes
 		c = &Component{Decl: r.decl(file, s, nm), Kind: k, Loop: l, Index: len(l.Components)}
 	}
 	c.Roughness = Value{SI: 1.5e-6}
-	c.BoilRoughness = Value{SI: 1e-6}
+	c.kindFields()
 	node := func(p *Arg) (*Node, Span) {
 		id := nameOf(p.Expr)
 		if id == nil {

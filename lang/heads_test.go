@@ -18,6 +18,9 @@ func sameModel(t *testing.T, path string, src []byte) {
 	if !reflect.DeepEqual(got, want) {
 		t.Errorf("%s: LoadSourceModel differs from LoadSource and DropSyntax:\n%s", path, modelDiff(got, want))
 	}
+	if noEvaporator != (evaporatorFields{BoilRoughness: Value{SI: 1e-6}}) || noCondenser != (condenserFields{}) {
+		t.Fatalf("%s: resolving wrote the fields that components of other kinds share", path)
+	}
 }
 
 // modelDiff names the first parts of two models that differ.
