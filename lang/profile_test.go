@@ -209,7 +209,7 @@ func TestEnvelope(t *testing.T) {
 }
 
 // FuzzProfileCSV checks that reading any table never panics and that every
-// error names a line within the text.
+// error names a line within the text, and a span within it.
 func FuzzProfileCSV(f *testing.F) {
 	f.Add([]byte("time (s), pitch (deg)\n0, 1\n2, 3\n"))
 	f.Add([]byte("\uFEFF# c\ntime [min], accel_y (gn), roll (rad)\n0,0,0\n1,\"0.1\",3.2\n"))
@@ -218,6 +218,9 @@ func FuzzProfileCSV(f *testing.F) {
 		if err != nil {
 			if err.Line > strings.Count(string(data), "\n")+1 {
 				t.Fatalf("error at line %d past the text: %v", err.Line, err)
+			}
+			if sp := tableSpan(data, err.Line, err.Column); sp.Start < 0 || sp.Start > sp.End || sp.End > len(data) {
+				t.Fatalf("error %v located at %+v in %d bytes", err, sp, len(data))
 			}
 			return
 		}
