@@ -422,6 +422,10 @@ func TestGuidanceCost(t *testing.T) {
 // the one circa estimate gives it.
 func TestGuidanceOnDemandInLargeFile(t *testing.T) {
 	c := newGuidedClient(t, Options{Debounce: -1, guideBudget: guideBudget})
+	// Loading 20,000 parameters and guiding one of them on demand takes
+	// seconds under the race detector on a loaded two-core machine; the
+	// patience only guards against a hang.
+	c.patience = 3 * time.Minute
 	c.initialize(nil)
 	path, err := filepath.Abs("../testdata/examples/rack-door.loop")
 	if err != nil {
