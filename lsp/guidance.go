@@ -61,10 +61,14 @@ func (gs *guideStore) get(a *analysis) *guidance {
 }
 
 // put stores a's guidance and forgets that of analyses the snapshot no
-// longer holds.
+// longer holds. The guidance of a replaced snapshot is dropped: keepOnly
+// has forgotten that snapshot's analyses, or will.
 func (gs *guideStore) put(sn *snapshot, a *analysis, g *guidance) {
 	gs.mu.Lock()
 	defer gs.mu.Unlock()
+	if sn.ctx.Err() != nil {
+		return
+	}
 	if gs.by == nil {
 		gs.by = map[*analysis]*guidance{}
 	}
@@ -74,6 +78,23 @@ func (gs *guideStore) put(sn *snapshot, a *analysis, g *guidance) {
 		}
 	}
 	gs.by[a] = g
+}
+
+// keepOnly forgets the guidance of analyses sn does not hold, and a
+// waiting snapshot that sn replaced: the guidance is kept by analysis, and
+// an old analysis holds its whole model, trees and estimates, which would
+// otherwise stay live beside the new ones until the new guidance is done.
+func (gs *guideStore) keepOnly(sn *snapshot) {
+	gs.mu.Lock()
+	defer gs.mu.Unlock()
+	for old := range gs.by {
+		if sn.roots[old.root] != old {
+			delete(gs.by, old)
+		}
+	}
+	if gs.pending != nil && gs.pending != sn && gs.pending.ctx.Err() != nil {
+		gs.pending = nil
+	}
 }
 
 func (gs *guideStore) signal() chan struct{} {

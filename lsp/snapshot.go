@@ -378,6 +378,12 @@ func (s *Server) changeLocked(docs map[string]*document, changed []string, setti
 	s.snap = n
 	s.pubMu.Unlock()
 	s.pending = n
+	// Nothing waiting may keep a replaced snapshot (its models and trees)
+	// alive: the workers would only drop it.
+	if s.slowPending != nil && s.slowPending.ctx.Err() != nil {
+		s.slowPending = nil
+	}
+	s.guides.keepOnly(n)
 	select {
 	case s.work <- struct{}{}:
 	default:
