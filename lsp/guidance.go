@@ -217,7 +217,10 @@ func (s *Server) backgroundGuidance(a *analysis) string {
 	if s.opts.guideBudget > 0 {
 		budget = s.opts.guideBudget
 	}
-	if cost := guidanceCost(m, est.tookOrZero()); cost > budget {
+	s.mu.Lock()
+	resolve := s.modelCost[a.root]
+	s.mu.Unlock()
+	if cost := guidanceCost(m, est.tookOrZero(), resolve); cost > budget {
 		return fmt.Sprintf("computed on demand in this file: all of it would take about %s of estimates", cost.Round(100*time.Millisecond))
 	}
 	return ""
@@ -312,12 +315,17 @@ func (s *Server) computeGuidance(ctx context.Context, a *analysis, params []stri
 const guideBudget = 2 * time.Second
 
 // guidanceCost guesses what the guidance of m costs from one estimate's
-// time: a few dozen estimates per parameter and per loop's charge, on one
-// worker. An estimate is taken to cost at least a few tens of
-// microseconds, so that a file of thousands of parameters whose estimate
-// stops early is not guided in the background.
-func guidanceCost(m *lang.Model, one time.Duration) time.Duration {
-	return max(one, minEstimate) * time.Duration(40*(len(m.Params)+len(m.Loops)))
+// time and the time m took to resolve: a few dozen estimates per parameter
+// and per loop's charge, on one worker, each estimate of a parameter's
+// value on a model resolved again with that value. An estimate is taken
+// to cost at least a few tens of microseconds, so that a file of thousands
+// of parameters whose estimate stops early is not guided in the
+// background. The resolving matters for a large loop: a network of
+// thousands of components resolves in about as long as it estimates, and
+// every variant is a model as large as the file's.
+func guidanceCost(m *lang.Model, one, resolve time.Duration) time.Duration {
+	one = max(one, minEstimate)
+	return 40 * (time.Duration(len(m.Params))*(one+resolve) + time.Duration(len(m.Loops))*one)
 }
 
 // minEstimate is the least an estimate is taken to cost.

@@ -405,13 +405,18 @@ func TestGuidanceNoneWithErrors(t *testing.T) {
 	}
 }
 
-// The guidance's cost guess grows with the parameters and loops it ranges.
+// The guidance's cost guess grows with the parameters and loops it ranges,
+// and with the time the model takes to resolve again for each value of a
+// parameter.
 func TestGuidanceCost(t *testing.T) {
 	m := lang.LoadSource("/x.loop", []byte("param a = 1 m\nparam b = 2 m\nloop l {\n  fluid water\n}\n"), nil)
-	if got := guidanceCost(m, 10*time.Millisecond); got != 1200*time.Millisecond {
+	if got := guidanceCost(m, 10*time.Millisecond, 0); got != 1200*time.Millisecond {
 		t.Errorf("cost %v, want 40 estimates for each of 2 parameters and 1 charge, 1.2 s", got)
 	}
-	if guidanceCost(m, time.Second) <= guideBudget {
+	if got := guidanceCost(m, 10*time.Millisecond, 5*time.Millisecond); got != 1600*time.Millisecond {
+		t.Errorf("cost %v, want 1.2 s of estimates and 80 models resolved in 5 ms each, 1.6 s", got)
+	}
+	if guidanceCost(m, time.Second, 0) <= guideBudget {
 		t.Error("a file whose estimate takes a second is guided in the background")
 	}
 }
