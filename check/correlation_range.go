@@ -28,7 +28,7 @@ var correlationRangeRationale = func() string {
 		}
 		b.WriteString(".")
 	}
-	b.WriteString(" Correlations for which no source at hand states a range (Müller-Steinhagen & Heck, Lockhart–Martinelli, the homogeneous models, the void fractions, Akers, Deans & Crosser, the pool-boiling critical heat flux, Wallis flooding, the Nusselt and Chato films) are not checked.")
+	b.WriteString(" Correlations for which no source at hand states a range (Müller-Steinhagen & Heck, the homogeneous models, the void fractions, Akers, Deans & Crosser, the pool-boiling critical heat flux, Wallis flooding, the Nusselt and Chato films) are not checked.")
 	return b.String()
 }()
 

@@ -106,8 +106,12 @@ func (v Validity) Worst(values map[string]float64) (o Outside, ok bool) {
 const (
 	srcFluidsFriedel = "fluids library (C. Bell), two_phase.Friedel: " +
 		"\"known to work poorly when mul/mug > 1000\""
-	srcFluidsFriedelD = "fluids library (C. Bell), two_phase.Friedel: \"tested on data with diameters as small as 4 mm\""
-	srcDittusBoelter  = "the turbulent range of the Dittus–Boelter-type single-phase coefficient it scales: " +
+	srcFluidsFriedelD  = "fluids library (C. Bell), two_phase.Friedel: \"tested on data with diameters as small as 4 mm\""
+	srcFluidsFriedelUp = "fluids library (C. Bell), two_phase.Friedel: \"applicable to vertical upflow and horizontal flow\"; " +
+		"a tube within 5° of horizontal (|cos θ| ≤ 0.0872) counts as horizontal (circa's choice)"
+	srcFluidsLM = "fluids library (C. Bell), two_phase.Lockhart_Martinelli: \"developed for horizontal flow\"; " +
+		"a tube within 5° of horizontal (|cos θ| ≤ 0.0872) counts as horizontal (circa's choice)"
+	srcDittusBoelter = "the turbulent range of the Dittus–Boelter-type single-phase coefficient it scales: " +
 		"Re_D ≥ 10000 as the ht library (C. Bell) states for conv_internal.turbulent_Dittus_Boelter"
 	srcShahMemory = "Shah (1979) data range and Shah's later (1981) low-flow limit, from memory " +
 		"(Shah, HVAC&R Research 15(5), 2009, confirms that the 1981 paper set low-flow limits)"
@@ -115,17 +119,29 @@ const (
 	srcKattoOhnoMemory = "Katto & Ohno (1984) data range, from memory"
 )
 
+// cos85 is cos 85° to the digits printed: a tube within 5° of
+// perpendicular to the body force counts as horizontal.
+const cos85 = 0.0872
+
 // The stated ranges of each correlation the estimator can select. Those
-// with no range a source at hand states (Müller-Steinhagen & Heck,
-// Lockhart–Martinelli, the homogeneous models, the void fractions, Akers,
+// with no range a source at hand states (Müller-Steinhagen & Heck, the
+// homogeneous models, the void fractions, Akers,
 // Deans & Crosser, the pool-boiling CHF, Wallis flooding, Nusselt's and
 // Chato's films) are not listed.
 var (
 	// ValidityFriedel: Friedel's multiplier was fitted with μl/μv below
-	// 1000 and tubes of 4 mm and more.
+	// 1000, tubes of 4 mm and more, in upflow and horizontal flow.
 	ValidityFriedel = Validity{Correlation: "Friedel (1979)", Method: "friction", Bounds: []Bound{
 		{Quantity: "μl/μv", What: "liquid-to-vapour viscosity ratio", Min: math.Inf(-1), Max: 1000, Source: srcFluidsFriedel},
 		{Quantity: "D", What: "tube bore", Unit: "m", Min: 0.004, Max: math.Inf(1), Source: srcFluidsFriedelD},
+		{Quantity: "cos θ", What: "cosine of the angle between the flow and the body force, positive in downflow",
+			Min: math.Inf(-1), Max: cos85, Source: srcFluidsFriedelUp},
+	}}
+	// ValidityLockhartMartinelli: Lockhart & Martinelli's data are for
+	// horizontal pipes.
+	ValidityLockhartMartinelli = Validity{Correlation: "Lockhart & Martinelli (1949)", Method: "friction", Bounds: []Bound{
+		{Quantity: "|cos θ|", What: "cosine of the angle between the tube and the body force",
+			Min: math.Inf(-1), Max: cos85, Source: srcFluidsLM},
 	}}
 	// ValidityShah1979: Shah's (1979) condensation correlation.
 	ValidityShah1979 = Validity{Correlation: "Shah (1979)", Method: "condensation", Bounds: []Bound{
@@ -155,7 +171,7 @@ var (
 
 // Validities lists every correlation with stated ranges.
 func Validities() []Validity {
-	return []Validity{ValidityFriedel, ValidityShah1979, ValidityBoykoKruzhilin, ValidityCavalliniSmithZecchin,
+	return []Validity{ValidityFriedel, ValidityLockhartMartinelli, ValidityShah1979, ValidityBoykoKruzhilin, ValidityCavalliniSmithZecchin,
 		ValidityCooper, ValidityKattoOhno}
 }
 

@@ -22,6 +22,13 @@ func TestValidityStatedRanges(t *testing.T) {
 		{ValidityFriedel, "μl/μv", math.Inf(-1), 1000, false},
 		// Same docstring: "Tested on data with diameters as small as 4 mm."
 		{ValidityFriedel, "D", 0.004, math.Inf(1), false},
+		// Same docstring: "Applicable to vertical upflow and horizontal
+		// flow"; within 5° of horizontal (cos 85° = 0.0872) counts as
+		// horizontal, circa's choice.
+		{ValidityFriedel, "cos θ", math.Inf(-1), 0.0872, false},
+		// fluids, two_phase.Lockhart_Martinelli docstring: "Developed for
+		// horizontal flow."
+		{ValidityLockhartMartinelli, "|cos θ|", math.Inf(-1), 0.0872, false},
 		// ht library (C. Bell), conv_internal.turbulent_Dittus_Boelter
 		// docstring: "Re_{D} ≥ 10000".
 		{ValidityBoykoKruzhilin, "Re_lo", 1e4, math.Inf(1), false},
@@ -64,8 +71,8 @@ func TestValidityStatedRanges(t *testing.T) {
 			}
 		}
 	}
-	if n != 9 {
-		t.Errorf("%d stated ranges; the table above checks 9", n)
+	if n != 11 {
+		t.Errorf("%d stated ranges; the table above checks 11", n)
 	}
 }
 
@@ -126,5 +133,13 @@ func TestCondensationValidity(t *testing.T) {
 		if ok != c.ok || v.Correlation != c.name || (ok && v.Method != "condensation") {
 			t.Errorf("%s: %+v, %v", c.m, v, ok)
 		}
+	}
+}
+
+// cos85 is cos 85° to the digits it prints, and the horizontal band the
+// void fraction uses.
+func TestCos85(t *testing.T) {
+	if math.Abs(cos85-math.Cos(85*math.Pi/180)) > 5e-5 || math.Abs(cos85-HorizontalCos) > 5e-5 {
+		t.Errorf("cos85 = %g, cos 85° = %g", cos85, math.Cos(85*math.Pi/180))
 	}
 }

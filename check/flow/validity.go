@@ -12,7 +12,7 @@ import (
 // correlation the estimate applied to a component with an input outside
 // the range its source states: one finding per component and correlation,
 // naming the input furthest outside. Only correlations that were used
-// count: Friedel where the flow is two-phase, Katto & Ohno on heated
+// count: Friedel and Lockhart–Martinelli where the flow is two-phase, Katto & Ohno on heated
 // evaporators when chosen, Cooper where a wall or junction temperature is
 // estimated, a forced-convection condensation correlation on condensers
 // given by geometry. The findings are information: they say where a
@@ -23,9 +23,18 @@ func (p *prepared) correlationRanges(s *state, cr *CaseResult) {
 			break
 		}
 		cp := &s.net.comps[ci]
-		if p.fric.Method == correlate.Friedel && twoPhase(cs) && s.p.MuV > 0 {
-			p.rangeFinding(cr, cp, correlate.ValidityFriedel, map[string]float64{
-				"μl/μv": s.p.MuL / s.p.MuV, "D": cp.D})
+		if twoPhase(cs) && (p.fric.Method == correlate.Friedel || p.fric.Method == correlate.LockhartMartinelliChisholm) {
+			// cos θ between the flow and the body force: above 0 in downflow.
+			cos := math.NaN()
+			if ci < len(s.cosInc) && cs.MassFlow != 0 && s.bmag > 0 {
+				cos = s.cosInc[ci] * math.Copysign(1, cs.MassFlow)
+			}
+			if p.fric.Method == correlate.Friedel && s.p.MuV > 0 {
+				p.rangeFinding(cr, cp, correlate.ValidityFriedel, map[string]float64{
+					"μl/μv": s.p.MuL / s.p.MuV, "D": cp.D, "cos θ": cos})
+			} else if p.fric.Method == correlate.LockhartMartinelliChisholm {
+				p.rangeFinding(cr, cp, correlate.ValidityLockhartMartinelli, map[string]float64{"|cos θ|": math.Abs(cos)})
+			}
 		}
 		if cp.kind == lang.Evaporator && s.heat[ci] > 0 {
 			if p.chfFlow && s.p.RhoL > 0 {

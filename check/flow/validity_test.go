@@ -81,21 +81,43 @@ func TestShahLaminarCondenser(t *testing.T) {
 
 // Friedel's multiplier in 3 mm tubes, below the 4 mm its data reach: one
 // finding for each component that carries two-phase flow, none for the
-// liquid downcomer.
+// liquid downcomer. The condenser flows down, outside the upflow and
+// horizontal flow Friedel was fitted to, and that is further outside
+// (cos θ = 1 against 0.0872) than the bore (3 mm against 4 mm).
 func TestFriedelSmallBore(t *testing.T) {
 	cr := rangeModelResult(t, "3 mm", "150 W", "methods { friction friedel }")
 	got := map[string]bool{}
 	for _, f := range rangeFindings(cr) {
-		if f.Correlation != "Friedel (1979)" || f.Value != 0.003 || f.Limit != 0.004 || f.Unit != "m" {
-			t.Errorf("finding %+v", f)
+		want := [2]float64{0.003, 0.004}
+		if f.Component == "k" {
+			want = [2]float64{1, 0.0872}
+		}
+		if f.Correlation != "Friedel (1979)" || math.Abs(f.Value-want[0]) > 1e-12 || f.Limit != want[1] {
+			t.Errorf("finding %+v, want value %g limit %g", f, want[0], want[1])
 		}
 		got[f.Component] = true
 	}
 	if !got["e"] || !got["up"] || !got["k"] || got["down"] || len(got) != 3 {
 		t.Errorf("Friedel findings at %v, want e, up and k", got)
 	}
-	if fs := rangeFindings(rangeModelResult(t, "5 mm", "150 W", "methods { friction friedel }")); len(fs) != 0 {
-		t.Errorf("5 mm bore: %+v", fs)
+	fs := rangeFindings(rangeModelResult(t, "5 mm", "150 W", "methods { friction friedel }"))
+	if len(fs) != 1 || fs[0].Component != "k" {
+		t.Errorf("5 mm bore: %+v, want only the downflow condenser", fs)
+	}
+}
+
+// Lockhart & Martinelli's data are for horizontal pipes: every two-phase
+// component of this vertical loop is outside them.
+func TestLockhartMartinelliVertical(t *testing.T) {
+	got := map[string]bool{}
+	for _, f := range rangeFindings(rangeModelResult(t, "10 mm", "150 W", "methods { friction lockhart_martinelli }")) {
+		if f.Correlation != "Lockhart & Martinelli (1949)" || math.Abs(f.Value-1) > 1e-12 || f.Limit != 0.0872 {
+			t.Errorf("finding %+v", f)
+		}
+		got[f.Component] = true
+	}
+	if !got["e"] || !got["up"] || !got["k"] || got["down"] || len(got) != 3 {
+		t.Errorf("Lockhart–Martinelli findings at %v, want e, up and k", got)
 	}
 }
 
