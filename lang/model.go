@@ -20,17 +20,26 @@ type Value struct {
 	at  *site // nil for a value the file did not write
 }
 
-// site is where a value or a vector was written.
+// site is where a value or a vector was written. It is 32 bytes: a file
+// writes hundreds of thousands of values, all of which name the same few
+// paths, and no file is longer than MaxFileSize.
 type site struct {
-	file string
-	span Span   // the expression as written
-	unit string // the unit as written ("" for bare numbers)
+	file       *string
+	start, end int32  // the expression as written
+	unit       string // the unit as written ("" for bare numbers)
 }
+
+func newSite(file *string, span Span, unit string) site {
+	return site{file: file, start: int32(span.Start), end: int32(span.End), unit: unit}
+}
+
+func (s *site) span() Span { return Span{int(s.start), int(s.end)} }
 
 // At returns v written at span of file with the unit text unit ("" for a
 // bare number).
 func (v Value) At(file string, span Span, unit string) Value {
-	v.at = &site{file: file, span: span, unit: unit}
+	st := newSite(&file, span, unit)
+	v.at = &st
 	return v
 }
 
@@ -40,7 +49,7 @@ func (v Value) File() string {
 	if v.at == nil {
 		return ""
 	}
-	return v.at.file
+	return *v.at.file
 }
 
 // Span returns the expression as written.
@@ -48,7 +57,7 @@ func (v Value) Span() Span {
 	if v.at == nil {
 		return Span{}
 	}
-	return v.at.span
+	return v.at.span()
 }
 
 // Unit returns the unit as written ("" for bare numbers and defaults).
@@ -64,7 +73,7 @@ func (v Value) Loc() Location {
 	if v.at == nil {
 		return Location{}
 	}
-	return Location{File: v.at.file, Span: v.at.span}
+	return Location{File: *v.at.file, Span: v.at.span()}
 }
 
 // Vec is a vector in SI units in the equipment frame (x forward, y left, z up).
@@ -78,7 +87,8 @@ type Vec struct {
 
 // At returns v written at span of file with the unit text unit.
 func (v Vec) At(file string, span Span, unit string) Vec {
-	v.at = &site{file: file, span: span, unit: unit}
+	st := newSite(&file, span, unit)
+	v.at = &st
 	return v
 }
 
@@ -87,7 +97,7 @@ func (v Vec) File() string {
 	if v.at == nil {
 		return ""
 	}
-	return v.at.file
+	return *v.at.file
 }
 
 // Span returns the vector as written.
@@ -95,7 +105,7 @@ func (v Vec) Span() Span {
 	if v.at == nil {
 		return Span{}
 	}
-	return v.at.span
+	return v.at.span()
 }
 
 // Unit returns the unit written after the parenthesis ("" for none).
@@ -111,7 +121,7 @@ func (v Vec) Loc() Location {
 	if v.at == nil {
 		return Location{}
 	}
-	return Location{File: v.at.file, Span: v.at.span}
+	return Location{File: *v.at.file, Span: v.at.span()}
 }
 
 // Decl is what every named declaration shares.

@@ -190,8 +190,8 @@ type resolver struct {
 	loops  map[string]*Loop
 	// loop statements kept for pass two
 	loopStmts map[*Loop]*Stmt
-	compStmts map[*Component]*Stmt
-	nodeAt    map[*Node]*Stmt // node statements with coordinates, evaluated when filling
+	compStmts map[*Loop][]*Stmt // by component index
+	nodeAt    map[*Loop][]*Stmt // by node index: statements with coordinates, evaluated when filling
 	caseStmts map[*Case]*Stmt
 	limStmts  []fileStmt
 	methStmts []fileStmt
@@ -209,8 +209,10 @@ type resolver struct {
 	// first that could not be applied.
 	overrides   map[string]*Overridden
 	overrideErr *OverrideError
-	// sites holds where the values were written, a chunk at a time.
+	// sites holds where the values were written, a chunk at a time;
+	// paths holds the one copy of each file's path they point to.
 	sites slab[site]
+	paths map[string]*string
 	// heads is set when the files are read keeping only the heads of
 	// their statements (LoadSourceModel); hp parses their parts again.
 	heads bool
@@ -221,15 +223,28 @@ type resolver struct {
 // chunks (a large file writes hundreds of thousands of values).
 func (r *resolver) atV(v Value, file string, span Span, unit string) Value {
 	v.at = r.sites.alloc()
-	*v.at = site{file: file, span: span, unit: unit}
+	*v.at = newSite(r.path(file), span, unit)
 	return v
 }
 
 // atVec is atV for a vector.
 func (r *resolver) atVec(v Vec, file string, span Span, unit string) Vec {
 	v.at = r.sites.alloc()
-	*v.at = site{file: file, span: span, unit: unit}
+	*v.at = newSite(r.path(file), span, unit)
 	return v
+}
+
+// path returns the resolver's one copy of the path file.
+func (r *resolver) path(file string) *string {
+	if p, ok := r.paths[file]; ok {
+		return p
+	}
+	if r.paths == nil {
+		r.paths = map[string]*string{}
+	}
+	p := &file
+	r.paths[file] = p
+	return p
 }
 
 type fileStmt struct {
