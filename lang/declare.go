@@ -24,8 +24,8 @@ func kindOf(word string) (Kind, bool) {
 // declare walks every file's top level and records the named things.
 func (r *resolver) declare() {
 	r.loopStmts = map[*Loop]*Stmt{}
-	r.compStmts = map[*Component]*Stmt{}
-	r.nodeAt = map[*Node]*Stmt{}
+	r.compStmts = map[*Loop][]*Stmt{}
+	r.nodeAt = map[*Loop][]*Stmt{}
 	r.caseStmts = map[*Case]*Stmt{}
 	for _, path := range r.m.Order {
 		f := r.m.Files[path]
@@ -216,6 +216,8 @@ func (r *resolver) declareLoop(file string, st *Stmt) {
 	}
 	nodeBuf := make([]Node, 0, nNodes)
 	r.compBuf = make([]Component, 0, nComps)
+	nodeAt := make([]*Stmt, 0, nNodes)
+	r.compStmts[l] = make([]*Stmt, 0, nComps)
 	// Nodes first, so components may name nodes declared after them. Each
 	// node's parts are read into the same temporary nodes.
 	nodeMark := r.mark()
@@ -248,6 +250,7 @@ func (r *resolver) declareLoop(file string, st *Stmt) {
 		n := &nodeBuf[len(nodeBuf)-1]
 		nodes[nm.Name] = n
 		l.Nodes = append(l.Nodes, n)
+		nodeAt = append(nodeAt, nil)
 		r.ref(RefNode, nm.Name, l, file, nm.Span(), true)
 		rest := s.Args[1:]
 		if len(rest) > 0 {
@@ -258,12 +261,13 @@ func (r *resolver) declareLoop(file string, st *Stmt) {
 			}
 			// Evaluated when filling, once every file's parameters are
 			// declared, from Args[2], which is rest[1].
-			r.nodeAt[n] = head
+			nodeAt[n.Index] = head
 		}
 		if s.Block != nil {
 			r.errorf("syntax", file, Span{s.Block.Open, s.Block.Open + 1}, "a node takes no block")
 		}
 	}
+	r.nodeAt[l] = nodeAt
 	for _, s := range st.Block.Stmts {
 		if s.Bad {
 			continue
@@ -349,7 +353,7 @@ func (r *resolver) declareComponent(file string, s *Stmt, l *Loop, k Kind, nodes
 	}
 	r.comps[nm.Name] = c
 	l.Components = append(l.Components, c)
-	r.compStmts[c] = head
+	r.compStmts[l] = append(r.compStmts[l], head)
 	r.ref(RefComponent, nm.Name, l, file, nm.Span(), true)
 }
 

@@ -18,8 +18,9 @@ import (
 // fill evaluates every field now that all names are known.
 func (r *resolver) fill() {
 	for _, l := range r.m.Loops {
+		nodeAt := r.nodeAt[l]
 		for _, n := range l.Nodes {
-			if st := r.nodeAt[n]; st != nil {
+			if st := nodeAt[n.Index]; st != nil {
 				m := r.mark()
 				n.At = r.vector(n.File, r.full(n.File, st).Args[2].Expr, needLength)
 				r.release(m)
@@ -61,8 +62,9 @@ func (r *resolver) fill() {
 		}
 	}
 	for _, l := range r.m.Loops {
+		heads := r.compStmts[l]
 		for _, c := range l.Components {
-			r.componentFields(c, r.compStmts[c])
+			r.componentFields(c, heads[c.Index])
 			if c.Unresolved || c.anyBad() {
 				c.Unresolved = true
 				l.Unresolved = true
