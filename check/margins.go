@@ -323,12 +323,20 @@ func diagnostic(c *Context, f flow.Finding, others []string) lang.Diagnostic {
 	case f.Rule == flow.RuleCharge && l.Charge.Set:
 		d.Loc = l.Charge.Loc()
 	case f.Rule == flow.RuleManoeuvre && c.Model.Case(f.Case) != nil && c.Model.Case(f.Case).Profile != nil:
-		d.Loc = profileRowLoc(c.Model.Case(f.Case).Profile, f.Time)
+		p := c.Model.Case(f.Case).Profile
+		d.Loc = profileRowLoc(p, f.Time)
+		if loc, ok := tableRowLoc(p, f.Time); ok {
+			d.Related = append(d.Related, lang.Related{Loc: loc, Message: "the row of the profile's table"})
+		}
 	default:
 		d.Loc = componentLoc(l, f.Component)
 	}
 	if cs := c.Model.Case(f.Case); f.Time != nil && f.Rule != flow.RuleManoeuvre && cs != nil && cs.Profile != nil {
-		d.Related = append(d.Related, lang.Related{Loc: profileRowLoc(cs.Profile, f.Time), Message: "the instant of the profile"})
+		loc, ok := tableRowLoc(cs.Profile, f.Time)
+		if !ok {
+			loc = profileRowLoc(cs.Profile, f.Time)
+		}
+		d.Related = append(d.Related, lang.Related{Loc: loc, Message: "the instant of the profile"})
 	}
 	for _, name := range append([]string{f.Case}, others...) {
 		if cs := c.Model.Case(name); name != "" && cs != nil {
@@ -495,6 +503,19 @@ func meantHint(d *lang.Diagnostic, v lang.Value, what string, f flow.Finding) {
 	d.Args = []any{fmt.Sprintf("%s; %s %s %s is probably meant as %s %s", d.Args[0], what, num, v.Unit(), num, alt)}
 	d.Fixes = append(d.Fixes, lang.Fix{Title: fmt.Sprintf("Write %s %s", num, alt),
 		Edits: []lang.Edit{{Loc: v.Loc(), NewText: num + " " + alt}}})
+}
+
+// tableRowLoc is where the row of a profile at time t is written in the
+// profile's CSV file; false for a profile written in its case.
+func tableRowLoc(p *lang.Profile, t *float64) (lang.Location, bool) {
+	if t != nil {
+		for _, r := range p.Rows {
+			if r.Time == *t {
+				return p.TableLoc(r)
+			}
+		}
+	}
+	return lang.Location{}, false
 }
 
 // profileRowLoc is where the row of a profile at time t is written: its

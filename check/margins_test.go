@@ -168,3 +168,79 @@ func TestMarginTexts(t *testing.T) {
 		}
 	}
 }
+
+// tableFS serves one profile table from memory.
+type tableFS map[string][]byte
+
+func (f tableFS) ReadFile(p string) ([]byte, error) {
+	if b, ok := f[p]; ok {
+		return b, nil
+	}
+	return lang.OSFS{}.ReadFile(p)
+}
+
+// A profile read from a CSV file: a finding at one of its instants, and
+// its step faster than the loop, point into the table at the row's time,
+// as well as at the profile statement and the case.
+func TestProfileTableRowLocations(t *testing.T) {
+	src := `
+loop r {
+  fluid R1234yf
+  node a at (0, 0, 0) m
+  node b at (0, 0, 0.3) m
+  node c at (0, 0, 1.3) m
+  node d at (-0.3, 0, 1.3) m
+  evaporator plate from a to b { length 0.3 m; bore 10 mm; wetted_area 0.01 m2 }
+  pipe riser from b to c { length 1 m; bore 12 mm; loss 1 }
+  condenser coil from c to d { length 0.3 m; bore 10 mm; conductance 150 W/K; sink 25 degC }
+  pipe down from d to a { length 1.5 m; run (0.3, 0, -1.3) m; bore 8 mm; loss 1 }
+}
+limits { exit_quality 0.45 }
+case overload {
+  heat plate 3 kW
+  profile "drive.csv"
+}
+`
+	table := "time (s), pitch (deg)\n0, 0\n30, 0\n30.01, 60\n60, 60\n"
+	m := lang.LoadSource("t.loop", []byte(src), tableFS{"drive.csv": []byte(table)})
+	if len(m.Diags) != 0 {
+		t.Fatalf("findings: %v", m.Diags)
+	}
+	var exit, fast *lang.Diagnostic
+	ds := Run(m, Options{NoTilt: true})
+	for i, d := range ds {
+		switch d.Rule {
+		case "margin-exit-quality":
+			exit = &ds[i]
+		case flow.RuleManoeuvre:
+			fast = &ds[i]
+		}
+	}
+	if exit == nil || fast == nil {
+		t.Fatalf("want an exit-quality and a manoeuvre finding, got %v", ds)
+	}
+	// Pitched 60°, the column is shorter and the flow falls: the exit
+	// quality passes its limit first at the row of 30.01 s, where the step
+	// ends too.
+	for _, tc := range []struct {
+		d   *lang.Diagnostic
+		msg string
+	}{{exit, "the instant of the profile"}, {fast, "the row of the profile's table"}} {
+		found := false
+		for _, r := range tc.d.Related {
+			if r.Message != tc.msg {
+				continue
+			}
+			found = true
+			if r.Loc.File != "drive.csv" || table[r.Loc.Span.Start:r.Loc.Span.End] != "30.01" {
+				t.Errorf("%s: %q at %s %q, want drive.csv \"30.01\"", tc.d.Rule, r.Message, r.Loc.File, table[r.Loc.Span.Start:r.Loc.Span.End])
+			}
+		}
+		if !found {
+			t.Errorf("%s: no %q among %v", tc.d.Rule, tc.msg, tc.d.Related)
+		}
+	}
+	if got := src[fast.Loc.Span.Start:fast.Loc.Span.End]; got != `"drive.csv"` {
+		t.Errorf("manoeuvre finding at %q, want the profile's table name", got)
+	}
+}

@@ -44,6 +44,16 @@ type ProfileRow struct {
 	Span             Span // the row in the loop file, or the table's path
 	TimeSpan         Span // the row's time as written (the table's path for a CSV row)
 	Line             int  // the row's line in the CSV file (0 for a row in the case)
+	TableSpan        Span // the row's time in the CSV file (a row in the case: zero)
+}
+
+// TableLoc returns where a row read from the profile's CSV file is written
+// there (its time); false for a row written in the case.
+func (p *Profile) TableLoc(r ProfileRow) (Location, bool) {
+	if p.Table == "" || r.Line == 0 {
+		return Location{}, false
+	}
+	return Location{File: p.Table, Span: r.TableSpan}, true
 }
 
 // Envelope bounds the search for the worst combination of attitude and
@@ -337,8 +347,10 @@ func (r *resolver) profileTable(p *Profile, str *Str) bool {
 		d.Related = append(d.Related, Related{Loc: Location{File: p.File, Span: str.Span()}, Message: "the profile that reads this table"})
 		return false
 	}
+	col := indexOf(cols, "time") + 1
 	for i := range rows {
 		rows[i].Span, rows[i].TimeSpan = str.Span(), str.Span()
+		rows[i].TableSpan = tableSpan(data, rows[i].Line, col)
 	}
 	p.Columns, p.Rows = cols, rows
 	return true
