@@ -197,7 +197,7 @@ const noGuidance = "nothing to guide"
 // than guideBudget of estimates gets it on demand, so that it never
 // competes with the next edit's diagnostics for long.
 func (s *Server) backgroundGuidance(a *analysis) string {
-	_, est, ok := a.checks()
+	diags, est, ok := a.checks()
 	if !ok {
 		return noGuidance
 	}
@@ -220,10 +220,27 @@ func (s *Server) backgroundGuidance(a *analysis) string {
 	s.mu.Lock()
 	resolve := s.modelCost[a.root]
 	s.mu.Unlock()
-	if cost := guidanceCost(m, est.tookOrZero(), resolve); cost > budget {
+	cost := guidanceCost(m, est.tookOrZero(), resolve)
+	if tiltFinding(diags) {
+		// A tilt-margin finding's fixes are searched again with the tilt
+		// search: about as many estimates again, each a full one.
+		cost *= 2
+	}
+	if cost > budget {
 		return fmt.Sprintf("computed on demand in this file: all of it would take about %s of estimates", cost.Round(100*time.Millisecond))
 	}
 	return ""
+}
+
+// tiltFinding reports whether a tilt-margin finding is among the margin
+// findings that get fixes.
+func tiltFinding(ds []lang.Diagnostic) bool {
+	for _, d := range ds {
+		if d.Rule == flow.RuleTilt && suggest.IsMargin(d) {
+			return true
+		}
+	}
+	return false
 }
 
 // guidanceOnDemand computes the guidance a request asks for (the named

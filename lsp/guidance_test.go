@@ -481,3 +481,23 @@ func TestGuidanceOnDemandInLargeFile(t *testing.T) {
 		t.Errorf("hover on lift:\n%s\nwant the range %q", h, output.RangeText(want.Params[0].Range, want.Params[0].Unit))
 	}
 }
+
+// A tilt-margin finding's fixes run the tilt search again, so they count
+// as much guidance again against the background budget: a file that fits
+// the budget without one is guided on demand with one.
+func TestGuidanceCostTiltFix(t *testing.T) {
+	s := newServer(Options{guideBudget: 1500 * time.Millisecond})
+	m := lang.LoadSource("/x.loop", []byte("param a = 1 m\nparam b = 2 m\nloop l {\n  fluid water\n}\n"), nil)
+	a := &analysis{root: "/x.loop", srv: s}
+	a.model = m
+	a.ready.Store(true)
+	a.once.Do(func() {})
+	a.checked, a.est = true, &estimates{took: 10 * time.Millisecond}
+	if why := s.backgroundGuidance(a); why != "" {
+		t.Fatalf("without a tilt finding: %q, want the guidance in the background (1.2 s of 1.5 s)", why)
+	}
+	a.checkDiag = []lang.Diagnostic{{Rule: flow.RuleTilt, Severity: lang.Warning}}
+	if why := s.backgroundGuidance(a); !strings.Contains(why, "on demand") {
+		t.Errorf("with a tilt finding: %q, want it on demand (2.4 s of 1.5 s)", why)
+	}
+}
