@@ -441,27 +441,33 @@ func (s *state) instantRoots(ev *eval, w *ringWarm) ([]root, float64) {
 }
 
 // rootIn returns the balance of roots that lies in (a, b).
-func rootIn(roots []root, a, b float64) (float64, bool) {
+func rootIn(roots []root, a, b float64) (root, bool) {
 	for _, r := range roots {
 		if r.m > a && r.m < b {
-			return r.m, true
+			return r, true
 		}
 	}
-	return 0, false
+	return root{}, false
 }
 
 // narrowBracket shrinks the bracket [a, b] of a sign change of E around
-// prev, the balance of the instant before: it steps out from prev, each
-// step eight times the last, until E changes sign, and returns the
-// smaller bracket with E at its ends.
-func narrowBracket(E func(float64) float64, prev, a, b, ea, eb float64) (float64, float64, float64, float64) {
+// the balance of the instant before: it steps out from it, first by one
+// and a half times the Newton step its slope there gives, each step then
+// four times the last, until E changes sign, and returns the smaller
+// bracket with E at its ends.
+func narrowBracket(E func(float64) float64, was root, a, b, ea, eb float64) (float64, float64, float64, float64) {
+	prev := was.m
 	ep := E(prev)
 	if ep == 0 || !finite(ep) {
 		return a, b, ea, eb
 	}
 	// The sign change lies on the side of prev whose end differs from it.
 	up := (ep > 0) == (ea > 0)
-	for h := 1e-4 * prev; ; h *= 8 {
+	h := 1e-4 * prev
+	if n := math.Abs(ep / was.slope); finite(n) && n > 0 {
+		h = math.Max(1.5*n, 1e-9*prev)
+	}
+	for ; ; h *= 4 {
 		if up {
 			x := prev + h
 			if x >= b {
