@@ -213,6 +213,9 @@ func (s *Server) backgroundGuidance(a *analysis) string {
 	if a.settings.MarginChecks == "always" {
 		return ""
 	}
+	if n := sourceBytes(m); n > guideSize {
+		return fmt.Sprintf("computed on demand in this file: its %d KB would be resolved again for every value searched", n>>10)
+	}
 	budget := guideBudget
 	if s.opts.guideBudget > 0 {
 		budget = s.opts.guideBudget
@@ -324,6 +327,26 @@ func (s *Server) computeGuidance(ctx context.Context, a *analysis, params []stri
 		}
 	}
 	return out
+}
+
+// guideSize is the most text whose guidance runs in the background. Each
+// value the guidance tries is estimated on a model resolved again from the
+// trees, as large as the file's own (some 30 bytes a byte of text), and an
+// edit's new model and trees are built while the old ones finish their
+// estimate: a file past this size (a network of about 2,000 components) is
+// guided on demand, so that background work does not double what the
+// server holds.
+const guideSize = 256 << 10
+
+// sourceBytes is the size of the texts a model was read from.
+func sourceBytes(m *lang.Model) int {
+	n := 0
+	for _, f := range m.Files {
+		if f != nil {
+			n += len(f.Src)
+		}
+	}
+	return n
 }
 
 // guideBudget bounds the background work the guidance may take, about a

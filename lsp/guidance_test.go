@@ -16,6 +16,7 @@ import (
 	"circa/check/guide"
 	"circa/check/output"
 	"circa/lang"
+	"circa/lang/loopgen"
 )
 
 // guidedClient is a test client that can wait for the design guidance.
@@ -499,5 +500,27 @@ func TestGuidanceCostTiltFix(t *testing.T) {
 	a.checkDiag = []lang.Diagnostic{{Rule: flow.RuleTilt, Severity: lang.Warning}}
 	if why := s.backgroundGuidance(a); !strings.Contains(why, "on demand") {
 		t.Errorf("with a tilt finding: %q, want it on demand (2.4 s of 1.5 s)", why)
+	}
+}
+
+// A file past guideSize (here a network of 2,500 components) is guided on
+// demand whatever the budget: every value tried would resolve a model of
+// its size again beside its own.
+func TestGuidanceOnDemandInLargeNetwork(t *testing.T) {
+	c := newGuidedClient(t, Options{Debounce: -1})
+	c.initialize(nil)
+	text := loopgen.Network(2500, 8)
+	if len(text) <= guideSize {
+		t.Fatalf("the network has %d bytes, not past %d", len(text), guideSize)
+	}
+	uri := "file:///tmp/network.loop"
+	c.notify("textDocument/didOpen", map[string]any{"textDocument": map[string]any{"uri": uri, "languageId": "loop", "version": 1, "text": string(text)}})
+	c.waitGuided()
+	c.srv.mu.Lock()
+	sn := c.srv.snap
+	c.srv.mu.Unlock()
+	g := c.srv.guides.get(sn.analysisFor("/tmp/network.loop"))
+	if g == nil || !g.onDemand || g.g != nil || !strings.Contains(g.note, "on demand") {
+		t.Fatalf("guidance of a network of 2,500 components: %+v, want it on demand", g)
 	}
 }
