@@ -4,6 +4,7 @@ import (
 	"strings"
 	"testing"
 
+	"circa/check/correlate"
 	"circa/lang"
 )
 
@@ -51,5 +52,20 @@ methods { condensation shah }
 	}
 	if !method {
 		t.Errorf("no related location at the methods entry: %+v", d.Related)
+	}
+}
+
+// circa explain correlation-range lists every stated range with its source.
+func TestCorrelationRangeExplained(t *testing.T) {
+	r, ok := Lookup("correlation-range")
+	if !ok || r.Severity != lang.Info {
+		t.Fatalf("correlation-range registered %v, %+v", ok, r)
+	}
+	for _, v := range correlate.Validities() {
+		for _, b := range v.Bounds {
+			if !strings.Contains(r.Rationale, v.Correlation+": ") || !strings.Contains(r.Rationale, b.Text()+" ("+b.What+"; "+b.Source+")") {
+				t.Errorf("the rationale does not give %s's range %s with its source", v.Correlation, b.Text())
+			}
+		}
 	}
 }
