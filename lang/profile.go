@@ -348,9 +348,12 @@ func (r *resolver) profileTable(p *Profile, str *Str) bool {
 		return false
 	}
 	col := indexOf(cols, "time") + 1
+	lines := tableLines(data)
 	for i := range rows {
 		rows[i].Span, rows[i].TimeSpan = str.Span(), str.Span()
-		rows[i].TableSpan = tableSpan(data, rows[i].Line, col)
+		if l := rows[i].Line; l >= 1 && l <= len(lines) {
+			rows[i].TableSpan = fieldSpan(data, lines[l-1], col)
+		}
 	}
 	p.Columns, p.Rows = cols, rows
 	return true
@@ -384,6 +387,29 @@ func tableSpan(data []byte, line, col int) Span {
 		}
 		start += k + 1
 	}
+	return fieldSpan(data, start, col)
+}
+
+// tableLines returns where each line of a table starts, lines counted as
+// ReadProfileCSV counts them: index 0 holds line 1.
+func tableLines(data []byte) []int {
+	start := 0
+	if bytes.HasPrefix(data, []byte("\uFEFF")) {
+		start = len("\uFEFF")
+	}
+	out := make([]int, 0, bytes.Count(data, []byte("\n"))+1)
+	for {
+		out = append(out, start)
+		k := bytes.IndexByte(data[start:], '\n')
+		if k < 0 {
+			return out
+		}
+		start += k + 1
+	}
+}
+
+// fieldSpan is tableSpan on the line that starts at offset start.
+func fieldSpan(data []byte, start, col int) Span {
 	end := len(data)
 	if k := bytes.IndexByte(data[start:], '\n'); k >= 0 {
 		end = start + k

@@ -1,6 +1,7 @@
 package lang
 
 import (
+	"fmt"
 	"math"
 	"strings"
 	"testing"
@@ -122,6 +123,12 @@ func TestProfileCSV(t *testing.T) {
 	r := p.Rows[1]
 	if r.Time != 4 || math.Abs(r.Accel[0]+0.13*9.80665) > 1e-12 || r.Accel[1] != 1.2 || math.Abs(r.Roll-2*math.Pi/180) > 1e-15 {
 		t.Errorf("row %+v", r)
+	}
+	for i, want := range []string{"0", "4"} {
+		loc, ok := p.TableLoc(p.Rows[i])
+		if !ok || loc.File != "dir/m/brake.csv" || good[loc.Span.Start:loc.Span.End] != want {
+			t.Errorf("row %d's time in the table at %+v, want %q", i, loc, want)
+		}
 	}
 
 	// A table's finding points into the table, at the line and field it
@@ -251,6 +258,26 @@ func TestProfileTableInVariant(t *testing.T) {
 		}
 		if n != 1 {
 			t.Errorf("%d findings for the missing table, want 1: %v", n, m.Diags)
+		}
+	}
+}
+
+// BenchmarkProfileTable resolves a case whose profile is a 10,000-row
+// table: reading it and locating each row's time in it take time in
+// proportion to the table.
+func BenchmarkProfileTable(b *testing.B) {
+	var t strings.Builder
+	t.WriteString("time (s), pitch (deg), accel_x (gn)\n")
+	for i := 0; i < MaxProfileRows; i++ {
+		fmt.Fprintf(&t, "%d, %.3f, %.3f\n", i, 10*math.Sin(float64(i)/50), 0.1*math.Cos(float64(i)/70))
+	}
+	fs := memFS{"drive.csv": []byte(t.String())}
+	src := []byte("loop l {\n  fluid R134a\n}\ncase c {\n  profile \"drive.csv\"\n}\n")
+	b.ReportAllocs()
+	for i := 0; i < b.N; i++ {
+		m := LoadSource("p.loop", src, fs)
+		if p := m.Case("c").Profile; p == nil || len(p.Rows) != MaxProfileRows {
+			b.Fatal("the table did not load")
 		}
 	}
 }
