@@ -70,6 +70,7 @@ type outliner struct {
 	// line (past the text for the last), and how far from its start the line
 	// is known to be ASCII, where columns are byte counts in every encoding.
 	line, start, end, next, ascii int
+	tmp                           []byte // a detail being made
 }
 
 // position is the mapper's position of a byte offset, found without a
@@ -262,7 +263,7 @@ func (sn *snapshot) outline(m *lang.Model, path string) []byte {
 			}
 			for _, c := range l.Components {
 				if c.File == path {
-					o.symbol(c.Decl, protocol.SymbolKindObject, []byte(c.Kind.String()))
+					o.symbol(c.Decl, protocol.SymbolKindObject, o.componentDetail(c))
 				}
 			}
 			o.endList()
@@ -290,6 +291,20 @@ func (sn *snapshot) outline(m *lang.Model, path string) []byte {
 	}
 	o.endList()
 	return o.b
+}
+
+// componentDetail is a component's kind and the nodes it joins, "pipe
+// split → a_in", as a signature says what a function takes. It reuses one
+// buffer: the symbol's text is copied out before the next.
+func (o *outliner) componentDetail(c *lang.Component) []byte {
+	o.tmp = append(o.tmp[:0], c.Kind.String()...)
+	if c.From != nil {
+		o.tmp = append(append(o.tmp, ' '), c.From.Name...)
+	}
+	if c.To != nil {
+		o.tmp = append(append(o.tmp, " → "...), c.To.Name...)
+	}
+	return o.tmp
 }
 
 // valueDetail is the longest value text an outline shows in full.

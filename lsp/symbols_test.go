@@ -80,6 +80,9 @@ func TestDocumentSymbolsOutline(t *testing.T) {
 	if s := kids["split"]; detail(s) != "junction" || s.Kind != 14 || s.SelectionRange.Start != (pos{11, 11}) {
 		t.Errorf("split: %+v, want a junction constant named at line 11 col 11", s)
 	}
+	if s := kids["feed_a"]; detail(s) != "pipe split → a_in" || s.Kind != 19 {
+		t.Errorf("feed_a: %+v, want a pipe object from split to a_in", s)
+	}
 	if s := kids["a_in"]; detail(s) != "node" || s.Kind != 14 {
 		t.Errorf("a_in: %+v, want a node constant", s)
 	}
