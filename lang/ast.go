@@ -52,6 +52,11 @@ type Block struct {
 	Close   int // offset of '}', or -1 when the block was never closed
 	Stmts   []*Stmt
 	OneLine bool // written on the line of its head
+	// reread is set on the one-line block of a component read for its
+	// model alone (see parseHeads): Stmts is nil and its n statements are
+	// parsed again from the line when they are needed.
+	reread bool
+	n      int32
 }
 
 // Ident is a name with its span.

@@ -248,6 +248,7 @@ func (r *resolver) componentFields(c *Component, st *Stmt) {
 	}
 	// Parts first, then the component's own fields, which win.
 	defer r.release(r.mark())
+	st = r.full(c.File, st)
 	var own []*Stmt
 	for _, s := range st.Block.Stmts {
 		if s.Bad {

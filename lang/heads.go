@@ -9,22 +9,51 @@ import "unsafe"
 // read, and the resolver parses a statement's line again when it reads
 // its parts. The whole tree of a large file then never exists at once.
 
-// headNodes holds the heads kept, a chunk at a time.
-type headNodes struct {
-	stmts  slab[Stmt]
-	idents slab[Ident]
+// headNodes keeps heads. Each is an allocation of its own, so that the
+// heads a component's one-line block drops (reread) are freed.
+type headNodes struct{}
+
+// headStmt is a head with its word.
+type headStmt struct {
+	Stmt
+	word Ident
 }
 
 // keep returns a head-only copy of s, which the fast path has just read.
 func (h *headNodes) keep(s *Stmt) *Stmt {
-	k := h.stmts.alloc()
-	*k = Stmt{Pos: s.Pos, EndPos: s.EndPos, Block: s.Block, Bad: s.Bad, head: true}
+	k := &headStmt{Stmt: Stmt{Pos: s.Pos, EndPos: s.EndPos, Block: s.Block, Bad: s.Bad, head: true}}
 	if s.Word != nil {
-		w := h.idents.alloc()
-		*w = *s.Word
-		k.Word = w
+		k.word = *s.Word
+		k.Word = &k.word
 	}
-	return k
+	return &k.Stmt
+}
+
+// reread reports whether the block of s, which has just closed with the
+// statements list, is a component's block on one line of statements the
+// fast path read, without errors or blocks of their own; it then marks the
+// block to be parsed again from its line (Block.reread) and keeps none of
+// its statements. Such blocks hold most statements of a large loop.
+func (h *headNodes) reread(src []byte, s *Stmt, list []*Stmt) bool {
+	b := s.Block
+	if !s.head || s.Bad || b.Close < 0 || len(list) == 0 {
+		return false
+	}
+	if _, ok := kindOf(s.Keyword()); !ok {
+		return false
+	}
+	for _, c := range src[s.Pos.Offset:b.Close] {
+		if c == '\n' || c == '\r' {
+			return false
+		}
+	}
+	for _, c := range list {
+		if !c.head || c.Bad || c.Block != nil {
+			return false
+		}
+	}
+	b.reread, b.n, b.Stmts = true, int32(len(list)), nil
+	return true
 }
 
 // parseHeads is Parse keeping of the statements that parse only their
@@ -90,12 +119,62 @@ func (h *headParser) full(f *File, st *Stmt, n *nodes) *Stmt {
 		return st
 	}
 	s.Block, s.Bad = st.Block, st.Bad
+	if b := st.Block; b != nil && b.reread {
+		nb := *b
+		nb.reread, nb.n = false, 0
+		nb.Stmts = h.blockAt(f, b, n)
+		s.Block = &nb
+	}
 	return s
+}
+
+// blockAt parses again the statements of the one-line block b of f into
+// n, as Parse read them: statements the fast path reads, between ';'.
+func (h *headParser) blockAt(f *File, b *Block, n *nodes) []*Stmt {
+	list := make([]*Stmt, 0, b.n)
+	i := h.scanLine(f, b.Open+1)
+	toks := h.sc.toks
+	for i < len(toks) {
+		h.q = fastParser{toks: toks, i: i, nodes: n}
+		s, ok := h.q.stmt()
+		j := h.q.i
+		h.q = fastParser{}
+		if ok {
+			list = append(list, s)
+			i = j
+			continue
+		}
+		// No statement starts here: a ';' goes on to the next one;
+		// anything else is the block's '}'.
+		for i < len(toks) && (toks[i].Type == TokSpace || toks[i].Type == TokComment) {
+			i++
+		}
+		if i == len(toks) || !isPunctTok(&toks[i], ";") || toks[i].Pos.Offset >= b.Close {
+			return list
+		}
+		i++
+	}
+	return list
 }
 
 // parseAt parses the head of the statement at offset start of f into n,
 // as the fast path read it.
 func (h *headParser) parseAt(f *File, start int, n *nodes) (*Stmt, bool) {
+	return h.parseTok(h.scanLine(f, start), n)
+}
+
+// parseTok parses the head of the statement at token i of the line last
+// scanned into n.
+func (h *headParser) parseTok(i int, n *nodes) (*Stmt, bool) {
+	h.q = fastParser{toks: h.sc.toks, i: i, nodes: n}
+	s, ok := h.q.stmt()
+	h.q = fastParser{}
+	return s, ok
+}
+
+// scanLine scans the line of f that holds offset start and returns the
+// index of its first token at or after start.
+func (h *headParser) scanLine(f *File, start int) int {
 	src := f.Src
 	ls := start
 	for ls > 0 && src[ls-1] != '\n' && !(src[ls-1] == '\r' && loneCR(src, ls-1)) {
@@ -117,10 +196,7 @@ func (h *headParser) parseAt(f *File, start int, n *nodes) (*Stmt, bool) {
 	for i < len(h.sc.toks) && h.sc.toks[i].Pos.Offset < start {
 		i++
 	}
-	h.q = fastParser{toks: h.sc.toks, i: i, nodes: n}
-	s, ok := h.q.stmt()
-	h.q = fastParser{}
-	return s, ok
+	return i
 }
 
 // fullTree returns st with its parts and those of every statement of its

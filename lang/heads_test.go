@@ -88,6 +88,13 @@ func TestLoadSourceModel(t *testing.T) {
 			" condenser k1 from y to x { length 1 m; bore d; conductance ua; sink ts }\n}\n" +
 			"param ts = 40 degC\nparam ua = 2 W/K * k\nparam k = 3\n" +
 			"case c nominal { sink ts; pitch k * 1 deg }\n",
+		// Components' one-line blocks, which are parsed again from their
+		// line: separators, spacing, comments, neighbours on the line,
+		// errors inside and lines ended by a lone carriage return.
+		"loop l { fluid water; node a; node b\r pipe p from a to b { ; length 1 m;; bore 8 mm ; }\r" +
+			" pipe q from b to a {length(1 m)*2;bore 8 mm} # c\n pipe r from a to b { length 1 m }; pipe s from b to a { bore 1 mm; loss 2 }\n" +
+			" pipe t from a to b { length 1 m bore 8 mm }\n pipe u from a to b { length 1 $ }\n pipe v from a to b { loss { 1 } }\n" +
+			" evaporator e from a to b { heat 5 W; use nopart; channels 3 }\n condenser k from b to a { conductance 3 W/K; sink 20 degC }\n}\n",
 	} {
 		sameModel(t, "text"+string(rune('a'+i))+".loop", []byte(src))
 	}

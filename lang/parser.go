@@ -257,6 +257,12 @@ func (p *parser) close(sp Span) {
 	if p.sink != nil && len(p.f.Errors) == 0 {
 		p.sink.close(sp.Start, n-1)
 	}
+	if p.heads != nil && p.heads.reread(p.f.Src, p.stack[n-1], p.open[n-1]) {
+		clear(p.open[n-1])
+		p.open[n-1] = p.open[n-1][:0]
+		p.stack = p.stack[:n-1]
+		return
+	}
 	p.shut()
 }
 

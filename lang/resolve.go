@@ -142,7 +142,7 @@ func countStmts(ss []*Stmt) int {
 			n++
 		}
 		if s.Block != nil {
-			n += countStmts(s.Block.Stmts)
+			n += countStmts(s.Block.Stmts) + int(s.Block.n)
 		}
 	}
 	return n
