@@ -57,7 +57,7 @@ func (p *prepared) correlationRanges(s *state, cr *CaseResult) {
 				p.rangeFinding(cr, cp, correlate.ValidityCooper, map[string]float64{"p_r": pr})
 			}
 		}
-		if cp.kind == lang.Condenser && p.cond.forced && byGeometryIn(cr.pointCase, *cp) {
+		if cp.kind == lang.Condenser && p.cond.forced && byGeometryIn(cr.pointCase, *cp) && hasSink(cr.pointCase, cp) {
 			v, ok := p.cond.m.Validity()
 			af := math.Pi / 4 * cp.D * cp.D * tubeCount(cp.c)
 			if !ok || !(af > 0) || !(s.p.Hlv > 0) || !(s.p.MuL > 0) || !(math.Abs(cs.Heat) > 0) {
@@ -69,6 +69,23 @@ func (p *prepared) correlationRanges(s *state, cr *CaseResult) {
 			p.rangeFinding(cr, cp, v, map[string]float64{"Re_lo": re, "Re_eq": re, "p_r": s.p.ReducedPressure})
 		}
 	}
+}
+
+// hasSink reports whether a condenser has a coolant temperature in case
+// c, without which the estimate does not evaluate its coefficient.
+func hasSink(c *lang.Case, cp *comp) bool {
+	if cp.c.Sink.Set {
+		return true
+	}
+	if c == nil {
+		return false
+	}
+	for _, sv := range c.Sinks {
+		if sv.Comp == cp.c {
+			return true
+		}
+	}
+	return c.Sink.Set
 }
 
 // twoPhase reports whether a component carries two-phase flow somewhere.
