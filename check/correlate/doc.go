@@ -78,11 +78,16 @@
 //   - [FilmHorizontalTube]: stratified condensation inside a horizontal
 //     tube at low vapour velocity, J.C. Chato, ASHRAE J. 4(2) (1962) 52–60.
 //
+// Ranges: [Validities] lists, for the correlations with one, the range of
+// inputs their sources state, so that an estimate can say where it
+// extrapolates; a range not checked against a printed source says "from
+// memory".
+//
 // Counter-current flooding:
 //   - [WallisFraction]: G.B. Wallis, One-Dimensional Two-Phase Flow,
 //     McGraw-Hill (1969).
 //   - [KutateladzeFraction]: large-diameter Kutateladze-number form; its
-//     constant [KutateladzeCK] is from memory.
+//     constant [KutateladzeCK] ≈ √3.2 is from memory.
 //   - [FaghriQmax]: closed two-phase thermosiphon flooding limit, A. Faghri,
 //     M.M. Chen, M. Morgan, J. Heat Transfer 111 (1989) 611–618; written from
 //     memory, not checked against the paper.
