@@ -51,7 +51,7 @@ func (p *prepared) saturationState(s *state, cr *CaseResult) {
 		s.pHi = hi.P
 	}
 	if s.pLo > 0 && s.pHi < math.Inf(1) {
-		s.grid = &satGrid{lnRef: math.Log(s.sat.P)}
+		s.grid = gridFor(p.fl, s.pLo, s.pHi)
 	}
 	if s.net.ring {
 		return

@@ -2,8 +2,11 @@ package flow
 
 import (
 	"math"
+	"sync"
+	"sync/atomic"
 
 	"circa/check/correlate"
+	"circa/check/fluid"
 	"circa/check/geom"
 	"circa/lang"
 )
@@ -12,10 +15,11 @@ import (
 // cell. A look-up in the fluid's table inverts its pressure spline, and the
 // friction methods built on the liquid-only and vapour-only gradients
 // prepare two Churchill factors per property set: done per cell that is
-// most of an estimate's cost. So each case keeps the saturated states on a
-// grid uniform in ln p, filled as the march first reaches each node, and a
-// cell takes its properties linearly interpolated in ln p between the two
-// nodes around its pressure; a tube marched at one mass flux prepares its
+// most of an estimate's cost. So the saturated states are kept, per fluid
+// and for the whole process, on a grid uniform in ln p, each node computed
+// when a march first reaches it, and a cell takes its properties linearly
+// interpolated between the two nodes around its pressure; a tube marched
+// at one mass flux prepares its
 // friction once per node it crosses and interpolates the gradient between
 // them.
 //
@@ -23,8 +27,11 @@ import (
 // an interval, the same order) errs by about h²/8 times the property's
 // relative second derivative. The vapour density is nearly proportional
 // to p (relative second derivative ≈ 1), so its error is about 1.25e-5 at
-// h = 0.01; the liquid enthalpy's is a few parts in 10⁶ of the latent heat,
-// and so of the local quality. TestLocalGridProperties checks the
+// h = 0.01. The liquid enthalpy and the latent heat, which set the local
+// quality (and near zero quality, at flashing and boiling onset, the void
+// fraction hangs on it), are interpolated by cubic Hermite polynomials with
+// the nodes' slopes along the saturation line: within a part in 10⁸ of the
+// latent heat. TestLocalGridProperties checks the
 // interpolated states against the table across the nodes, and
 // TestLocalFastMarch the estimates against the fine march that looks every
 // cell up exactly (flows within 1e-4 relative).
@@ -34,21 +41,57 @@ const satGridStep = 0.01
 
 // satNode is the saturated state at one grid pressure.
 type satNode struct {
-	ok      bool
 	p       float64 // the node's pressure, Pa
 	hl, hlv float64 // saturated liquid enthalpy and latent heat, J/kg
-	pl      correlate.Props
+	// Their derivatives along the saturation line, J/(kg·Pa): the local
+	// quality near zero (flashing, boiling onset) is as sensitive as the
+	// liquid enthalpy is accurate, so these two are interpolated by cubic
+	// Hermite polynomials.
+	dhl, dhlv float64
+	pl        correlate.Props
 }
 
-// satGrid holds a case's saturated states at p_k = p_ref·e^(k·h) for the
-// nodes the march has reached, k from k0.
-type satGrid struct {
-	lnRef float64
+// satNodes are one fluid's saturated states at p_k = e^(k·h) Pa over its
+// pressure range, each computed on first use and then shared by every
+// estimate in the process (the states depend on the fluid alone).
+type satNodes struct {
 	k0    int
-	nodes []satNode
-	// The interval of the last look-up: nodes ka and ka+1 at pa and pb.
+	nodes []atomic.Pointer[satNode]
+}
+
+// satGrid is a case's view of its fluid's nodes, with the interval of its
+// last look-up: nodes ka and ka+1 at pa and pb.
+type satGrid struct {
+	shared *satNodes
 	ka     int
 	pa, pb float64
+}
+
+var (
+	satNodesMu sync.Mutex
+	satNodesOf = map[fluid.Fluid]*satNodes{}
+)
+
+// satNodesCap bounds the fluids whose nodes are kept: user tables loaded
+// again on every edit would otherwise pile up.
+const satNodesCap = 16
+
+// gridFor returns the node store of fluid fl, whose saturation pressures
+// span pLo to pHi.
+func gridFor(fl fluid.Fluid, pLo, pHi float64) *satGrid {
+	satNodesMu.Lock()
+	defer satNodesMu.Unlock()
+	n, ok := satNodesOf[fl]
+	if !ok {
+		if len(satNodesOf) >= satNodesCap {
+			clear(satNodesOf)
+		}
+		k0 := int(math.Floor(math.Log(pLo)/satGridStep)) - 1
+		k1 := int(math.Ceil(math.Log(pHi)/satGridStep)) + 1
+		n = &satNodes{k0: k0, nodes: make([]atomic.Pointer[satNode], k1-k0+1)}
+		satNodesOf[fl] = n
+	}
+	return &satGrid{shared: n}
 }
 
 // clampP clamps a pressure to the fluid's saturation range.
@@ -80,28 +123,28 @@ type localProps struct {
 // march that the grid's march is checked against.
 var localExact bool
 
-// node returns grid node k, computing it on first use.
+// node returns grid node k, computing it on first use. Two goroutines
+// that meet an empty node both compute it, to the same value.
 func (s *state) node(k int) *satNode {
-	g := s.grid
-	if len(g.nodes) == 0 {
-		g.k0 = k
-		g.nodes = make([]satNode, 1, 16)
+	g := s.grid.shared
+	i := min(max(k-g.k0, 0), len(g.nodes)-1)
+	if nd := g.nodes[i].Load(); nd != nil {
+		return nd
 	}
-	if k < g.k0 {
-		n := g.k0 - k
-		grown := make([]satNode, n+len(g.nodes), n+cap(g.nodes))
-		copy(grown[n:], g.nodes)
-		g.nodes, g.k0 = grown, k
+	p := math.Exp(float64(i+g.k0) * satGridStep)
+	sat, pl := s.satAt(p)
+	nd := &satNode{p: p, hl: sat.HL, hlv: sat.Hlv, pl: pl}
+	const eps = 1e-4
+	if lo, hi := p*(1-eps), p*(1+eps); lo > s.pLo && hi < s.pHi {
+		a, _ := s.satAt(lo)
+		b, _ := s.satAt(hi)
+		nd.dhl, nd.dhlv = (b.HL-a.HL)/(hi-lo), (b.Hlv-a.Hlv)/(hi-lo)
+	} else if nb := math.Exp(float64(i+g.k0+1) * satGridStep); nb < s.pHi {
+		// At the range's low end: the slope to the next node.
+		b, _ := s.satAt(nb)
+		nd.dhl, nd.dhlv = (b.HL-sat.HL)/(nb-p), (b.Hlv-sat.Hlv)/(nb-p)
 	}
-	for k-g.k0 >= len(g.nodes) {
-		g.nodes = append(g.nodes, satNode{})
-	}
-	nd := &g.nodes[k-g.k0]
-	if !nd.ok {
-		p := math.Exp(g.lnRef + float64(k)*satGridStep)
-		sat, pl := s.satAt(p)
-		*nd = satNode{ok: true, p: p, hl: sat.HL, hlv: sat.Hlv, pl: pl}
-	}
+	g.nodes[i].Store(nd)
 	return nd
 }
 
@@ -120,7 +163,7 @@ func (s *state) interval(p float64) (a, b *satNode, k int, t float64) {
 	case g.pb > g.pa && p < g.pa && p >= g.pa/satGridRatio:
 		k--
 	default:
-		k = int(math.Floor((math.Log(p) - g.lnRef) / satGridStep))
+		k = int(math.Floor(math.Log(p) / satGridStep))
 	}
 	a, b = s.node(k), s.node(k+1)
 	g.ka, g.pa, g.pb = k, a.p, b.p
@@ -144,8 +187,7 @@ func (s *state) propsAt(p float64) localProps {
 	}
 	a, b, k, t := s.interval(p)
 	lp := localProps{k: k, t: t}
-	lp.hl = a.hl + t*(b.hl-a.hl)
-	lp.hlv = a.hlv + t*(b.hlv-a.hlv)
+	lp.hl, lp.hlv = hermite(a, b, t)
 	pa, pb := &a.pl, &b.pl
 	lp.pl = *pa
 	lp.pl.RhoL = pa.RhoL + t*(pb.RhoL-pa.RhoL)
@@ -168,7 +210,20 @@ func (s *state) localXAt(x, p float64) float64 {
 		return s.localXp(x, &lp)
 	}
 	a, b, _, t := s.interval(p)
-	return (s.sat.HL + x*s.sat.Hlv - (a.hl + t*(b.hl-a.hl))) / (a.hlv + t*(b.hlv-a.hlv))
+	hl, hlv := hermite(a, b, t)
+	return (s.sat.HL + x*s.sat.Hlv - hl) / hlv
+}
+
+// hermite interpolates the liquid enthalpy and latent heat between nodes a
+// and b at weight t by cubic Hermite polynomials in p.
+func hermite(a, b *satNode, t float64) (hl, hlv float64) {
+	d := b.p - a.p
+	t2 := t * t
+	t3 := t2 * t
+	h00, h10, h01, h11 := 2*t3-3*t2+1, t3-2*t2+t, 3*t2-2*t3, t3-t2
+	hl = h00*a.hl + h10*d*a.dhl + h01*b.hl + h11*d*b.dhl
+	hlv = h00*a.hlv + h10*d*a.dhlv + h01*b.hlv + h11*d*b.dhlv
+	return hl, hlv
 }
 
 // localXp is the local quality of reference enthalpy x at state lp.
