@@ -237,6 +237,12 @@ func (s *state) localState(ci int, dir, p float64, cs *ComponentState) float64 {
 	xin, xout := cs.XIn, cs.XOut
 	ls := &LocalState{PressureIn: p, SatTempIn: satI.T, SatTempOut: satO.T,
 		XIn: s.localX(xin, satI), XOut: s.localX(xout, satO)}
+	if s.net.comps[ci].kind == lang.Condenser && xout <= 0 {
+		// A condenser's outlet is liquid by construction: its pressure
+		// differs from the saturation pressure it is referred to only by
+		// the balance's residual, which must not make vapour of it.
+		ls.XOut = math.Min(ls.XOut, 0)
+	}
 	if cs.Kind == lang.Evaporator.String() {
 		if ls.XIn < 0 {
 			ls.SubcoolingIn = -ls.XIn * satI.Hlv / satI.CpL
@@ -282,6 +288,9 @@ func (s *state) boilingOnset(ci int, dir, xin, xout, pIn, pOut float64) *float64
 func (s *state) localOutlet(ci int, cs *ComponentState, xout, pOut float64) {
 	sat, pl := s.satAt(pOut)
 	xl := s.localX(xout, sat)
+	if s.net.comps[ci].kind == lang.Condenser && xout <= 0 {
+		xl = math.Min(xl, 0) // liquid by construction, as in localState
+	}
 	G := math.Abs(cs.MassFlux)
 	cs.VoidOut, cs.VelLiquid, cs.VelVapour = 0, 0, 0
 	rhoL, _ := s.liquid(math.Min(xout, 0))
