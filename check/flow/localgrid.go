@@ -7,7 +7,6 @@ import (
 
 	"circa/check/correlate"
 	"circa/check/fluid"
-	"circa/check/geom"
 	"circa/lang"
 )
 
@@ -118,9 +117,9 @@ type localProps struct {
 
 // localExact, set by tests only, has the local march look up every cell's
 // saturated state and prepare its friction directly instead of through the
-// grid, march liquid tubes like the others, and size the adiabatic tubes'
-// steps by the embedded error estimate at tolerance localTolFine: the fine
-// march that the grid's march is checked against.
+// grid, march liquid tubes like the others, and take four times the steps
+// in adiabatic tubes: the fine march that the grid's march is checked
+// against.
 var localExact bool
 
 // node returns grid node k, computing it on first use. Two goroutines
@@ -312,13 +311,10 @@ func (s *state) momLocal(G, x, cosInc float64, lp *localProps) (mom, rhoH float6
 // 0 (boiling onset) or 1 is split there, each part evaluated on its own
 // side, as the single state's march splits a cell at a phase boundary. A
 // tube that neither heats nor cools changes its state only through its
-// pressure, dp/ds = −F(p): it is integrated by an adaptive Runge–Kutta
-// method of third order (Bogacki & Shampine 1989) whose steps keep the
-// estimated error of the pressure under localTol of the liquid's
-// hydrostatic gradient per metre. Where the saturation hardly moves over
-// the tube's pressure change (most refrigerant loops) that is one step of
-// four evaluations; where liquid flashes as it rises at low pressure, and
-// the void fraction climbs steeply from zero, the steps shrink there.
+// pressure, dp/ds = −F(p): it is integrated by the third-order Runge–Kutta
+// stages of Bogacki & Shampine (1989) over a few steps (see adiabatic), so
+// that a tube whose saturation hardly moves over its pressure change (most
+// refrigerant loops) costs a handful of evaluations, not one per cell.
 func (s *state) marchLocal(ci int, dir float64, m, xin float64, rec func(cellRec)) (float64, parts) {
 	cp := &s.net.comps[ci]
 	am := math.Abs(m)
@@ -349,7 +345,7 @@ func (s *state) marchLocal(ci int, dir float64, m, xin float64, rec func(cellRec
 		mc.step(xin, xin, 0, p, 0)
 		p -= mc.d
 	case xout == xin:
-		p = mc.adiabatic(xin, p, mc.tol())
+		p = mc.adiabatic(xin, p)
 	default:
 		ds := cp.L / float64(n)
 		g := 0.0
@@ -368,23 +364,6 @@ func (s *state) marchLocal(ci int, dir float64, m, xin float64, rec func(cellRec
 	q.local = cp.K * G * G / (2 * rhoHOut)
 	return xout, s.scaled(q)
 }
-
-// localStepRho and localStepLnP bound the change of the mixture density,
-// as a fraction of the liquid density, and of ln p over one step of an
-// adiabatic tube in the grid's march: the third-order step then errs by
-// about the cube of those fractions of the step's pressure change.
-const (
-	localStepRho = 0.02
-	localStepLnP = 0.05
-)
-
-// localTolFine is the fine march's error tolerance per metre, as a
-// fraction of the liquid's hydrostatic gradient ρ_l·|b| (or of the loss
-// gradient where that is larger).
-const localTolFine = 1e-8
-
-// localMaxSteps bounds the evaluations of one adiabatic tube.
-const localMaxSteps = 400
 
 // localMarch accumulates the cells of one component's local march.
 type localMarch struct {
@@ -420,76 +399,89 @@ func (mc *localMarch) at(x, p float64) localEval {
 	return e
 }
 
-// tol is the fine march's error tolerance of an adiabatic tube, per metre.
-func (mc *localMarch) tol() float64 {
-	return localTolFine * mc.s.p.RhoL * math.Max(mc.s.bmag, 1e-3*geom.Gn)
-}
-
 // adiabatic integrates a tube of constant reference enthalpy x from
-// pressure p with Bogacki–Shampine's embedded 3(2) pair, first same as
-// last; it returns the outlet pressure. Friction and gravity are
-// integrated with the same weights as the pressure.
-func (mc *localMarch) adiabatic(x, p, tol float64) float64 {
+// pressure p with a step sequence that varies continuously with the flow,
+// so that the excess head stays smooth in the flow (its slope decides
+// stability); it returns the outlet pressure. Liquid that cannot flash, or
+// the liquid stretch up to where its pressure falls to saturation at its
+// enthalpy, has a constant gradient and is taken in one step. From the
+// flashing point (where the void fraction climbs steeply out of zero) the
+// rest of the tube takes localFlashSteps steps growing by localFlashRatio;
+// a tube entering two-phase takes localSteps equal steps. Each step is
+// Bogacki–Shampine's third-order stage set.
+func (mc *localMarch) adiabatic(x, p float64) float64 {
+	s := mc.s
 	L := mc.cp.L
-	h, left := L, L
-	hMin := 1e-6 * L
 	k1 := mc.at(x, p)
-	for steps := 0; left > 0; steps++ {
-		h = math.Min(h, left)
-		if left-h < 1e-9*L {
-			h = left
+	rest := L
+	flashed := false
+	if k1.xl <= flashTol {
+		// Liquid: F is the same all along.
+		pEnd := p - k1.F*L
+		if !(k1.F > 0) || !(s.localXAt(x, pEnd) > flashTol) {
+			mc.take(k1, k1, k1, L)
+			return pEnd
 		}
+		// Bisect for the pressure at which the liquid saturates.
+		lo, hi := pEnd, p
+		for i := 0; i < 60 && hi-lo > 1e-9*hi; i++ {
+			mid := (lo + hi) / 2
+			if s.localXAt(x, mid) > flashTol {
+				lo = mid
+			} else {
+				hi = mid
+			}
+		}
+		pf := (lo + hi) / 2
+		sf := (p - pf) / k1.F
+		mc.take(k1, k1, k1, sf)
+		p, rest, flashed = pf, L-sf, true
+		k1 = mc.at(x, p)
+	}
+	n, q := localSteps, 1.0
+	if flashed {
+		n, q = localFlashSteps, localFlashRatio
+	}
+	if localExact {
+		n, q = 4*n, math.Pow(q, 0.25)
+	}
+	h := rest / float64(n)
+	if q != 1 {
+		h = rest * (q - 1) / (math.Pow(q, float64(n)) - 1)
+	}
+	for i := 0; i < n; i++ {
 		k2 := mc.at(x, p-h/2*k1.F)
 		k3 := mc.at(x, p-3*h/4*k2.F)
-		pn := p - h*(2*k1.F+3*k2.F+4*k3.F)/9
-		k4 := mc.at(x, pn)
-		// The step's size: within the fine march, the embedded error
-		// estimate against the tolerance per metre (on the hydrostatic
-		// scale, or on the loss gradient where friction dominates, as at
-		// trial flows far above the balance); in the grid's march, the
-		// change of mixture density and of ln p over the step, since the
-		// interpolated properties have a kink at each node that the
-		// estimate would take for error.
-		var f float64
-		if localExact {
-			err := h * math.Abs(-5*k1.F/72+k2.F/12+k3.F/9-k4.F/8)
-			th := math.Max(tol, localTolFine*math.Abs(k1.F)) * h
-			f = 4
-			if err > 0 {
-				f = math.Min(4, math.Max(0.2, 0.9*math.Cbrt(th/err)))
-			}
-		} else {
-			drho := math.Abs(k4.rhoM-k1.rhoM) / (localStepRho * mc.s.p.RhoL)
-			dlnp := math.Abs(math.Log(mc.s.clampP(pn)/mc.s.clampP(p))) / localStepLnP
-			f = 4
-			if v := math.Max(drho, dlnp); v > 0 {
-				f = math.Min(4, math.Max(0.2, 0.9/v))
-			}
+		p -= h * (2*k1.F + 3*k2.F + 4*k3.F) / 9
+		mc.take(k1, k2, k3, h)
+		if i < n-1 {
+			k1 = mc.at(x, p)
 		}
-		// Below the fluid's range (a trial flow far above any balance,
-		// whose friction drains the pressure) the state is the range's
-		// end and no longer changes: the step is taken as it is.
-		ok := f >= 0.9 || h <= hMin || steps >= localMaxSteps || !finite(f) || !(pn > mc.s.pLo)
-		if ok {
-			w1, w2, w3 := 2*h/9, h/3, 4*h/9
-			mc.fric += w1*k1.dpdz + w2*k2.dpdz + w3*k3.dpdz
-			mc.grav += (w1*k1.rhoM + w2*k2.rhoM + w3*k3.rhoM) * mc.bUnit
-			if mc.rec != nil {
-				mc.rec(cellRec{x: (2*k1.xl + 3*k2.xl + 4*k3.xl) / 9, alpha: (2*k1.alpha + 3*k2.alpha + 4*k3.alpha) / 9,
-					rhoM: (2*k1.rhoM + 3*k2.rhoM + 4*k3.rhoM) / 9, rhoH: (2*k1.rhoH + 3*k2.rhoH + 4*k3.rhoH) / 9, ds: h})
-			}
-			p, left, k1 = pn, left-h, k4
-		}
-		if !finite(f) {
-			f = 1
-		}
-		h = math.Max(h*f, hMin)
-		if !(p > mc.s.pLo) {
-			h = left
-		}
+		h *= q
 	}
 	return p
 }
+
+// take adds a step of length h with Bogacki–Shampine stages k1, k2, k3 to
+// the friction and gravity, and records it.
+func (mc *localMarch) take(k1, k2, k3 localEval, h float64) {
+	w1, w2, w3 := 2*h/9, h/3, 4*h/9
+	mc.fric += w1*k1.dpdz + w2*k2.dpdz + w3*k3.dpdz
+	mc.grav += (w1*k1.rhoM + w2*k2.rhoM + w3*k3.rhoM) * mc.bUnit
+	if mc.rec != nil && h > 0 {
+		mc.rec(cellRec{x: (2*k1.xl + 3*k2.xl + 4*k3.xl) / 9, alpha: (2*k1.alpha + 3*k2.alpha + 4*k3.alpha) / 9,
+			rhoM: (2*k1.rhoM + 3*k2.rhoM + 4*k3.rhoM) / 9, rhoH: (2*k1.rhoH + 3*k2.rhoH + 4*k3.rhoH) / 9, ds: h})
+	}
+}
+
+// localSteps, localFlashSteps and localFlashRatio set the steps of an
+// adiabatic tube: equal steps for a tube entering two-phase, steps growing
+// geometrically from the flashing point for one in which liquid flashes.
+const (
+	localSteps      = 3
+	localFlashSteps = 12
+	localFlashRatio = 1.4
+)
 
 // step marches one cell of length ds whose faces have reference enthalpy
 // xa and xb, from pressure p with predicted loss gradient g (Pa/m). When the
