@@ -8,8 +8,9 @@ import (
 	"circa/lang"
 )
 
-// Local saturation (methods { saturation_state local }), single loops only:
-// the pressure is marched around the loop from the condenser outlet, where
+// Local saturation (methods { saturation_state local }, or auto where the
+// liquid column decides it): in a single loop the pressure is marched
+// around the loop from the condenser outlet, where
 // it is the saturation pressure of the case, and every cell takes the
 // saturated state at its own pressure. The enthalpy march is unchanged: x is
 // the enthalpy measured from the reference state, (h − h_f,0)/h_lv,0, and the
