@@ -140,16 +140,30 @@ func (p *prepared) profileResult(base *CaseResult, c *lang.Case, res []CaseResul
 	p.instantFindings(base, c, res, idx)
 	pr.Fast = fastChanges(pr.Instants)
 	for _, fc := range pr.Fast {
-		to := fc.To
-		base.Findings = append(base.Findings, p.findingAt(&to, RuleManoeuvre, "warning", base.Case, "", fc.Transit, fc.Duration, "s", "",
+		at := fc.To
+		from, to := secPair(fc.From, fc.To)
+		base.Findings = append(base.Findings, p.findingAt(&at, RuleManoeuvre, "warning", base.Case, "", fc.Transit, fc.Duration, "s", "",
 			"the profile of case %s changes the body force by %s gn between t = %s s and %s s, within less than the fluid's transit time round the loop (%s s): the quasi-static estimate no longer holds there; a transient model or a test is needed",
-			base.Case, strconv.FormatFloat(fc.Change/geom.Gn, 'g', 2, 64), secText(fc.From), secText(fc.To), secText(fc.Transit)))
+			base.Case, strconv.FormatFloat(fc.Change/geom.Gn, 'g', 2, 64), from, to, secText(fc.Transit)))
 	}
 	return pr
 }
 
 // secText writes a time in seconds to three significant figures.
 func secText(t float64) string { return strconv.FormatFloat(t, 'g', 3, 64) }
+
+// secPair writes the two ends of a stretch of time to a tenth of their
+// difference or finer (three significant figures at least): a step from
+// 30 s to 30.01 s is not "from 30 s to 30 s".
+func secPair(a, b float64) (string, string) {
+	n := 3
+	if d := math.Abs(b - a); d > 0 {
+		if k := math.Ceil(math.Log10(math.Max(math.Abs(a), math.Abs(b))/d)) + 2; k > 3 {
+			n = int(math.Min(k, 17))
+		}
+	}
+	return strconv.FormatFloat(a, 'g', n, 64), strconv.FormatFloat(b, 'g', n, 64)
+}
 
 // worstInstants picks, for each margin, the instant and component closest
 // to its limit (the earliest of equals).

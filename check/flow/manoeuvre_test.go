@@ -182,3 +182,22 @@ func BenchmarkProfile(b *testing.B) {
 		}
 	}
 }
+
+// The ends of a fast change are written with the figures that tell them
+// apart.
+func TestSecPair(t *testing.T) {
+	for _, tc := range []struct {
+		a, b     float64
+		from, to string
+	}{
+		{30, 30.01, "30", "30.01"},
+		{5, 5.01, "5", "5.01"},
+		{12.5, 40, "12.5", "40"},
+		{1234.5, 1234.6, "1234.5", "1234.6"},
+		{7, 7, "7", "7"},
+	} {
+		if from, to := secPair(tc.a, tc.b); from != tc.from || to != tc.to {
+			t.Errorf("%g, %g: %q, %q; want %q, %q", tc.a, tc.b, from, to, tc.from, tc.to)
+		}
+	}
+}
