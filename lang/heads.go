@@ -9,9 +9,10 @@ import "unsafe"
 // read, and the resolver parses a statement's line again when it reads
 // its parts. The whole tree of a large file then never exists at once.
 
-// headNodes keeps heads. Each is an allocation of its own, so that the
-// heads a component's one-line block drops (reread) are freed.
-type headNodes struct{}
+// headNodes keeps heads, a chunk at a time; those in a component's block
+// are each an allocation of their own, so that the ones a one-line block
+// drops (reread) are freed.
+type headNodes struct{ chunk slab[headStmt] }
 
 // headStmt is a head with its word.
 type headStmt struct {
@@ -19,9 +20,19 @@ type headStmt struct {
 	word Ident
 }
 
-// keep returns a head-only copy of s, which the fast path has just read.
-func (h *headNodes) keep(s *Stmt) *Stmt {
-	k := &headStmt{Stmt: Stmt{Pos: s.Pos, EndPos: s.EndPos, Block: s.Block, Bad: s.Bad, head: true}}
+// keep returns a head-only copy of s, which the fast path has just read
+// in the block of in (nil at the top).
+func (h *headNodes) keep(s, in *Stmt) *Stmt {
+	k := (*headStmt)(nil)
+	if in != nil {
+		if _, comp := kindOf(in.Keyword()); comp {
+			k = new(headStmt)
+		}
+	}
+	if k == nil {
+		k = h.chunk.alloc()
+	}
+	k.Stmt = Stmt{Pos: s.Pos, EndPos: s.EndPos, Block: s.Block, Bad: s.Bad, head: true}
 	if s.Word != nil {
 		k.word = *s.Word
 		k.Word = &k.word

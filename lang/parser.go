@@ -293,7 +293,11 @@ func (p *parser) statement() {
 		if stmt, ok := q.stmt(); ok {
 			p.cur = q.i
 			if p.heads != nil && p.sink == nil {
-				stmt = p.heads.keep(stmt)
+				var in *Stmt
+				if len(p.stack) > 0 {
+					in = p.stack[len(p.stack)-1]
+				}
+				stmt = p.heads.keep(stmt, in)
 				p.nodes.release(mark)
 				p.nodes.argPtrs.reset()
 			}

@@ -242,7 +242,8 @@ func (r *resolver) path(file string) *string {
 	if r.paths == nil {
 		r.paths = map[string]*string{}
 	}
-	p := &file
+	p := new(string) // not &file, which would move every caller's file to the heap
+	*p = file
 	r.paths[file] = p
 	return p
 }
