@@ -63,16 +63,25 @@ func hoverRequest(ctx context.Context, s *Server, sn *snapshot, params []byte) (
 	if err != nil {
 		return nil, err
 	}
-	c, ok := sn.cursorAt(p.TextDocumentPositionParams)
-	if !ok {
-		return nil, nil
+	path := pathOf(p.TextDocument.URI)
+	var text string
+	var sp lang.Span
+	var ok bool
+	if isTable(path) {
+		if text, sp, ok = s.tableRowHover(sn, path, p.Position); !ok {
+			return nil, nil
+		}
+	} else {
+		var c *cursor
+		if c, ok = sn.cursorAt(p.TextDocumentPositionParams); !ok {
+			return nil, nil
+		}
+		c.ctx = ctx
+		if text, sp, ok = s.hoverText(c); !ok {
+			return nil, nil
+		}
 	}
-	c.ctx = ctx
-	text, sp, ok := s.hoverText(c)
-	if !ok {
-		return nil, nil
-	}
-	r := sn.rangeIn(c.path, sp, true)
+	r := sn.rangeIn(path, sp, true)
 	kind := protocol.MarkupKindMarkdown
 	if s.caps.hoverPlain {
 		kind = protocol.MarkupKindPlainText

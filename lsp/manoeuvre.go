@@ -8,6 +8,8 @@ import (
 	"strconv"
 	"strings"
 
+	"go.lsp.dev/protocol"
+
 	"circa/check/flow"
 	"circa/lang"
 )
@@ -201,38 +203,66 @@ func (s *Server) rowHover(c *cursor, st *lang.Stmt) string {
 			continue
 		}
 		for _, r := range p.Rows {
-			if r.Span.Start != st.Span().Start {
-				continue
+			if r.Span.Start == st.Span().Start {
+				return s.instantHover(c.snap, c.a, cs, r)
 			}
-			var b strings.Builder
-			fmt.Fprintf(&b, "instant t = %s s of case `%s`'s profile, estimated as a steady state\n", secs(r.Time), cs.Name)
-			est := s.estimatesFor(c.snap, c.a)
-			if est == nil || est.flow == nil {
-				b.WriteString("\n_No estimate yet._\n")
-				return b.String()
-			}
-			for _, l := range est.flow.Loops {
-				cr, ok := est.caseResult(l.Loop, cs.Name)
-				if !ok || cr.Profile == nil {
-					continue
-				}
-				for _, in := range cr.Profile.Instants {
-					if in.Time != r.Time {
-						continue
-					}
-					fmt.Fprintf(&b, "\n**Loop `%s`**: ", l.Loop)
-					if !in.Circulates {
-						fmt.Fprintf(&b, "no circulation — %s\n", in.Reason)
-						break
-					}
-					fmt.Fprintf(&b, "mass flow %s, transit time %s s\n", prettyFormat(in.MassFlow, uGs), secs(in.Transit))
-					if w, ok := worstOf(in.Margins); ok {
-						fmt.Fprintf(&b, "\nworst margin: **%s**%s — %.0f %% of the limit used (%s)\n", w.Margin, atComponent(w.Component), 100*w.Use, w.Status)
-					}
-				}
-			}
-			return b.String()
 		}
 	}
 	return ""
+}
+
+// tableRowHover shows, on a row of a profile's CSV file open in the
+// editor, the estimate at that instant, as on a row written in a case; sp
+// is the row's time.
+func (s *Server) tableRowHover(sn *snapshot, path string, pos protocol.Position) (text string, sp lang.Span, ok bool) {
+	a := sn.analysisFor(path)
+	mp := sn.mapperFor(path)
+	if a == nil || mp == nil {
+		return "", lang.Span{}, false
+	}
+	off, _ := sn.offsetIn(path, pos)
+	for _, cs := range a.Model().Cases {
+		p := cs.Profile
+		if p == nil || p.Table != path {
+			continue
+		}
+		for _, r := range p.Rows {
+			if loc, in := p.TableLoc(r); in && mp.OffsetLine(loc.Span.Start) == mp.OffsetLine(off) {
+				return s.instantHover(sn, a, cs, r), loc.Span, true
+			}
+		}
+	}
+	return "", lang.Span{}, false
+}
+
+// instantHover is the estimate at row r of case cs's profile.
+func (s *Server) instantHover(sn *snapshot, a *analysis, cs *lang.Case, r lang.ProfileRow) string {
+	var b strings.Builder
+	fmt.Fprintf(&b, "instant t = %s s of case `%s`'s profile, estimated as a steady state\n", secs(r.Time), cs.Name)
+	est := s.estimatesFor(sn, a)
+	if est == nil || est.flow == nil {
+		b.WriteString("\n_No estimate yet._\n")
+		return b.String()
+	}
+	for _, l := range est.flow.Loops {
+		cr, ok := est.caseResult(l.Loop, cs.Name)
+		if !ok || cr.Profile == nil {
+			continue
+		}
+		for _, in := range cr.Profile.Instants {
+			if in.Time != r.Time {
+				continue
+			}
+			fmt.Fprintf(&b, "\n**Loop `%s`**: ", l.Loop)
+			if !in.Circulates {
+				fmt.Fprintf(&b, "no circulation — %s\n", in.Reason)
+				break
+			}
+			fmt.Fprintf(&b, "mass flow %s, transit time %s s\n", prettyFormat(in.MassFlow, uGs), secs(in.Transit))
+			if w, ok := worstOf(in.Margins); ok {
+				fmt.Fprintf(&b, "\nworst margin: **%s**%s — %.0f %% of the limit used (%s)\n", w.Margin, atComponent(w.Component), 100*w.Use, w.Status)
+			}
+		}
+	}
+	return b.String()
 }
