@@ -211,8 +211,9 @@ type resolver struct {
 	overrideErr *OverrideError
 	// sites holds where the values were written, a chunk at a time;
 	// paths holds the one copy of each file's path they point to.
-	sites slab[site]
-	paths map[string]*string
+	sites    slab[site]
+	paths    map[string]*string
+	lastPath *string
 	// heads is set when the files are read keeping only the heads of
 	// their statements (LoadSourceModel); hp parses their parts again.
 	heads bool
@@ -236,7 +237,11 @@ func (r *resolver) atVec(v Vec, file string, span Span, unit string) Vec {
 
 // path returns the resolver's one copy of the path file.
 func (r *resolver) path(file string) *string {
+	if r.lastPath != nil && *r.lastPath == file {
+		return r.lastPath // most values follow one of the same file
+	}
 	if p, ok := r.paths[file]; ok {
+		r.lastPath = p
 		return p
 	}
 	if r.paths == nil {
@@ -245,6 +250,7 @@ func (r *resolver) path(file string) *string {
 	p := new(string) // not &file, which would move every caller's file to the heap
 	*p = file
 	r.paths[file] = p
+	r.lastPath = p
 	return p
 }
 
