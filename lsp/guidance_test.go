@@ -32,6 +32,10 @@ func newGuidedClient(t *testing.T, opts Options) *guidedClient {
 		opts.guideBudget = time.Hour
 	}
 	g := &guidedClient{testClient: newTestClient(t, opts), guided: map[uint64]bool{}}
+	// Guidance runs many estimates; under the race detector on a loaded
+	// two-core machine one file's can take longer than the usual 20 s.
+	// The patience only guards against a hang.
+	g.patience = 3 * time.Minute
 	g.srv.guides.mu.Lock()
 	g.srv.guides.onGuided = func(id uint64) {
 		g.testClient.mu.Lock()
@@ -428,10 +432,6 @@ func TestGuidanceCost(t *testing.T) {
 // the one circa estimate gives it.
 func TestGuidanceOnDemandInLargeFile(t *testing.T) {
 	c := newGuidedClient(t, Options{Debounce: -1, guideBudget: guideBudget})
-	// Loading 20,000 parameters and guiding one of them on demand takes
-	// seconds under the race detector on a loaded two-core machine; the
-	// patience only guards against a hang.
-	c.patience = 3 * time.Minute
 	c.initialize(nil)
 	path, err := filepath.Abs("../testdata/examples/rack-door.loop")
 	if err != nil {
