@@ -6,6 +6,8 @@ import (
 	"reflect"
 	"strings"
 	"testing"
+
+	"golang.org/x/tools/txtar"
 )
 
 // sameModel checks that LoadSourceModel gives the model LoadSource and
@@ -97,6 +99,31 @@ func TestLoadSourceModel(t *testing.T) {
 			" evaporator e from a to b { heat 5 W; use nopart; channels 3 }\n condenser k from b to a { conductance 3 W/K; sink 20 degC }\n}\n",
 	} {
 		sameModel(t, "text"+string(rune('a'+i))+".loop", []byte(src))
+	}
+}
+
+// TestLoadSourceModelIncludes compares the two ways of loading on the
+// resolver's archives, whose files include one another.
+func TestLoadSourceModelIncludes(t *testing.T) {
+	files, _ := filepath.Glob(filepath.Join("testdata", "resolve", "*.txtar"))
+	if len(files) == 0 {
+		t.Fatal("no archives")
+	}
+	for _, file := range files {
+		ar, err := txtar.ParseFile(file)
+		if err != nil {
+			t.Fatal(err)
+		}
+		fsys := archiveFS(ar)
+		src, err := fsys.ReadFile("main.loop")
+		if err != nil {
+			t.Fatal(err)
+		}
+		want := LoadSource("main.loop", src, fsys)
+		want.DropSyntax()
+		if got := LoadSourceModel("main.loop", src, fsys); !reflect.DeepEqual(got, want) {
+			t.Errorf("%s: LoadSourceModel differs from LoadSource and DropSyntax:\n%s", file, modelDiff(got, want))
+		}
 	}
 }
 
