@@ -373,4 +373,5 @@ var Cautions = []string{
 	"Estimates for early design only: a steady, one-dimensional, quasi-static model with the stated correlations; confirm by test.",
 	"Pressure findings compare the saturation pressure with the stated rating only; pressure equipment must satisfy local pressure-equipment codes and be approved by licensed engineers.",
 	"Flammable or toxic working fluids (ASHRAE 34 / ISO 817 safety classes other than A1) must follow local codes for charge limits, ventilation and detection.",
+	"Evaporator walls, device cases, vapour lines and condensers run near the estimated wall, junction and saturation temperatures: guard or insulate hot surfaces people can touch as local codes require.",
 }

@@ -56,6 +56,39 @@ func TestEstimateFormats(t *testing.T) {
 	}
 }
 
+// TestEstimateCautions: every estimate, in text and JSON, carries the
+// cautions for the results that can hurt someone: pressure, the fluid's
+// ASHRAE 34 / ISO 817 safety class and hot surfaces, each deferring to
+// local codes.
+func TestEstimateCautions(t *testing.T) {
+	const file = "../../testdata/examples/tram-inverter.loop"
+	want := []string{"local pressure-equipment codes", "ASHRAE 34", "hot surfaces"}
+	_, out, errs := runEstimateCmd(t, file, "--case", "fan_off", "--no-tilt", "--no-guidance")
+	var text []string
+	for _, l := range strings.Split(out, "\n") {
+		if strings.HasPrefix(l, "caution: ") {
+			text = append(text, l)
+		}
+	}
+	_, js, _ := runEstimateCmd(t, "--format", "json", "--case", "fan_off", "--no-tilt", "--no-guidance", file)
+	var res struct {
+		Cautions []string `json:"cautions"`
+	}
+	if err := json.Unmarshal([]byte(js), &res); err != nil {
+		t.Fatalf("json: %v", err)
+	}
+	for name, got := range map[string]string{"text": strings.Join(text, "\n"), "json": strings.Join(res.Cautions, "\n")} {
+		for _, w := range want {
+			if !strings.Contains(got, w) {
+				t.Errorf("%s cautions do not mention %q:\n%s%s", name, w, got, errs)
+			}
+		}
+		if !strings.Contains(got, "local codes") {
+			t.Errorf("%s cautions do not defer to local codes:\n%s", name, got)
+		}
+	}
+}
+
 func TestEstimateUsage(t *testing.T) {
 	for _, args := range [][]string{{}, {"--format", "xml", "x.loop"}, {"../../testdata/examples/rack-door.loop", "--case", "nope"},
 		{"../../testdata/examples/rack-door.loop", "--void", "nope"}} {
