@@ -4,6 +4,8 @@ import (
 	"bytes"
 	"encoding/csv"
 	"encoding/json"
+	"os"
+	"path/filepath"
 	"strings"
 	"testing"
 )
@@ -86,6 +88,23 @@ func TestEstimateCautions(t *testing.T) {
 		if !strings.Contains(got, "local codes") {
 			t.Errorf("%s cautions do not defer to local codes:\n%s", name, got)
 		}
+	}
+}
+
+// TestEstimateFileErrors: a file with errors gets no estimate, and each
+// error is printed as check prints it, located and with its rule, so that
+// "circa explain RULE" can be looked up.
+func TestEstimateFileErrors(t *testing.T) {
+	dir := t.TempDir()
+	file := filepath.Join(dir, "bad.loop")
+	src := "loop l {\n  fluid water\n  node a at (0, 0, 0) m\n  node b at (0, 0, 1) furlong\n}\n"
+	if err := os.WriteFile(file, []byte(src), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	code, out, errs := runEstimateCmd(t, file)
+	want := file + `:4:23: error: unknown unit "furlong" [unit]`
+	if code != exitFindings || out != "" || !strings.Contains(errs, want+"\n") || !strings.Contains(errs, "no estimate") {
+		t.Errorf("estimate of a file with errors: %d %q %q, want the line %q", code, out, errs, want)
 	}
 }
 

@@ -156,7 +156,7 @@ func loadClean(file, cmd, nothing string, set setFlag, modelOnly bool, stderr io
 	bad := false
 	for _, d := range m.Diags {
 		if d.Severity == lang.Error {
-			fmt.Fprintf(stderr, "%s: %s: %s\n", output.Printable(output.Where(m, d.Loc)), d.Severity, output.Printable(d.Message()))
+			fmt.Fprintf(stderr, "%s: %s: %s [%s]\n", output.Printable(output.Where(m, d.Loc)), d.Severity, output.Printable(d.Message()), d.Rule)
 			bad = true
 		}
 	}
