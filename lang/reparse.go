@@ -298,47 +298,41 @@ func splice(list []*Stmt, i, j int, mid []*Stmt, mv *mover) []*Stmt {
 // from b on, moved by delta. An error at the end of the text (atEnd: b is
 // that end) belongs to the last line.
 func spliceErrors(old, mid []Diagnostic, a, b, delta int, atEnd bool) []Diagnostic {
-	var out []Diagnostic
-	for _, d := range old {
-		if d.Loc.Span.Start < a {
-			out = append(out, d)
-		}
-	}
-	for _, d := range mid {
-		d.Loc.Span.Start += a
-		d.Loc.Span.End += a
-		out = append(out, d)
-	}
-	for _, d := range old {
-		if d.Loc.Span.Start > b || (d.Loc.Span.Start == b && !atEnd) {
-			d.Loc.Span.Start += delta
-			d.Loc.Span.End += delta
-			out = append(out, d)
-		}
-	}
-	return out
+	return spliceSpans(old, mid, a, delta, func(d *Diagnostic) *Span { return &d.Loc.Span },
+		func(s Span) bool { return s.Start > b || (s.Start == b && !atEnd) })
 }
 
+// spliceComments keeps old's comments before a, then mid's (at a), then
+// old's from b on, moved by delta.
 func spliceComments(old, mid []Comment, a, b, delta int) []Comment {
-	var out []Comment
-	k := 0
-	for k < len(old) && old[k].Span.Start < a {
-		k++
+	return spliceSpans(old, mid, a, delta, func(c *Comment) *Span { return &c.Span },
+		func(s Span) bool { return s.Start >= b })
+}
+
+// spliceSpans keeps the items of old that start before a, then those of
+// mid moved by a, then those of old that kept accepts, moved by delta; span
+// gives an item's span. It returns nil for no items.
+func spliceSpans[T any](old, mid []T, a, delta int, span func(*T) *Span, kept func(Span) bool) []T {
+	if len(old)+len(mid) == 0 {
+		return nil
 	}
-	if k+len(mid)+len(old) > 0 {
-		out = make([]Comment, 0, len(old)+len(mid))
+	out := make([]T, 0, len(old)+len(mid))
+	for _, x := range old {
+		if span(&x).Start < a {
+			out = append(out, x)
+		}
 	}
-	out = append(out, old[:k]...)
-	for _, c := range mid {
-		c.Span.Start += a
-		c.Span.End += a
-		out = append(out, c)
+	for _, x := range mid {
+		sp := span(&x)
+		sp.Start += a
+		sp.End += a
+		out = append(out, x)
 	}
-	for ; k < len(old); k++ {
-		if c := old[k]; c.Span.Start >= b {
-			c.Span.Start += delta
-			c.Span.End += delta
-			out = append(out, c)
+	for _, x := range old {
+		if sp := span(&x); kept(*sp) {
+			sp.Start += delta
+			sp.End += delta
+			out = append(out, x)
 		}
 	}
 	if len(out) == 0 {
