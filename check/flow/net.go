@@ -108,7 +108,7 @@ func buildNetwork(l *lang.Loop, lay *geom.Layout) (*network, []Finding) {
 		if c.Kind == lang.Evaporator && c.HeatedLength.Set && L > 0 {
 			h := c.HeatedLength.SI
 			if !(h > 0) || h > L || !finite(h) {
-				bad(c, "evaporator %s has heated length %g m; it must lie in (0, %g] m", c.Name, h, L)
+				bad(c, "evaporator %s has heated length %.5g m; it must lie in (0, %.5g] m, its length", c.Name, h, L)
 			} else {
 				cp.heatedFrom = (1 - h/L) / 2
 				cp.heatedTo = 1 - cp.heatedFrom
