@@ -85,7 +85,7 @@ func buildNetwork(l *lang.Loop, lay *geom.Layout) (*network, []Finding) {
 		short := c.Kind == lang.Bend || c.Kind == lang.Fitting
 		switch {
 		case !finite(L) || L < 0:
-			bad(c, "%s %s has length %g m; a length must be zero or more", c.Kind, c.Name, L)
+			bad(c, "%s %s has length %.5g m; a length must be zero or more", c.Kind, c.Name, L)
 		case L == 0 && !short:
 			bad(c, "%s %s has no length; the estimate needs its length along the flow", c.Kind, c.Name)
 		case !finite(D) || D <= 0:
@@ -94,7 +94,7 @@ func buildNetwork(l *lang.Loop, lay *geom.Layout) (*network, []Finding) {
 			bad(c, "%s %s has no positive flow area", c.Kind, c.Name)
 		}
 		if c.Loss.SI < 0 || !finite(c.Loss.SI) {
-			bad(c, "%s %s has a negative loss coefficient %g", c.Kind, c.Name, c.Loss.SI)
+			bad(c, "%s %s has a negative loss coefficient %.5g", c.Kind, c.Name, c.Loss.SI)
 		}
 		cp := comp{c: c, name: c.Name, kind: c.Kind, L: L, D: D, A: A, K: c.Loss.SI, heatedTo: 1}
 		if D > 0 {
