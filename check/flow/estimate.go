@@ -24,6 +24,14 @@ type Options struct {
 	// Saturation overrides the methods block's saturation_state ("auto",
 	// "single" or "local").
 	Saturation string
+	// Pinned fixes, where saturation_state is auto, the state ("single" or
+	// "local") of a case at its own attitude, keyed by PinKey(loop, case),
+	// instead of the liquid column's choice: the variants of a design that
+	// a search compares are then estimated in the states the design as
+	// written got (PinnedStates), and their margins do not jump where a
+	// variant's column crosses AutoLocalShift. Sweep, profile and envelope
+	// points, and cases not in the map, keep the column's choice.
+	Pinned map[string]string
 	// Cells overrides the number of cells per heated component.
 	Cells int
 	// NoTilt skips the search for the attitudes at which circulation stops.
@@ -77,7 +85,8 @@ type prepared struct {
 	chfFlow  bool      // flow-boiling CHF (Katto–Ohno) instead of the pool-boiling form
 	cond     condModel // the in-tube coefficient of geometry condensers
 	limits   lang.Limits
-	lay      *geom.Layout // node positions, for liquid-column heights
+	lay      *geom.Layout      // node positions, for liquid-column heights
+	pinned   map[string]string // Options.Pinned
 	findings []Finding
 	cancel   <-chan struct{}
 }
@@ -175,6 +184,7 @@ func casePoints(cases []*lang.Case, sw *Sweep) []point {
 func estimateLoop(m *lang.Model, l *lang.Loop, methods MethodsUsed, points []point, opts Options) LoopResult {
 	p := prepare(m, l, methods)
 	p.cancel = opts.Cancel
+	p.pinned = opts.Pinned
 	lr := LoopResult{Loop: l.Name, Fluid: l.Fluid.Name, Methods: p.methods, Assumptions: assumptions(),
 		Findings: p.findings}
 	if p.fl != nil {
@@ -596,7 +606,7 @@ func (p *prepared) newState(pt point, cr *CaseResult) (*state, []Finding) {
 		}
 	}
 	s.setBody(geom.BodyForceAt(pt.yaw, pt.pitch, pt.roll, pt.accel))
-	p.saturationState(s, cr)
+	p.saturationState(s, cr, pt.derived())
 	return s, fs
 }
 

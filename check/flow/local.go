@@ -28,16 +28,54 @@ import (
 // high.
 const AutoLocalShift = 5.0 // K
 
+// PinKey is the key of a loop's case in Options.Pinned.
+func PinKey(loop, cs string) string { return loop + "\x00" + cs }
+
+// PinnedStates returns the saturation state each case of res was
+// estimated with at its own attitude, for Options.Pinned, in the loops
+// whose saturation_state is auto (nil when there are none).
+func PinnedStates(res *Result) map[string]string {
+	var out map[string]string
+	for _, l := range res.Loops {
+		if l.Methods.Saturation != "auto" {
+			continue
+		}
+		for _, c := range l.Cases {
+			if c.Grid || c.SatState == "" {
+				continue
+			}
+			if out == nil {
+				out = map[string]string{}
+			}
+			out[PinKey(l.Loop, c.Case)] = c.SatState
+		}
+	}
+	return out
+}
+
+// AutoState is the state saturation_state auto chooses for a case by its
+// liquid column, whatever was pinned.
+func (c *CaseResult) AutoState() string {
+	if c.ColumnShift > AutoLocalShift {
+		return "local"
+	}
+	return "single"
+}
+
 // saturationState sets the case's saturation state (single or local) and
 // what local saturation needs: the fluid's pressure range, the saturation
-// grid, and for a network its junction pressures.
-func (p *prepared) saturationState(s *state, cr *CaseResult) {
+// grid, and for a network its junction pressures. derived marks a sweep,
+// profile or envelope point, which no pin applies to.
+func (p *prepared) saturationState(s *state, cr *CaseResult, derived bool) {
 	cr.ColumnShift = p.columnShift(s)
 	switch p.methods.Saturation {
 	case "local":
 		s.local = true
 	case "auto":
 		s.local = cr.ColumnShift > AutoLocalShift
+		if st, ok := p.pinned[PinKey(p.l.Name, cr.Case)]; ok && !derived {
+			s.local = st == "local"
+		}
 	}
 	cr.SatState = "single"
 	if !s.local {

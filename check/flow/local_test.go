@@ -288,3 +288,38 @@ func TestLocalWallTemperature(t *testing.T) {
 		t.Errorf("wall %.2f °C, local saturation %.2f °C, loop %.2f °C", tw-273.15, pl.Local.SatTempIn-273.15, c.SatTemperature-273.15)
 	}
 }
+
+// TestPinnedState: a pinned state replaces saturation_state auto's choice
+// for the case at its own attitude, to the bit the estimate of the state
+// named in the file; a file that names its state, and a case not in the
+// map, keep theirs.
+func TestPinnedState(t *testing.T) {
+	src := strings.ReplaceAll(vacuumLoop, "HEAT", "300 W")
+	cases := func(r *Result) string {
+		j, _ := json.Marshal(r.Loops[0].Cases)
+		return string(j)
+	}
+	pin := map[string]string{PinKey("v", "nominal"): "single"}
+	pinned := estimate(t, load(t, src), Options{NoTilt: true, Pinned: pin})
+	single := estimate(t, load(t, src+"methods { saturation_state single }\n"), Options{NoTilt: true})
+	if cases(pinned) != cases(single) {
+		t.Errorf("pinned single differs from saturation_state single:\n%s\n%s", cases(pinned), cases(single))
+	}
+	if c := pinned.Loops[0].Cases[0]; c.SatState != "single" || c.AutoState() != "local" {
+		t.Errorf("pinned case: state %s, auto's choice %s (column shift %.2f K)", c.SatState, c.AutoState(), c.ColumnShift)
+	}
+	if got := PinnedStates(estimate(t, load(t, src), Options{NoTilt: true})); len(got) != 1 || got[PinKey("v", "nominal")] != "local" {
+		t.Errorf("PinnedStates of the vacuum loop: %v", got)
+	}
+	local := estimate(t, load(t, src+"methods { saturation_state local }\n"), Options{NoTilt: true})
+	if named := estimate(t, load(t, src+"methods { saturation_state local }\n"), Options{NoTilt: true, Pinned: pin}); cases(named) != cases(local) {
+		t.Error("a pin changed a file that names saturation_state local")
+	}
+	if PinnedStates(local) != nil {
+		t.Error("PinnedStates pins a loop that names its state")
+	}
+	other := estimate(t, load(t, src), Options{NoTilt: true, Pinned: map[string]string{PinKey("v", "other"): "single"}})
+	if other.Loops[0].Cases[0].SatState != "local" {
+		t.Error("a pin of another case applied")
+	}
+}

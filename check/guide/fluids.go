@@ -105,7 +105,8 @@ func (gd *guider) tryFluid(li int, l *lang.Loop, sp lang.FluidSpec) Fluid {
 	mv.Loops[li] = &lv
 	gd.sem <- struct{}{}
 	gd.estimates.Add(1)
-	lr := flow.EstimateLoop(&mv, &lv, gd.full)
+	// Another fluid is a design of its own: no state pinned.
+	lr := flow.EstimateLoop(&mv, &lv, gd.own)
 	<-gd.sem
 	if lr.Fluid != "" {
 		f.Fluid = lr.Fluid

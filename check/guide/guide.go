@@ -8,6 +8,7 @@ import (
 	"runtime"
 	"slices"
 	"strconv"
+	"strings"
 	"sync"
 	"sync/atomic"
 
@@ -113,6 +114,10 @@ type guider struct {
 	// full is the estimate as asked for; fast leaves out the tilt search,
 	// which only adds the tilt margin, for the range searches.
 	full, fast flow.Options
+	// own is full without the saturation states pinned: each variant in
+	// the state its own liquid column gives it under saturation_state
+	// auto.
+	own flow.Options
 	// plain counts the margins of the guidance (Options.Margins), the
 	// charge margin as written among them; recharged counts, instead of
 	// the charge margin, whether some charge suits every case.
@@ -186,6 +191,18 @@ func Compute(ctx context.Context, m *lang.Model, opts Options) (*Guidance, error
 		return nil, err
 	}
 	gd.base = base
+	// Every variant is estimated in the saturation state the design as
+	// written got, case by case: under saturation_state auto a variant
+	// whose liquid column crosses the switch would otherwise change state
+	// and its margins jump there, a step a range search can take for a
+	// limit. The ends found are then checked in their own states
+	// (stateNotes).
+	gd.own = gd.full
+	gd.own.Pinned = nil
+	if gd.full.Pinned == nil {
+		pins := flow.PinnedStates(base)
+		gd.full.Pinned, gd.fast.Pinned = pins, pins
+	}
 	var wg sync.WaitGroup
 	if needed(m) {
 		gd.points = fixed{}.with(base)
@@ -396,7 +413,11 @@ func (gd *guider) rangeOf(p *lang.Param, ax axis, sens []Sensitivity, s0, f0 Sam
 		search, start = mode{opts: &gd.full, reduce: pts, keep: keep}, s0
 	}
 	var r Range
+	// checked are the full estimates of the last range's ends, when
+	// they were checked.
+	var checked [2]*flow.Result
 	for round := 0; ; round++ {
+		checked = [2]*flow.Result{}
 		f := func(x float64) Sample { s, _, _ := gd.at(p, x, search); return s }
 		var ok bool
 		r, ok = findRange(gd.ctx, f, ax, start, foretell(sens, search.opts == &gd.full, keep, perLog(p)))
@@ -411,6 +432,7 @@ func (gd *guider) rangeOf(p *lang.Param, ax axis, sens []Sensitivity, s0, f0 Sam
 		}
 		ends, results := gd.ends(p, r, keep)
 		if ends[0].Feasible() && ends[1].Feasible() {
+			checked = results
 			break
 		}
 		if round >= 2 || pts == nil && search.opts == &gd.full && search.structural {
@@ -436,6 +458,9 @@ func (gd *guider) rangeOf(p *lang.Param, ax axis, sens []Sensitivity, s0, f0 Sam
 		if next.opts == &gd.full {
 			start = s0
 		}
+	}
+	if r.Feasible && gd.full.Pinned != nil {
+		gd.stateNotes(p, &r, checked, keep)
 	}
 	r.Use, r.Limit, r.Stop = s0.Use, s0.Limit, ""
 	if s0.Stop != nil {
@@ -530,4 +555,82 @@ func unitScale(unit string) float64 {
 		return d
 	}
 	return 1
+}
+
+// stateNotes notes on each end of the feasible range r where a case's own
+// liquid column would, under saturation_state auto, have it estimated in
+// another saturation state than the pinned one of the design as written,
+// and what the end gives in its own state.
+// checked are the ends' full estimates when the search has them.
+func (gd *guider) stateNotes(p *lang.Param, r *Range, checked [2]*flow.Result, keep func(Where) bool) {
+	var wg sync.WaitGroup
+	for i, b := range []*Bound{r.Low, r.High} {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			b.Note = gd.stateNote(p, b.Value, checked[i], keep)
+		}()
+	}
+	wg.Wait()
+}
+
+// stateNote is the note on one end at x ("" when every case keeps its
+// state there); res is the end's full estimate (nil: estimated here).
+func (gd *guider) stateNote(p *lang.Param, x float64, res *flow.Result, keep func(Where) bool) string {
+	if res == nil {
+		_, _, res = gd.at(p, x, mode{opts: &gd.full, keep: keep})
+	}
+	if res == nil {
+		return ""
+	}
+	// The cases that would change, grouped by the change.
+	type change struct{ auto, pinned string }
+	var order []change
+	by := map[change][]string{}
+	for _, l := range res.Loops {
+		if l.Methods.Saturation != "auto" {
+			continue
+		}
+		for _, c := range l.Cases {
+			if c.Grid || c.SatState == "" || c.AutoState() == c.SatState {
+				continue
+			}
+			if _, ok := gd.full.Pinned[flow.PinKey(l.Loop, c.Case)]; !ok {
+				continue
+			}
+			k := change{c.AutoState(), c.SatState}
+			if by[k] == nil {
+				order = append(order, k)
+			}
+			by[k] = append(by[k], fmt.Sprintf("%s (%.1f K)", caseLabel(res, l.Loop, c.Case), c.ColumnShift))
+		}
+	}
+	if len(order) == 0 {
+		return ""
+	}
+	var what []string
+	for _, k := range order {
+		what = append(what, fmt.Sprintf("the liquid column's shift of saturation in %s would have saturation_state auto take the %s state, not the %s state of the value as written",
+			strings.Join(by[k], ", "), k.auto, k.pinned))
+	}
+	s, _, _ := gd.at(p, x, mode{opts: &gd.own, keep: keep})
+	var own string
+	switch {
+	case s.Stop != nil:
+		own = "no usable estimate: " + s.Stop.Message
+	case s.Feasible():
+		own = fmt.Sprintf("every margin holds (largest use %.3g, %s)", s.Use, s.Limit.Describe())
+	default:
+		own = fmt.Sprintf("%s uses %.3g of its limit", s.Limit.Describe(), s.Use)
+	}
+	return "here " + strings.Join(what, "; ") + "; in its own state " + own
+}
+
+// caseLabel names a loop's case for a note ("C of loop L" when the
+// estimate has several loops).
+func caseLabel(res *flow.Result, loop, cs string) string {
+	if len(res.Loops) > 1 {
+		return cs + " of loop " + loop
+	}
+	return cs
 }

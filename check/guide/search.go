@@ -116,6 +116,10 @@ type Bound struct {
 	Stop string `json:"stop,omitempty"`
 	// Reason says in words why the range ends.
 	Reason string `json:"reason,omitempty"`
+	// Note says where the range is searched with a case in another
+	// saturation state than its own liquid column would choose at this
+	// value (saturation_state auto), and what the value gives in its own.
+	Note string `json:"saturation_note,omitempty"`
 }
 
 // eval is the function searched: a sample of the estimate at a value.

@@ -161,6 +161,9 @@ func RangeText(r *guide.Range, unit string) string {
 		return s
 	}
 	end := func(b *guide.Bound, side string) string {
+		if b.Note != "" {
+			return fmt.Sprintf("%s (%s: %s; note: %s)", v(b.Value), side, b.Reason, b.Note)
+		}
 		return fmt.Sprintf("%s (%s: %s)", v(b.Value), side, b.Reason)
 	}
 	var s string
@@ -173,6 +176,12 @@ func RangeText(r *guide.Range, unit string) string {
 		s = fmt.Sprintf("keeps every margin from %s, with no limit up to %s (the farthest searched)", end(r.Low, "below"), v(r.High.Value))
 	default:
 		s = fmt.Sprintf("keeps every margin from %s to %s", end(r.Low, "below"), end(r.High, "above"))
+	}
+	// An unbounded end's note, which end() does not show.
+	for _, b := range []*guide.Bound{r.Low, r.High} {
+		if b.Unbounded && b.Note != "" {
+			s += fmt.Sprintf("; note at %s: %s", v(b.Value), b.Note)
+		}
 	}
 	if !r.Contains {
 		if r.Stop != "" {
