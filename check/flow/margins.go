@@ -857,7 +857,7 @@ func (tl *TiltLimits) describe() string {
 	var parts []string
 	add := func(name string, v *float64) {
 		if v != nil {
-			parts = append(parts, fmt.Sprintf("%s %.1f°", name, *v*180/math.Pi))
+			parts = append(parts, fmt.Sprintf("%s %+.1f°", name, *v*180/math.Pi))
 		}
 	}
 	add("pitch", tl.PitchUp)

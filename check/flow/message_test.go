@@ -1,6 +1,7 @@
 package flow
 
 import (
+	"math"
 	"strings"
 	"testing"
 
@@ -29,5 +30,17 @@ func TestHeatedLengthMessage(t *testing.T) {
 	}
 	if len(got) != 1 || got[0] != want {
 		t.Errorf("geometry findings %q, want [%q]", got, want)
+	}
+}
+
+// TestTiltDescribeSigns: the margin-tilt finding names the angles where
+// circulation stops with their signs, as the estimate's tilt line and the
+// tilt-limits finding do ("pitch +80.4°", not "pitch 80.4°").
+func TestTiltDescribeSigns(t *testing.T) {
+	deg := func(d float64) *float64 { r := d * math.Pi / 180; return &r }
+	tl := TiltLimits{PitchUp: deg(80.4), PitchDown: deg(-99.7), RollLeft: deg(42.9), RollRight: deg(-42.9)}
+	const want = "pitch +80.4°, pitch -99.7°, roll +42.9°, roll -42.9°"
+	if got := tl.describe(); got != want {
+		t.Errorf("describe() = %q, want %q", got, want)
 	}
 }
