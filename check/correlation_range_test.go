@@ -69,3 +69,26 @@ func TestCorrelationRangeExplained(t *testing.T) {
 		}
 	}
 }
+
+// The margin rules that rest on a published correlation name it with its
+// year in circa explain, so a reader can find the source.
+func TestMarginRulesNameTheirSources(t *testing.T) {
+	for id, want := range map[string][]string{
+		"margin-flooding":         {"Wallis 1969", "One-Dimensional Two-Phase Flow"},
+		"margin-wall-temperature": {"Cooper 1984", "Advances in Heat Transfer", "local codes"},
+		"margin-chf":              {"Lienhard & Dhir 1973", "Katto & Ohno (1984"},
+		"margin-condenser":        {"Nusselt 1916", "Chato 1962", "Shah (1979"},
+		"ledinegg-unstable":       {"Ledinegg 1938"},
+	} {
+		r, ok := Lookup(id)
+		if !ok {
+			t.Errorf("%s is not registered", id)
+			continue
+		}
+		for _, w := range want {
+			if !strings.Contains(r.Rationale, w) {
+				t.Errorf("%s's rationale does not name %q", id, w)
+			}
+		}
+	}
+}
