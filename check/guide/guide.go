@@ -38,6 +38,11 @@ type Options struct {
 	// same Flow options (sweep points are ignored), so that it is not
 	// computed again.
 	Base *flow.Result
+	// NoOwnState leaves out the estimate of each range end in its own
+	// saturation state where it differs from the pinned one: the end's note
+	// then only says that it differs. Quick fixes, which check each
+	// candidate as the file would have it, set it.
+	NoOwnState bool
 }
 
 // Guidance says what to change in a design: the feasible range and the
@@ -118,6 +123,8 @@ type guider struct {
 	// the state its own liquid column gives it under saturation_state
 	// auto.
 	own flow.Options
+	// noOwn is Options.NoOwnState.
+	noOwn bool
 	// plain counts the margins of the guidance (Options.Margins), the
 	// charge margin as written among them; recharged counts, instead of
 	// the charge margin, whether some charge suits every case.
@@ -197,7 +204,7 @@ func Compute(ctx context.Context, m *lang.Model, opts Options) (*Guidance, error
 	// and its margins jump there, a step a range search can take for a
 	// limit. The ends found are then checked in their own states
 	// (stateNotes).
-	gd.own = gd.full
+	gd.own, gd.noOwn = gd.full, opts.NoOwnState
 	gd.own.Pinned = nil
 	if gd.full.Pinned == nil {
 		pins := flow.PinnedStates(base)
@@ -612,6 +619,9 @@ func (gd *guider) stateNote(p *lang.Param, x float64, res *flow.Result, keep fun
 	for _, k := range order {
 		what = append(what, fmt.Sprintf("the liquid column's shift of saturation in %s would have saturation_state auto take the %s state, not the %s state of the value as written",
 			strings.Join(by[k], ", "), k.auto, k.pinned))
+	}
+	if gd.noOwn {
+		return "here " + strings.Join(what, "; ")
 	}
 	s, _, _ := gd.at(p, x, mode{opts: &gd.own, keep: keep})
 	var own string

@@ -99,7 +99,24 @@ func TestRangeEndNotAtStateSwitch(t *testing.T) {
 	if r.Low.Value < sw && r.Low.Note != "" {
 		t.Errorf("the lower end %.4g m, below the switch, has a note: %q", r.Low.Value, r.Low.Note)
 	}
+	// In its own state (local) the loss reserve fails there, as it does
+	// just past the switch.
+	if r.High.Value > sw && !strings.Contains(r.High.Note, "in its own state loss reserve") {
+		t.Errorf("the upper end's note does not give its own state's loss reserve: %q", r.High.Note)
+	}
 	t.Logf("switch %.4g m; range %+v %+v", sw, *r.Low, *r.High)
+	// Without the own state's estimate the note only says it differs.
+	g2, err := Compute(context.Background(), m, Options{Flow: flow.Options{NoTilt: true}, NoOwnState: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	r2 := g2.Params[0].Range
+	if r2 == nil || !r2.Feasible || r2.High.Value != r.High.Value || !strings.Contains(r2.High.Note, "local state") || strings.Contains(r2.High.Note, "in its own state") {
+		t.Errorf("with NoOwnState: %+v", r2)
+	}
+	if g2.Estimates >= g.Estimates {
+		t.Errorf("NoOwnState ran %d estimates, the guidance with the own state %d", g2.Estimates, g.Estimates)
+	}
 }
 
 // TestFileStateNotPinned: a file that names its saturation state keeps

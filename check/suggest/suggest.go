@@ -123,12 +123,12 @@ func Fixes(ctx context.Context, m *lang.Model, d lang.Diagnostic, every *guide.G
 	}
 	var err error
 	if every == nil {
-		if every, err = guide.Compute(ctx, m, guide.Options{Flow: o.Flow, Workers: o.Workers}); err != nil {
+		if every, err = guide.Compute(ctx, m, guide.Options{Flow: o.Flow, Workers: o.Workers, NoOwnState: true}); err != nil {
 			return nil, err
 		}
 	}
 	cands := candidates(m, every, true)
-	own, err := guide.Compute(ctx, m, guide.Options{Flow: o.Flow, Workers: o.Workers, Margins: t.keep})
+	own, err := guide.Compute(ctx, m, guide.Options{Flow: o.Flow, Workers: o.Workers, Margins: t.keep, NoOwnState: true})
 	if err != nil {
 		return nil, err
 	}
@@ -222,7 +222,7 @@ func relChange(v, was float64) float64 {
 // chargeFor returns the charge of the loop that the variant v accepts in
 // every case, nearest to its charge, when there is one.
 func chargeFor(ctx context.Context, v *lang.Model, loop string, o Options) (candidate, bool) {
-	g, err := guide.Compute(ctx, v, guide.Options{Flow: o.Flow, Workers: o.Workers, Params: []string{}})
+	g, err := guide.Compute(ctx, v, guide.Options{Flow: o.Flow, Workers: o.Workers, Params: []string{}, NoOwnState: true})
 	if err != nil {
 		return candidate{}, false
 	}
