@@ -22,6 +22,7 @@ func init() {
 
 const estimateUsage = `Usage: circa estimate FILE [--case NAME] [--format text|json|csv] [--void M] [--friction M]
        [--sweep-pitch DEG,…] [--sweep-roll DEG,…] [--sweep-accel AX,AY,AZ;…]
+       [--saturation auto|local|single] [--cells N] [--no-tilt]
        [--set NAME=VALUE]... [--no-guidance] [--fluids] [--vary NAME=FROM..TO:N]...
 
 Estimates the steady circulation of each loop in FILE in every operating case:
