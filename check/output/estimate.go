@@ -44,6 +44,9 @@ func EstimateText(w io.Writer, res *flow.Result, env Envelopes) error {
 	for _, f := range res.Findings {
 		fmt.Fprintf(ew, "%s: %s\n", f.Severity, f.Message)
 	}
+	if len(res.Loops) == 0 {
+		fmt.Fprintln(ew, "\nthe file has no loop: no estimate was made")
+	}
 	for i := range res.Loops {
 		loopText(ew, &res.Loops[i], env)
 	}

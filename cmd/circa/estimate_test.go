@@ -155,3 +155,22 @@ func TestEstimateSweepAccel(t *testing.T) {
 		t.Errorf("bad --sweep-accel: exit %d, %q", code, errs)
 	}
 }
+
+// TestNoLoop: a file without a loop (a parts file, an empty file) says so
+// instead of printing cautions over nothing: the estimate in its text and
+// plot on standard error, with a failing status since no figure is drawn.
+func TestNoLoop(t *testing.T) {
+	file := filepath.Join(t.TempDir(), "parts.loop")
+	if err := os.WriteFile(file, []byte("part tube { bore 10 mm }\n"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	code, out, errs := runEstimateCmd(t, file, "--no-guidance")
+	if code != exitOK || !strings.Contains(out, "the file has no loop: no estimate was made") {
+		t.Errorf("estimate of a file without a loop: %d %q %q", code, out, errs)
+	}
+	var pout, perr bytes.Buffer
+	code = run([]string{"plot", file, "--out", t.TempDir()}, strings.NewReader(""), &pout, &perr)
+	if code != exitFindings || pout.Len() != 0 || !strings.Contains(perr.String(), "has no loop: no figures") {
+		t.Errorf("plot of a file without a loop: %d %q %q", code, pout.String(), perr.String())
+	}
+}

@@ -10,6 +10,7 @@ import (
 	"strings"
 
 	"circa/check/flow"
+	"circa/check/output"
 	"circa/check/picture"
 )
 
@@ -82,6 +83,10 @@ func runPlot(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 	m, rc, ok := loadClean(file, "plot", "no figures", set, false, stderr)
 	if !ok {
 		return rc
+	}
+	if len(m.Loops) == 0 {
+		fmt.Fprintf(stderr, "circa plot: %s has no loop: no figures\n", output.Printable(file))
+		return exitFindings
 	}
 	if opts.Case != "" && m.Case(opts.Case) == nil {
 		var names []string
