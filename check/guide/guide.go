@@ -576,6 +576,9 @@ func (gd *guider) stateNotes(p *lang.Param, r *Range, checked [2]*flow.Result, k
 		go func() {
 			defer wg.Done()
 			b.Note = gd.stateNote(p, b.Value, checked[i], keep)
+			if b.Note != "" && !gd.noOwn {
+				b.Switch = gd.stateSwitch(p, b.Value)
+			}
 		}()
 	}
 	wg.Wait()
@@ -634,6 +637,44 @@ func (gd *guider) stateNote(p *lang.Param, x float64, res *flow.Result, keep fun
 		own = fmt.Sprintf("%s uses %.3g of its limit", s.Limit.Describe(), s.Use)
 	}
 	return "here " + strings.Join(what, "; ") + "; in its own state " + own
+}
+
+// switched reports whether a case of res, estimated in a pinned state,
+// would take another under saturation_state auto.
+func (gd *guider) switched(res *flow.Result) bool {
+	for _, l := range res.Loops {
+		if l.Methods.Saturation != "auto" {
+			continue
+		}
+		for _, c := range l.Cases {
+			if _, ok := gd.full.Pinned[flow.PinKey(l.Loop, c.Case)]; ok && !c.Grid && c.SatState != "" && c.AutoState() != c.SatState {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+// stateSwitch locates, by bisection between the value as written and the
+// end x where a case's state would differ, about where the first does
+// (to 1/1000 of the interval; the pinned estimates without the tilt
+// search, whose column shifts are those of the full one): past it the
+// range is the pinned state's. It returns x when an estimate fails.
+func (gd *guider) stateSwitch(p *lang.Param, x float64) float64 {
+	in, out := p.Value.SI, x
+	for range 10 {
+		mid := (in + out) / 2
+		_, _, res := gd.at(p, mid, mode{opts: &gd.fast})
+		if res == nil {
+			return x
+		}
+		if gd.switched(res) {
+			out = mid
+		} else {
+			in = mid
+		}
+	}
+	return out
 }
 
 // caseLabel names a loop's case for a note ("C of loop L" when the

@@ -105,6 +105,9 @@ func TestRangeEndNotAtStateSwitch(t *testing.T) {
 		t.Errorf("the upper end's note does not give its own state's loss reserve: %q", r.High.Note)
 	}
 	t.Logf("switch %.4g m; range %+v %+v", sw, *r.Low, *r.High)
+	if r.High.Value > sw && math.Abs(r.High.Switch-sw) > 0.01*(r.High.Value-0.15) {
+		t.Errorf("the upper end locates the switch at %.4g m, the column shift at %.4g m", r.High.Switch, sw)
+	}
 	// Without the own state's estimate the note only says it differs.
 	g2, err := Compute(context.Background(), m, Options{Flow: flow.Options{NoTilt: true}, NoOwnState: true})
 	if err != nil {

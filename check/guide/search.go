@@ -120,6 +120,10 @@ type Bound struct {
 	// saturation state than its own liquid column would choose at this
 	// value (saturation_state auto), and what the value gives in its own.
 	Note string `json:"saturation_note,omitempty"`
+	// Switch is, with a Note, about where between the value as written
+	// and this end the first case's own column would switch its state
+	// (SI; 0 when not located): the range past it is the pinned state's.
+	Switch float64 `json:"saturation_switch,omitempty"`
 }
 
 // eval is the function searched: a sample of the estimate at a value.

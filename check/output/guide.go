@@ -162,7 +162,7 @@ func RangeText(r *guide.Range, unit string) string {
 	}
 	end := func(b *guide.Bound, side string) string {
 		if b.Note != "" {
-			return fmt.Sprintf("%s (%s: %s; note: %s)", v(b.Value), side, b.Reason, b.Note)
+			return fmt.Sprintf("%s (%s: %s; note: %s%s)", v(b.Value), side, b.Reason, b.Note, switchText(b, v))
 		}
 		return fmt.Sprintf("%s (%s: %s)", v(b.Value), side, b.Reason)
 	}
@@ -180,7 +180,7 @@ func RangeText(r *guide.Range, unit string) string {
 	// An unbounded end's note, which end() does not show.
 	for _, b := range []*guide.Bound{r.Low, r.High} {
 		if b.Unbounded && b.Note != "" {
-			s += fmt.Sprintf("; note at %s: %s", v(b.Value), b.Note)
+			s += fmt.Sprintf("; note at %s: %s%s", v(b.Value), b.Note, switchText(b, v))
 		}
 	}
 	if !r.Contains {
@@ -191,6 +191,14 @@ func RangeText(r *guide.Range, unit string) string {
 		}
 	}
 	return s
+}
+
+// switchText says where a range end's cases would switch saturation state.
+func switchText(b *guide.Bound, v func(float64) string) string {
+	if b.Switch == 0 {
+		return ""
+	}
+	return fmt.Sprintf("; the first would switch at about %s, beyond which the range assumes the state of the value as written", v(b.Switch))
 }
 
 // ValueIn formats an SI value in the unit it was written in, to three
