@@ -1,7 +1,9 @@
 package geom
 
 import (
+	"fmt"
 	"math"
+	"strings"
 	"testing"
 
 	"circa/lang"
@@ -230,5 +232,37 @@ func TestPlaceNil(t *testing.T) {
 	}
 	if _, ok := ThermalCentre(nil, nil, lang.Evaporator, nil); ok {
 		t.Error("centre of nothing")
+	}
+}
+
+// manyNodes returns a loop of n nodes, no coordinates, joined in pairs by
+// pipes of known rise: n/2 separate pieces, each placed from its own origin.
+func manyNodes(b *testing.B, n int) *lang.Loop {
+	b.Helper()
+	var sb strings.Builder
+	sb.WriteString("loop l {\n  fluid water\n")
+	for i := 0; i < n; i++ {
+		fmt.Fprintf(&sb, "  node n%d\n", i)
+	}
+	for i := 0; i+1 < n; i += 2 {
+		fmt.Fprintf(&sb, "  pipe p%d from n%d to n%d { length 1 m; rise 1 m; bore 8 mm }\n", i, i, i+1)
+	}
+	sb.WriteString("}\n")
+	m := lang.LoadSource("many.loop", []byte(sb.String()), nil)
+	if len(m.Loops) != 1 || len(m.Loops[0].Nodes) != n {
+		b.Fatalf("loops %d", len(m.Loops))
+	}
+	return m.Loops[0]
+}
+
+// Placement must grow about linearly with the number of nodes: every piece
+// without coordinates restarts the walk, and a restart must not revisit the
+// pieces already placed.
+func BenchmarkPlaceManyNodes(b *testing.B) {
+	l := manyNodes(b, 20000)
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		Place(l)
 	}
 }

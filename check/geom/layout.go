@@ -2,6 +2,7 @@ package geom
 
 import (
 	"math"
+	"slices"
 
 	"circa/lang"
 )
@@ -74,6 +75,7 @@ func Place(l *lang.Loop) *Layout {
 	}
 	placed := make([]bool, nn)
 	var queue []int
+	var reached []int // nodes placed by walk since it was last cleared
 	for i, n := range l.Nodes {
 		if n.At.Set {
 			lay.Pos[i] = finiteVec(Vec3{n.At.X, n.At.Y, n.At.Z})
@@ -100,6 +102,7 @@ func Place(l *lang.Loop) *Layout {
 					continue
 				}
 				placed[v] = true
+				reached = append(reached, v)
 				p := lay.Pos[u].Add(d)
 				if full && lay.Known[u] {
 					lay.Known[v] = true
@@ -114,25 +117,29 @@ func Place(l *lang.Loop) *Layout {
 			}
 		}
 	}
-	reseed := func() {
-		for i := range l.Nodes {
-			if placed[i] {
-				queue = append(queue, i)
-			}
+	walk(true)
+	for i := range l.Nodes {
+		if placed[i] {
+			queue = append(queue, i)
 		}
 	}
-	walk(true)
-	reseed()
 	walk(false)
 	for i := range l.Nodes {
 		if placed[i] {
 			continue
 		}
-		// A piece without coordinates: its first node is the origin.
+		// A piece without coordinates: its first node is the origin. The
+		// rise-only walk restarts from the nodes the full walk placed, in
+		// index order. Nodes of the pieces placed before are left out: each
+		// had all its components crossed already, so they would add nothing,
+		// and visiting them for every new piece would make Place quadratic
+		// in a loop of many unconnected nodes.
 		placed[i], lay.Known[i] = true, true
 		queue = append(queue[:0], i)
+		reached = append(reached[:0], i)
 		walk(true)
-		reseed()
+		slices.Sort(reached)
+		queue = append(queue[:0], reached...)
 		walk(false)
 	}
 	// Number the pieces.
