@@ -2,6 +2,7 @@ package lang_test
 
 import (
 	"bytes"
+	"fmt"
 	"testing"
 
 	"circa/lang"
@@ -82,5 +83,34 @@ func BenchmarkReparse5000(b *testing.B) {
 				lang.Reparse("bench.loop", old, next, m)
 			}
 		})
+	}
+}
+
+// The vapour-line walk on a loop whose riser is 20,000 pipes in series: it
+// must grow with the size of the loop, not with its square.
+func BenchmarkVapourNodesLongRiser(b *testing.B) {
+	const n = 20000
+	var src bytes.Buffer
+	src.WriteString("loop l {\n  fluid water\n")
+	for i := 0; i <= n+1; i++ {
+		fmt.Fprintf(&src, "  node n%d\n", i)
+	}
+	src.WriteString("  evaporator e from n0 to n1 { length 0.1 m; rise 0.1 m; bore 8 mm }\n")
+	for i := 1; i <= n; i++ {
+		fmt.Fprintf(&src, "  pipe p%d from n%d to n%d { length 0.1 m; rise 0.1 m; bore 8 mm }\n", i, i, i+1)
+	}
+	fmt.Fprintf(&src, "  condenser k from n%d to n0 { length 0.1 m; bore 8 mm }\n}\n", n+1)
+	m := lang.LoadSource("bench.loop", src.Bytes(), nil)
+	if len(m.Loops) != 1 {
+		b.Fatalf("%d loops", len(m.Loops))
+	}
+	l := m.Loops[0]
+	if v := l.VapourNodes(); !v[n/2] {
+		b.Fatalf("node n%d of the riser is not on the vapour line", n/2)
+	}
+	b.ReportAllocs()
+	b.ResetTimer()
+	for i := 0; i < b.N; i++ {
+		l.VapourNodes()
 	}
 }

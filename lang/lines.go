@@ -22,29 +22,29 @@ func (l *Loop) VapourNodes() []bool {
 			qb = append(qb, c.From.Index)
 		}
 	}
-	pass := func(c *Component) bool {
-		return c.Kind != Evaporator && c.Kind != Condenser && c.Kind != Reservoir && valid(c.From) && valid(c.To)
+	// The components that pass, by the node they leave and the node they
+	// enter, so that each walk is linear in the size of the loop.
+	succ, pred := make([][]int, n), make([][]int, n)
+	for _, c := range l.Components {
+		if c.Kind != Evaporator && c.Kind != Condenser && c.Kind != Reservoir && valid(c.From) && valid(c.To) {
+			succ[c.From.Index] = append(succ[c.From.Index], c.To.Index)
+			pred[c.To.Index] = append(pred[c.To.Index], c.From.Index)
+		}
 	}
-	for len(qf) > 0 {
-		u := qf[0]
-		qf = qf[1:]
-		for _, c := range l.Components {
-			if pass(c) && c.From.Index == u && !fwd[c.To.Index] {
-				fwd[c.To.Index] = true
-				qf = append(qf, c.To.Index)
+	spread := func(q []int, next [][]int, seen []bool) {
+		for len(q) > 0 {
+			u := q[0]
+			q = q[1:]
+			for _, v := range next[u] {
+				if !seen[v] {
+					seen[v] = true
+					q = append(q, v)
+				}
 			}
 		}
 	}
-	for len(qb) > 0 {
-		u := qb[0]
-		qb = qb[1:]
-		for _, c := range l.Components {
-			if pass(c) && c.To.Index == u && !bwd[c.From.Index] {
-				bwd[c.From.Index] = true
-				qb = append(qb, c.From.Index)
-			}
-		}
-	}
+	spread(qf, succ, fwd)
+	spread(qb, pred, bwd)
 	out := make([]bool, n)
 	for _, c := range l.Components {
 		if !valid(c.From) || !valid(c.To) {
