@@ -151,7 +151,7 @@ func SARIF(w io.Writer, fs []Finding, problems ...Problem) error {
 		d := f.Diagnostic
 		i, ok := index[d.Rule]
 		if !ok {
-			i = -1
+			i = -1 // SARIF's "no rule of the driver's": index 0 would name another rule
 		}
 		res := sarifResult{RuleID: d.Rule, RuleIndex: i, Level: sarifLevel(d.Severity), Message: sarifText{d.Message()},
 			Locations: []sarifLocation{{PhysicalLocation: sarifPhysical{sarifArtifact{sarifURI(d.Loc.File)}, sregion(f.Model, d.Loc)}}}}
@@ -184,10 +184,6 @@ func SARIF(w io.Writer, fs []Finding, problems ...Problem) error {
 			if len(sf.ArtifactChanges) > 0 {
 				res.Fixes = append(res.Fixes, sf)
 			}
-		}
-		if i < 0 {
-			res.RuleIndex = 0
-			res.RuleID = d.Rule
 		}
 		results = append(results, res)
 	}
