@@ -467,7 +467,7 @@ func (gd *guider) rangeOf(p *lang.Param, ax axis, sens []Sensitivity, s0, f0 Sam
 		}
 	}
 	if r.Feasible && gd.full.Pinned != nil {
-		gd.stateNotes(p, &r, checked, keep)
+		gd.stateNotes(p, ax, &r, checked, keep)
 	}
 	r.Use, r.Limit, r.Stop = s0.Use, s0.Limit, ""
 	if s0.Stop != nil {
@@ -567,31 +567,107 @@ func unitScale(unit string) float64 {
 // stateNotes notes on each end of the feasible range r where a case's own
 // liquid column would, under saturation_state auto, have it estimated in
 // another saturation state than the pinned one of the design as written,
-// and what the end gives in its own state.
+// and what the end gives in its own state. Where a margin fails there in
+// its own state, the end is searched again beyond the switch in the
+// variants' own states (beyond).
 // checked are the ends' full estimates when the search has them.
-func (gd *guider) stateNotes(p *lang.Param, r *Range, checked [2]*flow.Result, keep func(Where) bool) {
+func (gd *guider) stateNotes(p *lang.Param, ax axis, r *Range, checked [2]*flow.Result, keep func(Where) bool) {
 	var wg sync.WaitGroup
 	for i, b := range []*Bound{r.Low, r.High} {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
-			b.Note = gd.stateNote(p, b.Value, checked[i], keep)
-			if b.Note != "" && !gd.noOwn {
-				b.Switch = gd.stateSwitch(p, b.Value)
+			var own Sample
+			var state string
+			b.Note, own, state = gd.stateNote(p, b.Value, checked[i], keep)
+			if b.Note == "" || gd.noOwn {
+				return
+			}
+			var last float64
+			last, b.Switch = gd.stateSwitch(p, b.Value)
+			if !own.Feasible() && b.Switch != b.Value {
+				gd.beyond(p, ax, 2*i-1, b, own, state, last, keep)
 			}
 		}()
 	}
 	wg.Wait()
 }
 
+// ownSteps is how many equal steps (in search coordinates) the search
+// beyond a state switch takes from the switch toward the end before
+// closing the bracket by Brent's method: with the bracket's tolerance this
+// keeps an end to about two dozen estimates.
+const ownSteps = 6
+
+// beyond searches again the end b on side dir (−1 low, +1 high), whose
+// own-state estimate end fails, in the variants' own saturation states
+// (the unpinned estimate) from the switch b.Switch outward: the pinned
+// search's end past the switch assumes a state the variants' own liquid
+// column would not choose, and a limit they meet in their own is a real
+// one. Below the switch every variant's own state is the pinned one, so
+// the range there is the pinned search's. It steps from the switch toward
+// b.Value to the first infeasible own-state value and closes the bracket
+// by Brent's method; where the own state fails just past the switch, the
+// end is the switch. state is the state the end's cases would take.
+func (gd *guider) beyond(p *lang.Param, ax axis, dir int, b *Bound, end Sample, state string, last float64, keep func(Where) bool) {
+	f := func(x float64) Sample { s, _, _ := gd.at(p, x, mode{opts: &gd.own, keep: keep}); return s }
+	u0, u1 := ax.coord(b.Switch), ax.coord(b.Value)
+	in, inU := f(b.Switch), u0
+	if !in.Feasible() {
+		// The last value found before the switch: its own state there
+		// is the pinned one, in which the range holds; between it and
+		// the switch the own-state limit is closed to the tolerance.
+		nb := boundOf(Sample{X: last}, in)
+		if pre := f(last); pre.Feasible() {
+			if lo, hi, ok := refine(gd.ctx, f, ax, dir, ax.coord(last), u0, pre, in); ok {
+				nb, in = boundOf(lo, hi), hi
+			}
+		}
+		nb.Switch, nb.Own = b.Switch, true
+		nb.Reason += fmt.Sprintf(" in the %s state just past the switch of saturation state", state)
+		what := "there is no usable estimate"
+		if in.Stop == nil {
+			what = fmt.Sprintf("%s uses %.3g of its limit", in.Limit.Describe(), in.Use)
+		}
+		nb.Note = fmt.Sprintf("the range ends at the switch of saturation state: just past it the variants' own liquid column has saturation_state auto take the %s state, in which %s", state, what)
+		*b = nb
+		return
+	}
+	out, outU := end, u1
+	for k := 1; k < ownSteps; k++ {
+		u := u0 + (u1-u0)*float64(k)/ownSteps
+		s := f(ax.at(u, dir))
+		if !s.Feasible() {
+			out, outU = s, u
+			break
+		}
+		in, inU = s, u
+	}
+	lo, hi, ok := refine(gd.ctx, f, ax, dir, inU, outU, in, out)
+	if !ok {
+		return
+	}
+	nb := boundOf(lo, hi)
+	nb.Switch, nb.Own = b.Switch, true
+	nb.Reason += fmt.Sprintf(" in the %s state the variants take beyond the switch of saturation state", state)
+	note, _, _ := gd.stateNote(p, lo.X, nil, keep)
+	if note == "" {
+		note = "here every case keeps the state of the value as written"
+	}
+	nb.Note = note + fmt.Sprintf("; the range beyond the switch follows the %s state, each variant's own", state)
+	*b = nb
+}
+
 // stateNote is the note on one end at x ("" when every case keeps its
-// state there); res is the end's full estimate (nil: estimated here).
-func (gd *guider) stateNote(p *lang.Param, x float64, res *flow.Result, keep func(Where) bool) string {
+// state there), the end's own-state sample (when estimated) and the state
+// the first changing case would take; res is the end's full estimate (nil:
+// estimated here).
+func (gd *guider) stateNote(p *lang.Param, x float64, res *flow.Result, keep func(Where) bool) (string, Sample, string) {
 	if res == nil {
 		_, _, res = gd.at(p, x, mode{opts: &gd.full, keep: keep})
 	}
 	if res == nil {
-		return ""
+		return "", Sample{}, ""
 	}
 	// The cases that would change, grouped by the change.
 	type change struct{ auto, pinned string }
@@ -616,7 +692,7 @@ func (gd *guider) stateNote(p *lang.Param, x float64, res *flow.Result, keep fun
 		}
 	}
 	if len(order) == 0 {
-		return ""
+		return "", Sample{}, ""
 	}
 	var what []string
 	for _, k := range order {
@@ -624,7 +700,7 @@ func (gd *guider) stateNote(p *lang.Param, x float64, res *flow.Result, keep fun
 			strings.Join(by[k], ", "), k.auto, k.pinned))
 	}
 	if gd.noOwn {
-		return "here " + strings.Join(what, "; ")
+		return "here " + strings.Join(what, "; "), Sample{}, order[0].auto
 	}
 	s, _, _ := gd.at(p, x, mode{opts: &gd.own, keep: keep})
 	var own string
@@ -636,7 +712,7 @@ func (gd *guider) stateNote(p *lang.Param, x float64, res *flow.Result, keep fun
 	default:
 		own = fmt.Sprintf("%s uses %.3g of its limit", s.Limit.Describe(), s.Use)
 	}
-	return "here " + strings.Join(what, "; ") + "; in its own state " + own
+	return "here " + strings.Join(what, "; ") + "; in its own state " + own, s, order[0].auto
 }
 
 // switched reports whether a case of res, estimated in a pinned state,
@@ -659,14 +735,15 @@ func (gd *guider) switched(res *flow.Result) bool {
 // end x where a case's state would differ, about where the first does
 // (to 1/1000 of the interval; the pinned estimates without the tilt
 // search, whose column shifts are those of the full one): past it the
-// range is the pinned state's. It returns x when an estimate fails.
-func (gd *guider) stateSwitch(p *lang.Param, x float64) float64 {
+// range is the pinned state's. It returns the last value found before the
+// switch and the first past it; x, x when an estimate fails.
+func (gd *guider) stateSwitch(p *lang.Param, x float64) (float64, float64) {
 	in, out := p.Value.SI, x
 	for range 10 {
 		mid := (in + out) / 2
 		_, _, res := gd.at(p, mid, mode{opts: &gd.fast})
 		if res == nil {
-			return x
+			return x, x
 		}
 		if gd.switched(res) {
 			out = mid
@@ -674,7 +751,7 @@ func (gd *guider) stateSwitch(p *lang.Param, x float64) float64 {
 			in = mid
 		}
 	}
-	return out
+	return in, out
 }
 
 // caseLabel names a loop's case for a note ("C of loop L" when the

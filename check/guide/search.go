@@ -72,6 +72,15 @@ func (a axis) at(u float64, dir int) float64 {
 	return a.x0 * math.Exp(s*u)
 }
 
+// coord is the search coordinate of the value x, on whichever side of x0
+// it lies (x of x0's sign when x0 is nonzero).
+func (a axis) coord(x float64) float64 {
+	if a.x0 == 0 {
+		return math.Abs(x) / a.scale
+	}
+	return math.Abs(math.Log(x / a.x0))
+}
+
 // steps are the search coordinates tried outward from the current value: a
 // value grows by 10 %, 25 %, 60 %, then by about 25 % a step (ten a decade)
 // up to tenfold, then a hundredfold (or shrinks as much; about zero, moves
@@ -124,6 +133,11 @@ type Bound struct {
 	// and this end the first case's own column would switch its state
 	// (SI; 0 when not located): the range past it is the pinned state's.
 	Switch float64 `json:"saturation_switch,omitempty"`
+	// Own is true when the range beyond Switch was searched in the
+	// variants' own saturation states: the pinned state's end there failed
+	// a margin in its own, so this end, its limit and case are the own
+	// state's (at Switch itself when the own state fails just past it).
+	Own bool `json:"saturation_own,omitempty"`
 }
 
 // eval is the function searched: a sample of the estimate at a value.

@@ -198,6 +198,9 @@ func switchText(b *guide.Bound, v func(float64) string) string {
 	if b.Switch == 0 {
 		return ""
 	}
+	if b.Own {
+		return fmt.Sprintf("; the first would switch at about %s", v(b.Switch))
+	}
 	return fmt.Sprintf("; the first would switch at about %s, beyond which the range assumes the state of the value as written", v(b.Switch))
 }
 
