@@ -60,13 +60,20 @@ func loopCentres(c *Context, cs *lang.Case) (centres, bool) {
 			out.partial = true
 		}
 	}
-	heat := func(comp *lang.Component) float64 {
-		if cs != nil {
-			for _, h := range cs.Heat {
-				if h.Comp == comp && h.Value.Set {
-					return h.Value.SI
-				}
+	// The case's heat loads by component, the first one set for each, looked
+	// up once: a scan of the case per evaporator is quadratic in a loop of
+	// many parallel evaporators.
+	caseHeat := map[*lang.Component]float64{}
+	if cs != nil {
+		for _, h := range cs.Heat {
+			if _, dup := caseHeat[h.Comp]; h.Value.Set && !dup {
+				caseHeat[h.Comp] = h.Value.SI
 			}
+		}
+	}
+	heat := func(comp *lang.Component) float64 {
+		if q, ok := caseHeat[comp]; ok {
+			return q
 		}
 		return comp.Heat.SI
 	}
