@@ -107,22 +107,22 @@ func (p *prepared) saturationState(s *state, cr *CaseResult, derived bool) {
 	}
 }
 
-// columnShift is the largest rise of the saturation temperature, K, that
-// the hydrostatic head ρ_l·|b|·H of a liquid column gives at an evaporator
-// inlet, H the height along the body force from the highest condenser
-// outlet down to that inlet (0 without node positions or body force).
-func (p *prepared) columnShift(s *state) float64 {
+// columnTop gives the height of a node along the body force and the height
+// of the highest condenser outlet, from which the liquid columns above the
+// evaporator inlets are measured; ok is false without node positions, body
+// force or a placed condenser outlet.
+func (p *prepared) columnTop(s *state) (height func(*lang.Node) (float64, bool), top float64, ok bool) {
 	if p.lay == nil || !(s.bmag > 0) {
-		return 0
+		return nil, 0, false
 	}
 	up := s.b.Scale(-1 / s.bmag)
-	height := func(n *lang.Node) (float64, bool) {
+	height = func(n *lang.Node) (float64, bool) {
 		if n == nil || n.Index < 0 || n.Index >= len(p.lay.Pos) {
 			return 0, false
 		}
 		return p.lay.Pos[n.Index].Dot(up), true
 	}
-	top, ok := math.Inf(-1), false
+	top = math.Inf(-1)
 	for _, cp := range s.net.comps {
 		if cp.kind != lang.Condenser {
 			continue
@@ -131,6 +131,15 @@ func (p *prepared) columnShift(s *state) float64 {
 			top, ok = h, true
 		}
 	}
+	return height, top, ok
+}
+
+// columnShift is the largest rise of the saturation temperature, K, that
+// the hydrostatic head ρ_l·|b|·H of a liquid column gives at an evaporator
+// inlet, H the height along the body force from the highest condenser
+// outlet down to that inlet (0 without node positions or body force).
+func (p *prepared) columnShift(s *state) float64 {
+	height, top, ok := p.columnTop(s)
 	if !ok {
 		return 0
 	}

@@ -1,10 +1,6 @@
 package flow
 
-import (
-	"math"
-
-	"circa/lang"
-)
+import "circa/lang"
 
 // Cautions about the saturated state itself, found before any flow is
 // solved: operation close to the critical point, and a liquid column tall
@@ -36,25 +32,7 @@ func (p *prepared) phaseCautions(s *state, cr *CaseResult) {
 // temperature by more than GeyserSubcool: the liquid arrives subcooled by
 // that much, heats without boiling, then flashes in bursts.
 func (p *prepared) geyser(s *state, cr *CaseResult) {
-	if p.lay == nil || !(s.bmag > 0) {
-		return
-	}
-	up := s.b.Scale(-1 / s.bmag)
-	height := func(n *lang.Node) (float64, bool) {
-		if n == nil || n.Index < 0 || n.Index >= len(p.lay.Pos) {
-			return 0, false
-		}
-		return p.lay.Pos[n.Index].Dot(up), true
-	}
-	top, ok := math.Inf(-1), false
-	for _, cp := range s.net.comps {
-		if cp.kind != lang.Condenser {
-			continue
-		}
-		if h, k := height(cp.c.To); k && h > top {
-			top, ok = h, true
-		}
-	}
+	height, top, ok := p.columnTop(s)
 	if !ok {
 		return
 	}
