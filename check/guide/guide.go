@@ -121,8 +121,8 @@ type guider struct {
 	full, fast flow.Options
 	// own is full without the saturation states pinned: each variant in
 	// the state its own liquid column gives it under saturation_state
-	// auto.
-	own flow.Options
+	// auto; ownFast leaves out its tilt search, as fast does full's.
+	own, ownFast flow.Options
 	// noOwn is Options.NoOwnState.
 	noOwn bool
 	// plain counts the margins of the guidance (Options.Margins), the
@@ -206,6 +206,8 @@ func Compute(ctx context.Context, m *lang.Model, opts Options) (*Guidance, error
 	// (stateNotes).
 	gd.own, gd.noOwn = gd.full, opts.NoOwnState
 	gd.own.Pinned = nil
+	gd.ownFast = gd.own
+	gd.ownFast.NoTilt = true
 	if gd.full.Pinned == nil {
 		pins := flow.PinnedStates(base)
 		gd.full.Pinned, gd.fast.Pinned = pins, pins
@@ -586,7 +588,15 @@ func (gd *guider) stateNotes(p *lang.Param, ax axis, r *Range, checked [2]*flow.
 			var last float64
 			last, b.Switch = gd.stateSwitch(p, b.Value)
 			if !own.Feasible() && b.Switch != b.Value {
-				gd.beyond(p, ax, 2*i-1, b, own, state, last, keep)
+				// Searched without the tilt search, which only adds
+				// the tilt margin, and the end checked with it; where
+				// the check fails, searched again with it.
+				pinned := *b
+				gd.beyond(p, ax, 2*i-1, b, own, state, last, keep, &gd.ownFast)
+				if !b.Own || !gd.ownFeasible(p, b.Value, keep) {
+					*b = pinned
+					gd.beyond(p, ax, 2*i-1, b, own, state, last, keep, &gd.own)
+				}
 			}
 		}()
 	}
@@ -609,8 +619,8 @@ const ownSteps = 6
 // b.Value to the first infeasible own-state value and closes the bracket
 // by Brent's method; where the own state fails just past the switch, the
 // end is the switch. state is the state the end's cases would take.
-func (gd *guider) beyond(p *lang.Param, ax axis, dir int, b *Bound, end Sample, state string, last float64, keep func(Where) bool) {
-	f := func(x float64) Sample { s, _, _ := gd.at(p, x, mode{opts: &gd.own, keep: keep}); return s }
+func (gd *guider) beyond(p *lang.Param, ax axis, dir int, b *Bound, end Sample, state string, last float64, keep func(Where) bool, opts *flow.Options) {
+	f := func(x float64) Sample { s, _, _ := gd.at(p, x, mode{opts: opts, keep: keep}); return s }
 	u0, u1 := ax.coord(b.Switch), ax.coord(b.Value)
 	in, inU := f(b.Switch), u0
 	if !in.Feasible() {
@@ -656,6 +666,13 @@ func (gd *guider) beyond(p *lang.Param, ax axis, dir int, b *Bound, end Sample, 
 	}
 	nb.Note = note + fmt.Sprintf("; the range beyond the switch follows the %s state, each variant's own", state)
 	*b = nb
+}
+
+// ownFeasible reports whether p at x keeps every counted margin in the full
+// estimate of each variant's own saturation state.
+func (gd *guider) ownFeasible(p *lang.Param, x float64, keep func(Where) bool) bool {
+	s, _, _ := gd.at(p, x, mode{opts: &gd.own, keep: keep})
+	return s.Feasible()
 }
 
 // stateNote is the note on one end at x ("" when every case keeps its
