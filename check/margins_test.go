@@ -8,10 +8,9 @@ import (
 	"circa/lang"
 )
 
-// An overloaded evaporator gives an exit-quality finding at the component,
-// with the case and the written limit as related locations.
-func TestMarginFindings(t *testing.T) {
-	src := `
+// plateLoop is a small R1234yf loop of one plate evaporator whose load the
+// tests set in their cases.
+const plateLoop = `
 loop r {
   fluid R1234yf
   node a at (0, 0, 0) m
@@ -23,7 +22,12 @@ loop r {
   condenser coil from c to d { length 0.3 m; bore 10 mm; conductance 150 W/K; sink 25 degC }
   pipe down from d to a { length 1.5 m; run (0.3, 0, -1.3) m; bore 8 mm; loss 1 }
 }
-limits { exit_quality 0.1 }
+`
+
+// An overloaded evaporator gives an exit-quality finding at the component,
+// with the case and the written limit as related locations.
+func TestMarginFindings(t *testing.T) {
+	src := plateLoop + `limits { exit_quality 0.1 }
 case overload { heat plate 3 kW }
 `
 	m := lang.LoadSource("t.loop", []byte(src), lang.OSFS{})
@@ -183,19 +187,7 @@ func (f tableFS) ReadFile(p string) ([]byte, error) {
 // its step faster than the loop, point into the table at the row's time,
 // as well as at the profile statement and the case.
 func TestProfileTableRowLocations(t *testing.T) {
-	src := `
-loop r {
-  fluid R1234yf
-  node a at (0, 0, 0) m
-  node b at (0, 0, 0.3) m
-  node c at (0, 0, 1.3) m
-  node d at (-0.3, 0, 1.3) m
-  evaporator plate from a to b { length 0.3 m; bore 10 mm; wetted_area 0.01 m2 }
-  pipe riser from b to c { length 1 m; bore 12 mm; loss 1 }
-  condenser coil from c to d { length 0.3 m; bore 10 mm; conductance 150 W/K; sink 25 degC }
-  pipe down from d to a { length 1.5 m; run (0.3, 0, -1.3) m; bore 8 mm; loss 1 }
-}
-limits { exit_quality 0.45 }
+	src := plateLoop + `limits { exit_quality 0.45 }
 case overload {
   heat plate 3 kW
   profile "drive.csv"
