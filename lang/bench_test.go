@@ -3,6 +3,7 @@ package lang_test
 import (
 	"bytes"
 	"fmt"
+	"strings"
 	"testing"
 
 	"circa/lang"
@@ -112,5 +113,18 @@ func BenchmarkVapourNodesLongRiser(b *testing.B) {
 	b.ResetTimer()
 	for i := 0; i < b.N; i++ {
 		l.VapourNodes()
+	}
+}
+
+// BenchmarkParseLineOfBraces parses one line of 20,000 '{': each is a bad
+// statement opening a block, and its explanation must not lex the rest of
+// the line again (that made such a line quadratic).
+func BenchmarkParseLineOfBraces(b *testing.B) {
+	src := []byte(strings.Repeat("{", 20000))
+	b.SetBytes(int64(len(src)))
+	for b.Loop() {
+		if f := lang.Parse("braces.loop", src); len(f.Errors) == 0 {
+			b.Fatal("no error")
+		}
 	}
 }

@@ -177,14 +177,20 @@ func (p *parser) next() *lexer.Token {
 // cursors of the lexer count from lexBase.
 func (p *parser) lexAt() *lexer.PeekingLexer {
 	end := p.cur
-	for p.toks[end].Type != TokNewline && p.toks[end].Type != TokEOF {
+	for p.toks[end].Type != TokNewline && p.toks[end].Type != TokEOF && !endsStmt(&p.toks[end]) {
 		end++
 	}
 	window := p.toks[p.cur : end+1]
-	if p.toks[end].Type == TokNewline {
+	switch t := p.toks[end]; {
+	case t.Type == TokNewline:
 		// Ends like the file would, after the newline.
-		nl := p.toks[end].Pos
-		window = append(window[:len(window):len(window)], lexer.EOFToken(lexer.Position{Offset: nl.Offset + 1, Line: nl.Line + 1, Column: 1}))
+		window = append(window[:len(window):len(window)], lexer.EOFToken(lexer.Position{Offset: t.Pos.Offset + 1, Line: t.Pos.Line + 1, Column: 1}))
+	case t.Type != TokEOF:
+		// No statement or part reads past its ';', '{' or '}', so the
+		// window stops there: a line of many bad statements (a line of
+		// '{', say) would otherwise lex the rest of the line for each,
+		// quadratic in the line's length.
+		window = append(window[:len(window):len(window)], lexer.EOFToken(lexer.Position{Offset: t.Pos.Offset + len(t.Value), Line: t.Pos.Line, Column: t.Pos.Column + len(t.Value)}))
 	}
 	p.lexBase = p.cur
 	lex, err := lexer.Upgrade(&sliceLexer{toks: window}, TokSpace, TokComment)
@@ -193,6 +199,11 @@ func (p *parser) lexAt() *lexer.PeekingLexer {
 		lex, _ = lexer.Upgrade(&sliceLexer{toks: p.toks[len(p.toks)-1:]})
 	}
 	return lex
+}
+
+// endsStmt reports whether t ends a statement within its line.
+func endsStmt(t *lexer.Token) bool {
+	return t.Type == TokPunct && (t.Value == ";" || t.Value == "{" || t.Value == "}")
 }
 
 func (p *parser) run() {
