@@ -159,14 +159,16 @@ func isMarginWarning(d lspDiag) bool {
 // on their margin warnings that, applied in the editor, makes the warning
 // go away when the file is checked again.
 //
-// tilt.loop is pitched 42° towards its condenser, 9.3° short of where the
-// condenser's centre drops to the evaporator's level (atan(0.5 m / 0.4 m)
-// = 51.3°), inside its 10° tilt margin; a higher condenser moves that
-// attitude away. Its tilt-margin warning gets a fix checked with the tilt
+// tilt.loop, a copy of testdata/flow/tilt-cart.loop, is pitched inside
+// its tilt margin; its tilt-margin warning gets a fix checked with the tilt
 // search.
 func TestGuidedQuickFixClearsWarning(t *testing.T) {
 	tilt := filepath.Join(t.TempDir(), "tilt.loop")
-	if err := os.WriteFile(tilt, []byte(tiltFixLoop), 0o644); err != nil {
+	src, err := os.ReadFile("../testdata/flow/tilt-cart.loop")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(tilt, src, 0o644); err != nil {
 		t.Fatal(err)
 	}
 	for _, path := range []string{"../testdata/examples/forestry-inverter.loop", "../testdata/examples/ferry-cabinet.loop", tilt} {
@@ -235,30 +237,6 @@ func TestGuidedQuickFixClearsWarning(t *testing.T) {
 		})
 	}
 }
-
-const tiltFixLoop = `param lift = 0.5 m
-
-loop cart {
-  fluid R1233zd(E)
-  node base at (0, 0, 0) m
-  node top at (0, 0, 0.3 m)
-  node coil_top at (0.4 m, 0, lift + 0.3 m)
-  node coil_bottom at (0.4 m, 0, lift)
-  evaporator plate from base to top { bore 8 mm; length 0.3 m; rise 0.3 m; heat 200 W }
-  pipe riser from top to coil_top { bore 8.2 mm; length 1.4 m }
-  condenser coil from coil_top to coil_bottom { bore 8.2 mm; length 0.9 m; conductance 95 W/K; sink 30 °C }
-  pipe downcomer from coil_bottom to base { bore 8.2 mm; length 1.45 m }
-}
-
-limits {
-  tilt_margin 10 deg
-}
-
-case tipped {
-  heat plate 200 W
-  pitch -42 deg
-}
-`
 
 // Hover on a parameter shows its feasible range as circa estimate prints
 // it and its biggest levers; with rangeHints on, an inlay hint after the

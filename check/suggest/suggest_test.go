@@ -3,6 +3,7 @@ package suggest
 import (
 	"context"
 	"math"
+	"os"
 	"path/filepath"
 	"sort"
 	"testing"
@@ -155,40 +156,26 @@ func TestIsMargin(t *testing.T) {
 	}
 }
 
-// tiltLoop circulates in case tipped, pitched 42° towards its condenser,
-// 9.3° short of where the condenser's centre drops to the evaporator's
-// level (atan(0.5 m / 0.4 m) = 51.3°): inside the 10° tilt margin. A
-// higher condenser (lift) moves that attitude away.
-const tiltLoop = `param lift = 0.5 m
+// tiltCart is the loop of testdata/flow/tilt-cart.loop: its case tipped
+// lies inside its tilt margin, which a higher condenser (lift) clears.
+const tiltCart = "../../testdata/flow/tilt-cart.loop"
 
-loop cart {
-  fluid R1233zd(E)
-  node base at (0, 0, 0) m
-  node top at (0, 0, 0.3 m)
-  node coil_top at (0.4 m, 0, lift + 0.3 m)
-  node coil_bottom at (0.4 m, 0, lift)
-  evaporator plate from base to top { bore 8 mm; length 0.3 m; rise 0.3 m; heat 200 W }
-  pipe riser from top to coil_top { bore 8.2 mm; length 1.4 m }
-  condenser coil from coil_top to coil_bottom { bore 8.2 mm; length 0.9 m; conductance 95 W/K; sink 30 °C }
-  pipe downcomer from coil_bottom to base { bore 8.2 mm; length 1.45 m }
+// tiltLoop is tiltCart's text.
+func tiltLoop(t *testing.T) []byte {
+	t.Helper()
+	src, err := os.ReadFile(tiltCart)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return src
 }
-
-limits {
-  tilt_margin 10 deg
-}
-
-case tipped {
-  heat plate 200 W
-  pitch -42 deg
-}
-`
 
 // A tilt-margin warning gets a fix, found and checked with the tilt
 // search: written into the file, checked again in full, the warning is
 // gone and no error has come.
 func TestTiltFix(t *testing.T) {
 	const path = "tilt.loop"
-	fsys := memFS{path: []byte(tiltLoop)}
+	fsys := memFS{path: tiltLoop(t)}
 	m := lang.Load(path, fsys)
 	var tilt *lang.Diagnostic
 	for _, d := range check.Run(m, check.Options{}) {
@@ -213,7 +200,7 @@ func TestTiltFix(t *testing.T) {
 	}
 	for _, f := range fixes {
 		t.Logf("%s", f.Title)
-		fs2 := memFS{path: []byte(tiltLoop)}
+		fs2 := memFS{path: tiltLoop(t)}
 		apply(t, fs2, f)
 		for _, d := range check.Run(lang.Load(path, fs2), check.Options{}) {
 			if d.Rule == "margin-tilt" && d.Severity <= lang.Warning || d.Severity == lang.Error {
