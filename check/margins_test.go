@@ -173,16 +173,6 @@ func TestMarginTexts(t *testing.T) {
 	}
 }
 
-// tableFS serves one profile table from memory.
-type tableFS map[string][]byte
-
-func (f tableFS) ReadFile(p string) ([]byte, error) {
-	if b, ok := f[p]; ok {
-		return b, nil
-	}
-	return lang.OSFS{}.ReadFile(p)
-}
-
 // A profile read from a CSV file: a finding at one of its instants, and
 // its step faster than the loop, point into the table at the row's time,
 // as well as at the profile statement and the case.
@@ -194,7 +184,7 @@ case overload {
 }
 `
 	table := "time (s), pitch (deg)\n0, 0\n30, 0\n30.01, 60\n60, 60\n"
-	m := lang.LoadSource("t.loop", []byte(src), tableFS{"drive.csv": []byte(table)})
+	m := lang.LoadSource("t.loop", []byte(src), lang.Overlay{"drive.csv": []byte(table)})
 	if len(m.Diags) != 0 {
 		t.Fatalf("findings: %v", m.Diags)
 	}

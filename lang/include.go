@@ -20,6 +20,18 @@ type FS interface {
 // OSFS reads from the operating system.
 type OSFS struct{}
 
+// Overlay reads the files it holds, by path, from memory and every other
+// file from disk, as unsaved text shadows the file it came from.
+type Overlay map[string][]byte
+
+// ReadFile returns the held text of path, or reads it as OSFS does.
+func (o Overlay) ReadFile(path string) ([]byte, error) {
+	if b, ok := o[path]; ok {
+		return b, nil
+	}
+	return OSFS{}.ReadFile(path)
+}
+
 // ReadFile reads a regular file from disk, refusing devices, FIFOs and
 // files over MaxFileSize (see textfile.Read), without a leading byte-order
 // mark.

@@ -10,17 +10,6 @@ import (
 	"circa/lang"
 )
 
-// tableFS reads the files of the examples from disk and one profile table
-// from memory.
-type tableFS map[string][]byte
-
-func (f tableFS) ReadFile(path string) ([]byte, error) {
-	if b, ok := f[path]; ok {
-		return b, nil
-	}
-	return lang.OSFS{}.ReadFile(path)
-}
-
 // profileTable writes a drive of n rows half a second apart: slow swings
 // of pitch, braking and curves, logged at twice the rate they change, and
 // the heading (yaw), which turns at every row.
@@ -51,7 +40,7 @@ func tramWithTable(tb testing.TB, n int) *lang.Model {
 		tb.Fatal("no profile block in the tram example")
 	}
 	s = s[:i] + "  profile \"drive.csv\"\n" + s[i+j+4:]
-	m := lang.LoadSource(path, []byte(s), tableFS{"../../testdata/examples/drive.csv": profileTable(n)})
+	m := lang.LoadSource(path, []byte(s), lang.Overlay{"../../testdata/examples/drive.csv": profileTable(n)})
 	for _, d := range m.Diags {
 		if d.Severity == lang.Error {
 			tb.Fatal(d.Message())
@@ -123,7 +112,7 @@ func TestProfileWarmMatchesCold(t *testing.T) {
 		fmt.Sscanf(strings.ReplaceAll(r, ",", ""), "%g %g %g %g %g", &tm, &yaw, &pitch, &ax, &ay)
 		s += fmt.Sprintf("case row%d { heat cold_plate 1.6 kW; sink 35 °C; yaw %g deg; pitch %g deg; accel (%g, %g, 0) gn }\n", k, yaw, pitch, ax, ay)
 	}
-	m := lang.LoadSource(path, []byte(s), tableFS{"../../testdata/examples/drive.csv": []byte(table)})
+	m := lang.LoadSource(path, []byte(s), lang.Overlay{"../../testdata/examples/drive.csv": []byte(table)})
 	for _, d := range m.Diags {
 		if d.Severity == lang.Error {
 			t.Fatal(d.Message())

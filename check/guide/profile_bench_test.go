@@ -14,16 +14,6 @@ import (
 	"circa/lang"
 )
 
-// tableFS reads the examples from disk and one profile table from memory.
-type tableFS map[string][]byte
-
-func (f tableFS) ReadFile(path string) ([]byte, error) {
-	if b, ok := f[path]; ok {
-		return b, nil
-	}
-	return lang.OSFS{}.ReadFile(path)
-}
-
 // BenchmarkProfile2000 is the estimate and the guidance of the tram
 // example with its depot approach read from a 2,000-row table.
 func BenchmarkProfile2000(b *testing.B) {
@@ -42,7 +32,7 @@ func BenchmarkProfile2000(b *testing.B) {
 		x := float64(i) * 0.5
 		fmt.Fprintf(&t, "%g, %.4f, %.4f, %.4f\n", x, -2.3*math.Sin(x/40), -0.08*math.Sin(x/25), 0.06*math.Sin(x/30))
 	}
-	m := lang.LoadSource(path, []byte(s), tableFS{"../../testdata/examples/drive.csv": []byte(t.String())})
+	m := lang.LoadSource(path, []byte(s), lang.Overlay{"../../testdata/examples/drive.csv": []byte(t.String())})
 	for _, d := range m.Diags {
 		if d.Severity == lang.Error {
 			b.Fatal(d.Message())

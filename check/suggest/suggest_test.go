@@ -13,18 +13,8 @@ import (
 	"circa/lang"
 )
 
-// memFS serves the shipped examples with some files replaced.
-type memFS map[string][]byte
-
-func (m memFS) ReadFile(p string) ([]byte, error) {
-	if b, ok := m[p]; ok {
-		return b, nil
-	}
-	return lang.OSFS{}.ReadFile(p)
-}
-
 // apply writes a fix's edits into the texts of fsys.
-func apply(t *testing.T, fsys memFS, f lang.Fix) {
+func apply(t *testing.T, fsys lang.Overlay, f lang.Fix) {
 	t.Helper()
 	byFile := map[string][]lang.Edit{}
 	for _, e := range f.Edits {
@@ -66,7 +56,7 @@ func TestExampleFixes(t *testing.T) {
 			t.Logf("%s: %s: %d fixes", name, d.Message(), len(fixes))
 			for _, f := range fixes {
 				t.Logf("  %s", f.Title)
-				fsys := memFS{}
+				fsys := lang.Overlay{}
 				apply(t, fsys, f)
 				src, _ := fsys.ReadFile(path)
 				m2 := lang.LoadSource(path, src, fsys)
@@ -175,7 +165,7 @@ func tiltLoop(t *testing.T) []byte {
 // gone and no error has come.
 func TestTiltFix(t *testing.T) {
 	const path = "tilt.loop"
-	fsys := memFS{path: tiltLoop(t)}
+	fsys := lang.Overlay{path: tiltLoop(t)}
 	m := lang.Load(path, fsys)
 	var tilt *lang.Diagnostic
 	for _, d := range check.Run(m, check.Options{}) {
@@ -200,7 +190,7 @@ func TestTiltFix(t *testing.T) {
 	}
 	for _, f := range fixes {
 		t.Logf("%s", f.Title)
-		fs2 := memFS{path: tiltLoop(t)}
+		fs2 := lang.Overlay{path: tiltLoop(t)}
 		apply(t, fs2, f)
 		for _, d := range check.Run(lang.Load(path, fs2), check.Options{}) {
 			if d.Rule == "margin-tilt" && d.Severity <= lang.Warning || d.Severity == lang.Error {
