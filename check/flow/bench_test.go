@@ -1,6 +1,7 @@
 package flow
 
 import (
+	"fmt"
 	"math"
 	"syscall"
 	"testing"
@@ -147,4 +148,29 @@ func BenchmarkNetwork5000(b *testing.B) {
 		benchOnce(b, m, Options{})
 	}
 	cpuPerOp(b, u0)
+}
+
+// BenchmarkNetworkWide is one case of networks of many parallel evaporator
+// branches with unequal loads, ten components per branch, at growing
+// sizes: the estimate's cost against the number of independent cycles
+// (target: near-linear; 20,000 components and 2,000 cycles under 1 s).
+func BenchmarkNetworkWide(b *testing.B) {
+	for _, cycles := range []int{200, 500, 2000} {
+		b.Run(fmt.Sprintf("%dx%d", 10*cycles, cycles), func(b *testing.B) {
+			m := benchModel(b, 10*cycles, cycles)
+			unequalB(m)
+			opts := Options{Case: m.Cases[0].Name, NoTilt: true, Workers: 1}
+			r := benchOnce(b, m, opts)
+			c := r.Loops[0].Cases[0]
+			if !c.Circulates {
+				b.Fatalf("network does not circulate: %s", c.Reason)
+			}
+			b.ReportMetric(float64(c.Iterations), "newton-steps")
+			u0 := cpuTime()
+			for b.Loop() {
+				benchOnce(b, m, opts)
+			}
+			cpuPerOp(b, u0)
+		})
+	}
 }

@@ -3,6 +3,7 @@ package flow
 import (
 	"fmt"
 	"math"
+	"slices"
 
 	"circa/check/geom"
 	"circa/lang"
@@ -45,7 +46,14 @@ type network struct {
 	resVap   []bool // by res index: hung from a vapour-line node, so it holds no liquid
 	branches []branch
 	nj       int         // junctions
-	cycles   [][]float64 // cycle k: coefficient of cycle flow k in each branch flow
+	// cycles lists cycle k's branches with the coefficient of cycle flow k
+	// in each branch flow, by ascending branch; byBranch lists the same
+	// coefficients by branch, by ascending cycle; chord is the branch of
+	// each cycle that no other cycle passes (coefficient 1), whose flow is
+	// the cycle's flow.
+	cycles   [][]term
+	byBranch [][]term
+	chord    []int
 	ring     bool        // a single loop without junctions
 	conds    []int       // comps indices of the condensers
 	// dispU are the distinct displacements of the components, dlenU their
@@ -274,16 +282,28 @@ func buildNetwork(l *lang.Loop, lay *geom.Layout) (*network, []Finding) {
 		n.dispIdx[ci] = u
 	}
 	n.collapseChains()
-	n.cycles = fundamentalCycles(n.nj, n.branches)
+	n.cycles, n.chord = fundamentalCycles(n.nj, n.branches)
+	n.byBranch = make([][]term, len(n.branches))
+	for k, c := range n.cycles {
+		for _, t := range c {
+			n.byBranch[t.i] = append(n.byBranch[t.i], term{k, t.c})
+		}
+	}
 	if len(n.cycles) == 0 {
 		return nil, []Finding{{Rule: RuleGeometry, Severity: "error", Message: fmt.Sprintf("loop %s has no closed path to circulate round", l.Name)}}
 	}
 	return n, nil
 }
 
+// term is a nonzero coefficient c at index i of a sparse vector.
+type term struct {
+	i int
+	c float64
+}
+
 // fundamentalCycles returns the cycle basis of a spanning tree: one cycle per
-// branch outside the tree, as coefficients on every branch flow.
-func fundamentalCycles(nj int, bs []branch) [][]float64 {
+// branch outside the tree (its chord), as coefficients on the branch flows.
+func fundamentalCycles(nj int, bs []branch) ([][]term, []int) {
 	type edge struct{ b, other int }
 	adj := make([][]edge, nj)
 	for bi, b := range bs {
@@ -319,18 +339,27 @@ func fundamentalCycles(nj int, bs []branch) [][]float64 {
 	}
 	// pathUp adds coefficient s·(direction from u towards the root) of every
 	// tree branch on u's path up to ancestor a.
-	var cycles [][]float64
+	var cycles [][]term
+	var chords []int
+	c := make([]float64, len(bs)) // the cycle's coefficients, zero between cycles
+	var touched []int
+	add := func(bi int, v float64) {
+		if c[bi] == 0 {
+			touched = append(touched, bi)
+		}
+		c[bi] += v
+	}
 	for bi, b := range bs {
 		if inTree[bi] {
 			continue
 		}
-		c := make([]float64, len(bs))
-		c[bi] = 1
+		touched = touched[:0]
+		add(bi, 1)
 		// The cycle goes along b from b.from to b.to, then back through the
 		// tree from b.to to b.from.
 		u, v := b.to, b.from
 		for depth[u] > depth[v] {
-			c[parent[u]] += treeSign(bs, parent[u], u)
+			add(parent[u], treeSign(bs, parent[u], u))
 			u = up[u]
 		}
 		var tail []int
@@ -339,18 +368,27 @@ func fundamentalCycles(nj int, bs []branch) [][]float64 {
 			v = up[v]
 		}
 		for u != v {
-			c[parent[u]] += treeSign(bs, parent[u], u)
+			add(parent[u], treeSign(bs, parent[u], u))
 			u = up[u]
 			tail = append(tail, v)
 			v = up[v]
 		}
 		for _, w := range tail {
 			// Going down from up[w] to w.
-			c[parent[w]] -= treeSign(bs, parent[w], w)
+			add(parent[w], -treeSign(bs, parent[w], w))
 		}
-		cycles = append(cycles, c)
+		slices.Sort(touched)
+		cyc := make([]term, 0, len(touched))
+		for _, i := range touched {
+			if c[i] != 0 {
+				cyc = append(cyc, term{i, c[i]})
+			}
+			c[i] = 0
+		}
+		cycles = append(cycles, cyc)
+		chords = append(chords, bi)
 	}
-	return cycles
+	return cycles, chords
 }
 
 // treeSign is +1 when going from child junction u to its parent follows

@@ -46,8 +46,8 @@ func (ev *eval) copyFrom(o *eval) {
 func (s *state) branchFlows(f []float64, ev *eval) {
 	for bi := range ev.mb {
 		var m float64
-		for k, c := range s.net.cycles {
-			m += c[bi] * f[k]
+		for _, t := range s.net.byBranch[bi] {
+			m += t.c * f[t.i]
 		}
 		ev.mb[bi] = m
 	}
@@ -284,10 +284,8 @@ func (s *state) evaluate(f []float64, ev *eval) {
 	}
 	for k, c := range s.net.cycles {
 		var e float64
-		for bi, cb := range c {
-			if cb != 0 {
-				e -= cb * ev.dp[bi]
-			}
+		for _, t := range c {
+			e -= t.c * ev.dp[t.i]
 		}
 		ev.e[k] = e
 	}
@@ -546,16 +544,12 @@ func (s *state) networkStart(ev *eval) []float64 {
 		if qb[bi] > 0 && qTot > 0 {
 			w, q = 1, qb[bi]/qTot
 		}
-		for k := 0; k < nc; k++ {
-			ck := n.cycles[k][bi]
-			if ck == 0 {
-				continue
-			}
+		bc := n.byBranch[bi]
+		for i, tk := range bc {
+			k, ck := tk.i, tk.c
 			rhs.SetVec(k, rhs.AtVec(k)+w*ck*q)
-			for l := k; l < nc; l++ {
-				if cl := n.cycles[l][bi]; cl != 0 {
-					A.SetSym(k, l, A.At(k, l)+w*ck*cl)
-				}
+			for _, tl := range bc[i:] {
+				A.SetSym(k, tl.i, A.At(k, tl.i)+w*ck*tl.c)
 			}
 		}
 	}
@@ -710,10 +704,8 @@ func (s *state) jacobian(ev *eval, J *mat.Dense, w *sensitivity) {
 		}
 		w.K.Set(down, w.up[bi], w.K.At(down, w.up[bi])-w.V[bi])
 		coef := w.U[bi] - ev.xj[down]*math.Copysign(1, m)
-		for k := 0; k < nc; k++ {
-			if c := n.cycles[k][bi]; c != 0 {
-				w.B.Set(down, k, w.B.At(down, k)+coef*c)
-			}
+		for _, t := range n.byBranch[bi] {
+			w.B.Set(down, t.i, w.B.At(down, t.i)+coef*t.c)
 		}
 	}
 	for j := 0; j < n.nj; j++ {
@@ -751,15 +743,14 @@ func (s *state) jacobian(ev *eval, J *mat.Dense, w *sensitivity) {
 	row := make([]float64, nc)
 	for bi := range n.branches {
 		for l := 0; l < nc; l++ {
-			row[l] = w.S[bi]*n.cycles[l][bi] + w.T[bi]*w.G.At(w.up[bi], l)
+			row[l] = w.T[bi] * w.G.At(w.up[bi], l)
 		}
-		for k := 0; k < nc; k++ {
-			c := n.cycles[k][bi]
-			if c == 0 {
-				continue
-			}
+		for _, t := range n.byBranch[bi] {
+			row[t.i] = w.S[bi]*t.c + w.T[bi]*w.G.At(w.up[bi], t.i)
+		}
+		for _, t := range n.byBranch[bi] {
 			for l := 0; l < nc; l++ {
-				J.Set(k, l, J.At(k, l)+c*row[l])
+				J.Set(t.i, l, J.At(t.i, l)+t.c*row[l])
 			}
 		}
 	}
