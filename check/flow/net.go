@@ -45,7 +45,7 @@ type network struct {
 	res      []*lang.Component
 	resVap   []bool // by res index: hung from a vapour-line node, so it holds no liquid
 	branches []branch
-	nj       int         // junctions
+	nj       int // junctions
 	// cycles lists cycle k's branches with the coefficient of cycle flow k
 	// in each branch flow, by ascending branch; byBranch lists the same
 	// coefficients by branch, by ascending cycle; chord is the branch of
@@ -54,8 +54,8 @@ type network struct {
 	cycles   [][]term
 	byBranch [][]term
 	chord    []int
-	ring     bool        // a single loop without junctions
-	conds    []int       // comps indices of the condensers
+	ring     bool  // a single loop without junctions
+	conds    []int // comps indices of the condensers
 	// dispU are the distinct displacements of the components, dlenU their
 	// lengths, and dispIdx each component's (by comps index).
 	dispU   []geom.Vec3
