@@ -54,8 +54,9 @@ type network struct {
 	cycles   [][]term
 	byBranch [][]term
 	chord    []int
-	ring     bool  // a single loop without junctions
-	conds    []int // comps indices of the condensers
+	ground   []bool // by junction: the one of its connected part whose pressure the sparse systems fix
+	ring     bool   // a single loop without junctions
+	conds    []int  // comps indices of the condensers
 	// dispU are the distinct displacements of the components, dlenU their
 	// lengths, and dispIdx each component's (by comps index).
 	dispU   []geom.Vec3
@@ -289,6 +290,7 @@ func buildNetwork(l *lang.Loop, lay *geom.Layout) (*network, []Finding) {
 			n.byBranch[t.i] = append(n.byBranch[t.i], term{k, t.c})
 		}
 	}
+	n.ground = n.groundJunctions()
 	if len(n.cycles) == 0 {
 		return nil, []Finding{{Rule: RuleGeometry, Severity: "error", Message: fmt.Sprintf("loop %s has no closed path to circulate round", l.Name)}}
 	}

@@ -8,6 +8,7 @@ import (
 
 	"circa/check/correlate"
 	"circa/check/rootfind"
+	"circa/check/sparse"
 )
 
 // Bracketing grid for the single-loop mass flow, kg/s. The grid ends at
@@ -534,36 +535,12 @@ func (s *state) networkStart(ev *eval) []float64 {
 			qb[bi] += s.heat[lg.ci]
 		}
 	}
-	// Normal equations (CᵀWC + εI) f = CᵀW q, W = 1 on heated branches and
-	// a small weight elsewhere so the split is defined everywhere.
-	A := mat.NewSymDense(nc, nil)
-	rhs := mat.NewVecDense(nc, nil)
-	for bi := range n.branches {
-		w := 1e-3
-		q := 0.0
-		if qb[bi] > 0 && qTot > 0 {
-			w, q = 1, qb[bi]/qTot
-		}
-		bc := n.byBranch[bi]
-		for i, tk := range bc {
-			k, ck := tk.i, tk.c
-			rhs.SetVec(k, rhs.AtVec(k)+w*ck*q)
-			for _, tl := range bc[i:] {
-				A.SetSym(k, tl.i, A.At(k, tl.i)+w*ck*tl.c)
-			}
-		}
-	}
-	for k := 0; k < nc; k++ {
-		A.SetSym(k, k, A.At(k, k)+1e-9)
-	}
-	var dir mat.VecDense
-	var ch mat.Cholesky
 	unit := make([]float64, nc)
-	if ch.Factorize(A) && ch.SolveVecTo(&dir, rhs) == nil {
-		for k := range unit {
-			unit[k] = dir.AtVec(k)
-		}
-	} else {
+	split := s.denseSplit
+	if n.wide() {
+		split = s.wideSplit
+	}
+	if !split(qb, qTot, unit) {
 		for k := range unit {
 			unit[k] = 1 / float64(nc)
 		}
@@ -598,6 +575,46 @@ func (s *state) networkStart(ev *eval) []float64 {
 		f[k] = best * unit[k]
 	}
 	return f
+}
+
+// denseSplit sets unit to the flow split of networkStart, the cycle flows
+// per unit loop flow whose branch flows come nearest to carrying each
+// heated branch's share qb/qTot of the heat, by the normal equations in
+// cycle flows (false: they could not be solved).
+func (s *state) denseSplit(qb []float64, qTot float64, unit []float64) bool {
+	n := s.net
+	nc := len(n.cycles)
+	// Normal equations (CᵀWC + εI) f = CᵀW q, W = 1 on heated branches and
+	// a small weight elsewhere so the split is defined everywhere.
+	A := mat.NewSymDense(nc, nil)
+	rhs := mat.NewVecDense(nc, nil)
+	for bi := range n.branches {
+		w := 1e-3
+		q := 0.0
+		if qb[bi] > 0 && qTot > 0 {
+			w, q = 1, qb[bi]/qTot
+		}
+		bc := n.byBranch[bi]
+		for i, tk := range bc {
+			k, ck := tk.i, tk.c
+			rhs.SetVec(k, rhs.AtVec(k)+w*ck*q)
+			for _, tl := range bc[i:] {
+				A.SetSym(k, tl.i, A.At(k, tl.i)+w*ck*tl.c)
+			}
+		}
+	}
+	for k := 0; k < nc; k++ {
+		A.SetSym(k, k, A.At(k, k)+1e-9)
+	}
+	var dir mat.VecDense
+	var ch mat.Cholesky
+	if !ch.Factorize(A) || ch.SolveVecTo(&dir, rhs) != nil {
+		return false
+	}
+	for k := range unit {
+		unit[k] = dir.AtVec(k)
+	}
+	return true
 }
 
 // cycleSweeps improves f one cycle at a time, the others held, on a signed
@@ -763,6 +780,7 @@ func (s *state) jacobian(ev *eval, J *mat.Dense, w *sensitivity) {
 // barely changes.
 type jacobianCache struct {
 	lu    mat.LU
+	sp    sparse.LU // a large network's (see sparseMinCycles)
 	valid bool
 }
 
@@ -804,10 +822,15 @@ func (s *state) newton(ev *eval, f []float64, jc *jacobianCache) ([]float64, int
 	if !reuse {
 		jc = &jacobianCache{}
 	}
-	J := mat.NewDense(nc, nc, nil)
+	wide := n.wide()
+	var J *mat.Dense
+	if !wide {
+		J = mat.NewDense(nc, nc, nil)
+	}
 	rhs := mat.NewVecDense(nc, nil)
 	var dx mat.VecDense
 	trial := make([]float64, nc)
+	step := make([]float64, nc)
 	norm := func(e []float64) float64 {
 		var s float64
 		for _, v := range e {
@@ -836,18 +859,35 @@ func (s *state) newton(ev *eval, f []float64, jc *jacobianCache) ([]float64, int
 			return f, it, nil
 		}
 		fresh := !jc.valid
+		var err error
 		if fresh {
-			if sens == nil {
-				sens = newSensitivity(len(n.branches), n.nj, nc)
+			if wide {
+				err = jc.sp.Factorize(s.branchJacobian(ev))
+			} else {
+				if sens == nil {
+					sens = newSensitivity(len(n.branches), n.nj, nc)
+				}
+				s.jacobian(ev, J, sens)
+				jc.lu.Factorize(J)
 			}
-			s.jacobian(ev, J, sens)
-			jc.lu.Factorize(J)
 			jc.valid = true
 		}
-		for k := 0; k < nc; k++ {
-			rhs.SetVec(k, ev.e[k])
+		if wide {
+			if err == nil {
+				s.branchStep(ev, &jc.sp, step)
+			}
+		} else {
+			for k := 0; k < nc; k++ {
+				rhs.SetVec(k, ev.e[k])
+			}
+			err = jc.lu.SolveVecTo(&dx, false, rhs)
+			if err == nil {
+				for k := range step {
+					step[k] = dx.AtVec(k)
+				}
+			}
 		}
-		if err := jc.lu.SolveVecTo(&dx, false, rhs); err != nil {
+		if err != nil {
 			jc.valid = false
 			if fresh {
 				return f, it, errNoConverge
@@ -863,7 +903,7 @@ func (s *state) newton(ev *eval, f []float64, jc *jacobianCache) ([]float64, int
 		ok := false
 		for ls := 0; ls < halvings; ls++ {
 			for k := range f {
-				trial[k] = f[k] + lambda*dx.AtVec(k)
+				trial[k] = f[k] + lambda*step[k]
 			}
 			s.evaluate(trial, ev)
 			r := norm(ev.e)
