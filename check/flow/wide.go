@@ -147,9 +147,7 @@ func (s *state) branchStep(ev *eval, lu *sparse.LU, df []float64) {
 // wideSplit is denseSplit over branches and junctions: the branch flows m
 // nearest q = qb/qTot on the heated branches, with weights W, that conserve
 // mass at every junction, are m = q + W⁻¹Aᵀπ with the weighted Laplacian
-// A W⁻¹ Aᵀ π = −A q; each cycle's flow is its chord's. (The dense normal
-// equations add 10⁻⁹ to their diagonal, which moves the split by about as
-// much.)
+// A W⁻¹ Aᵀ π = −A q; each cycle's flow is its chord's.
 func (s *state) wideSplit(qb []float64, qTot float64, unit []float64) bool {
 	n := s.net
 	ground := n.ground
@@ -161,6 +159,12 @@ func (s *state) wideSplit(qb []float64, qTot float64, unit []float64) bool {
 		if qb[bi] > 0 && qTot > 0 {
 			w[bi], q[bi] = 1, qb[bi]/qTot
 		}
+	}
+	// The dense equations' ε·|f|² is ε·ṁ² on each chord: with it the chord
+	// weighs w + ε and aims at w·q/(w + ε).
+	for _, bi := range n.chord {
+		q[bi] = w[bi] * q[bi] / (w[bi] + 1e-9)
+		w[bi] += 1e-9
 	}
 	a := sparse.NewMatrix(n.nj)
 	rhs := make([]float64, n.nj)
