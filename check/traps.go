@@ -1,6 +1,8 @@
 package check
 
 import (
+	"math"
+
 	"circa/check/geom"
 	"circa/lang"
 )
@@ -95,6 +97,9 @@ func lineSet(g *Graph, from, to lang.Kind) []bool {
 	return fwd
 }
 
+// trapsByWalk makes every line checked by the walk of its paths (tests).
+var trapsByWalk = false
+
 func traps(c *Context, liquid bool) {
 	g, l, lay := c.Graph, c.Loop, c.Layout
 	from, to := lang.Condenser, lang.Evaporator
@@ -117,6 +122,9 @@ func traps(c *Context, liquid bool) {
 		comp := l.Components[ci]
 		outs[comp.From.Index] = append(outs[comp.From.Index], ci)
 		nin[comp.To.Index]++
+	}
+	if !trapsByWalk && humps(c, liquid, in, outs, nin, height) {
+		return
 	}
 	reported := make([]bool, len(l.Nodes))
 	paths := 0
@@ -180,7 +188,6 @@ func checkRun(c *Context, liquid bool, comps, nodes []int, height func(int) floa
 	for i := n - 2; i >= 0; i-- {
 		suf[i] = min(suf[i+1], h[i])
 	}
-	l := c.Loop
 	for i := 1; i < n-1; i++ {
 		// A local top: higher than the previous node, not lower than the next
 		// (the first node of a plateau).
@@ -199,17 +206,144 @@ func checkRun(c *Context, liquid bool, comps, nodes []int, height func(int) floa
 			continue
 		}
 		reported[nodes[i]] = true
-		node := l.Nodes[nodes[i]]
-		before, after := l.Components[comps[i-1]], l.Components[comps[i]]
-		var d *lang.Diagnostic
-		if liquid {
-			d = c.Reportf(compLoc(before), "the liquid line climbs %s to node %s and then falls %s: vapour collects at this high point (nominal case)",
-				q(climb, "m"), node.Name, q(fall, "m"))
-		} else {
-			d = c.Reportf(compLoc(before), "the vapour line falls %s to node %s and then climbs %s: liquid collects at this low point (nominal case)",
-				q(climb, "m"), node.Name, q(fall, "m"))
-		}
-		d.Related = append(d.Related, lang.Related{Loc: node.NameLoc(), Message: "node " + node.Name},
-			related(after, "%s %s leaves it", after.Kind, after.Name))
+		reportTrap(c, liquid, nodes[i], comps[i-1], comps[i], climb, fall)
 	}
+}
+
+// humps reports the humps (liquid) or dips (vapour) of a line without
+// cycles in time linear in its size, as checkRun would find them on every
+// path through it: a node is a top of some path when it climbs from a
+// lower node and goes on level or down, and its largest climb and fall
+// over all paths through it are the lowest heights before and after it,
+// found by one pass forward and one back in topological order. It returns
+// false, having reported nothing, when the line has a cycle; the walk of
+// every path then checks it.
+func humps(c *Context, liquid bool, in []bool, outs [][]int, nin []int, height func(int) float64) bool {
+	l := c.Loop
+	nn := len(l.Nodes)
+	h := make([]float64, nn)
+	for v := range h {
+		h[v] = height(v)
+		if !liquid {
+			h[v] = -h[v]
+		}
+	}
+	// Topological order from the starts, each in node order and depth
+	// first, so the reports come in the order a walk meets them.
+	left := append([]int(nil), nin...)
+	order := make([]int, 0, nn)
+	var stack []int
+	for v := nn - 1; v >= 0; v-- {
+		if nin[v] == 0 && len(outs[v]) > 0 {
+			stack = append(stack, v)
+		}
+	}
+	for len(stack) > 0 {
+		v := stack[len(stack)-1]
+		stack = stack[:len(stack)-1]
+		order = append(order, v)
+		for k := len(outs[v]) - 1; k >= 0; k-- {
+			w := l.Components[outs[v][k]].To.Index
+			if left[w]--; left[w] == 0 {
+				stack = append(stack, w)
+			}
+		}
+	}
+	for v := range left {
+		if left[v] > 0 {
+			return false // a cycle
+		}
+	}
+	inf := math.Inf(1)
+	// minB: the lowest height on a path from a start to v, v included.
+	minB := make([]float64, nn)
+	for _, v := range order {
+		if nin[v] == 0 {
+			minB[v] = h[v]
+		}
+	}
+	for v := range minB {
+		if nin[v] > 0 {
+			minB[v] = inf
+		}
+	}
+	for _, v := range order {
+		for _, ci := range outs[v] {
+			w := l.Components[ci].To.Index
+			minB[w] = min(minB[w], minB[v], h[w])
+		}
+	}
+	// minA: the lowest height on a path from v to an end, v included; plat:
+	// the same for a path on which v is the top's level, which goes on
+	// level and then down (or ends level), +Inf when none does; platVia:
+	// the component that leaves v on it.
+	minA := make([]float64, nn)
+	plat := make([]float64, nn)
+	platVia := make([]int, nn)
+	for k := len(order) - 1; k >= 0; k-- {
+		v := order[k]
+		minA[v], plat[v], platVia[v] = h[v], inf, -1
+		if len(outs[v]) == 0 {
+			plat[v] = h[v]
+		}
+		for _, ci := range outs[v] {
+			w := l.Components[ci].To.Index
+			minA[v] = min(minA[v], minA[w])
+			var p float64
+			switch {
+			case h[w] < h[v]:
+				p = minA[w]
+			case h[w] == h[v]:
+				p = plat[w]
+			default:
+				continue
+			}
+			if p < plat[v] {
+				plat[v], platVia[v] = p, ci
+			}
+		}
+	}
+	for _, v := range order {
+		if nin[v] == 0 || len(outs[v]) == 0 || platVia[v] < 0 {
+			continue
+		}
+		// The climb: the lowest start before v among its lower neighbours.
+		before, low := -1, inf
+		for _, ci := range c.Graph.In[v] {
+			if !in[ci] {
+				continue
+			}
+			u := l.Components[ci].From.Index
+			if h[u] < h[v] && minB[u] < low {
+				before, low = ci, minB[u]
+			}
+		}
+		if before < 0 {
+			continue
+		}
+		climb, fall := h[v]-low, h[v]-plat[v]
+		if climb <= trapTol || fall <= trapTol {
+			continue
+		}
+		reportTrap(c, liquid, v, before, platVia[v], climb, fall)
+	}
+	return true
+}
+
+// reportTrap reports the hump or dip at node v, entered by component bi and
+// left by ai.
+func reportTrap(c *Context, liquid bool, v, bi, ai int, climb, fall float64) {
+	l := c.Loop
+	node := l.Nodes[v]
+	before, after := l.Components[bi], l.Components[ai]
+	var d *lang.Diagnostic
+	if liquid {
+		d = c.Reportf(compLoc(before), "the liquid line climbs %s to node %s and then falls %s: vapour collects at this high point (nominal case)",
+			q(climb, "m"), node.Name, q(fall, "m"))
+	} else {
+		d = c.Reportf(compLoc(before), "the vapour line falls %s to node %s and then climbs %s: liquid collects at this low point (nominal case)",
+			q(climb, "m"), node.Name, q(fall, "m"))
+	}
+	d.Related = append(d.Related, lang.Related{Loc: node.NameLoc(), Message: "node " + node.Name},
+		related(after, "%s %s leaves it", after.Kind, after.Name))
 }
