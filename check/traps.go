@@ -14,8 +14,11 @@ import (
 // without passing through an evaporator or condenser; the vapour line the
 // same from evaporator outlets to condenser inlets. Every path through the
 // line, from where it starts to where it ends, is checked, across the
-// junctions it passes (up to maxTrapPaths paths per line); each high or low
-// point is reported once. Windings inside one component are not seen.
+// junctions it passes; each high or low point is reported once, with its
+// largest climb and fall over the paths through it. A line with a cycle is
+// walked path by path instead (up to maxTrapPaths paths), and a point is
+// told with the climb and fall of the first path that shows it. Windings
+// inside one component are not seen.
 
 // trapTol is the least rise and fall that make a hump (common practice:
 // smaller humps are within the tolerance of a layout drawing).
