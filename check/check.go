@@ -149,14 +149,25 @@ type runState struct {
 // Components returns the loop's components whose ends and fields all
 // resolved.
 func (c *Context) Components() []*lang.Component {
+	// Every rule of a loop asks for the list: it is made once per loop,
+	// not once per rule. Callers only read it.
+	if v, ok := c.memo[componentsMemo].([]*lang.Component); ok {
+		return v
+	}
 	out := make([]*lang.Component, 0, len(c.Loop.Components))
 	for _, comp := range c.Loop.Components {
 		if !comp.Unresolved {
 			out = append(out, comp)
 		}
 	}
+	if c.memo != nil {
+		c.memo[componentsMemo] = out
+	}
 	return out
 }
+
+// componentsMemo is the memo key of the loop's resolved components.
+const componentsMemo = "check.Components"
 
 // SeverityText describes the severities a rule's findings can have:
 // "warning", or "warning (error when the ratio is below 1)".

@@ -216,15 +216,20 @@ func riseExceedsLength(c *Context) {
 		if !ok || comp.To == nil {
 			continue
 		}
-		dz, what := c.Layout.Disp[comp.Index][2], ""
+		dz := c.Layout.Disp[comp.Index][2]
 		if comp.Rise.Set {
 			dz = comp.Rise.SI
 		} else if c.Layout.Source[comp.Index] == geom.FromRise {
 			continue
-		} else {
-			what = " (from " + where(comp, c.Layout.Source[comp.Index]) + ")"
 		}
 		if math.Abs(dz) > L+riseTol {
+			// Where the rise comes from is told only in a finding: most
+			// components have none, and a large loop would make a string
+			// for each.
+			what := ""
+			if !comp.Rise.Set {
+				what = " (from " + where(comp, c.Layout.Source[comp.Index]) + ")"
+			}
 			c.Reportf(valueLoc(comp.Rise, valueLoc(comp.Length, compLoc(comp))), "%s %s rises %s%s but is only %s long",
 				comp.Kind, comp.Name, qAs(dz, comp.Rise, "m"), what, qAs(L, comp.Length, "m"))
 		}
