@@ -9,8 +9,7 @@ func (r *resolver) allows() {
 	for _, path := range r.m.Order {
 		f := r.m.Files[path]
 		for _, c := range f.Comments {
-			body := strings.TrimSpace(strings.TrimPrefix(c.Text, "#"))
-			if !strings.HasPrefix(body, "allow:") {
+			if !isAllowComment(c.Text) {
 				continue
 			}
 			off := c.Span.Start + strings.Index(c.Text, "allow:") + len("allow:")
@@ -42,6 +41,36 @@ func (r *resolver) allows() {
 			}
 		}
 	}
+}
+
+// isAllowComment reports whether the comment text (with its '#') is a
+// silencer.
+func isAllowComment(text string) bool {
+	return strings.HasPrefix(strings.TrimSpace(strings.TrimPrefix(text, "#")), "allow:")
+}
+
+// allowComments returns the silencers of cs: cs itself when all are, else
+// a copy holding them alone (nil for none).
+func allowComments(cs []Comment) []Comment {
+	n := 0
+	for _, c := range cs {
+		if isAllowComment(c.Text) {
+			n++
+		}
+	}
+	if n == len(cs) {
+		return cs
+	}
+	if n == 0 {
+		return nil
+	}
+	out := make([]Comment, 0, n)
+	for _, c := range cs {
+		if isAllowComment(c.Text) {
+			out = append(out, c)
+		}
+	}
+	return out
 }
 
 func isRuleChar(c byte) bool {

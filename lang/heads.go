@@ -72,6 +72,7 @@ func (h *headNodes) reread(src []byte, s *Stmt, list []*Stmt) bool {
 func parseHeads(path string, src []byte) *File {
 	f := &File{Path: path, Src: src, Mapper: NewMapper(src)}
 	sc := newScannerOf(src, unsafe.String(unsafe.SliceData(src), len(src)))
+	sc.allowsOnly = true
 	sc.nextLine()
 	p := &parser{f: f, sc: sc, toks: sc.toks, heads: &headNodes{}}
 	p.run()

@@ -109,6 +109,10 @@ type scanner struct {
 	toks      []lexer.Token // the current line's, appended by nextLine
 	comments  []Comment
 	done      bool // EOF emitted
+	// allowsOnly keeps of the comments only the silencers ("# allow:
+	// RULE"): a file read for its model alone (parseHeads) needs no others,
+	// and a file of commented lines would keep a Comment for each.
+	allowsOnly bool
 }
 
 func (s *scanner) position(off int) lexer.Position {
@@ -167,7 +171,9 @@ func (s *scanner) nextLine() bool {
 			for s.pos < len(src) && src[s.pos] != '\n' && src[s.pos] != '\r' {
 				s.pos++
 			}
-			s.comments = append(s.comments, Comment{Span: Span{start, s.pos}, Text: s.str[start:s.pos]})
+			if text := s.str[start:s.pos]; !s.allowsOnly || isAllowComment(text) {
+				s.comments = append(s.comments, Comment{Span: Span{start, s.pos}, Text: text})
+			}
 			s.emit(TokComment, start)
 		case c == '"':
 			s.scanString()

@@ -259,9 +259,10 @@ func (r *resolver) overridden(ps *paramState, q units.Quantity, ut string, ok bo
 }
 
 // DropSyntax lets the model's syntax trees go, for a caller that needs only
-// the model, the texts and their comments from here on (circa check once
-// the model is resolved): the files get copies without statements, and
-// parameters and parts forget their expressions and statements. A large
+// the model, the texts and their silencers ("# allow: RULE") from here on
+// (circa check once the model is resolved): the files get copies without
+// statements and without the other comments, and parameters and parts
+// forget their expressions and statements. A large
 // file's tree is several times the size of its model. The files the model
 // shared with others are left as they were; the model can no longer be
 // resolved again (With fails).
@@ -270,6 +271,7 @@ func (m *Model) DropSyntax() {
 	for path, f := range m.Files {
 		nf := *f
 		nf.Stmts = nil
+		nf.Comments = allowComments(f.Comments)
 		files[path] = &nf
 	}
 	m.Files = files

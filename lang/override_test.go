@@ -267,7 +267,7 @@ func BenchmarkWithLoad(b *testing.B) {
 // reads (texts, Mappers, comments, values and their locations), leaves the
 // files it shared untouched, and refuses to be resolved again.
 func TestDropSyntax(t *testing.T) {
-	src := []byte("# note\nparam d = 8 mm\npart p { bore d }\nloop l {\n  fluid water\n  node a at (0, 0, 0) m\n  node b at (0, 0, 1) m\n  pipe q from a to b { length 1 m; use p }\n}\n")
+	src := []byte("# note\n# allow: some-rule\nparam d = 8 mm\npart p { bore d }\nloop l {\n  fluid water\n  node a at (0, 0, 0) m\n  node b at (0, 0, 1) m\n  pipe q from a to b { length 1 m; use p }\n}\n")
 	m := LoadSource("/x.loop", src, nil)
 	if len(m.Diags) > 0 {
 		t.Fatalf("unexpected findings: %v", m.Diags[0].Message())
@@ -282,8 +282,8 @@ func TestDropSyntax(t *testing.T) {
 	if f == shared || f.Stmts != nil || shared.Stmts == nil {
 		t.Fatalf("DropSyntax must give the model its own file without statements and leave the shared one as it was")
 	}
-	if string(f.Src) != string(src) || f.Mapper == nil || len(f.Comments) != 1 {
-		t.Fatalf("the file lost its text, Mapper or comments: %d comments", len(f.Comments))
+	if string(f.Src) != string(src) || f.Mapper == nil || len(f.Comments) != 1 || f.Comments[0].Text != "# allow: some-rule" {
+		t.Fatalf("the file lost its text, Mapper or silencer, or kept the other comment: %v", f.Comments)
 	}
 	if variant.Files["/x.loop"] != shared {
 		t.Fatalf("the variant's file changed")

@@ -43,7 +43,7 @@ func LoadSource(root string, src []byte, fsys FS) *Model {
 }
 
 // LoadSourceModel is LoadSource followed by DropSyntax, for a caller that
-// needs only the model, the texts and their comments (circa check): the
+// needs only the model, the texts and their silencers (circa check): the
 // files keep of each statement only its head while they are resolved, and
 // the resolver parses a statement's parts again when it reads them, so a
 // large file's whole tree, several times the size of its model, never
