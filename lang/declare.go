@@ -29,7 +29,14 @@ func (r *resolver) declare() {
 	r.caseStmts = map[*Case]*Stmt{}
 	for _, path := range r.m.Order {
 		f := r.m.Files[path]
-		for _, st := range f.Stmts {
+		for i, st := range f.Stmts {
+			if r.heads {
+				// The heads are the resolver's own and read once: each
+				// goes as soon as it is declared, so that a chunk of
+				// them can be collected while the model fills, not at
+				// the end.
+				f.Stmts[i] = nil
+			}
 			if st.Bad {
 				continue
 			}
