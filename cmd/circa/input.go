@@ -53,6 +53,7 @@ func readInput(cmd, path string, stderr io.Writer) (src []byte, ok bool) {
 		reportRead(cmd, path, err, stderr)
 		return nil, false
 	}
+	noteInput(len(src))
 	return src, true
 }
 
@@ -63,6 +64,7 @@ func readStdin(cmd string, stdin io.Reader, stderr io.Writer) ([]byte, bool) {
 		reportRead(cmd, "standard input", err, stderr)
 		return nil, false
 	}
+	noteInput(len(src))
 	return src, true
 }
 

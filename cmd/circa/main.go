@@ -63,6 +63,7 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 		// standard output (and the status is 0).
 		stderr = stdout
 	}
+	defer limitMemory()()
 	return c.run(args[1:], stdin, stdout, stderr)
 }
 
@@ -148,7 +149,7 @@ func loadClean(file, cmd, nothing string, set setFlag, modelOnly bool, stderr io
 	if modelOnly {
 		m, ok = set.load(cmd, file, src, stderr)
 	} else {
-		m, ok = set.apply(cmd, lang.LoadSource(file, src, lang.OSFS{}), stderr)
+		m, ok = set.apply(cmd, lang.LoadSource(file, src, inputFS{}), stderr)
 	}
 	if !ok {
 		return m, exitUsage, false

@@ -46,9 +46,9 @@ func (s *setFlag) Set(v string) error {
 // whole (LoadSourceModel); a variant is resolved from them first.
 func (s setFlag) load(cmd, path string, src []byte, stderr io.Writer) (*lang.Model, bool) {
 	if len(s) == 0 {
-		return lang.LoadSourceModel(path, src, nil), true
+		return lang.LoadSourceModel(path, src, inputFS{}), true
 	}
-	m, ok := s.apply(cmd, lang.LoadSource(path, src, nil), stderr)
+	m, ok := s.apply(cmd, lang.LoadSource(path, src, inputFS{}), stderr)
 	if ok {
 		m.DropSyntax()
 	}

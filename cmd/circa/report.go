@@ -78,7 +78,7 @@ func runReport(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 			status = exitUsage
 			continue
 		}
-		m, ok := set.apply("report", lang.LoadSource(file, src, lang.OSFS{}), stderr)
+		m, ok := set.apply("report", lang.LoadSource(file, src, inputFS{}), stderr)
 		if !ok {
 			status = exitUsage
 			continue
