@@ -50,6 +50,41 @@ func NewGraph(l *lang.Loop) *Graph {
 		Piece: make([]int, nn), Parent: make([]int, nn), Depth: make([]int, nn),
 		OnCycle: make([]bool, nc), Hanging: make([]bool, nc), HangingReservoir: make([]bool, nc),
 	}
+	// The lists of every node share one array, counted first and then
+	// filled: a list of its own for each node was an allocation or two
+	// per node of a large loop.
+	nOut, nIn, nRes := make([]int32, nn), make([]int32, nn), make([]int32, nn)
+	edges, total := 0, 0
+	for _, c := range l.Components {
+		if c.Kind == lang.Reservoir {
+			if validEnd(l, c.From) {
+				nRes[c.From.Index]++
+				total++
+			}
+			continue
+		}
+		if validEnd(l, c.From) && validEnd(l, c.To) {
+			nOut[c.From.Index]++
+			nIn[c.To.Index]++
+			edges++
+			total += 2
+		}
+	}
+	all := make([]int, 0, total)
+	for v := range nn {
+		for _, list := range [...]struct {
+			dst *[]int
+			n   int32
+		}{{&g.Out[v], nOut[v]}, {&g.In[v], nIn[v]}, {&g.Reservoirs[v], nRes[v]}} {
+			if list.n > 0 {
+				// Full slice expressions, so that no list grows into
+				// the next.
+				*list.dst = all[len(all) : len(all) : len(all)+int(list.n)]
+				all = all[:len(all)+int(list.n)]
+			}
+		}
+	}
+	g.Edges = make([]int, 0, edges)
 	for i, c := range l.Components {
 		if c.Kind == lang.Reservoir {
 			if validEnd(l, c.From) {
