@@ -120,6 +120,7 @@ func (g *Graph) Other(ci, u int) int {
 func (g *Graph) forest() {
 	nn := len(g.Loop.Nodes)
 	inTree := make([]bool, len(g.Loop.Components))
+	g.Order = make([]int, 0, nn)
 	for i := range g.Piece {
 		g.Piece[i], g.Parent[i] = -1, -1
 	}
@@ -211,9 +212,10 @@ func (g *Graph) cycles() {
 	for i := range index {
 		index[i] = -1
 	}
-	var stack []int
+	// A search goes at most nn deep, and a loop's chain of nodes does.
+	stack := make([]int, 0, nn)
 	type frame struct{ v, next int }
-	var call []frame
+	call := make([]frame, 0, nn)
 	counter, nscc := 0, 0
 	for s := 0; s < nn; s++ {
 		if index[s] >= 0 {

@@ -59,13 +59,37 @@ func Place(l *lang.Loop) *Layout {
 		Pos: make([]Vec3, nn), Known: make([]bool, nn), ZOnly: make([]bool, nn), Piece: make([]int, nn),
 		Disp: make([]Vec3, nc), Source: make([]Source, nc), Horizontal: make([]bool, nc), Dir: make([]Vec3, nc),
 	}
-	adj := make([][]int, nn) // component indices touching each node
+	// The component indices touching each node, all lists in one array
+	// (counted first): a list of its own for each node was an allocation
+	// or two per node of a large loop.
+	joins := func(c *lang.Component) bool {
+		return c.To != nil && c.From != nil && validNode(l, c.From) && validNode(l, c.To)
+	}
+	deg := make([]int32, nn)
+	total := 0
+	for _, c := range l.Components {
+		if joins(c) {
+			deg[c.From.Index]++
+			total++
+			if c.To.Index != c.From.Index {
+				deg[c.To.Index]++
+				total++
+			}
+		}
+	}
+	adj := make([][]int, nn)
+	all := make([]int, total)
+	for v, n := range deg {
+		if n > 0 {
+			adj[v], all = all[:0:n], all[n:]
+		}
+	}
 	for i, c := range l.Components {
 		d, src := displacement(c)
 		lay.Disp[i], lay.Source[i] = d, src
 		lay.Horizontal[i] = src != FromRise
 		lay.Dir[i] = d.Unit()
-		if c.To == nil || c.From == nil || !validNode(l, c.From) || !validNode(l, c.To) {
+		if !joins(c) {
 			continue
 		}
 		adj[c.From.Index] = append(adj[c.From.Index], i)
@@ -74,7 +98,8 @@ func Place(l *lang.Loop) *Layout {
 		}
 	}
 	placed := make([]bool, nn)
-	var queue []int
+	// A walk queues each node once at most: the queue never outgrows nn.
+	queue := make([]int, 0, nn)
 	var reached []int // nodes placed by walk since it was last cleared
 	for i, n := range l.Nodes {
 		if n.At.Set {
@@ -86,9 +111,8 @@ func Place(l *lang.Loop) *Layout {
 	// walk spreads from the queue through components; full says whether only
 	// components with a known horizontal part may be crossed.
 	walk := func(full bool) {
-		for len(queue) > 0 {
-			u := queue[0]
-			queue = queue[1:]
+		for h := 0; h < len(queue); h++ {
+			u := queue[h]
 			for _, ci := range adj[u] {
 				if full && !lay.Horizontal[ci] {
 					continue
@@ -116,6 +140,7 @@ func Place(l *lang.Loop) *Layout {
 				queue = append(queue, v)
 			}
 		}
+		queue = queue[:0]
 	}
 	walk(true)
 	for i := range l.Nodes {
