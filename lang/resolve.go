@@ -117,8 +117,10 @@ func (r *resolver) resolve() {
 	if params > 0 {
 		r.params = make(map[string]*paramState, params)
 		m.Params = make([]*Param, 0, params)
-		r.paramSlab.buf = make([]Param, 0, params)
-		r.stateSlab.buf = make([]paramState, 0, params)
+		// The parameters and their states are allocated a chunk at a
+		// time as they are declared, not all at once before: the heads
+		// of a file read for its model alone go as they are declared,
+		// and the chunks take their place instead of adding to them.
 	}
 	r.declare()
 	if r.heads {
