@@ -7,6 +7,7 @@ import (
 
 	"gonum.org/v1/gonum/mat"
 
+	"circa/check/sparse"
 	"circa/lang"
 )
 
@@ -127,8 +128,16 @@ func (s *state) inletMomentum(bi int, m, xin float64) float64 {
 // pressure rise from a to b needed to push a unit of flow in at b and out
 // at a.
 func externalSlope(nj int, from, to []int, slopes []float64, skip, a, b int) float64 {
+	return externalSlopeWith(nj, from, to, slopes, skip, a, b, nj >= sparseMinJunctions)
+}
+
+// externalSlopeWith is externalSlope by the sparse LU or the dense one.
+func externalSlopeWith(nj int, from, to []int, slopes []float64, skip, a, b int, wide bool) float64 {
 	if a == b {
 		return 0
+	}
+	if wide {
+		return externalSlopeSparse(nj, from, to, slopes, skip, a, b)
 	}
 	L := mat.NewDense(nj, nj, nil)
 	for j, S := range slopes {
@@ -320,4 +329,66 @@ func (p *prepared) channelStability(s *state, cr *CaseResult, st *Stability) {
 			st.Channels = append(st.Channels, ch)
 		}
 	}
+}
+
+// sparseMinJunctions is the number of junctions from which externalSlope
+// solves its network of slopes by the sparse LU: the dense solve of every
+// branch's costs O(junctions³), which a ladder of a thousand junctions
+// would take minutes over.
+const sparseMinJunctions = 64
+
+// externalSlopeSparse is externalSlope by the sparse LU, junction a's row
+// replaced by x_a = 0. The network is connected, so without branch skip it
+// falls apart only when skip is a bridge between a and b, where the dense
+// system is singular.
+func externalSlopeSparse(nj int, from, to []int, slopes []float64, skip, a, b int) float64 {
+	adj := make([][]int, nj)
+	for j := range slopes {
+		if j != skip && from[j] != to[j] {
+			adj[from[j]] = append(adj[from[j]], to[j])
+			adj[to[j]] = append(adj[to[j]], from[j])
+		}
+	}
+	seen := make([]bool, nj)
+	seen[a] = true
+	for q := []int{a}; len(q) > 0; {
+		u := q[len(q)-1]
+		q = q[:len(q)-1]
+		for _, v := range adj[u] {
+			if !seen[v] {
+				seen[v] = true
+				q = append(q, v)
+			}
+		}
+	}
+	if !seen[b] {
+		return math.Inf(1) // the rest does not connect the two junctions
+	}
+	L := sparse.NewMatrix(nj)
+	for j, S := range slopes {
+		if j == skip || from[j] == to[j] {
+			continue
+		}
+		if math.Abs(S) < 1e-9 {
+			S = math.Copysign(1e-9, S)
+		}
+		g := 1 / S
+		u, v := from[j], to[j]
+		if u != a {
+			L.Add(u, u, g)
+			L.Add(u, v, -g)
+		}
+		if v != a {
+			L.Add(v, v, g)
+			L.Add(v, u, -g)
+		}
+	}
+	L.Add(a, a, 1)
+	var lu sparse.LU
+	if lu.Factorize(L) != nil {
+		return math.Inf(1) // the rest does not connect the two junctions
+	}
+	rhs := make([]float64, nj)
+	rhs[b] = 1
+	return lu.Solve(rhs)[b]
 }

@@ -119,3 +119,42 @@ func TestWideMatchesDense(t *testing.T) {
 		}
 	}
 }
+
+// The sparse network of slopes gives the dense one's external slope on
+// random networks of many junctions (a ring of junctions with chords),
+// bridges included.
+func TestExternalSlopeSparse(t *testing.T) {
+	r := rand.New(rand.NewPCG(5, 9))
+	for trial := 0; trial < 20; trial++ {
+		nj := sparseMinJunctions + r.IntN(40)
+		var from, to []int
+		var slopes []float64
+		add := func(u, v int) {
+			from, to = append(from, u), append(to, v)
+			s := math.Pow(10, 6*r.Float64())
+			if r.IntN(8) == 0 {
+				s = -s // a falling branch curve
+			}
+			slopes = append(slopes, s)
+		}
+		for j := 0; j+1 < nj; j++ {
+			add(j, j+1) // a chain: every branch a bridge until chords close it
+		}
+		for k := r.IntN(nj); k > 0; k-- {
+			add(r.IntN(nj), r.IntN(nj))
+		}
+		for skip := range slopes {
+			a, b := from[skip], to[skip]
+			want := externalSlopeDense(nj, from, to, slopes, skip, a, b)
+			got := externalSlopeWith(nj, from, to, slopes, skip, a, b, true)
+			if math.IsInf(want, 1) != math.IsInf(got, 1) || !math.IsInf(want, 1) && math.Abs(got-want) > 1e-8*math.Abs(want) {
+				t.Fatalf("trial %d, branch %d (%d→%d of %d): %g sparse, %g dense", trial, skip, a, b, nj, got, want)
+			}
+		}
+	}
+}
+
+// externalSlopeDense is externalSlope with the dense solve at any size.
+func externalSlopeDense(nj int, from, to []int, slopes []float64, skip, a, b int) float64 {
+	return externalSlopeWith(nj, from, to, slopes, skip, a, b, false)
+}
