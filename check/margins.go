@@ -118,6 +118,9 @@ var marginRules = []marginRule{
 		correlationRangeRationale,
 		"methods { condensation shah }   # a low-flow thermosiphon condenser: Re_lo well below Shah's 350",
 		"Read the number as an extrapolation: compare with another method (methods { … }), with a test, or with a correlation fitted to these conditions; nothing is wrong with the design itself."},
+	{flow.RuleTooLarge, lang.Warning, "the network has too many independent cycles to estimate",
+		"The estimate solves every independent cycle's momentum balance; its work grows with their number, and past 10,000 cycles one estimate would take the checker and the language server tens of seconds on every edit, so it is skipped and says so. The structural rules still run.",
+		"(a generated network of 10,001 parallel evaporator branches)", "Estimate a representative part of the network (a few branches of each kind, with their share of the load), or merge identical parallel channels into one component with channels N."},
 	{flow.RuleMethod, lang.Error, "an unknown estimate method",
 		"The estimate can only use the methods it knows.", "methods { void_fraction slip }", "Use one of the listed methods."},
 }

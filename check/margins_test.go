@@ -6,6 +6,7 @@ import (
 
 	"circa/check/flow"
 	"circa/lang"
+	"circa/lang/loopgen"
 )
 
 // plateLoop is a small R1234yf loop of one plate evaporator whose load the
@@ -224,5 +225,30 @@ case overload {
 	}
 	if got := src[fast.Loc.Span.Start:fast.Loc.Span.End]; got != `"drive.csv"` {
 		t.Errorf("manoeuvre finding at %q, want the profile's table name", got)
+	}
+}
+
+// A network of more independent cycles than the estimate takes is told so,
+// at the loop, and not estimated; the structural rules still run.
+func TestEstimateTooLarge(t *testing.T) {
+	m := lang.LoadSource("net.loop", loopgen.Network(flow.MaxEstimateCycles+4, flow.MaxEstimateCycles+1), nil)
+	var found int
+	for _, d := range Run(m, Options{NoTilt: true}) {
+		switch d.Rule {
+		case flow.RuleTooLarge:
+			found++
+			if !strings.Contains(d.Message(), "network too large for the estimate: loop net has 10001 independent cycles") ||
+				!strings.Contains(d.Message(), "the estimate was skipped") {
+				t.Errorf("message: %s", d.Message())
+			}
+			if d.Loc.File != "net.loop" || d.Severity != lang.Warning {
+				t.Errorf("at %s:%v, severity %v", d.Loc.File, d.Loc.Span, d.Severity)
+			}
+		case flow.RuleNoCirculation, flow.RuleConverge:
+			t.Errorf("estimated anyway: %s", d.Message())
+		}
+	}
+	if found != 1 {
+		t.Errorf("%d too-large findings, want 1", found)
 	}
 }

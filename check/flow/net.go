@@ -283,6 +283,10 @@ func buildNetwork(l *lang.Loop, lay *geom.Layout) (*network, []Finding) {
 		n.dispIdx[ci] = u
 	}
 	n.collapseChains()
+	n.ground = n.groundJunctions()
+	if f, ok := n.tooLarge(); !ok {
+		return nil, []Finding{f}
+	}
 	n.cycles, n.chord = fundamentalCycles(n.nj, n.branches)
 	n.byBranch = make([][]term, len(n.branches))
 	for k, c := range n.cycles {
@@ -290,7 +294,6 @@ func buildNetwork(l *lang.Loop, lay *geom.Layout) (*network, []Finding) {
 			n.byBranch[t.i] = append(n.byBranch[t.i], term{k, t.c})
 		}
 	}
-	n.ground = n.groundJunctions()
 	if len(n.cycles) == 0 {
 		return nil, []Finding{{Rule: RuleGeometry, Severity: "error", Message: fmt.Sprintf("loop %s has no closed path to circulate round", l.Name)}}
 	}
@@ -301,6 +304,33 @@ func buildNetwork(l *lang.Loop, lay *geom.Layout) (*network, []Finding) {
 type term struct {
 	i int
 	c float64
+}
+
+// MaxEstimateCycles is the most independent cycles a network may have to
+// be estimated. The estimate's work grows about linearly with them (the
+// Newton steps are sparse), but every step marches every branch, the tilt
+// search and the margins solve the network again many times, and the
+// language server would spend tens of seconds on each edit of such a file:
+// past it the estimate is skipped with a finding that says so.
+const MaxEstimateCycles = 10000
+
+// tooLarge counts the network's independent cycles (branches − junctions +
+// connected parts) before they are built; false with a finding when they
+// are more than MaxEstimateCycles.
+func (n *network) tooLarge() (Finding, bool) {
+	parts := 0
+	for _, g := range n.ground {
+		if g {
+			parts++
+		}
+	}
+	nc := len(n.branches) - n.nj + parts
+	if nc <= MaxEstimateCycles {
+		return Finding{}, true
+	}
+	return Finding{Rule: RuleTooLarge, Severity: "warning", Value: float64(nc), Limit: MaxEstimateCycles,
+		Message: fmt.Sprintf("network too large for the estimate: loop %s has %d independent cycles, more than the %d the estimate takes; the estimate was skipped (the structural rules still ran)",
+			n.loop.Name, nc, MaxEstimateCycles)}, false
 }
 
 // fundamentalCycles returns the cycle basis of a spanning tree: one cycle per

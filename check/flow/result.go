@@ -332,6 +332,7 @@ type Finding struct {
 // Rule identifiers of the findings.
 const (
 	RuleGeometry        = "estimate-geometry"
+	RuleTooLarge        = "estimate-too-large"
 	RuleFluidRange      = "fluid-range"
 	RuleNoSink          = "estimate-no-sink"
 	RuleNoCirculation   = "no-circulation"
