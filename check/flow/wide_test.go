@@ -125,7 +125,7 @@ func TestWideMatchesDense(t *testing.T) {
 // bridges included.
 func TestExternalSlopeSparse(t *testing.T) {
 	r := rand.New(rand.NewPCG(5, 9))
-	for trial := 0; trial < 20; trial++ {
+	for trial := 0; trial < 6; trial++ {
 		nj := sparseMinJunctions + r.IntN(40)
 		var from, to []int
 		var slopes []float64
