@@ -286,6 +286,21 @@ func (r *resolver) declareLoop(file string, st *Stmt) {
 		}
 		r.declareComponent(file, s, l, k, nodes)
 	}
+	if r.heads {
+		// Filling reads the nodes and components through nodeAt and
+		// compStmts, one at a time, and lets each go once read; the
+		// loop's block keeps only the loop's own statements, so that it
+		// does not hold all the heads of a large loop to the end.
+		keep := st.Block.Stmts[:0]
+		for _, s := range st.Block.Stmts {
+			kw := s.Keyword()
+			if _, isComp := kindOf(kw); s.Bad || (kw != "node" && kw != "junction" && !isComp) {
+				keep = append(keep, s)
+			}
+		}
+		clear(st.Block.Stmts[len(keep):])
+		st.Block.Stmts = keep
+	}
 }
 
 func (r *resolver) declareComponent(file string, s *Stmt, l *Loop, k Kind, nodes map[string]*Node) {

@@ -24,6 +24,9 @@ func (r *resolver) fill() {
 				m := r.mark()
 				n.At = r.vector(n.File, r.full(n.File, st).Args[2].Expr, needLength)
 				r.release(m)
+				if r.heads {
+					nodeAt[n.Index] = nil // the head is read once (see declareLoop)
+				}
 			}
 			if n.At.Bad {
 				l.Unresolved = true
@@ -65,6 +68,9 @@ func (r *resolver) fill() {
 		heads := r.compStmts[l]
 		for _, c := range l.Components {
 			r.componentFields(c, heads[c.Index])
+			if r.heads {
+				heads[c.Index] = nil // the head is read once (see declareLoop)
+			}
 			if c.Unresolved || c.anyBad() {
 				c.Unresolved = true
 				l.Unresolved = true
