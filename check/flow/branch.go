@@ -6,6 +6,10 @@ import (
 	"strings"
 )
 
+// maxSplitListed is the most parallel branches whose flows starvedNote
+// lists one by one; past it the note gives their range.
+const maxSplitListed = 8
+
 // starvedNote says, for an evaporator in a branch of a parallel network,
 // how the flow splits between its branch and the branches beside it (those
 // joining the same two junctions), and which element of its branch has the
@@ -59,13 +63,26 @@ func (p *prepared) starvedNote(cr *CaseResult, ci int) string {
 	if !(total > 0) {
 		return ""
 	}
+	count, lo, hi := 0, math.Inf(1), 0.0
 	for bi := range n.branches {
 		if beside(bi) {
-			split = append(split, fmt.Sprintf("%s %.3g g/s (%.0f %%)", name(bi), flow(bi)*1e3, 100*flow(bi)/total))
+			count++
+			lo, hi = math.Min(lo, flow(bi)), math.Max(hi, flow(bi))
 		}
 	}
 	note := ""
-	if len(split) > 1 {
+	switch {
+	case count > maxSplitListed:
+		// Every evaporator's finding listing every branch beside it would
+		// grow as the square of the branches.
+		note = fmt.Sprintf("; %d parallel branches split the flow, %.3g to %.3g g/s each; %s takes %.3g g/s (%.2g %%)",
+			count, lo*1e3, hi*1e3, name(of), flow(of)*1e3, 100*flow(of)/total)
+	case count > 1:
+		for bi := range n.branches {
+			if beside(bi) {
+				split = append(split, fmt.Sprintf("%s %.3g g/s (%.0f %%)", name(bi), flow(bi)*1e3, 100*flow(bi)/total))
+			}
+		}
 		note = "; the parallel branches split the flow " + strings.Join(split, ", ")
 	}
 	worst, wl, sum := -1, 0.0, 0.0

@@ -158,3 +158,31 @@ func TestExternalSlopeSparse(t *testing.T) {
 func externalSlopeDense(nj int, from, to []int, slopes []float64, skip, a, b int) float64 {
 	return externalSlopeWith(nj, from, to, slopes, skip, a, b, false)
 }
+
+// The note on a starved evaporator lists the flows of up to
+// maxSplitListed parallel branches and gives the range of more: listing
+// every branch in every evaporator's finding grew as the square of them.
+func TestStarvedNoteSummarisesManyBranches(t *testing.T) {
+	for _, cycles := range []int{maxSplitListed, 3 * maxSplitListed} {
+		m := lang.LoadSource("net.loop", loopgen.Network(3*cycles+10, cycles), lang.OSFS{})
+		r, err := Estimate(m, Options{Case: m.Cases[0].Name, NoTilt: true, Workers: 1})
+		if err != nil {
+			t.Fatal(err)
+		}
+		listed, ranged := 0, 0
+		for _, f := range r.Loops[0].Cases[0].Findings {
+			if strings.Contains(f.Message, "; the parallel branches split the flow ") {
+				listed++
+			}
+			if strings.Contains(f.Message, fmt.Sprintf("; %d parallel branches split the flow, ", cycles)) {
+				ranged++
+			}
+			if len(f.Message) > 2000 {
+				t.Errorf("%d branches: a finding of %d bytes", cycles, len(f.Message))
+			}
+		}
+		if cycles <= maxSplitListed && (listed == 0 || ranged > 0) || cycles > maxSplitListed && (ranged == 0 || listed > 0) {
+			t.Errorf("%d branches: %d findings list the split, %d give its range", cycles, listed, ranged)
+		}
+	}
+}
