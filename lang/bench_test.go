@@ -128,3 +128,34 @@ func BenchmarkParseLineOfBraces(b *testing.B) {
 		}
 	}
 }
+
+// hostileLines are 1 MB texts that a careless or hostile user may feed the
+// checker: each must parse in time and memory linear in its size.
+var hostileLines = []struct{ name, src string }{
+	{"braces", strings.Repeat("{", 1<<20) + "\n"},
+	{"closes", strings.Repeat("}", 1<<20) + "\n"},
+	{"opens", strings.Repeat("(", 1<<20) + "\n"},
+	{"shuts", strings.Repeat(")", 1<<20) + "\n"},
+	{"semicolons", strings.Repeat(";", 1<<20) + "\n"},
+	{"quotes", strings.Repeat(`"`, 1<<20) + "\n"},
+	{"carets", strings.Repeat("^", 1<<20) + "\n"},
+	{"equals", strings.Repeat("=", 1<<20) + "\n"},
+	{"ones", strings.Repeat("1 ", 1<<19) + "\n"},
+	{"nested", "param x = " + strings.Repeat("(", 1<<19) + "1" + strings.Repeat(")", 1<<19) + "\n"},
+	{"factors", "param x = 1 m" + strings.Repeat("*m", 1<<19) + "\n"},
+	{"blocks", strings.Repeat("a {\n", 1<<18)},
+}
+
+// BenchmarkHostileLines parses each hostile text (see hostileLines).
+func BenchmarkHostileLines(b *testing.B) {
+	for _, h := range hostileLines {
+		src := []byte(h.src)
+		b.Run(h.name, func(b *testing.B) {
+			b.SetBytes(int64(len(src)))
+			b.ReportAllocs()
+			for b.Loop() {
+				lang.Parse("hostile.loop", src)
+			}
+		})
+	}
+}

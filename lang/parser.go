@@ -175,13 +175,23 @@ func (p *parser) next() *lexer.Token {
 // on: a statement never continues onto the next line, and a lexer over the
 // whole file would copy every token of it for each bad statement. Raw
 // cursors of the lexer count from lexBase.
-func (p *parser) lexAt() *lexer.PeekingLexer {
+func (p *parser) lexAt() *lexer.PeekingLexer { return p.lexUpTo(false) }
+
+// lexUpTo is lexAt; with first, its window ends after the first token
+// that is not elided, which is all the grammar reads of a statement that
+// does not start with a name before it fails.
+func (p *parser) lexUpTo(first bool) *lexer.PeekingLexer {
 	end := p.cur
 	for p.toks[end].Type != TokNewline && p.toks[end].Type != TokEOF && !endsStmt(&p.toks[end]) {
+		if first && p.toks[end].Type != TokSpace && p.toks[end].Type != TokComment {
+			break
+		}
 		end++
 	}
 	window := p.toks[p.cur : end+1]
 	switch t := p.toks[end]; {
+	case first && t.Type != TokNewline && t.Type != TokEOF:
+		window = append(window[:len(window):len(window)], lexer.EOFToken(lexer.Position{Offset: t.Pos.Offset + len(t.Value), Line: t.Pos.Line, Column: t.Pos.Column + len(t.Value)}))
 	case t.Type == TokNewline:
 		// Ends like the file would, after the newline.
 		window = append(window[:len(window):len(window)], lexer.EOFToken(lexer.Position{Offset: t.Pos.Offset + 1, Line: t.Pos.Line + 1, Column: 1}))
@@ -332,7 +342,19 @@ func (p *parser) statement() {
 		p.skipBad(first)
 		return
 	}
-	lex := p.lexAt()
+	if first.Type != TokIdent && !p.grammarOnly {
+		// The grammar's statement starts with a name, so it fails at
+		// first as surely as the fast path did. Its explanation is wanted
+		// only for the line's first error (one is reported per line): a
+		// line of many such statements ('{' or '}' after '{') would
+		// otherwise have each explained in vain. Off with grammarOnly, so
+		// the fuzzers compare this with the grammar's own answer.
+		if len(p.f.Errors) > 0 && p.errLine == p.f.Mapper.OffsetLine(first.Pos.Offset) {
+			p.skipBad(first)
+			return
+		}
+	}
+	lex := p.lexUpTo(first.Type != TokIdent && !p.grammarOnly)
 	cp := lex.MakeCheckpoint()
 	stmt, err := parseStmt(lex)
 	if err == nil {

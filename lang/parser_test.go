@@ -270,3 +270,37 @@ func TestLexUnits(t *testing.T) {
 		}
 	}
 }
+
+// TestHostileLinesSameAsGrammar checks that the shortcuts taken for bad
+// statements that do not start with a name (one explanation per line, a
+// window of one token) give the grammar's own tree and errors.
+func TestHostileLinesSameAsGrammar(t *testing.T) {
+	for _, src := range []string{
+		"{{{{", "{ {\n}}}", "a {{{ b = 1 }", "}}}}", "))))", "^^^^", "====", "1 1 1 1",
+		"\"\"\"\"", "x = 1; {; ( ; ) ; 2 m {", "  # c\n  ) 1 # d\n", "(((( 1", "a = 1 ) b",
+		"a\n{ } { } }\n(", "node n at 1 m { ^ } = 2", "\t=\t{\n=",
+	} {
+		checkSameAsGrammar(t, Parse("h.loop", []byte(src)))
+	}
+}
+
+// TestLineOfBracesMegabyte parses a line of a million '{': one error for
+// the line, the blocks never closed reported up to the error limit, and
+// every brace kept as an open block. Its speed is BenchmarkHostileLines'.
+func TestLineOfBracesMegabyte(t *testing.T) {
+	const n = 1 << 20
+	f := Parse("braces.loop", []byte(strings.Repeat("{", n)+"\n"))
+	if len(f.Errors) != MaxErrors+1 {
+		t.Fatalf("%d errors, want %d (the error limit and its note)", len(f.Errors), MaxErrors+1)
+	}
+	if !strings.Contains(f.Errors[0].Message(), `"{"`) {
+		t.Errorf("first error %q does not name the brace", f.Errors[0].Message())
+	}
+	depth := 0
+	for s := f.Stmts; len(s) == 1 && s[0].Block != nil; s = s[0].Block.Stmts {
+		depth++
+	}
+	if depth != n {
+		t.Errorf("%d nested blocks, want %d", depth, n)
+	}
+}
