@@ -137,7 +137,7 @@ func (r *resolver) duplicate(file string, name *Ident, what string, prev Decl) {
 }
 
 func (r *resolver) ref(kind RefKind, name string, loop *Loop, file string, span Span, decl bool) {
-	r.m.Refs = append(r.m.Refs, Ref{Kind: kind, Name: name, Loop: loop, File: file, Span: span, IsDecl: decl})
+	r.m.Refs = append(r.m.Refs, Ref{Kind: kind, Name: name, Loop: loop, file: r.path(file), start: int32(span.Start), end: int32(span.End), IsDecl: decl})
 }
 
 func (r *resolver) unknownWord(file string, st *Stmt, known []string, where string) {
@@ -326,7 +326,6 @@ func (r *resolver) declareComponent(file string, s *Stmt, l *Loop, k Kind, nodes
 	} else {
 		c = &Component{Decl: r.decl(file, s, nm), Kind: k, Loop: l, Index: len(l.Components)}
 	}
-	c.Roughness = Value{SI: 1.5e-6}
 	c.kindFields()
 	node := func(p *Arg) (*Node, Span) {
 		id := nameOf(p.Expr)

@@ -352,19 +352,25 @@ func (r *resolver) componentField(c *Component, file string, s *Stmt) {
 	case "length":
 		dst = &c.Length
 	case "rise":
+		c.ownExtra()
 		dst = &c.Rise
 	case "run":
+		c.ownExtra()
 		c.Run = r.vectorField(file, s, needLength)
 		return
 	case "bore":
 		dst = &c.Bore
 	case "flow_area":
+		c.ownExtra()
 		dst = &c.FlowArea
 	case "hydraulic_diameter":
+		c.ownExtra()
 		dst = &c.HydDiameter
 	case "roughness":
+		c.ownExtra()
 		dst = &c.Roughness
 	case "loss":
+		c.ownExtra()
 		dst = &c.Loss
 	case "heat":
 		dst = &c.Heat
@@ -389,6 +395,7 @@ func (r *resolver) componentField(c *Component, file string, s *Stmt) {
 	case "tubes":
 		dst = &c.Tubes
 	case "channels":
+		c.ownExtra()
 		dst = &c.Channels
 	case "junction_to_case":
 		dst = &c.JunctionToCase
@@ -401,6 +408,7 @@ func (r *resolver) componentField(c *Component, file string, s *Stmt) {
 	case "coolant_htc":
 		dst = &c.CoolantHTC
 	case "volume":
+		c.ownExtra()
 		dst = &c.Volume
 	}
 	if dst == nil {

@@ -128,7 +128,7 @@ func (r *resolver) valueText(file string, v Value, unit string) string {
 func (m *Model) ParamsIn(loc Location) []string {
 	var ps []string
 	for _, ref := range m.Refs {
-		if ref.Kind != RefParam || ref.IsDecl || ref.File != loc.File || ref.Span.Start < loc.Span.Start || ref.Span.End > loc.Span.End {
+		if ref.Kind != RefParam || ref.IsDecl || ref.File() != loc.File || ref.Span().Start < loc.Span.Start || ref.Span().End > loc.Span.End {
 			continue
 		}
 		if indexOf(ps, ref.Name) < 0 {
@@ -162,9 +162,9 @@ func (m *Model) ParamsReaching() map[string]bool {
 	}
 	// within returns the parameter whose expression holds the reference.
 	within := func(ref Ref) (string, bool) {
-		ss := exprs[ref.File]
-		i := sort.Search(len(ss), func(i int) bool { return ss[i].start > ref.Span.Start }) - 1
-		if i >= 0 && ref.Span.End <= ss[i].end {
+		ss := exprs[ref.File()]
+		i := sort.Search(len(ss), func(i int) bool { return ss[i].start > ref.Span().Start }) - 1
+		if i >= 0 && ref.Span().End <= ss[i].end {
 			return ss[i].name, true
 		}
 		return "", false

@@ -51,7 +51,7 @@ func (sn *snapshot) cursorAt(u protocol.TextDocumentPositionParams) (*cursor, bo
 // refAt returns the name reference under the cursor.
 func (c *cursor) refAt() (lang.Ref, bool) {
 	for _, r := range c.m.Refs {
-		if r.File == c.path && contains(r.Span, c.off) {
+		if r.File() == c.path && contains(r.Span(), c.off) {
 			return r, true
 		}
 	}
@@ -102,7 +102,7 @@ func (s *Server) hoverText(c *cursor) (string, lang.Span, bool) {
 	}
 	if r, ok := c.refAt(); ok {
 		if t := s.refHover(c, r); t != "" {
-			return t, r.Span, true
+			return t, r.Span(), true
 		}
 	}
 	path := stmtPath(c.f, c.off)

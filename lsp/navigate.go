@@ -44,14 +44,14 @@ func (sn *snapshot) occurrences(sym lang.Ref) []lang.Ref {
 	var out []lang.Ref
 	for _, a := range sn.sortedRoots() {
 		m := a.Model()
-		if _, ok := m.Files[sym.File]; !ok {
+		if _, ok := m.Files[sym.File()]; !ok {
 			continue
 		}
 		for _, r := range m.Refs {
 			if !sameSymbol(r, sym) {
 				continue
 			}
-			k := key{r.File, r.Span}
+			k := key{r.File(), r.Span()}
 			if seen[k] {
 				continue
 			}
@@ -60,16 +60,16 @@ func (sn *snapshot) occurrences(sym lang.Ref) []lang.Ref {
 		}
 	}
 	sort.Slice(out, func(i, j int) bool {
-		if out[i].File != out[j].File {
-			return out[i].File < out[j].File
+		if out[i].File() != out[j].File() {
+			return out[i].File() < out[j].File()
 		}
-		return out[i].Span.Start < out[j].Span.Start
+		return out[i].Span().Start < out[j].Span().Start
 	})
 	return out
 }
 
 func (sn *snapshot) location(r lang.Ref) protocol.Location {
-	return protocol.Location{URI: uriOf(r.File), Range: sn.rangeIn(r.File, r.Span, true)}
+	return protocol.Location{URI: uriOf(r.File()), Range: sn.rangeIn(r.File(), r.Span(), true)}
 }
 
 func definitionRequest(ctx context.Context, s *Server, sn *snapshot, params []byte) (any, error) {
@@ -163,7 +163,7 @@ func prepareRenameRequest(ctx context.Context, s *Server, sn *snapshot, params [
 	if !ok || !renamable(r) {
 		return nil, nil
 	}
-	return &protocol.PrepareRenamePlaceholder{Range: sn.rangeIn(r.File, r.Span, true), Placeholder: r.Name}, nil
+	return &protocol.PrepareRenamePlaceholder{Range: sn.rangeIn(r.File(), r.Span(), true), Placeholder: r.Name}, nil
 }
 
 func renameRequest(ctx context.Context, s *Server, sn *snapshot, params []byte) (any, error) {
@@ -187,8 +187,8 @@ func renameRequest(ctx context.Context, s *Server, sn *snapshot, params []byte) 
 	}
 	changes := map[uri.URI][]protocol.TextEdit{}
 	for _, o := range sn.occurrences(r) {
-		u := uriOf(o.File)
-		changes[u] = append(changes[u], protocol.TextEdit{Range: sn.rangeIn(o.File, o.Span, true), NewText: p.NewName})
+		u := uriOf(o.File())
+		changes[u] = append(changes[u], protocol.TextEdit{Range: sn.rangeIn(o.File(), o.Span(), true), NewText: p.NewName})
 	}
 	return &protocol.WorkspaceEdit{Changes: changes}, nil
 }

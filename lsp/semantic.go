@@ -79,17 +79,17 @@ func fileTokens(m *lang.Model, f *lang.File) []token {
 	var toks []token
 	names := map[lang.Span]token{}
 	for _, r := range m.Refs {
-		if r.File != f.Path {
+		if r.File() != f.Path {
 			continue
 		}
-		t := token{sp: r.Span, typ: refTokenType[r.Kind]}
+		t := token{sp: r.Span(), typ: refTokenType[r.Kind]}
 		if r.IsDecl {
 			t.mods |= modDeclaration
 		}
 		if r.Kind == lang.RefParam {
 			t.mods |= modReadonly
 		}
-		names[r.Span] = t
+		names[r.Span()] = t
 	}
 	for _, l := range m.Loops {
 		if l.File == f.Path {
