@@ -20,17 +20,25 @@ type Value struct {
 	at  *site // nil for a value the file did not write
 }
 
-// site is where a value or a vector was written. It is 32 bytes: a file
+// site is where a value or a vector was written. It is 24 bytes: a file
 // writes hundreds of thousands of values, all of which name the same few
-// paths, and no file is longer than MaxFileSize.
+// paths and units, and no file is longer than MaxFileSize.
 type site struct {
 	file       *string
-	start, end int32  // the expression as written
-	unit       string // the unit as written ("" for bare numbers)
+	start, end int32   // the expression as written
+	unit       *string // the unit as written (nil for bare numbers)
 }
 
-func newSite(file *string, span Span, unit string) site {
+func newSite(file *string, span Span, unit *string) site {
 	return site{file: file, start: int32(span.Start), end: int32(span.End), unit: unit}
+}
+
+// unitText returns the unit as written ("" for bare numbers).
+func (s *site) unitText() string {
+	if s.unit == nil {
+		return ""
+	}
+	return *s.unit
 }
 
 func (s *site) span() Span { return Span{int(s.start), int(s.end)} }
@@ -38,7 +46,7 @@ func (s *site) span() Span { return Span{int(s.start), int(s.end)} }
 // At returns v written at span of file with the unit text unit ("" for a
 // bare number).
 func (v Value) At(file string, span Span, unit string) Value {
-	st := newSite(&file, span, unit)
+	st := newSite(&file, span, &unit)
 	v.at = &st
 	return v
 }
@@ -65,7 +73,7 @@ func (v Value) Unit() string {
 	if v.at == nil {
 		return ""
 	}
-	return v.at.unit
+	return v.at.unitText()
 }
 
 // Loc returns where the value was written.
@@ -87,7 +95,7 @@ type Vec struct {
 
 // At returns v written at span of file with the unit text unit.
 func (v Vec) At(file string, span Span, unit string) Vec {
-	st := newSite(&file, span, unit)
+	st := newSite(&file, span, &unit)
 	v.at = &st
 	return v
 }
@@ -113,7 +121,7 @@ func (v Vec) Unit() string {
 	if v.at == nil {
 		return ""
 	}
-	return v.at.unit
+	return v.at.unitText()
 }
 
 // Loc returns where the vector was written.

@@ -216,6 +216,9 @@ type resolver struct {
 	sites    slab[site]
 	paths    map[string]*string
 	lastPath *string
+	// units holds the one copy of each unit text the sites point to.
+	units    map[string]*string
+	lastUnit *string
 	// heads is set when the files are read keeping only the heads of
 	// their statements (LoadSourceModel); hp parses their parts again.
 	heads bool
@@ -226,15 +229,38 @@ type resolver struct {
 // chunks (a large file writes hundreds of thousands of values).
 func (r *resolver) atV(v Value, file string, span Span, unit string) Value {
 	v.at = r.sites.alloc()
-	*v.at = newSite(r.path(file), span, unit)
+	*v.at = newSite(r.path(file), span, r.unitOf(unit))
 	return v
 }
 
 // atVec is atV for a vector.
 func (r *resolver) atVec(v Vec, file string, span Span, unit string) Vec {
 	v.at = r.sites.alloc()
-	*v.at = newSite(r.path(file), span, unit)
+	*v.at = newSite(r.path(file), span, r.unitOf(unit))
 	return v
+}
+
+// unitOf returns the resolver's one copy of the unit text u, nil for "".
+// The copy is the text as first written: it keeps no more of the source
+// than the values already do.
+func (r *resolver) unitOf(u string) *string {
+	if u == "" {
+		return nil
+	}
+	if r.lastUnit != nil && *r.lastUnit == u {
+		return r.lastUnit
+	}
+	p, ok := r.units[u]
+	if !ok {
+		if r.units == nil {
+			r.units = map[string]*string{}
+		}
+		p = new(string)
+		*p = u
+		r.units[u] = p
+	}
+	r.lastUnit = p
+	return p
 }
 
 // path returns the resolver's one copy of the path file.
