@@ -66,16 +66,16 @@ func related(c *lang.Component, format string, args ...any) lang.Related {
 // blockIndent returns the indentation of the first statement inside a
 // loop's block (two spaces when it has none).
 func blockIndent(m *lang.Model, l *lang.Loop) string {
-	f := m.Files[l.File]
+	f := m.Files[l.File()]
 	if f == nil {
 		return "  "
 	}
 	var off = -1
 	switch {
 	case len(l.Nodes) > 0:
-		off = l.Nodes[0].Span.Start
+		off = l.Nodes[0].Span().Start
 	case len(l.Components) > 0:
-		off = l.Components[0].Span.Start
+		off = l.Components[0].Span().Start
 	}
 	if off < 0 {
 		return "  "
@@ -88,16 +88,16 @@ func blockIndent(m *lang.Model, l *lang.Loop) string {
 // insertBeforeClose returns an edit that adds a statement to a block just
 // before its closing brace, on its own line when the brace starts a line.
 func insertBeforeClose(m *lang.Model, d lang.Decl, indent, stmt string) (lang.Edit, bool) {
-	f := m.Files[d.File]
-	if f == nil || d.BlockClose < 0 || d.BlockClose > len(f.Src) {
+	f := m.Files[d.File()]
+	if f == nil || d.BlockClose() < 0 || d.BlockClose() > len(f.Src) {
 		return lang.Edit{}, false
 	}
-	line := f.Mapper.OffsetLine(d.BlockClose)
+	line := f.Mapper.OffsetLine(d.BlockClose())
 	start := f.Mapper.LineStart(line)
-	if strings.TrimSpace(string(f.Src[start:d.BlockClose])) == "" {
-		return lang.Edit{Loc: lang.Location{File: d.File, Span: lang.Span{Start: start, End: start}}, NewText: indent + stmt + "\n"}, true
+	if strings.TrimSpace(string(f.Src[start:d.BlockClose()])) == "" {
+		return lang.Edit{Loc: lang.Location{File: d.File(), Span: lang.Span{Start: start, End: start}}, NewText: indent + stmt + "\n"}, true
 	}
-	return lang.Edit{Loc: lang.Location{File: d.File, Span: lang.Span{Start: d.BlockClose, End: d.BlockClose}}, NewText: "; " + stmt + " "}, true
+	return lang.Edit{Loc: lang.Location{File: d.File(), Span: lang.Span{Start: d.BlockClose(), End: d.BlockClose()}}, NewText: "; " + stmt + " "}, true
 }
 
 // sigAs formats an SI value to three significant figures in the unit a

@@ -97,12 +97,12 @@ func init() {
 // stmtHasLangError reports whether the language already reported an error
 // inside a component's statement (then its missing values are explained).
 func stmtHasLangError(m *lang.Model, c *lang.Component) bool {
-	end := c.BlockClose
-	if end < c.Span.End {
-		end = c.Span.End
+	end := c.BlockClose()
+	if end < c.Span().End {
+		end = c.Span().End
 	}
 	for _, d := range m.Diags {
-		if d.Loc.File == c.File && d.Loc.Span.Start >= c.Span.Start && d.Loc.Span.Start <= end {
+		if d.Loc.File == c.File() && d.Loc.Span.Start >= c.Span().Start && d.Loc.Span.Start <= end {
 			return true
 		}
 	}

@@ -80,7 +80,7 @@ func danglingEnds(c *Context) {
 			if g.Ends[v] != 1 || len(g.Reservoirs[v]) > 0 {
 				continue
 			}
-			d := c.Reportf(lang.Location{File: comp.File, Span: end.span}, "the %s of %s %s at node %s joins no other component", end.what, comp.Kind, comp.Name, end.n.Name)
+			d := c.Reportf(lang.Location{File: comp.File(), Span: end.span}, "the %s of %s %s at node %s joins no other component", end.what, comp.Kind, comp.Name, end.n.Name)
 			d.Related = append(d.Related, lang.Related{Loc: end.n.NameLoc(), Message: "node " + end.n.Name + " is declared here"})
 		}
 	}
@@ -89,7 +89,7 @@ func danglingEnds(c *Context) {
 		if g.Ends[v] == 0 {
 			for _, ri := range rs {
 				r := l.Components[ri]
-				c.Reportf(lang.Location{File: r.File, Span: r.FromSpan}, "reservoir %s hangs off node %s, which no component joins", r.Name, l.Nodes[v].Name)
+				c.Reportf(lang.Location{File: r.File(), Span: r.FromSpan}, "reservoir %s hangs off node %s, which no component joins", r.Name, l.Nodes[v].Name)
 			}
 		}
 	}

@@ -92,7 +92,7 @@ func (r *resolver) declare() {
 	for _, c := range r.m.Cases {
 		if c.Nominal {
 			if r.m.Nominal != nil {
-				d := r.errorf("duplicate-nominal", c.File, c.NameSpan, "case %s is marked nominal, but %s already is", c.Name, r.m.Nominal.Name)
+				d := r.errorf("duplicate-nominal", c.File(), c.NameSpan(), "case %s is marked nominal, but %s already is", c.Name, r.m.Nominal.Name)
 				d.Related = append(d.Related, Related{Loc: r.m.Nominal.NameLoc(), Message: "the first nominal case"})
 				c.Nominal = false
 				continue
@@ -106,9 +106,11 @@ func (r *resolver) declare() {
 }
 
 func (r *resolver) decl(file string, st *Stmt, name *Ident) Decl {
-	d := Decl{Name: name.Name, File: file, NameSpan: name.Span(), Span: st.Span(), BlockClose: -1}
+	ns, hs := name.Span(), st.Span()
+	d := Decl{Name: name.Name, file: r.path(file), nameStart: int32(ns.Start), nameEnd: int32(ns.End),
+		start: int32(hs.Start), end: int32(hs.End), blockClose: -1}
 	if st.Block != nil {
-		d.BlockClose = st.Block.Close
+		d.blockClose = int32(st.Block.Close)
 	}
 	return d
 }

@@ -346,7 +346,7 @@ func (r *resolver) param(name string) (units.Quantity, bool) {
 	case 2:
 		return ps.q, ps.ok
 	case 1:
-		r.errorf("param-cycle", ps.p.File, ps.p.NameSpan, "parameter %s is defined in terms of itself", name)
+		r.errorf("param-cycle", ps.p.File(), ps.p.NameSpan(), "parameter %s is defined in terms of itself", name)
 		ps.state, ps.ok = 2, false
 		return units.Quantity{}, false
 	}
@@ -357,7 +357,7 @@ func (r *resolver) param(name string) (units.Quantity, bool) {
 		ps.state, ps.ok = 2, false
 		return units.Quantity{}, false
 	}
-	q, ut, ok := r.eval(ps.p.File, e)
+	q, ut, ok := r.eval(ps.p.File(), e)
 	if ps.state == 2 { // a cycle was reported while evaluating
 		return units.Quantity{}, false
 	}
@@ -366,7 +366,7 @@ func (r *resolver) param(name string) (units.Quantity, bool) {
 	}
 	ps.state, ps.q, ps.ok = 2, q, ok
 	if ok {
-		ps.p.Value = r.atV(Value{SI: q.SI, Set: true}, ps.p.File, e.Span(), ut)
+		ps.p.Value = r.atV(Value{SI: q.SI, Set: true}, ps.p.File(), e.Span(), ut)
 		ps.p.Dim, ps.p.AbsTemp = q.Dim, q.AbsTemp
 	}
 	return q, ok

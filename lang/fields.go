@@ -22,7 +22,7 @@ func (r *resolver) fill() {
 		for _, n := range l.Nodes {
 			if st := nodeAt[n.Index]; st != nil {
 				m := r.mark()
-				n.At = r.vector(n.File, r.full(n.File, st).Args[2].Expr, needLength)
+				n.At = r.vector(n.File(), r.full(n.File(), st).Args[2].Expr, needLength)
 				r.release(m)
 				if r.heads {
 					nodeAt[n.Index] = nil // the head is read once (see declareLoop)
@@ -46,7 +46,7 @@ func (r *resolver) fill() {
 			case "node", "junction":
 				continue
 			case "param":
-				r.errorf("syntax", l.File, s.Word.Span(), "parameters are declared at the top level, outside loops")
+				r.errorf("syntax", l.File(), s.Word.Span(), "parameters are declared at the top level, outside loops")
 				continue
 			}
 			if k, ok := kindOf(kw); ok {
@@ -54,14 +54,14 @@ func (r *resolver) fill() {
 				continue
 			}
 			m := r.mark()
-			r.loopField(l, r.fullTree(l.File, s))
+			r.loopField(l, r.fullTree(l.File(), s))
 			r.release(m)
 		}
 		if l.Charge.Bad || l.DesignPressure.Bad || l.Saturation.Bad {
 			l.Unresolved = true
 		}
 		if !l.Fluid.Set && (st.Block == nil || st.Block.Close >= 0) {
-			r.errorf("missing-field", l.File, l.NameSpan, "loop %s names no working fluid: add \"fluid NAME\"", l.Name)
+			r.errorf("missing-field", l.File(), l.NameSpan(), "loop %s names no working fluid: add \"fluid NAME\"", l.Name)
 		}
 	}
 	for _, l := range r.m.Loops {
@@ -170,7 +170,7 @@ var (
 )
 
 func (r *resolver) loopField(l *Loop, s *Stmt) {
-	file := l.File
+	file := l.File()
 	switch s.Keyword() {
 	case "fluid":
 		r.fluidField(l, s)
@@ -196,7 +196,7 @@ func (r *resolver) noBlock(file string, s *Stmt) {
 }
 
 func (r *resolver) fluidField(l *Loop, s *Stmt) {
-	file := l.File
+	file := l.File()
 	if len(s.Args) == 1 {
 		if id := nameOf(s.Args[0].Expr); id != nil {
 			l.Fluid = FluidSpec{Name: id.Name, Set: true, File: file, Span: id.Span()}
@@ -254,21 +254,21 @@ func (r *resolver) componentFields(c *Component, st *Stmt) {
 	}
 	// Parts first, then the component's own fields, which win.
 	defer r.release(r.mark())
-	st = r.full(c.File, st)
+	st = r.full(c.File(), st)
 	var own []*Stmt
 	for _, s := range st.Block.Stmts {
 		if s.Bad {
 			c.Unresolved = true
 			continue
 		}
-		s = r.fullTree(c.File, s)
+		s = r.fullTree(c.File(), s)
 		if s.Keyword() == "use" {
 			id := (*Ident)(nil)
 			if len(s.Args) == 1 {
 				id = nameOf(s.Args[0].Expr)
 			}
 			if id == nil {
-				r.errorf("syntax", c.File, s.Span(), "use needs a part name: use PART")
+				r.errorf("syntax", c.File(), s.Span(), "use needs a part name: use PART")
 				c.Unresolved = true
 				continue
 			}
@@ -278,25 +278,25 @@ func (r *resolver) componentFields(c *Component, st *Stmt) {
 				for n := range r.parts {
 					cands = append(cands, n)
 				}
-				r.unknownName(c.File, id, "part", cands, "")
+				r.unknownName(c.File(), id, "part", cands, "")
 				c.Unresolved = true
 				continue
 			}
-			r.ref(RefPart, id.Name, nil, c.File, id.Span(), false)
+			r.ref(RefPart, id.Name, nil, c.File(), id.Span(), false)
 			c.Uses = append(c.Uses, p)
 			for _, ps := range p.Stmts {
 				if ps.Bad {
 					c.Unresolved = true
 					continue
 				}
-				r.componentField(c, p.File, ps)
+				r.componentField(c, p.File(), ps)
 			}
 			continue
 		}
 		own = append(own, s)
 	}
 	for _, s := range own {
-		r.componentField(c, c.File, s)
+		r.componentField(c, c.File(), s)
 	}
 	r.conflicts(c)
 }
@@ -445,7 +445,7 @@ func kindsWith(field string) string {
 }
 
 func (r *resolver) caseField(c *Case, s *Stmt) {
-	file := c.File
+	file := c.File()
 	switch kw := s.Keyword(); kw {
 	case "profile":
 		r.caseProfile(c, s)
@@ -514,7 +514,7 @@ func (r *resolver) caseField(c *Case, s *Stmt) {
 // caseConductance reads "conductance CONDENSER UA": the condenser's
 // conductance in this case only.
 func (r *resolver) caseConductance(c *Case, s *Stmt) {
-	file := c.File
+	file := c.File()
 	var id *Ident
 	if len(s.Args) == 2 && s.Args[1].Expr != nil {
 		id = nameOf(s.Args[0].Expr)

@@ -303,7 +303,7 @@ func (r *resolver) paramExpr(ps *paramState) *Expr {
 		return ps.p.Expr
 	}
 	h := r.parser()
-	if s, ok := h.parseAt(r.m.Files[ps.p.File], int(ps.off), &h.tmp); ok && len(s.Args) == 3 {
+	if s, ok := h.parseAt(r.m.Files[ps.p.File()], int(ps.off), &h.tmp); ok && len(s.Args) == 3 {
 		return s.Args[2].Expr
 	}
 	return nil

@@ -132,22 +132,41 @@ func (v Vec) Loc() Location {
 	return Location{File: *v.at.file, Span: v.at.span()}
 }
 
-// Decl is what every named declaration shares.
+// Decl is what every named declaration shares. A file declares about one
+// name a statement, so a Decl keeps the one copy of its path and int32
+// offsets (File, NameSpan, Span and BlockClose are methods): 48 bytes
+// instead of 72.
 type Decl struct {
-	Name     string
-	File     string
-	NameSpan Span // the name
-	Span     Span // the statement head
-	// BlockClose is the offset of the block's '}' (-1 without a closed block);
-	// fixes insert missing fields before it.
-	BlockClose int
+	Name               string
+	file               *string
+	nameStart, nameEnd int32 // the name
+	start, end         int32 // the statement head
+	blockClose         int32
 }
 
+// File returns the path of the file the declaration was written in.
+func (d Decl) File() string {
+	if d.file == nil {
+		return ""
+	}
+	return *d.file
+}
+
+// NameSpan returns where the name was written.
+func (d Decl) NameSpan() Span { return Span{int(d.nameStart), int(d.nameEnd)} }
+
+// Span returns where the statement head was written.
+func (d Decl) Span() Span { return Span{int(d.start), int(d.end)} }
+
+// BlockClose returns the offset of the block's '}' (-1 without a closed
+// block); fixes insert missing fields before it.
+func (d Decl) BlockClose() int { return int(d.blockClose) }
+
 // NameLoc returns where the name was written.
-func (d Decl) NameLoc() Location { return Location{File: d.File, Span: d.NameSpan} }
+func (d Decl) NameLoc() Location { return Location{File: d.File(), Span: d.NameSpan()} }
 
 // Loc returns where the declaration's head was written.
-func (d Decl) Loc() Location { return Location{File: d.File, Span: d.Span} }
+func (d Decl) Loc() Location { return Location{File: d.File(), Span: d.Span()} }
 
 // Model is the resolved content of one root file and everything it includes.
 type Model struct {

@@ -232,23 +232,23 @@ func (r *resolver) overridden(ps *paramState, q units.Quantity, ut string, ok bo
 		return q, ut, ok
 	}
 	o.Param = ps.p
-	o.File = r.atV(Value{Bad: !ok}, ps.p.File, ps.p.Expr.Span(), "")
-	o.FileText = src(r.m.Files[ps.p.File], ps.p.Expr.Span())
+	o.File = r.atV(Value{Bad: !ok}, ps.p.File(), ps.p.Expr.Span(), "")
+	o.FileText = src(r.m.Files[ps.p.File()], ps.p.Expr.Span())
 	if !ok {
 		// The file's own value is in error (reported there): its dimension
 		// is unknown, so the override is taken as it is.
 		return o.Value, o.Unit, true
 	}
-	o.File = r.atV(Value{SI: q.SI, Set: true}, ps.p.File, ps.p.Expr.Span(), ut)
+	o.File = r.atV(Value{SI: q.SI, Set: true}, ps.p.File(), ps.p.Expr.Span(), ut)
 	need := units.Need{Dim: q.Dim}
 	if u, err := units.Parse(ut); err == nil && u.IsDifference() {
 		need.Difference = true
 	}
 	if err := units.Check(o.Value, o.Unit, need); err != nil {
 		msg := fmt.Sprintf("%s; the file gives %s", err.Error(), o.FileText)
-		if f := r.m.Files[ps.p.File]; f != nil && f.Mapper != nil {
+		if f := r.m.Files[ps.p.File()]; f != nil && f.Mapper != nil {
 			pos := f.Mapper.OffsetPosition(ps.p.Expr.Span().Start, UTF8)
-			msg += fmt.Sprintf(" at %s:%d:%d", ps.p.File, pos.Line+1, pos.Col+1)
+			msg += fmt.Sprintf(" at %s:%d:%d", ps.p.File(), pos.Line+1, pos.Col+1)
 		}
 		if r.overrideErr == nil {
 			r.overrideErr = &OverrideError{Name: ps.p.Name, Msg: msg}

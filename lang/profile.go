@@ -148,7 +148,7 @@ func (row *ProfileRow) set(col string, v float64) { *row.at(col) = v }
 
 // caseProfile reads "profile { columns …; row … }" or "profile "FILE.csv"".
 func (r *resolver) caseProfile(c *Case, s *Stmt) {
-	file := c.File
+	file := c.File()
 	if c.Profile != nil {
 		d := r.errorf("duplicate-name", file, s.Word.Span(), "case %s gives a profile twice", c.Name)
 		d.Related = append(d.Related, Related{Loc: c.Profile.Loc(), Message: "first given here"})
@@ -613,7 +613,7 @@ func finishProfile(c *Case) {
 // caseEnvelope reads "envelope { pitch -8 deg 8 deg; accel_y 0.2 gn … }":
 // each axis between two bounds, or within ± one value.
 func (r *resolver) caseEnvelope(c *Case, s *Stmt) {
-	file := c.File
+	file := c.File()
 	if c.Envelope != nil {
 		d := r.errorf("duplicate-name", file, s.Word.Span(), "case %s gives an envelope twice", c.Name)
 		d.Related = append(d.Related, Related{Loc: c.Envelope.Loc(), Message: "first given here"})

@@ -155,7 +155,7 @@ func (m *Model) ParamsReaching() map[string]bool {
 			continue
 		}
 		s := p.Expr.Span()
-		exprs[p.File] = append(exprs[p.File], span{s.Start, s.End, p.Name})
+		exprs[p.File()] = append(exprs[p.File()], span{s.Start, s.End, p.Name})
 	}
 	for _, ss := range exprs {
 		sort.Slice(ss, func(i, j int) bool { return ss[i].start < ss[j].start })

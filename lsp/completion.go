@@ -66,7 +66,7 @@ func scopeAt(c *cursor) scope {
 	}
 	if inLoop != nil {
 		for _, l := range c.m.Loops {
-			if l.File == c.path && l.Span.Start == inLoop.Span().Start {
+			if l.File() == c.path && l.Span().Start == inLoop.Span().Start {
 				sc.loop = l
 			}
 		}

@@ -96,8 +96,8 @@ func (s *Server) hoverText(c *cursor) (string, lang.Span, bool) {
 		}
 	}
 	for _, l := range c.m.Loops {
-		if l.File == c.path && contains(l.NameSpan, c.off) {
-			return loopHover(c, l), l.NameSpan, true
+		if l.File() == c.path && contains(l.NameSpan(), c.off) {
+			return loopHover(c, l), l.NameSpan(), true
 		}
 	}
 	if r, ok := c.refAt(); ok {

@@ -41,15 +41,15 @@ func inlayHintRequest(ctx context.Context, s *Server, sn *snapshot, params []byt
 	est := s.estimatesFor(sn, a)
 	cur := &cursor{snap: sn, path: path, a: a, m: m}
 	for _, l := range m.Loops {
-		if l.File != path {
+		if l.File() != path {
 			continue
 		}
 		for _, c := range l.Components {
-			if c.File != path {
+			if c.File() != path {
 				continue
 			}
 			if label := componentHint(cur, est, c); label != "" {
-				hint(mp.LineEnd(mp.OffsetLine(c.Span.Start)), label)
+				hint(mp.LineEnd(mp.OffsetLine(c.Span().Start)), label)
 			}
 			for _, h := range fieldHints(cur, est, c) {
 				if h.file == path {
@@ -57,22 +57,22 @@ func inlayHintRequest(ctx context.Context, s *Server, sn *snapshot, params []byt
 				}
 			}
 		}
-		if l.BlockClose >= 0 {
+		if l.BlockClose() >= 0 {
 			if rise, ok := riseClosure(l); ok {
-				hint(l.BlockClose+1, "rise closure "+units.Format(rise, units.MustParse("mm")))
+				hint(l.BlockClose()+1, "rise closure "+units.Format(rise, units.MustParse("mm")))
 			}
 		}
 	}
 	if sn.settings.RangeHints {
 		g := s.guides.get(a)
 		for _, p := range m.Params {
-			if label := rangeHint(g.param(p.Name)); label != "" && p.File == path {
-				hint(mp.LineEnd(mp.OffsetLine(p.Span.Start)), label)
+			if label := rangeHint(g.param(p.Name)); label != "" && p.File() == path {
+				hint(mp.LineEnd(mp.OffsetLine(p.Span().Start)), label)
 			}
 		}
 	}
 	for _, cs := range m.Cases {
-		if cs.File != path {
+		if cs.File() != path {
 			continue
 		}
 		for _, h := range caseHints(est, cs) {

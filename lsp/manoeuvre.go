@@ -149,7 +149,7 @@ func caseHints(est *estimates, cs *lang.Case) []lineHint {
 		if g.Comp.Conductance.Set {
 			own = "own " + asWritten(g.Comp.Conductance, "W/K")
 		}
-		out = append(out, lineHint{cs.File, g.NameSpan.Start, own})
+		out = append(out, lineHint{cs.File(), g.NameSpan.Start, own})
 	}
 	if est == nil || est.flow == nil {
 		return out
@@ -160,17 +160,17 @@ func caseHints(est *estimates, cs *lang.Case) []lineHint {
 			continue
 		}
 		if t := cr.Totals.Transit; t > 0 {
-			out = append(out, lineHint{cs.File, cs.Span.Start, "transit " + secs(t) + " s"})
+			out = append(out, lineHint{cs.File(), cs.Span().Start, "transit " + secs(t) + " s"})
 		}
 		if p := cr.Profile; p != nil && cs.Profile != nil {
 			if w, ok := worstOf(p.Worst); ok {
-				out = append(out, lineHint{cs.File, cs.Profile.Span.Start, fmt.Sprintf("worst t = %s s: %s %.0f %%", secs(*w.Time), w.Margin, 100*w.Use)})
+				out = append(out, lineHint{cs.File(), cs.Profile.Span.Start, fmt.Sprintf("worst t = %s s: %s %.0f %%", secs(*w.Time), w.Margin, 100*w.Use)})
 			}
 			if cs.Profile.Table == "" {
 				for _, fc := range p.Fast {
 					for _, r := range cs.Profile.Rows {
 						if r.Time == fc.From {
-							out = append(out, lineHint{cs.File, r.Span.Start, "faster than the loop (transit " + secs(fc.Transit) + " s)"})
+							out = append(out, lineHint{cs.File(), r.Span.Start, "faster than the loop (transit " + secs(fc.Transit) + " s)"})
 						}
 					}
 				}
@@ -186,7 +186,7 @@ func caseHints(est *estimates, cs *lang.Case) []lineHint {
 			if best >= 0 {
 				w := e.Worst[best]
 				lab := (&flow.CaseResult{Yaw: w.At.Yaw, Pitch: w.At.Pitch, Roll: w.At.Roll, Accel: w.At.Accel}).PointLabel()
-				out = append(out, lineHint{cs.File, cs.Envelope.Span.Start, fmt.Sprintf("worst %s %.0f %% at %s", w.Margin.Margin, 100*w.Use, lab)})
+				out = append(out, lineHint{cs.File(), cs.Envelope.Span.Start, fmt.Sprintf("worst %s %.0f %% at %s", w.Margin.Margin, 100*w.Use, lab)})
 			}
 		}
 		break

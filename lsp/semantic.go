@@ -92,8 +92,8 @@ func fileTokens(m *lang.Model, f *lang.File) []token {
 		names[r.Span()] = t
 	}
 	for _, l := range m.Loops {
-		if l.File == f.Path {
-			names[l.NameSpan] = token{sp: l.NameSpan, typ: tkNamespace, mods: modDeclaration}
+		if l.File() == f.Path {
+			names[l.NameSpan()] = token{sp: l.NameSpan(), typ: tkNamespace, mods: modDeclaration}
 		}
 	}
 	for _, c := range f.Comments {

@@ -151,13 +151,13 @@ func (o *outliner) open(d lang.Decl, kind protocol.SymbolKind, detail []byte) {
 	o.b = append(o.b, `,"kind":`...)
 	o.b = strconv.AppendUint(o.b, uint64(kind), 10)
 	o.b = append(o.b, `,"range":`...)
-	end := d.Span.End
-	if d.BlockClose >= 0 {
-		end = d.BlockClose + 1
+	end := d.Span().End
+	if d.BlockClose() >= 0 {
+		end = d.BlockClose() + 1
 	}
-	o.rangeOf(lang.Span{Start: d.Span.Start, End: end}, false)
+	o.rangeOf(lang.Span{Start: d.Span().Start, End: end}, false)
 	o.b = append(o.b, `,"selectionRange":`...)
-	o.rangeOf(d.NameSpan, true)
+	o.rangeOf(d.NameSpan(), true)
 }
 
 func (o *outliner) close() { o.b = append(o.b, '}', ',') }
@@ -238,14 +238,14 @@ func (sn *snapshot) outline(m *lang.Model, path string) []byte {
 	o := &outliner{m: sn.mapperFor(path), enc: sn.enc}
 	n := inFile(m.Parts, path) + inFile(m.Cases, path) + inFile(m.Params, path)
 	for _, l := range m.Loops {
-		if l.File == path {
+		if l.File() == path {
 			n += 1 + inFile(l.Nodes, path) + inFile(l.Components, path)
 		}
 	}
 	o.b = make([]byte, 0, 64+n*symbolBytes)
 	o.list()
 	for _, l := range m.Loops {
-		if l.File != path {
+		if l.File() != path {
 			continue
 		}
 		o.open(l.Decl, protocol.SymbolKindNamespace, detailLoop)
@@ -253,7 +253,7 @@ func (sn *snapshot) outline(m *lang.Model, path string) []byte {
 			o.b = append(o.b, `,"children":`...)
 			o.list()
 			for _, n := range l.Nodes {
-				if n.File == path {
+				if n.File() == path {
 					kind := detailNode
 					if n.Junction {
 						kind = detailJunction
@@ -262,7 +262,7 @@ func (sn *snapshot) outline(m *lang.Model, path string) []byte {
 				}
 			}
 			for _, c := range l.Components {
-				if c.File == path {
+				if c.File() == path {
 					o.symbol(c.Decl, protocol.SymbolKindObject, o.componentDetail(c))
 				}
 			}
@@ -271,12 +271,12 @@ func (sn *snapshot) outline(m *lang.Model, path string) []byte {
 		o.close()
 	}
 	for _, p := range m.Parts {
-		if p.File == path {
+		if p.File() == path {
 			o.symbol(p.Decl, protocol.SymbolKindStruct, detailPart)
 		}
 	}
 	for _, c := range m.Cases {
-		if c.File == path {
+		if c.File() == path {
 			d := detailCase
 			if c == m.Nominal {
 				d = detailNominal
@@ -285,7 +285,7 @@ func (sn *snapshot) outline(m *lang.Model, path string) []byte {
 		}
 	}
 	for _, p := range m.Params {
-		if p.File == path {
+		if p.File() == path {
 			o.symbol(p.Decl, protocol.SymbolKindConstant, o.valueText(p.Value, path))
 		}
 	}
@@ -346,12 +346,12 @@ func workspaceSymbolRequest(ctx context.Context, s *Server, sn *snapshot, params
 		if q != "" && !strings.Contains(strings.ToLower(d.Name), q) {
 			return
 		}
-		k := d.File + "|" + d.Name + "|" + container
+		k := d.File() + "|" + d.Name + "|" + container
 		if seen[k] {
 			return
 		}
 		seen[k] = true
-		si := protocol.SymbolInformation{Location: protocol.Location{URI: uriOf(d.File), Range: sn.rangeIn(d.File, d.NameSpan, true)}}
+		si := protocol.SymbolInformation{Location: protocol.Location{URI: uriOf(d.File()), Range: sn.rangeIn(d.File(), d.NameSpan(), true)}}
 		si.Name = d.Name
 		si.Kind = kind
 		if container != "" {

@@ -294,7 +294,7 @@ func fixOf(set []candidate, t target) lang.Fix {
 	for _, c := range set {
 		var loc lang.Location
 		if c.param != nil {
-			loc = lang.Location{File: c.param.File, Span: c.param.Expr.Span()}
+			loc = lang.Location{File: c.param.File(), Span: c.param.Expr.Span()}
 			parts = append(parts, fmt.Sprintf("%s to %s", c.param.Name, c.text))
 		} else {
 			loc = c.loop.Charge.Loc()
