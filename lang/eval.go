@@ -344,7 +344,10 @@ func (r *resolver) param(name string) (units.Quantity, bool) {
 	ps := r.params[name]
 	switch ps.state {
 	case 2:
-		return ps.q, ps.ok
+		if !ps.ok {
+			return units.Quantity{}, false
+		}
+		return units.Quantity{SI: ps.p.Value.SI, Dim: ps.p.Dim, AbsTemp: ps.p.AbsTemp}, true
 	case 1:
 		r.errorf("param-cycle", ps.p.File(), ps.p.NameSpan(), "parameter %s is defined in terms of itself", name)
 		ps.state, ps.ok = 2, false
@@ -364,7 +367,7 @@ func (r *resolver) param(name string) (units.Quantity, bool) {
 	if r.overrides != nil {
 		q, ut, ok = r.overridden(ps, q, ut, ok)
 	}
-	ps.state, ps.q, ps.ok = 2, q, ok
+	ps.state, ps.ok = 2, ok
 	if ok {
 		ps.p.Value = r.atV(Value{SI: q.SI, Set: true}, ps.p.File(), e.Span(), ut)
 		ps.p.Dim, ps.p.AbsTemp = q.Dim, q.AbsTemp

@@ -170,9 +170,11 @@ func dedupe(ds []Diagnostic) []Diagnostic {
 	return out
 }
 
+// paramState is a parameter's evaluation state. Its value, once
+// evaluated, is the parameter's own (Value, Dim and AbsTemp): a file of
+// parameters keeps 16 bytes a parameter here.
 type paramState struct {
 	p *Param
-	q units.Quantity
 	// off is where the statement starts when head is set: the parameter
 	// keeps no expression, which is parsed again from there. A file is
 	// at most MaxFileSize bytes.
