@@ -75,7 +75,7 @@ func danglingEnds(c *Context) {
 			n    *lang.Node
 			span lang.Span
 			what string
-		}{{comp.From, comp.FromSpan, "inlet"}, {comp.To, comp.ToSpan, "outlet"}} {
+		}{{comp.From, comp.FromSpan(), "inlet"}, {comp.To, comp.ToSpan(), "outlet"}} {
 			v := end.n.Index
 			if g.Ends[v] != 1 || len(g.Reservoirs[v]) > 0 {
 				continue
@@ -89,7 +89,7 @@ func danglingEnds(c *Context) {
 		if g.Ends[v] == 0 {
 			for _, ri := range rs {
 				r := l.Components[ri]
-				c.Reportf(lang.Location{File: r.File(), Span: r.FromSpan}, "reservoir %s hangs off node %s, which no component joins", r.Name, l.Nodes[v].Name)
+				c.Reportf(lang.Location{File: r.File(), Span: r.FromSpan()}, "reservoir %s hangs off node %s, which no component joins", r.Name, l.Nodes[v].Name)
 			}
 		}
 	}

@@ -355,15 +355,20 @@ func (r *resolver) declareComponent(file string, s *Stmt, l *Loop, k Kind, nodes
 			r.errorf("syntax", file, s.Span(), "reservoir needs the node it hangs from: reservoir %s at NODE", nm.Name)
 			c.Unresolved = true
 		} else {
-			c.From, c.FromSpan = node(rest[1])
+			var sp Span
+			c.From, sp = node(rest[1])
+			c.fromStart, c.fromEnd = int32(sp.Start), int32(sp.End)
 		}
 	} else {
 		if len(rest) != 4 || rest[0].Key != "from" || rest[2].Key != "to" || rest[1].Expr == nil || rest[3].Expr == nil {
 			r.errorf("syntax", file, s.Span(), "%s needs its ends: %s %s from NODE to NODE", k, k, nm.Name)
 			c.Unresolved = true
 		} else {
-			c.From, c.FromSpan = node(rest[1])
-			c.To, c.ToSpan = node(rest[3])
+			var sp Span
+			c.From, sp = node(rest[1])
+			c.fromStart, c.fromEnd = int32(sp.Start), int32(sp.End)
+			c.To, sp = node(rest[3])
+			c.toStart, c.toEnd = int32(sp.Start), int32(sp.End)
 		}
 	}
 	if c.Unresolved {

@@ -254,8 +254,9 @@ type Node struct {
 	Index    int // position in Loop.Nodes
 }
 
-// Kind is a component's kind.
-type Kind int
+// Kind is a component's kind. It is a byte so that a Component packs it
+// with Unresolved.
+type Kind uint8
 
 const (
 	Pipe Kind = iota
@@ -281,12 +282,15 @@ func Kinds() []string { return append([]string(nil), kindNames[:]...) }
 // Component joins two nodes (a reservoir hangs off one node).
 type Component struct {
 	Decl
-	Kind     Kind
-	Loop     *Loop
-	From, To *Node // To is nil for a reservoir
-	FromSpan Span
-	ToSpan   Span
-	Index    int // position in Loop.Components
+	Kind Kind
+	// Unresolved is true when an end or a field could not be resolved; rules
+	// that need the component skip it.
+	Unresolved bool
+	// where the ends were named (FromSpan, ToSpan)
+	fromStart, fromEnd, toStart, toEnd int32
+	Loop                               *Loop
+	From, To                           *Node // To is nil for a reservoir
+	Index                              int   // position in Loop.Components
 
 	Length Value
 	Bore   Value
@@ -307,10 +311,13 @@ type Component struct {
 	*condenserFields
 
 	Uses []*Part
-	// Unresolved is true when an end or a field could not be resolved; rules
-	// that need the component skip it.
-	Unresolved bool
 }
+
+// FromSpan returns where the inlet node was named.
+func (c *Component) FromSpan() Span { return Span{int(c.fromStart), int(c.fromEnd)} }
+
+// ToSpan returns where the outlet node was named.
+func (c *Component) ToSpan() Span { return Span{int(c.toStart), int(c.toEnd)} }
 
 // extraFields are the fields a component of any kind may write but most
 // leave unset.
