@@ -87,15 +87,17 @@ func parseDegrees(s string) (float64, bool) {
 	return v, true
 }
 
-// fmtAngle renders degrees with an explicit sign and a true minus sign.
+// fmtAngle renders degrees with an explicit sign. The minus is the ASCII
+// hyphen-minus, not U+2212: users copy hovered angles into .loop files,
+// whose numbers are ASCII.
 func fmtAngle(v float64) string {
 	if math.Abs(v) < 0.05 {
 		return "0°"
 	}
-	return strings.Replace(fmt.Sprintf("%+.1f°", v), "-", "−", 1)
+	return fmt.Sprintf("%+.1f°", v)
 }
 
-// String renders the pair as "±90.0°", "+80.5° / −99.5°" or "none".
+// String renders the pair as "±90.0°", "+80.5° / -99.5°" or "none".
 func (r tiltRange) String() string {
 	switch {
 	case r.okUp && r.okDown && math.Abs(r.up+r.down) < 0.05:

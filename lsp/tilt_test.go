@@ -1,6 +1,11 @@
 package lsp
 
-import "testing"
+import (
+	"math"
+	"testing"
+
+	"circa/lang"
+)
 
 // The tilt-limits rule renders a pair of critical angles four ways; each
 // must read back to the same numbers.
@@ -35,7 +40,7 @@ func TestTiltMargin(t *testing.T) {
 		want string
 	}{
 		{r, 30, "60.0° from the critical +90.0°"},
-		{r, -85, "5.0° from the critical −90.0°"},
+		{r, -85, "5.0° from the critical -90.0°"},
 		{r, 100, "10.0° beyond the critical +90.0°"},
 		{tiltRange{up: 20, okUp: true}, -170, "190.0° from the critical +20.0°"},
 		{tiltRange{}, 5, "no critical angle"},
@@ -44,7 +49,25 @@ func TestTiltMargin(t *testing.T) {
 			t.Errorf("margin(%v) of %v = %q, want %q", tc.a, tc.r, got, tc.want)
 		}
 	}
-	if got := (tiltRange{99.46, -80.54, true, true}).String(); got != "+99.5° / −80.5°" {
+	if got := (tiltRange{99.46, -80.54, true, true}).String(); got != "+99.5° / -80.5°" {
 		t.Errorf("String = %q", got)
+	}
+}
+
+// A hovered angle copied into a .loop file must read back as the same
+// angle: the file format's numbers are ASCII, so the minus must be '-'.
+func TestTiltAnglesCopyIntoLoopFile(t *testing.T) {
+	for _, v := range []float64{-90, -80.54, 99.46, 12.3} {
+		s := fmtAngle(v)
+		q, _, err := lang.ParseQuantity(s)
+		if err != nil {
+			t.Errorf("fmtAngle(%v) = %q does not parse as a quantity: %v", v, s, err)
+			continue
+		}
+		// 1° = π/180 rad (SI Brochure, table 8).
+		want := math.Round(v*10) / 10 * math.Pi / 180
+		if math.Abs(q.SI-want) > 1e-12 {
+			t.Errorf("fmtAngle(%v) = %q reads as %v rad, want %v", v, s, q.SI, want)
+		}
 	}
 }
