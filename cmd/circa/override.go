@@ -2,6 +2,7 @@ package main
 
 import (
 	"context"
+	"errors"
 	"fmt"
 	"io"
 	"strings"
@@ -32,7 +33,9 @@ func (s *setFlag) String() string {
 func (s *setFlag) Set(v string) error {
 	o, err := lang.ParseOverride(v)
 	if err != nil {
-		return err
+		// The message quotes the user's text; the flag package prints it
+		// to the terminal as it is.
+		return errors.New(output.Printable(err.Error()))
 	}
 	*s = append(*s, o)
 	return nil
@@ -85,7 +88,7 @@ func (v *varyFlag) Set(s string) error {
 	}
 	a, err := vary.Parse(s)
 	if err != nil {
-		return err
+		return errors.New(output.Printable(err.Error()))
 	}
 	*v = append(*v, a)
 	return nil

@@ -307,3 +307,27 @@ func TestVaryWithSet(t *testing.T) {
 		t.Errorf("text: %d %s", code, out)
 	}
 }
+
+// Control bytes in --set and --vary come back escaped, as in source
+// excerpts: an ESC echoed raw would let a command line clear the terminal.
+func TestSetEchoesEscaped(t *testing.T) {
+	for _, args := range [][]string{
+		{"check", "--set", "a\x1b[2J=1", rackDoor},
+		{"check", "--set", "nope=1\x1bmm", rackDoor},
+		{"estimate", "--set", "lift=1\x07m", rackDoor},
+		{"estimate", "--vary", "li\x1bft=1..2:3", rackDoor},
+	} {
+		code, out, errs := runCommand(t, args...)
+		if code == 0 {
+			t.Errorf("%q: exit 0", args)
+		}
+		for _, b := range []byte{0x1b, 0x07} {
+			if strings.IndexByte(out+errs, b) >= 0 {
+				t.Errorf("%q: raw control byte %#x in the output:\n%s%s", args, b, out, errs)
+			}
+		}
+		if !strings.Contains(errs, `\x1b`) && !strings.Contains(errs, `\a`) {
+			t.Errorf("%q: no escaped control byte in the message:\n%s", args, errs)
+		}
+	}
+}
