@@ -169,7 +169,7 @@ func ChargeSummary(r *flow.ChargeRange) string {
 func MarginValue(l *flow.LoopResult, c *flow.CaseResult, m flow.Margin) (value, limit string) {
 	if m.Margin == flow.MarginCharge && c != nil && c.ChargeRange != nil {
 		r := c.ChargeRange
-		return sig(m.Value, 3) + " kg", sig(r.Low, 3) + "–" + sig(r.High, 3) + " kg"
+		return sig(m.Value, 3) + " kg", sigRange(r.Low, r.High, 3) + " kg"
 	}
 	if m.Unit == "Pa" {
 		return pressureAs(m.Value, l.DesignPressureUnit), pressureAs(m.Limit, l.DesignPressureUnit)

@@ -442,3 +442,42 @@ func TestTiltLineFirstFailure(t *testing.T) {
 		t.Errorf("tilt line (stages %v):\n%s", stages, b.String())
 	}
 }
+
+// A range's ends keep the same decimals, three significant digits of the
+// larger end, so a trailing zero is never dropped from one end only.
+func TestSigRange(t *testing.T) {
+	for _, c := range []struct {
+		lo, hi float64
+		want   string
+	}{
+		{0.172, 0.21, "0.172–0.210"},
+		{0.17, 0.208, "0.170–0.208"},
+		{0.335, 0.431, "0.335–0.431"},
+		{0.0415, 0.9996, "0.04–1.00"},
+		{12.34, 150, "12–150"},
+		{1234, 1500, "1234–1500"},
+		{0, 0, "0–0"},
+	} {
+		if got := sigRange(c.lo, c.hi, 3); got != c.want {
+			t.Errorf("sigRange(%g, %g) = %q, want %q", c.lo, c.hi, got, c.want)
+		}
+	}
+}
+
+// Every charge range an estimate prints shows its ends to the same
+// decimals: one end without its trailing zero reads as a cruder figure.
+func TestChargeRangeDecimals(t *testing.T) {
+	re := regexp.MustCompile(`(\d+(?:\.(\d*))?)–(\d+(?:\.(\d*))?) kg`)
+	for _, path := range exampleFiles(t) {
+		res := estimateFile(t, path, flow.Options{NoTilt: true})
+		var b bytes.Buffer
+		if err := EstimateText(&b, res, nil); err != nil {
+			t.Fatal(err)
+		}
+		for _, m := range re.FindAllStringSubmatch(b.String(), -1) {
+			if len(m[2]) != len(m[4]) {
+				t.Errorf("%s: charge range %q has ends of different decimals", filepath.Base(path), m[0])
+			}
+		}
+	}
+}

@@ -259,7 +259,7 @@ func fluidsText(w io.Writer, l guide.Loop, designUnit string) {
 			if c.Low > c.High {
 				s += "; no charge suits every case"
 			} else {
-				s += fmt.Sprintf("; charge %s–%s kg", sig(c.Low, 3), sig(c.High, 3))
+				s += "; charge " + sigRange(c.Low, c.High, 3) + " kg"
 			}
 		}
 		fmt.Fprintln(w, s)

@@ -27,6 +27,24 @@ func sig(v float64, n int) string {
 	return s
 }
 
+// sigRange formats the ends of a range to n significant digits of the
+// larger end, both with the same decimals: 0.172–0.210, not 0.172–0.21,
+// whose dropped zero reads as a value known to two digits only.
+func sigRange(lo, hi float64, n int) string {
+	m := math.Max(math.Abs(lo), math.Abs(hi))
+	if m == 0 || math.IsNaN(m) || math.IsInf(m, 0) {
+		return sig(lo, n) + "–" + sig(hi, n)
+	}
+	// The larger end after rounding to n digits sets the decimals, so that
+	// 0.9996 counts as 1.00.
+	r, _ := strconv.ParseFloat(strconv.FormatFloat(m, 'e', n-1, 64), 64)
+	d := n - 1 - int(math.Floor(math.Log10(r)))
+	if d < 0 {
+		d = 0
+	}
+	return fixed(lo, d) + "–" + fixed(hi, d)
+}
+
 func celsius(k float64) float64 { return k - 273.15 }
 
 func deg(r float64) float64 { return r * 180 / math.Pi }
