@@ -341,10 +341,12 @@ func (r *resolver) profileTable(p *Profile, str *Str) bool {
 		r.errorf("file-unreadable", p.File, str.Span(), "cannot read profile %s: %s", str.Value(), msg)
 		return false
 	}
-	cols, rows, terr := ReadProfileCSV(data)
-	if terr != nil {
-		d := r.errorf("bad-table", path, tableSpan(data, terr.Line, terr.Column), "%s", tableMessage(terr))
-		d.Related = append(d.Related, Related{Loc: Location{File: p.File, Span: str.Span()}, Message: "the profile that reads this table"})
+	cols, rows, terrs := readProfileCSV(data)
+	if len(terrs) > 0 {
+		for _, terr := range terrs {
+			d := r.errorf("bad-table", path, tableSpan(data, terr.Line, terr.Column), "%s", tableMessage(terr))
+			d.Related = append(d.Related, Related{Loc: Location{File: p.File, Span: str.Span()}, Message: "the profile that reads this table"})
+		}
 		return false
 	}
 	col := indexOf(cols, "time") + 1
@@ -369,7 +371,7 @@ func tableMessage(e *fluid.TableError) string {
 }
 
 // tableSpan locates field col (one-based; 0 for the whole line) of line
-// (one-based, lines ending at '\n' as ReadProfileCSV reads them; 0 for the
+// (one-based, lines ending as tableLineEnd ends them; 0 for the
 // start of the file) in a table's text, without the blanks and quotes
 // around the field.
 func tableSpan(data []byte, line, col int) Span {
@@ -381,11 +383,11 @@ func tableSpan(data []byte, line, col int) Span {
 		return Span{start, start}
 	}
 	for l := 1; l < line; l++ {
-		k := bytes.IndexByte(data[start:], '\n')
-		if k < 0 {
+		_, next := tableLineEnd(data, start)
+		if next < 0 {
 			return Span{len(data), len(data)}
 		}
-		start += k + 1
+		start = next
 	}
 	return fieldSpan(data, start, col)
 }
@@ -400,23 +402,17 @@ func tableLines(data []byte) []int {
 	out := make([]int, 0, bytes.Count(data, []byte("\n"))+1)
 	for {
 		out = append(out, start)
-		k := bytes.IndexByte(data[start:], '\n')
-		if k < 0 {
+		_, next := tableLineEnd(data, start)
+		if next < 0 {
 			return out
 		}
-		start += k + 1
+		start = next
 	}
 }
 
 // fieldSpan is tableSpan on the line that starts at offset start.
 func fieldSpan(data []byte, start, col int) Span {
-	end := len(data)
-	if k := bytes.IndexByte(data[start:], '\n'); k >= 0 {
-		end = start + k
-	}
-	if end > start && data[end-1] == '\r' {
-		end--
-	}
+	end, _ := tableLineEnd(data, start)
 	for f := 1; f < col; f++ {
 		k := bytes.IndexByte(data[start:end], ',')
 		if k < 0 {
@@ -478,11 +474,34 @@ func (r *resolver) readTable(path string) ([]byte, error) {
 //
 // Errors are located by line and column.
 func ReadProfileCSV(data []byte) (cols []string, rows []ProfileRow, err *fluid.TableError) {
+	cols, rows, errs := readProfileCSV(data)
+	if len(errs) > 0 {
+		return nil, nil, errs[0]
+	}
+	return cols, rows, nil
+}
+
+// MaxTableErrors is how many errors of one table are reported; a note
+// counts the rest.
+const MaxTableErrors = 20
+
+// readProfileCSV is ReadProfileCSV giving every bad cell of the rows, in
+// the order of the text, up to MaxTableErrors+1 (the extra one tells that
+// more were found); an error in the header stops the reading.
+func readProfileCSV(data []byte) (cols []string, rows []ProfileRow, errs []*fluid.TableError) {
 	data = bytes.TrimPrefix(data, []byte("\uFEFF"))
 	sc := bufio.NewScanner(bytes.NewReader(data))
 	sc.Buffer(make([]byte, 64*1024), 1<<20)
+	sc.Split(scanTableLines)
 	var us []units.Unit
 	line := 0
+	bad := 0 // errors found, also those past the cap
+	add := func(e *fluid.TableError) {
+		bad++
+		if len(errs) <= MaxTableErrors {
+			errs = append(errs, e)
+		}
+	}
 	for sc.Scan() {
 		line++
 		text := strings.TrimSpace(sc.Text())
@@ -491,48 +510,97 @@ func ReadProfileCSV(data []byte) (cols []string, rows []ProfileRow, err *fluid.T
 		}
 		fields := fluid.SplitFields(text)
 		if cols == nil {
-			cols, us, err = profileHeader(line, fields)
-			if err != nil {
-				return nil, nil, err
+			var herr *fluid.TableError
+			cols, us, herr = profileHeader(line, fields)
+			if herr != nil {
+				return nil, nil, []*fluid.TableError{herr}
 			}
 			continue
 		}
 		if len(fields) != len(cols) {
-			return nil, nil, &fluid.TableError{Line: line, Msg: fmt.Sprintf("%d fields, but the header names %d columns", len(fields), len(cols))}
+			add(&fluid.TableError{Line: line, Msg: fmt.Sprintf("%d fields, but the header names %d columns", len(fields), len(cols))})
+			continue
 		}
 		if len(rows) == MaxProfileRows {
-			return nil, nil, &fluid.TableError{Line: line, Msg: fmt.Sprintf("a profile holds at most %d rows", MaxProfileRows)}
+			add(&fluid.TableError{Line: line, Msg: fmt.Sprintf("a profile holds at most %d rows", MaxProfileRows)})
+			break
 		}
 		row := ProfileRow{Line: line}
+		ok := true
 		for j, f := range fields {
-			bad := func(format string, a ...any) *fluid.TableError {
-				return &fluid.TableError{Line: line, Column: j + 1, Name: cols[j], Msg: fmt.Sprintf(format, a...)}
+			fail := func(format string, a ...any) {
+				ok = false
+				add(&fluid.TableError{Line: line, Column: j + 1, Name: cols[j], Msg: fmt.Sprintf(format, a...)})
 			}
 			v, perr := strconv.ParseFloat(f, 64)
 			if perr != nil || math.IsNaN(v) || math.IsInf(v, 0) {
-				return nil, nil, bad("not a number %q", f)
+				fail("not a number %q", f)
+				continue
 			}
 			si := us[j].ToSI(v)
 			if math.IsNaN(si) || math.IsInf(si, 0) {
-				return nil, nil, bad("value %q out of range", f)
+				fail("value %q out of range", f)
+				continue
 			}
 			if want := rangeWant(columnField(cols[j]), si); want != "" {
-				return nil, nil, bad("%s must be %s, not %s", cols[j], want, degText(si))
+				fail("%s must be %s, not %s", cols[j], want, degText(si))
+				continue
 			}
 			row.set(cols[j], si)
 		}
-		rows = append(rows, row)
+		if ok {
+			rows = append(rows, row)
+		}
 	}
 	if serr := sc.Err(); serr != nil {
-		return nil, nil, &fluid.TableError{Line: line + 1, Msg: "reading the table: " + serr.Error()}
+		add(&fluid.TableError{Line: line + 1, Msg: "reading the table: " + serr.Error()})
+	}
+	if len(errs) > MaxTableErrors {
+		errs[MaxTableErrors] = &fluid.TableError{Line: errs[MaxTableErrors].Line, Column: errs[MaxTableErrors].Column,
+			Msg: fmt.Sprintf("%d more errors not shown", bad-MaxTableErrors)}
+	}
+	if len(errs) > 0 {
+		return nil, nil, errs
 	}
 	if cols == nil {
-		return nil, nil, &fluid.TableError{Msg: "no header: the first line names the columns, e.g. \"time (s), pitch (deg), accel_x (gn)\""}
+		return nil, nil, []*fluid.TableError{{Msg: "no header: the first line names the columns, e.g. \"time (s), pitch (deg), accel_x (gn)\""}}
 	}
 	if len(rows) == 0 {
-		return nil, nil, &fluid.TableError{Msg: "the table has no rows"}
+		return nil, nil, []*fluid.TableError{{Msg: "the table has no rows"}}
 	}
 	return cols, rows, nil
+}
+
+// tableLineEnd returns where the line starting at start ends (before its
+// line break) and where the next line starts. A line ends at "\n", "\r\n"
+// or a lone "\r", as editors and the Mapper end lines, so that a table's
+// line numbers are those the editor shows.
+func tableLineEnd(data []byte, start int) (end, next int) {
+	k := bytes.IndexAny(data[start:], "\r\n")
+	if k < 0 {
+		return len(data), -1
+	}
+	end = start + k
+	if data[end] == '\r' && end+1 < len(data) && data[end+1] == '\n' {
+		return end, end + 2
+	}
+	return end, end + 1
+}
+
+// scanTableLines is a bufio.SplitFunc splitting at the line ends that
+// tableLineEnd knows.
+func scanTableLines(data []byte, atEOF bool) (int, []byte, error) {
+	if atEOF && len(data) == 0 {
+		return 0, nil, nil
+	}
+	end, next := tableLineEnd(data, 0)
+	if next >= 0 && (next < len(data) || data[next-1] == '\n' || atEOF) {
+		return next, data[:end], nil
+	}
+	if atEOF {
+		return len(data), data, nil
+	}
+	return 0, nil, nil // a lone '\r' at the end of the buffer may be a "\r\n"
 }
 
 // profileHeader reads a profile table's column names and units.

@@ -223,7 +223,7 @@ func FuzzProfileCSV(f *testing.F) {
 	f.Fuzz(func(t *testing.T, data []byte) {
 		cols, rows, err := ReadProfileCSV(data)
 		if err != nil {
-			if err.Line > strings.Count(string(data), "\n")+1 {
+			if err.Line > len(tableLines(data)) {
 				t.Fatalf("error at line %d past the text: %v", err.Line, err)
 			}
 			if sp := tableSpan(data, err.Line, err.Column); sp.Start < 0 || sp.Start > sp.End || sp.End > len(data) {
@@ -279,5 +279,80 @@ func BenchmarkProfileTable(b *testing.B) {
 		if p := m.Case("c").Profile; p == nil || len(p.Rows) != MaxProfileRows {
 			b.Fatal("the table did not load")
 		}
+	}
+}
+
+// A table with several bad cells reports each, at its line and field, not
+// only the first; past MaxTableErrors a note counts the rest.
+func TestProfileCSVEveryError(t *testing.T) {
+	load := func(csv string) *Model {
+		src := "loop l {\n  fluid R134a\n}\ncase c {\n  profile \"m/t.csv\"\n}\n"
+		return LoadSource("p.loop", []byte(src), memFS{"m/t.csv": []byte(csv)})
+	}
+	csv := "time (s), pitch (deg), roll (deg)\n0, 1x, 2\n1, 3, 200\n2, 4\n3, y, z\n"
+	m := load(csv)
+	want := []struct{ at, msg string }{
+		{"1x", `pitch: not a number "1x"`},
+		{"200", "roll: roll must be within ±180°"},
+		{"2, 4", "2 fields, but the header names 3 columns"},
+		{"y", `pitch: not a number "y"`},
+		{"z", `roll: not a number "z"`},
+	}
+	if len(m.Diags) != len(want) {
+		t.Fatalf("%d findings, want %d: %v", len(m.Diags), len(want), m.Diags)
+	}
+	for i, w := range want {
+		d := m.Diags[i]
+		if at := csv[d.Loc.Span.Start:d.Loc.Span.End]; at != w.at || d.Loc.File != "m/t.csv" || !strings.Contains(d.Message(), w.msg) {
+			t.Errorf("finding %d: %q at %q, want %q at %q", i, d.Message(), at, w.msg, w.at)
+		}
+	}
+
+	var b strings.Builder
+	b.WriteString("time (s), roll (deg)\n")
+	for i := 0; i < MaxTableErrors+7; i++ {
+		fmt.Fprintf(&b, "%d, bad\n", i)
+	}
+	m = load(b.String())
+	if len(m.Diags) != MaxTableErrors+1 {
+		t.Fatalf("%d findings, want %d", len(m.Diags), MaxTableErrors+1)
+	}
+	if last := m.Diags[MaxTableErrors].Message(); !strings.Contains(last, "7 more errors not shown") {
+		t.Errorf("last finding %q, want a count of the 7 errors not shown", last)
+	}
+}
+
+// A table's lines end where an editor ends them: at LF, CRLF or a lone CR
+// (classic Mac OS line ends, which VS Code and Vim both break lines at),
+// so a bad cell is reported on the line and column the editor shows, and
+// the same line the Mapper counts.
+func TestProfileCSVLineEnds(t *testing.T) {
+	for _, tc := range []struct{ name, nl1, nl2, nl3 string }{
+		{"LF", "\n", "\n", "\n"},
+		{"CRLF", "\r\n", "\r\n", "\r\n"},
+		{"CR", "\r", "\r", "\r"},
+		{"mixed", "\r", "\r\n", "\n"},
+		{"mixed2", "\n", "\r", "\r\n"},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			csv := "time (s), roll (deg)" + tc.nl1 + "0, 1" + tc.nl2 + "# c" + tc.nl3 + "1,  bad"
+			src := "loop l {\n  fluid R134a\n}\ncase c {\n  profile \"t.csv\"\n}\n"
+			m := LoadSource("p.loop", []byte(src), memFS{"t.csv": []byte(csv)})
+			if len(m.Diags) != 1 {
+				t.Fatalf("%d findings, want 1: %v", len(m.Diags), m.Diags)
+			}
+			d := m.Diags[0]
+			if at := csv[d.Loc.Span.Start:d.Loc.Span.End]; at != "bad" {
+				t.Errorf("finding covers %q, want %q", at, "bad")
+			}
+			pos := NewMapper([]byte(csv)).OffsetPosition(d.Loc.Span.Start, UTF16)
+			if pos.Line != 3 || pos.Col != 4 {
+				t.Errorf("finding at %+v, want line 3 column 4 (zero-based)", pos)
+			}
+			_, rows, _ := ReadProfileCSV([]byte(strings.Replace(csv, "bad", "2", 1)))
+			if len(rows) != 2 || rows[0].Line != 2 || rows[1].Line != 4 {
+				t.Errorf("rows %+v, want lines 2 and 4", rows)
+			}
+		})
 	}
 }
