@@ -103,6 +103,15 @@ func insertBeforeClose(m *lang.Model, d lang.Decl, indent, stmt string) (lang.Ed
 // sigAs formats an SI value to three significant figures in the unit a
 // value was written in (as written), else in unit.
 func sigAs(si float64, v lang.Value, unit string) string {
+	u, text, ok := unitAs(v, unit)
+	if !ok {
+		return fmt.Sprintf("%.3g", si)
+	}
+	return strconv.FormatFloat(u.FromSI(si), 'g', 3, 64) + " " + text
+}
+
+// unitAs is the unit a value was written in (as written), else unit.
+func unitAs(v lang.Value, unit string) (units.Unit, string, bool) {
 	text := unit
 	if v.Unit() != "" {
 		text = v.Unit()
@@ -110,9 +119,27 @@ func sigAs(si float64, v lang.Value, unit string) string {
 	u, err := units.Parse(text)
 	if err != nil {
 		if u, err = units.Parse(unit); err != nil {
-			return fmt.Sprintf("%.3g", si)
+			return u, "", false
 		}
 		text = unit
 	}
-	return strconv.FormatFloat(u.FromSI(si), 'g', 3, 64) + " " + text
+	return u, text, true
+}
+
+// sigAsRange is sigAs for the two ends of a range, both to the decimals
+// of three significant figures of the larger end: "0.110 kg to 0.150 kg",
+// not "0.11 kg to 0.15 kg", whose dropped zeros read as a cruder figure.
+func sigAsRange(lo, hi float64, v lang.Value, unit string) (string, string) {
+	u, text, ok := unitAs(v, unit)
+	if !ok {
+		return sigAs(lo, v, unit), sigAs(hi, v, unit)
+	}
+	a, b := u.FromSI(lo), u.FromSI(hi)
+	m := math.Max(math.Abs(a), math.Abs(b))
+	if m == 0 || math.IsNaN(m) || math.IsInf(m, 0) {
+		return sigAs(lo, v, unit), sigAs(hi, v, unit)
+	}
+	r, _ := strconv.ParseFloat(strconv.FormatFloat(m, 'e', 2, 64), 64)
+	d := max(2-int(math.Floor(math.Log10(r))), 0)
+	return strconv.FormatFloat(a, 'f', d, 64) + " " + text, strconv.FormatFloat(b, 'f', d, 64) + " " + text
 }

@@ -73,7 +73,8 @@ func marginText(c *Context, m flow.Margin, cr *flow.CaseResult) string {
 			return fmt.Sprintf("charge %s, limit %s", kg(m.Value), kg(m.Limit))
 		}
 		r := cr.ChargeRange
-		s := fmt.Sprintf("charge %s, the case accepts %s to %s: ", kg(r.Charge), kg(math.Max(r.Low, 0)), kg(r.High))
+		lo, hi := sigAsRange(math.Max(r.Low, 0), r.High, l.Charge, "kg")
+		s := fmt.Sprintf("charge %s, the case accepts %s to %s: ", kg(r.Charge), lo, hi)
 		switch {
 		case r.Charge < r.Low:
 			return s + kg(r.Low-r.Charge) + " short"
