@@ -315,6 +315,13 @@ func localTable(w io.Writer, l *flow.LoopResult, c *flow.CaseResult) {
 		return
 	}
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
+	var ps []float64
+	for _, s := range c.Components {
+		if s.Local != nil {
+			ps = append(ps, s.Local.PressureIn/1e3)
+		}
+	}
+	pd := sigDecimals(ps, 4)
 	fmt.Fprintln(tw, "  local saturation\tp in kPa\tT_sat in °C\tT_sat out °C\tinlet subcooling K\tboiling onset m\t")
 	for _, s := range c.Components {
 		if s.Local == nil {
@@ -328,7 +335,7 @@ func localTable(w io.Writer, l *flow.LoopResult, c *flow.CaseResult) {
 				onset = fixed(*s.Local.BoilingOnset, 3)
 			}
 		}
-		fmt.Fprintf(tw, "  %s\t%s\t%s\t%s\t%s\t%s\t\n", s.Component, sig(s.Local.PressureIn/1e3, 4),
+		fmt.Fprintf(tw, "  %s\t%s\t%s\t%s\t%s\t%s\t\n", s.Component, fixed(s.Local.PressureIn/1e3, pd),
 			fixed(s.Local.SatTempIn-273.15, 2), fixed(s.Local.SatTempOut-273.15, 2), sub, onset)
 	}
 	tw.Flush()

@@ -481,3 +481,42 @@ func TestChargeRangeDecimals(t *testing.T) {
 		}
 	}
 }
+
+// The local-saturation table's pressures share their decimals, so the
+// column lines up and no row shows more digits than the others (a
+// pressure of 8.386 kPa under 18.56 kPa read as the better known).
+func TestLocalPressureColumn(t *testing.T) {
+	seen := 0
+	for _, path := range exampleFiles(t) {
+		res := estimateFile(t, path, flow.Options{NoTilt: true})
+		var b bytes.Buffer
+		if err := EstimateText(&b, res, nil); err != nil {
+			t.Fatal(err)
+		}
+		lines := strings.Split(b.String(), "\n")
+		for i := 0; i < len(lines); i++ {
+			if !strings.Contains(lines[i], "local saturation") || !strings.Contains(lines[i], "p in kPa") {
+				continue
+			}
+			dec := -1
+			for _, row := range lines[i+1:] {
+				f := strings.Fields(row)
+				if len(f) < 4 || strings.HasSuffix(f[0], ":") || f[0] == "pressure" {
+					break
+				}
+				d := 0
+				if k := strings.IndexByte(f[1], '.'); k >= 0 {
+					d = len(f[1]) - k - 1
+				}
+				if dec >= 0 && d != dec {
+					t.Errorf("%s: pressure %s has %d decimals, the row above %d:\n%s", filepath.Base(path), f[1], d, dec, strings.Join(lines[i:i+6], "\n"))
+				}
+				dec = d
+				seen++
+			}
+		}
+	}
+	if seen == 0 {
+		t.Fatal("no local-saturation table in the examples")
+	}
+}

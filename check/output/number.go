@@ -31,18 +31,28 @@ func sig(v float64, n int) string {
 // larger end, both with the same decimals: 0.172–0.210, not 0.172–0.21,
 // whose dropped zero reads as a value known to two digits only.
 func sigRange(lo, hi float64, n int) string {
-	m := math.Max(math.Abs(lo), math.Abs(hi))
-	if m == 0 || math.IsNaN(m) || math.IsInf(m, 0) {
+	if m := math.Max(math.Abs(lo), math.Abs(hi)); m == 0 || math.IsNaN(m) || math.IsInf(m, 0) {
 		return sig(lo, n) + "–" + sig(hi, n)
 	}
-	// The larger end after rounding to n digits sets the decimals, so that
-	// 0.9996 counts as 1.00.
-	r, _ := strconv.ParseFloat(strconv.FormatFloat(m, 'e', n-1, 64), 64)
-	d := n - 1 - int(math.Floor(math.Log10(r)))
-	if d < 0 {
-		d = 0
-	}
+	d := sigDecimals([]float64{lo, hi}, n)
 	return fixed(lo, d) + "–" + fixed(hi, d)
+}
+
+// sigDecimals is the number of decimals that gives the largest of vs n
+// significant digits: a column printed with it keeps its decimal points
+// lined up and never shows one row to more digits than the rest.
+func sigDecimals(vs []float64, n int) int {
+	m := 0.0
+	for _, v := range vs {
+		if a := math.Abs(v); a > m && !math.IsInf(a, 0) {
+			m = a
+		}
+	}
+	if m == 0 || math.IsNaN(m) {
+		return n - 1
+	}
+	r, _ := strconv.ParseFloat(strconv.FormatFloat(m, 'e', n-1, 64), 64)
+	return max(n-1-int(math.Floor(math.Log10(r))), 0)
 }
 
 func celsius(k float64) float64 { return k - 273.15 }
