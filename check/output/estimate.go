@@ -578,7 +578,7 @@ func stabilityText(w io.Writer, c *flow.CaseResult) {
 		}
 	}
 	for _, ch := range st.Channels {
-		s := fmt.Sprintf("%s N_pch − N_sub %s against the density-wave boundary %s", ch.Component, sig(ch.Npch-ch.Nsub, 3), sig(ch.Boundary, 3))
+		s := fmt.Sprintf("%s N_pch − N_sub %s against the density-wave boundary %s", ch.Component, sigZeros(ch.Npch-ch.Nsub, 3), sigZeros(ch.Boundary, 3))
 		if !ch.Stable {
 			s += " (beyond it)"
 		}

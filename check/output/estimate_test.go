@@ -520,3 +520,16 @@ func TestLocalPressureColumn(t *testing.T) {
 		t.Fatal("no local-saturation table in the examples")
 	}
 }
+
+// A figure compared with another keeps its trailing zeros, so both show
+// the same number of significant digits.
+func TestSigZeros(t *testing.T) {
+	for _, c := range []struct {
+		v    float64
+		want string
+	}{{3.1, "3.10"}, {4.234, "4.23"}, {-36.31, "-36.3"}, {0, "0.00"}, {12345, "12345"}, {0.9996, "1.00"}} {
+		if got := sigZeros(c.v, 3); got != c.want {
+			t.Errorf("sigZeros(%g, 3) = %q, want %q", c.v, got, c.want)
+		}
+	}
+}

@@ -55,6 +55,15 @@ func sigDecimals(vs []float64, n int) int {
 	return max(n-1-int(math.Floor(math.Log10(r))), 0)
 }
 
+// sigZeros is sig keeping trailing zeros: 3.10, not 3.1, beside a 4.23
+// that it is compared with.
+func sigZeros(v float64, n int) string {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return sig(v, n)
+	}
+	return fixed(v, sigDecimals([]float64{v}, n))
+}
+
 func celsius(k float64) float64 { return k - 273.15 }
 
 func deg(r float64) float64 { return r * 180 / math.Pi }
