@@ -255,9 +255,9 @@ func caseText(w io.Writer, l *flow.LoopResult, c *flow.CaseResult, tilt *picture
 		budgetTable(w, l, c)
 		t := c.Totals
 		fmt.Fprintf(w, "  heat in %s W, rejected %s W; gravity head at vanishing flow %s Pa; inventory %s kg (+ %s kg in reservoirs)\n",
-			fixed(t.Heat, 1), fixed(t.Rejected, 1), fixed(t.HeadMax, 0), sig(t.Inventory, 3), sig(t.Reservoirs, 3))
+			fixed(t.Heat, 1), fixed(t.Rejected, 1), fixed(t.HeadMax, 0), sigZeros(t.Inventory, 3), reservoirText(t.Reservoirs))
 		if t.Transit > 0 {
-			fmt.Fprintf(w, "  transit time round the loop %s s: attitude or acceleration changing faster than this is beyond this quasi-static estimate; a transient model or a test is needed\n", sig(t.Transit, 3))
+			fmt.Fprintf(w, "  transit time round the loop %s s: attitude or acceleration changing faster than this is beyond this quasi-static estimate; a transient model or a test is needed\n", sigZeros(t.Transit, 3))
 		}
 		for _, cs := range c.Components {
 			if j := cs.Junction; j != nil {
@@ -298,6 +298,14 @@ func stateTable(w io.Writer, c *flow.CaseResult) {
 			fixed(s.VoidOut, 3), fixed(s.VoidMean, 3), fixed(s.VelLiquid, 2), fixed(s.VelVapour, 2))
 	}
 	tw.Flush()
+}
+
+// reservoirText is the liquid held in reservoirs, kg: "0" for none.
+func reservoirText(kg float64) string {
+	if kg == 0 {
+		return "0"
+	}
+	return sigZeros(kg, 3)
 }
 
 // localTable lists each component's local saturation: with saturation at

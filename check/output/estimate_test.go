@@ -533,3 +533,28 @@ func TestSigZeros(t *testing.T) {
 		}
 	}
 }
+
+// The inventory, the reservoirs' liquid and the transit time print to
+// three significant digits, trailing zeros kept (0.100 kg, 3.20 s), as the
+// other estimates do.
+func TestTotalsFigures(t *testing.T) {
+	re := regexp.MustCompile(`inventory (\S+) kg \(\+ (\S+) kg in reservoirs\)|transit time round the loop (\S+) s`)
+	figures := func(s string) int {
+		s = strings.TrimLeft(strings.ReplaceAll(strings.TrimPrefix(s, "-"), ".", ""), "0")
+		return len(s)
+	}
+	for _, path := range exampleFiles(t) {
+		res := estimateFile(t, path, flow.Options{NoTilt: true})
+		var b bytes.Buffer
+		if err := EstimateText(&b, res, nil); err != nil {
+			t.Fatal(err)
+		}
+		for _, m := range re.FindAllStringSubmatch(b.String(), -1) {
+			for _, v := range m[1:] {
+				if v != "" && v != "0" && figures(v) < 3 {
+					t.Errorf("%s: %q shows %s to fewer than three figures", filepath.Base(path), m[0], v)
+				}
+			}
+		}
+	}
+}
