@@ -59,3 +59,30 @@ func TestTextEscapesExcerpts(t *testing.T) {
 		t.Errorf("annotation carries control bytes: %q", b.String())
 	}
 }
+
+// A finding on a very long line shows only the part of the line about its
+// span, so a line of a megabyte with a hundred errors does not print a
+// hundred megabytes; the caret still stands under the span.
+func TestTextClipsLongLines(t *testing.T) {
+	src := "param a = 1 m " + strings.Repeat("+ 1 m ", 100_000) + "$ 2\n"
+	m := lang.LoadSource("long.loop", []byte(src), nil)
+	var fs []Finding
+	for _, d := range m.Diags {
+		fs = append(fs, Finding{Diagnostic: d, Model: m})
+	}
+	if len(fs) == 0 {
+		t.Fatal("no finding")
+	}
+	var b strings.Builder
+	if err := Text(&b, nil, fs, false); err != nil {
+		t.Fatal(err)
+	}
+	out := b.String()
+	if len(out) > 1000 {
+		t.Fatalf("%d bytes of output for %d findings", len(out), len(fs))
+	}
+	want := "  …" + "+" + strings.Repeat(" 1 m +", 9) + " 1 m $ 2\n" + strings.Repeat(" ", 2+1+60) + "^\n"
+	if !strings.Contains(out, want) {
+		t.Errorf("excerpt:\n%s\nwant:\n%s", out, want)
+	}
+}

@@ -66,10 +66,21 @@ func Text(w io.Writer, files []File, fs []Finding, colour bool) error {
 	return err
 }
 
+// A line longer than excerptLine bytes is shown under a finding only
+// excerptAround characters before and after its span, and excerptSpan of
+// the span itself: a finding on a line of a megabyte would otherwise print
+// the megabyte, once for each finding on it.
+const (
+	excerptLine   = 240
+	excerptAround = 60
+	excerptSpan   = 120
+)
+
 // caret prints the source line and a caret line under the span; tabs
 // before the span are kept so the caret lines up. Characters a terminal
 // would act on are printed escaped (see Printable), the caret widened to
-// match.
+// match. Of a long line only the part about the span is printed, its cut
+// ends marked with "…".
 func caret(b *strings.Builder, m *lang.Model, loc lang.Location, s, e Pos, paint func(string) string) {
 	mp := m.Mapper(loc.File)
 	if mp == nil {
@@ -82,8 +93,26 @@ func caret(b *strings.Builder, m *lang.Model, loc lang.Location, s, e Pos, paint
 	if e.Line == s.Line && e.Char > s.Char {
 		last = e.Char - 1
 	}
+	lo, hi := 1, len(text)
+	if len(text) > excerptLine {
+		lo = max(1, s.Char-excerptAround)
+		hi = min(last, s.Char+excerptSpan-1) + excerptAround
+	}
+	if lo > 1 {
+		line.WriteString("…")
+		pad.WriteByte(' ')
+	}
 	char := 1 // 1-based character of text being printed
 	for i := 0; i < len(text); char++ {
+		if char < lo {
+			_, size := utf8.DecodeRuneInString(text[i:])
+			i += size
+			continue
+		}
+		if char > hi {
+			line.WriteString("…")
+			break
+		}
 		r, size := utf8.DecodeRuneInString(text[i:])
 		shown := escaped(r, size, text[i])
 		if shown == "" {
