@@ -350,17 +350,7 @@ func externalSlopeSparse(nj int, from, to []int, slopes []float64, skip, a, b in
 		}
 	}
 	seen := make([]bool, nj)
-	seen[a] = true
-	for q := []int{a}; len(q) > 0; {
-		u := q[len(q)-1]
-		q = q[:len(q)-1]
-		for _, v := range adj[u] {
-			if !seen[v] {
-				seen[v] = true
-				q = append(q, v)
-			}
-		}
-	}
+	flood(adj, a, seen)
 	if !seen[b] {
 		return math.Inf(1) // the rest does not connect the two junctions
 	}

@@ -50,20 +50,26 @@ func (n *network) groundJunctions() []bool {
 		if seen[r] {
 			continue
 		}
-		g[r], seen[r] = true, true
-		q := []int{r}
-		for len(q) > 0 {
-			u := q[len(q)-1]
-			q = q[:len(q)-1]
-			for _, v := range adj[u] {
-				if !seen[v] {
-					seen[v] = true
-					q = append(q, v)
-				}
+		g[r] = true
+		flood(adj, r, seen)
+	}
+	return g
+}
+
+// flood marks in seen every junction that adjacency lists adj connect to
+// junction r, r included.
+func flood(adj [][]int, r int, seen []bool) {
+	seen[r] = true
+	for q := []int{r}; len(q) > 0; {
+		u := q[len(q)-1]
+		q = q[:len(q)-1]
+		for _, v := range adj[u] {
+			if !seen[v] {
+				seen[v] = true
+				q = append(q, v)
 			}
 		}
 	}
-	return g
 }
 
 // branchJacobian assembles the sparse system of a Newton step at ev (see
