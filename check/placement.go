@@ -15,7 +15,7 @@ func init() {
 	Register(&Rule{ID: "condenser-drains-upward", Category: CategoryDirection, Severity: lang.Warning,
 		Summary: "a condenser whose outlet is above its inlet",
 		Rationale: "The condensate leaves a condenser by gravity. With the outlet above the inlet it must climb against the vapour that enters at the bottom: the liquid is held up and runs back, the counter-current flow floods, and the condenser's lower part fills with liquid instead of condensing. " +
-			"Condensation studies in inclined tubes find heat transfer and drainage best with the flow inclined downward, and flooding and liquid hold-up with it inclined upward (Lips and Meyer 2011, Int. J. Multiphase Flow 37, 845–859, from memory). " +
+			"Where the vapour rises slowly, below the flooding velocity, the condensate runs down against it as in a reflux condenser, and no prediction for that flow has been verified widely enough for general use; data on inclined tubes disagree even on how inclination changes the heat transfer (Lips and Meyer 2011, Int. J. Multiphase Flow 37:845–859, as summarised in the 2021 ASHRAE Handbook—Fundamentals, ch. 5). " +
 			"Reported when the outlet is more than 5 mm or 1 % of the length above the inlet (the layout-drawing tolerance of the geometry rules; common practice).",
 		Example: "node coil_in at (0, 0, 1.0) m\nnode coil_out at (0, 0, 1.3) m\ncondenser coil from coil_in to coil_out { ... }",
 		Fix:     "Feed the vapour at the condenser's top and take the liquid from its bottom (swap the nodes and the riser's connection), or lay it level or falling along the flow.",

@@ -4,7 +4,7 @@ import "math"
 
 // Constants K of the pool-boiling critical heat flux [CHFPool].
 const (
-	// Zuber is K = π/24 ≈ 0.131 (Zuber 1958).
+	// Zuber is K = π/24 ≈ 0.131 (Zuber 1959).
 	Zuber = math.Pi / 24
 	// LienhardDhir is K = 0.149 for a large flat heater (Lienhard & Dhir
 	// 1973), the default.
@@ -40,9 +40,12 @@ func cooperCoef(pr, molarMass, rpUm float64) float64 {
 
 // Cooper is the nucleate pool-boiling heat transfer coefficient of Cooper
 // (1984), W/(m²K), at reduced pressure pr = p/pc, molar mass M (kg/mol,
-// converted to g/mol inside), surface roughness Rp in µm (≤ 0 means the
-// usual 1 µm) and heat flux q (W/m²). Cooper suggested multiplying by 1.7
-// for horizontal copper cylinders (from memory); that is left to callers.
+// converted to g/mol inside), surface roughness Rp in µm (≤ 0 means 1 µm,
+// the value to use "if unknown") and heat flux q (W/m²). Cooper suggested,
+// "based on inconclusive evidence", multiplying by 1.7 for copper surfaces;
+// most later work finds better agreement without it and does not
+// recommend it (both from the 2021 ASHRAE Handbook—Fundamentals (SI),
+// ch. 5, Table 1 eq. T1.6 and the text beside it), so it is not applied.
 func Cooper(pr, M, rpUm, q float64) float64 {
 	c := cooperCoef(pr, M, rpUm)
 	if c == 0 || !(q > 0) {

@@ -110,8 +110,20 @@ func TestCHFPool(t *testing.T) {
 	// Water at 1 atm with Incropera Example 10.1 properties, g = 9.8:
 	// 1.258e6 W/m² with K = 0.149 (recomputed); Incropera prints 1.26 MW/m².
 	near(t, "water 1 atm", CHFPool(LienhardDhir, 2257e3, 957.9, 0.5955, 58.9e-3, 9.8), 1.258e6, 5e-4)
-	// Zuber's constant π/24 = 0.1309 (Zuber 1958).
+	// Zuber's constant π/24 = 0.1309 (Zuber 1959, AECU-4439).
 	near(t, "Zuber", Zuber, 0.1309, 1e-3)
+	// The constant K of this form "varies from approximately 0.12 to 0.16
+	// for a large variety of liquids" (2021 ASHRAE Handbook—Fundamentals
+	// (SI), ch. 5, text beside Table 1 eq. T1.7, after Kutateladze 1951 and
+	// Zuber et al. 1962): both constants offered lie in that band.
+	for _, k := range []struct {
+		name string
+		K    float64
+	}{{"Zuber", Zuber}, {"Lienhard & Dhir", LienhardDhir}} {
+		if !(k.K >= 0.12 && k.K <= 0.16) {
+			t.Errorf("%s K = %g outside the 0.12–0.16 stated for many liquids", k.name, k.K)
+		}
+	}
 	// q''max ∝ a^¼ (formula): sixteen times the body force doubles it.
 	near(t, "accel scaling", CHFPool(Zuber, 2257e3, 957.9, 0.5955, 58.9e-3, 16*9.8),
 		2*CHFPool(Zuber, 2257e3, 957.9, 0.5955, 58.9e-3, 9.8), 1e-12)

@@ -13,7 +13,10 @@
 // vapour.
 //
 // Methods and their references (volume and page numbers beyond author,
-// year and journal are given from memory):
+// year and journal are given from memory, except those that agree with the
+// reference list of the 2021 ASHRAE Handbook—Fundamentals (SI), ch. 5:
+// Zivi, Rouhani–Axelsson, Müller-Steinhagen & Heck, Lockhart–Martinelli,
+// Zuber's report, Cooper's review, Katto–Ohno, Shah (1979) and Nusselt):
 //
 // Single-phase Darcy friction factor:
 //   - [Churchill] (default): S.W. Churchill, "Friction-factor equation spans
@@ -47,11 +50,12 @@
 //     407–425; or A.E. Dukler et al., AIChE J. 10 (1964) 38–51.
 //
 // Boiling and condensation:
-//   - [CHFPool]: pool-boiling critical heat flux, N. Zuber, AECU-4439 (1958)
+//   - [CHFPool]: pool-boiling critical heat flux, N. Zuber, AECU-4439 (1959)
 //     with K = π/24, or J.H. Lienhard, V.K. Dhir, NASA CR-2270 (1973) with
 //     K = 0.149 (default, [LienhardDhir]).
 //   - [Cooper]: nucleate pool boiling, M.G. Cooper, IChemE Symp. Ser. 86
-//     (1984) 785–793.
+//     (1984) 785–793; the ASHRAE Handbook gives for it M.G. Cooper, Adv.
+//     Heat Transfer 16 (1984) 157–239.
 //   - [CHFKattoOhno]: flow-boiling critical heat flux in uniformly heated
 //     tubes, Y. Katto, H. Ohno, Int. J. Heat Mass Transfer 27 (1984)
 //     1641–1648; coefficients and regime rules as reproduced in J.G. Collier,

@@ -124,7 +124,7 @@ func BenchmarkEnvelopeGrid(b *testing.B) {
 }
 
 // The pool-boiling critical heat flux grows as the body force to the power
-// 1/4 (Lienhard & Dhir 1973, as Zuber 1958), so its ratio is worst where
+// 1/4 (Lienhard & Dhir 1973, as Zuber 1959), so its ratio is worst where
 // the body force is weakest: pitched 10°, at the forward acceleration that
 // cancels gravity's forward component, g_n·sin 10° = 0.1736 g_n, an
 // interior point the bracketing must close on (to 1 % of the 1 g_n range).
