@@ -105,7 +105,8 @@ func (v Validity) Worst(values map[string]float64) (o Outside, ok bool) {
 // Sources of the stated ranges.
 const (
 	srcFluidsFriedel = "fluids library (C. Bell), two_phase.Friedel: " +
-		"\"known to work poorly when mul/mug > 1000\""
+		"\"known to work poorly when mul/mug > 1000\"; 2021 ASHRAE Handbook—Fundamentals, ch. 5: " +
+		"\"generally recommended when the viscosity ratio μl/μv is less than 1000\""
 	srcFluidsFriedelD  = "fluids library (C. Bell), two_phase.Friedel: \"tested on data with diameters as small as 4 mm\""
 	srcFluidsFriedelUp = "fluids library (C. Bell), two_phase.Friedel: \"applicable to vertical upflow and horizontal flow\"; " +
 		"a tube within 5° of horizontal (|cos θ| ≤ 0.0872) counts as horizontal (circa's choice)"
@@ -114,7 +115,7 @@ const (
 	srcDittusBoelter = "the turbulent range of the Dittus–Boelter-type single-phase coefficient it scales: " +
 		"Re_D ≥ 10000 as the ht library (C. Bell) states for conv_internal.turbulent_Dittus_Boelter"
 	srcShahMemory = "Shah (1979) data range and Shah's later (1981) low-flow limit, from memory " +
-		"(Shah, HVAC&R Research 15(5), 2009, confirms that the 1981 paper set low-flow limits)"
+		"(Shah, HVAC&R Research 15(5), 2009, 889–913, confirms that the 1981 paper set low-flow limits)"
 	srcCooperMemory    = "Cooper (1984) data range, from memory"
 	srcKattoOhnoMemory = "Katto & Ohno (1984) data range, from memory"
 )
