@@ -21,7 +21,7 @@ var ammonia = (&helmholtz{
 		Tc:        405.56, Pc: 1.136339e+07, RhoC: 233.25,
 		Tmin:   233.15, // −40 °C; triple point 195.495 K
 		Tmax:   405.56 - 3,
-		Safety: "B2L", // ASHRAE 34 safety group (from memory)
+		Safety: "B2L", // ASHRAE 34 safety group (from memory; the CoolProp library lists "B2", without the L of the 2L subclass)
 		Source: "EOS: Gao et al., J. Phys. Chem. Ref. Data 52 (2023) 013102; viscosity: Fenghour et al., J. Phys. Chem. Ref. Data 24 (1995) 1649; thermal conductivity: VDI Heat Atlas, 2nd ed. (2010), D3.1 liquid and dilute-gas polynomials with the density dependence of Chung et al., Ind. Eng. Chem. Res. 27 (1988) 671; surface tension: Mulero et al., J. Phys. Chem. Ref. Data 41 (2012) 043105",
 	},
 	R: 8.3144598, M: 17.03052 / 1000,

@@ -17,7 +17,7 @@ var r1234yf = (&helmholtz{
 		Tc:        367.85, Pc: 3384400, RhoC: 476.69,
 		Tmin:   233.15, // −40 °C; triple point 121.6 K
 		Tmax:   367.85 - 3,
-		Safety: "A2L", // ASHRAE 34 safety group (from memory)
+		Safety: "A2L", // ASHRAE 34 safety group, as the CoolProp library lists it (dev/fluids/R1234yf.json, INFO.ENVIRONMENTAL.ASHRAE34)
 		Source: "EOS: Lemmon and Akasaka, Int. J. Thermophys. 43 (2022) 119; viscosity: Huber and Assael, Int. J. Refrig. 71 (2016) 39; thermal conductivity: Perkins and Huber, J. Chem. Eng. Data 56 (2011) 4868; surface tension: Mulero et al., J. Phys. Chem. Ref. Data 41 (2012) 043105",
 	},
 	R: 8.314462618, M: 114.0416 / 1000,

@@ -17,7 +17,7 @@ var r134a = (&helmholtz{
 		Tc:        374.21, Pc: 4059280, RhoC: 511.9,
 		Tmin:   233.15, // −40 °C; triple point 169.85 K
 		Tmax:   374.21 - 3,
-		Safety: "A1", // ASHRAE 34 safety group (from memory)
+		Safety: "A1", // ASHRAE 34 safety group, as the CoolProp library lists it (dev/fluids/R134a.json, INFO.ENVIRONMENTAL.ASHRAE34)
 		Source: "EOS: Tillner-Roth and Baehr, J. Phys. Chem. Ref. Data 23 (1994) 657; viscosity: Huber et al., Ind. Eng. Chem. Res. 42 (2003) 3163; thermal conductivity: Perkins et al., NIST IR 6605 (2000); surface tension: Mulero et al., J. Phys. Chem. Ref. Data 41 (2012) 043105",
 	},
 	R: 8.314471, M: 102.032 / 1000,

@@ -17,7 +17,7 @@ var r245fa = (&helmholtz{
 		Tc:        427.01, Pc: 3651000, RhoC: 519.44,
 		Tmin:   233.15, // −40 °C; triple point 171.05 K
 		Tmax:   427.01 - 3,
-		Safety: "B1", // ASHRAE 34 safety group (from memory)
+		Safety: "B1", // ASHRAE 34 safety group, as the CoolProp library lists it (dev/fluids/R245fa.json, INFO.ENVIRONMENTAL.ASHRAE34)
 		Source: "EOS: Akasaka, Zhou and Lemmon, J. Phys. Chem. Ref. Data 44 (2015) 013104; viscosity: extended corresponding states of Huber et al., Ind. Eng. Chem. Res. 42 (2003) 3163; thermal conductivity: extended corresponding states with R134a as reference; surface tension: Mulero et al., J. Phys. Chem. Ref. Data 41 (2012) 043105",
 	},
 	R: 8.3144621, M: 134.0479 / 1000,
