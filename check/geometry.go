@@ -304,7 +304,7 @@ func riseMisclosure(c *Context) {
 	// Height of every node along the spanning forest, from the rises.
 	h := make([]float64, len(l.Nodes))
 	for _, v := range g.Order {
-		p := g.Parent[v]
+		p, v := g.Parent[v], int(v)
 		if p < 0 {
 			continue
 		}

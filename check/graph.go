@@ -4,27 +4,30 @@ import "circa/lang"
 
 // Graph is a loop's flow graph: nodes joined by components directed along
 // the flow. Reservoirs hang off a node and are not edges.
+//
+// Indices are int32 and the per-node lists share one array: a large loop's
+// graph is a few machine words per node and component, not a slice header
+// per node and list.
 type Graph struct {
 	Loop *lang.Loop
 	// Edges lists the components with two valid ends, by Component.Index.
-	Edges []int
-	// Out and In list, by Node.Index, the components leaving and entering it.
-	Out, In [][]int
-	// Reservoirs lists, by Node.Index, the reservoirs hanging off it.
-	Reservoirs [][]int
-	// Ends counts, by Node.Index, the component ends at the node.
-	Ends []int
+	Edges []int32
+	// lists holds, node after node, the components leaving the node, those
+	// entering it and the reservoirs hanging off it; node v's lists start at
+	// off[3v], off[3v+1] and off[3v+2] and end where the next begins.
+	lists []int32
+	off   []int32
 	// Piece numbers the connected pieces by Node.Index (-1: no component
 	// joins the node); NPieces counts them.
-	Piece   []int
+	Piece   []int32
 	NPieces int
 	// Parent is, by Node.Index, the component that reaches the node in a
 	// breadth-first spanning forest (-1 at each piece's root), and Depth its
 	// depth in that forest.
-	Parent []int
-	Depth  []int
+	Parent []int32
+	Depth  []int32
 	// Order lists the nodes in the order the forest reached them.
-	Order []int
+	Order []int32
 	// Chords are the components outside the spanning forest: each closes
 	// one independent cycle (a cycle basis).
 	Chords []int
@@ -38,6 +41,24 @@ type Graph struct {
 	HangingReservoir []bool
 }
 
+// Out lists the components leaving node v, by ascending Component.Index.
+func (g *Graph) Out(v int) []int32 { return g.list(3 * v) }
+
+// In lists the components entering node v, by ascending Component.Index.
+func (g *Graph) In(v int) []int32 { return g.list(3*v + 1) }
+
+// Reservoirs lists the reservoirs hanging off node v.
+func (g *Graph) Reservoirs(v int) []int32 { return g.list(3*v + 2) }
+
+// Ends counts the component ends at node v (a component from v to v
+// counts twice).
+func (g *Graph) Ends(v int) int { return int(g.off[3*v+2] - g.off[3*v]) }
+
+func (g *Graph) list(k int) []int32 {
+	a, b := g.off[k], g.off[k+1]
+	return g.lists[a:b:b]
+}
+
 func validEnd(l *lang.Loop, n *lang.Node) bool {
 	return n != nil && n.Index >= 0 && n.Index < len(l.Nodes) && l.Nodes[n.Index] == n
 }
@@ -46,61 +67,56 @@ func validEnd(l *lang.Loop, n *lang.Node) bool {
 func NewGraph(l *lang.Loop) *Graph {
 	nn, nc := len(l.Nodes), len(l.Components)
 	g := &Graph{Loop: l,
-		Out: make([][]int, nn), In: make([][]int, nn), Reservoirs: make([][]int, nn), Ends: make([]int, nn),
-		Piece: make([]int, nn), Parent: make([]int, nn), Depth: make([]int, nn),
+		Piece: make([]int32, nn), Parent: make([]int32, nn), Depth: make([]int32, nn),
 		OnCycle: make([]bool, nc), Hanging: make([]bool, nc), HangingReservoir: make([]bool, nc),
 	}
-	// The lists of every node share one array, counted first and then
-	// filled: a list of its own for each node was an allocation or two
-	// per node of a large loop.
-	nOut, nIn, nRes := make([]int32, nn), make([]int32, nn), make([]int32, nn)
-	edges, total := 0, 0
+	// The lists are counted first, then filled in component order.
+	g.off = make([]int32, 3*nn+1)
+	edges := 0
 	for _, c := range l.Components {
 		if c.Kind == lang.Reservoir {
 			if validEnd(l, c.From) {
-				nRes[c.From.Index]++
-				total++
+				g.off[3*c.From.Index+2+1]++
 			}
 			continue
 		}
 		if validEnd(l, c.From) && validEnd(l, c.To) {
-			nOut[c.From.Index]++
-			nIn[c.To.Index]++
+			g.off[3*c.From.Index+1]++
+			g.off[3*c.To.Index+1+1]++
 			edges++
-			total += 2
 		}
 	}
-	all := make([]int, 0, total)
-	for v := range nn {
-		for _, list := range [...]struct {
-			dst *[]int
-			n   int32
-		}{{&g.Out[v], nOut[v]}, {&g.In[v], nIn[v]}, {&g.Reservoirs[v], nRes[v]}} {
-			if list.n > 0 {
-				// Full slice expressions, so that no list grows into
-				// the next.
-				*list.dst = all[len(all) : len(all) : len(all)+int(list.n)]
-				all = all[:len(all)+int(list.n)]
-			}
-		}
+	for k := 1; k < len(g.off); k++ {
+		g.off[k] += g.off[k-1]
 	}
-	g.Edges = make([]int, 0, edges)
+	g.lists = make([]int32, g.off[len(g.off)-1])
+	// next is where each list's next entry goes: the start of the list
+	// after it once filled, so off itself serves, shifted back after.
+	next := g.off[:len(g.off)-1]
+	g.Edges = make([]int32, 0, edges)
 	for i, c := range l.Components {
 		if c.Kind == lang.Reservoir {
 			if validEnd(l, c.From) {
-				g.Reservoirs[c.From.Index] = append(g.Reservoirs[c.From.Index], i)
+				k := 3*c.From.Index + 2
+				g.lists[next[k]] = int32(i)
+				next[k]++
 			}
 			continue
 		}
 		if !validEnd(l, c.From) || !validEnd(l, c.To) {
 			continue
 		}
-		g.Edges = append(g.Edges, i)
-		g.Out[c.From.Index] = append(g.Out[c.From.Index], i)
-		g.In[c.To.Index] = append(g.In[c.To.Index], i)
-		g.Ends[c.From.Index]++
-		g.Ends[c.To.Index]++
+		g.Edges = append(g.Edges, int32(i))
+		k := 3 * c.From.Index
+		g.lists[next[k]] = int32(i)
+		next[k]++
+		k = 3*c.To.Index + 1
+		g.lists[next[k]] = int32(i)
+		next[k]++
 	}
+	// Each list's start moved to the next one's: shift them back.
+	copy(g.off[1:], g.off[:len(g.off)-1])
+	g.off[0] = 0
 	g.forest()
 	g.cycles()
 	g.prune()
@@ -120,37 +136,37 @@ func (g *Graph) Other(ci, u int) int {
 func (g *Graph) forest() {
 	nn := len(g.Loop.Nodes)
 	inTree := make([]bool, len(g.Loop.Components))
-	g.Order = make([]int, 0, nn)
+	g.Order = make([]int32, 0, nn)
 	for i := range g.Piece {
 		g.Piece[i], g.Parent[i] = -1, -1
 	}
 	for s := 0; s < nn; s++ {
-		if g.Piece[s] >= 0 || g.Ends[s] == 0 {
+		if g.Piece[s] >= 0 || g.Ends(s) == 0 {
 			continue
 		}
-		g.Piece[s] = g.NPieces
+		piece := int32(g.NPieces)
+		g.Piece[s] = piece
 		head := len(g.Order)
-		g.Order = append(g.Order, s)
+		g.Order = append(g.Order, int32(s))
 		for head < len(g.Order) {
-			u := g.Order[head]
+			u := int(g.Order[head])
 			head++
-			for _, list := range [2][]int{g.Out[u], g.In[u]} {
-				for _, ci := range list {
-					v := g.Other(ci, u)
-					if g.Piece[v] >= 0 {
-						continue
-					}
-					g.Piece[v], g.Parent[v], g.Depth[v] = g.NPieces, ci, g.Depth[u]+1
-					inTree[ci] = true
-					g.Order = append(g.Order, v)
+			// The out and in lists of u lie one after the other.
+			for _, ci := range g.lists[g.off[3*u]:g.off[3*u+2]] {
+				v := g.Other(int(ci), u)
+				if g.Piece[v] >= 0 {
+					continue
 				}
+				g.Piece[v], g.Parent[v], g.Depth[v] = piece, ci, g.Depth[u]+1
+				inTree[ci] = true
+				g.Order = append(g.Order, int32(v))
 			}
 		}
 		g.NPieces++
 	}
 	for _, ci := range g.Edges {
 		if !inTree[ci] {
-			g.Chords = append(g.Chords, ci)
+			g.Chords = append(g.Chords, int(ci))
 		}
 	}
 }
@@ -172,7 +188,7 @@ func (g *Graph) Cycle(chord int) []Step {
 	var tail []Step
 	for u != v {
 		if g.Depth[u] >= g.Depth[v] {
-			p := g.Parent[u]
+			p := int(g.Parent[u])
 			if p < 0 {
 				break
 			}
@@ -183,7 +199,7 @@ func (g *Graph) Cycle(chord int) []Step {
 			path = append(path, Step{p, sign})
 			u = g.Other(p, u)
 		} else {
-			p := g.Parent[v]
+			p := int(g.Parent[v])
 			if p < 0 {
 				break
 			}
@@ -205,40 +221,39 @@ func (g *Graph) Cycle(chord int) []Step {
 // the same strongly connected component (Tarjan's algorithm, iterative).
 func (g *Graph) cycles() {
 	nn := len(g.Loop.Nodes)
-	index := make([]int, nn)
-	low := make([]int, nn)
-	onStack := make([]bool, nn)
-	scc := make([]int, nn)
+	// index is -1 for a node not reached yet, its visiting order while it
+	// is on the stack, and -2-k once it is in strongly connected component
+	// k: a node reached and not yet in a component is on the stack.
+	index := make([]int32, nn)
+	low := make([]int32, nn)
 	for i := range index {
 		index[i] = -1
 	}
 	// A search goes at most nn deep, and a loop's chain of nodes does.
-	stack := make([]int, 0, nn)
-	type frame struct{ v, next int }
+	stack := make([]int32, 0, nn)
+	type frame struct{ v, next int32 }
 	call := make([]frame, 0, nn)
-	counter, nscc := 0, 0
+	var counter, nscc int32
 	for s := 0; s < nn; s++ {
-		if index[s] >= 0 {
+		if index[s] != -1 {
 			continue
 		}
-		call = append(call[:0], frame{s, 0})
+		call = append(call[:0], frame{int32(s), 0})
 		index[s], low[s] = counter, counter
 		counter++
-		stack = append(stack, s)
-		onStack[s] = true
+		stack = append(stack, int32(s))
 		for len(call) > 0 {
 			f := &call[len(call)-1]
 			v := f.v
-			if f.next < len(g.Out[v]) {
-				w := g.Loop.Components[g.Out[v][f.next]].To.Index
+			if out := g.Out(int(v)); int(f.next) < len(out) {
+				w := g.Loop.Components[out[f.next]].To.Index
 				f.next++
-				if index[w] < 0 {
+				if index[w] == -1 {
 					index[w], low[w] = counter, counter
 					counter++
-					stack = append(stack, w)
-					onStack[w] = true
-					call = append(call, frame{w, 0})
-				} else if onStack[w] && index[w] < low[v] {
+					stack = append(stack, int32(w))
+					call = append(call, frame{int32(w), 0})
+				} else if index[w] >= 0 && index[w] < low[v] {
 					low[v] = index[w]
 				}
 				continue
@@ -247,8 +262,7 @@ func (g *Graph) cycles() {
 				for {
 					w := stack[len(stack)-1]
 					stack = stack[:len(stack)-1]
-					onStack[w] = false
-					scc[w] = nscc
+					index[w] = -2 - nscc
 					if w == v {
 						break
 					}
@@ -265,44 +279,42 @@ func (g *Graph) cycles() {
 	}
 	for _, ci := range g.Edges {
 		c := g.Loop.Components[ci]
-		g.OnCycle[ci] = scc[c.From.Index] == scc[c.To.Index]
+		g.OnCycle[ci] = index[c.From.Index] == index[c.To.Index]
 	}
 }
 
 // prune peels the trees that hang off the loop's cycles, leaf by leaf.
 func (g *Graph) prune() {
 	nn := len(g.Loop.Nodes)
-	deg := append([]int(nil), g.Ends...)
+	deg := make([]int32, nn)
 	res := make([]bool, nn) // the subtree peeled into the node holds a reservoir
 	gone := make([]bool, len(g.Loop.Components))
-	var queue []int
+	var queue []int32
 	for v := 0; v < nn; v++ {
-		res[v] = len(g.Reservoirs[v]) > 0
+		deg[v] = int32(g.Ends(v))
+		res[v] = len(g.Reservoirs(v)) > 0
 		if deg[v] == 1 {
-			queue = append(queue, v)
+			queue = append(queue, int32(v))
 		}
 	}
-	for len(queue) > 0 {
-		v := queue[0]
-		queue = queue[1:]
+	for h := 0; h < len(queue); h++ {
+		v := int(queue[h])
 		if deg[v] != 1 {
 			continue
 		}
-		for _, list := range [2][]int{g.Out[v], g.In[v]} {
-			for _, ci := range list {
-				if gone[ci] {
-					continue
-				}
-				gone[ci] = true
-				g.Hanging[ci] = true
-				g.HangingReservoir[ci] = res[v]
-				u := g.Other(ci, v)
-				deg[v]--
-				deg[u]--
-				res[u] = res[u] || res[v]
-				if deg[u] == 1 {
-					queue = append(queue, u)
-				}
+		for _, ci := range g.lists[g.off[3*v]:g.off[3*v+2]] {
+			if gone[ci] {
+				continue
+			}
+			gone[ci] = true
+			g.Hanging[ci] = true
+			g.HangingReservoir[ci] = res[v]
+			u := g.Other(int(ci), v)
+			deg[v]--
+			deg[u]--
+			res[u] = res[u] || res[v]
+			if deg[u] == 1 {
+				queue = append(queue, int32(u))
 			}
 		}
 	}

@@ -77,7 +77,7 @@ func danglingEnds(c *Context) {
 			what string
 		}{{comp.From, comp.FromSpan(), "inlet"}, {comp.To, comp.ToSpan(), "outlet"}} {
 			v := end.n.Index
-			if g.Ends[v] != 1 || len(g.Reservoirs[v]) > 0 {
+			if g.Ends(v) != 1 || len(g.Reservoirs(v)) > 0 {
 				continue
 			}
 			d := c.Reportf(lang.Location{File: comp.File(), Span: end.span}, "the %s of %s %s at node %s joins no other component", end.what, comp.Kind, comp.Name, end.n.Name)
@@ -85,9 +85,9 @@ func danglingEnds(c *Context) {
 		}
 	}
 	// A reservoir hanging off a node that no component joins.
-	for v, rs := range g.Reservoirs {
-		if g.Ends[v] == 0 {
-			for _, ri := range rs {
+	for v := range l.Nodes {
+		if g.Ends(v) == 0 {
+			for _, ri := range g.Reservoirs(v) {
 				r := l.Components[ri]
 				c.Reportf(lang.Location{File: r.File(), Span: r.FromSpan()}, "reservoir %s hangs off node %s, which no component joins", r.Name, l.Nodes[v].Name)
 			}
@@ -123,8 +123,8 @@ func loopNotClosed(c *Context) {
 	}
 	var outs, ins []int // open outlets and open inlets
 	for v := range l.Nodes {
-		if g.Ends[v] == 1 && len(g.Reservoirs[v]) == 0 {
-			if len(g.In[v]) == 1 {
+		if g.Ends(v) == 1 && len(g.Reservoirs(v)) == 0 {
+			if len(g.In(v)) == 1 {
 				outs = append(outs, v)
 			} else {
 				ins = append(ins, v)
@@ -139,7 +139,7 @@ func loopNotClosed(c *Context) {
 		return
 	}
 	from, to := l.Nodes[outs[0]], l.Nodes[ins[0]]
-	last := l.Components[g.In[from.Index][0]]
+	last := l.Components[g.In(from.Index)[0]]
 	lay := c.Layout
 	disp := lay.Pos[to.Index].Sub(lay.Pos[from.Index])
 	rise := disp[2]
@@ -188,7 +188,7 @@ func disconnected(c *Context) {
 		p := g.Piece[l.Components[ci].From.Index]
 		count[p]++
 		if first[p] < 0 {
-			first[p] = ci
+			first[p] = int(ci)
 		}
 	}
 	main := 0
@@ -215,7 +215,7 @@ func disconnected(c *Context) {
 // blocked returns whether flow cannot pass node v: at least two component
 // ends meet there and they all point in, or all out.
 func blocked(g *Graph, v int) bool {
-	return g.Ends[v] >= 2 && (len(g.In[v]) == 0 || len(g.Out[v]) == 0)
+	return g.Ends(v) >= 2 && (len(g.In(v)) == 0 || len(g.Out(v)) == 0)
 }
 
 func blockedNodes(c *Context) {
@@ -225,9 +225,9 @@ func blockedNodes(c *Context) {
 		if !blocked(g, v) {
 			continue
 		}
-		way, list := "into", g.In[v]
-		if len(g.In[v]) == 0 {
-			way, list = "out of", g.Out[v]
+		way, list := "into", g.In(v)
+		if len(list) == 0 {
+			way, list = "out of", g.Out(v)
 		}
 		d := c.Reportf(n.NameLoc(), "flow cannot pass node %s: all %d components there run %s it", n.Name, len(list), way)
 		for _, ci := range list {

@@ -69,8 +69,8 @@ func lineSet(g *Graph, from, to lang.Kind) []bool {
 	for len(qf) > 0 {
 		u := qf[0]
 		qf = qf[1:]
-		for _, ci := range g.Out[u] {
-			if !pass(ci) || fwd[ci] {
+		for _, ci := range g.Out(u) {
+			if !pass(int(ci)) || fwd[ci] {
 				continue
 			}
 			fwd[ci] = true
@@ -83,8 +83,8 @@ func lineSet(g *Graph, from, to lang.Kind) []bool {
 	for len(qb) > 0 {
 		u := qb[0]
 		qb = qb[1:]
-		for _, ci := range g.In[u] {
-			if !pass(ci) || bwd[ci] {
+		for _, ci := range g.In(u) {
+			if !pass(int(ci)) || bwd[ci] {
 				continue
 			}
 			bwd[ci] = true
@@ -312,13 +312,13 @@ func humps(c *Context, liquid bool, in []bool, outs [][]int, nin []int, height f
 		}
 		// The climb: the lowest start before v among its lower neighbours.
 		before, low := -1, inf
-		for _, ci := range c.Graph.In[v] {
+		for _, ci := range c.Graph.In(v) {
 			if !in[ci] {
 				continue
 			}
 			u := l.Components[ci].From.Index
 			if h[u] < h[v] && minB[u] < low {
-				before, low = ci, minB[u]
+				before, low = int(ci), minB[u]
 			}
 		}
 		if before < 0 {

@@ -8,7 +8,7 @@ import (
 )
 
 // Source says where a component's displacement came from.
-type Source int
+type Source uint8
 
 const (
 	FromRise   Source = iota // (0, 0, rise): only the elevation change is known
@@ -31,7 +31,7 @@ type Layout struct {
 	ZOnly []bool // only the elevation is known (reached through rises); x and y are copied from the node it was reached from
 	// Piece numbers the connected pieces of the loop, by Node.Index. Positions
 	// are comparable only within one piece, unless both nodes have coordinates.
-	Piece []int
+	Piece []int32
 	// Disp is the inlet→outlet displacement by Component.Index: from the end
 	// nodes' coordinates, else the run, else (0, 0, rise); reservoirs (0, 0, rise).
 	Disp []Vec3
@@ -39,10 +39,13 @@ type Layout struct {
 	Source []Source
 	// Horizontal says whether Disp's horizontal part is known.
 	Horizontal []bool
-	// Dir is the unit direction along the flow of the straight inlet→outlet
-	// chord (zero when the chord is zero).
-	Dir []Vec3
 }
+
+// Dir returns the unit direction along the flow of component i's straight
+// inlet→outlet chord (zero when the chord is zero). It is worked out from
+// Disp when asked: a list of them was three more words per component of a
+// large loop, kept for the whole check.
+func (lay *Layout) Dir(i int) Vec3 { return lay.Disp[i].Unit() }
 
 // Place lays out a loop. Nodes with coordinates keep them; the others are
 // reached by walking components (either way along them) from placed nodes,
@@ -56,64 +59,63 @@ func Place(l *lang.Loop) *Layout {
 	}
 	nn, nc := len(l.Nodes), len(l.Components)
 	lay := &Layout{
-		Pos: make([]Vec3, nn), Known: make([]bool, nn), ZOnly: make([]bool, nn), Piece: make([]int, nn),
-		Disp: make([]Vec3, nc), Source: make([]Source, nc), Horizontal: make([]bool, nc), Dir: make([]Vec3, nc),
+		Pos: make([]Vec3, nn), Known: make([]bool, nn), ZOnly: make([]bool, nn), Piece: make([]int32, nn),
+		Disp: make([]Vec3, nc), Source: make([]Source, nc), Horizontal: make([]bool, nc),
 	}
 	// The component indices touching each node, all lists in one array
-	// (counted first): a list of its own for each node was an allocation
-	// or two per node of a large loop.
+	// (counted first), node v's from off[v] to off[v+1]: a list of its own
+	// for each node was an allocation or two per node of a large loop.
 	joins := func(c *lang.Component) bool {
 		return c.To != nil && c.From != nil && validNode(l, c.From) && validNode(l, c.To)
 	}
-	deg := make([]int32, nn)
-	total := 0
+	off := make([]int32, nn+1)
 	for _, c := range l.Components {
 		if joins(c) {
-			deg[c.From.Index]++
-			total++
+			off[c.From.Index+1]++
 			if c.To.Index != c.From.Index {
-				deg[c.To.Index]++
-				total++
+				off[c.To.Index+1]++
 			}
 		}
 	}
-	adj := make([][]int, nn)
-	all := make([]int, total)
-	for v, n := range deg {
-		if n > 0 {
-			adj[v], all = all[:0:n], all[n:]
-		}
+	for v := 1; v <= nn; v++ {
+		off[v] += off[v-1]
 	}
+	all := make([]int32, off[nn])
+	next := off[:nn] // each list's next entry; then the start of the next list
 	for i, c := range l.Components {
 		d, src := displacement(c)
 		lay.Disp[i], lay.Source[i] = d, src
 		lay.Horizontal[i] = src != FromRise
-		lay.Dir[i] = d.Unit()
 		if !joins(c) {
 			continue
 		}
-		adj[c.From.Index] = append(adj[c.From.Index], i)
+		all[next[c.From.Index]] = int32(i)
+		next[c.From.Index]++
 		if c.To.Index != c.From.Index {
-			adj[c.To.Index] = append(adj[c.To.Index], i)
+			all[next[c.To.Index]] = int32(i)
+			next[c.To.Index]++
 		}
 	}
+	copy(off[1:], off[:nn])
+	off[0] = 0
+	adj := func(v int) []int32 { return all[off[v]:off[v+1]] }
 	placed := make([]bool, nn)
 	// A walk queues each node once at most: the queue never outgrows nn.
-	queue := make([]int, 0, nn)
-	var reached []int // nodes placed by walk since it was last cleared
+	queue := make([]int32, 0, nn)
+	var reached []int32 // nodes placed by walk since it was last cleared
 	for i, n := range l.Nodes {
 		if n.At.Set {
 			lay.Pos[i] = finiteVec(Vec3{n.At.X, n.At.Y, n.At.Z})
 			lay.Known[i], placed[i] = true, true
-			queue = append(queue, i)
+			queue = append(queue, int32(i))
 		}
 	}
 	// walk spreads from the queue through components; full says whether only
 	// components with a known horizontal part may be crossed.
 	walk := func(full bool) {
 		for h := 0; h < len(queue); h++ {
-			u := queue[h]
-			for _, ci := range adj[u] {
+			u := int(queue[h])
+			for _, ci := range adj(u) {
 				if full && !lay.Horizontal[ci] {
 					continue
 				}
@@ -126,7 +128,7 @@ func Place(l *lang.Loop) *Layout {
 					continue
 				}
 				placed[v] = true
-				reached = append(reached, v)
+				reached = append(reached, int32(v))
 				p := lay.Pos[u].Add(d)
 				if full && lay.Known[u] {
 					lay.Known[v] = true
@@ -137,7 +139,7 @@ func Place(l *lang.Loop) *Layout {
 					}
 				}
 				lay.Pos[v] = p
-				queue = append(queue, v)
+				queue = append(queue, int32(v))
 			}
 		}
 		queue = queue[:0]
@@ -145,7 +147,7 @@ func Place(l *lang.Loop) *Layout {
 	walk(true)
 	for i := range l.Nodes {
 		if placed[i] {
-			queue = append(queue, i)
+			queue = append(queue, int32(i))
 		}
 	}
 	walk(false)
@@ -160,8 +162,8 @@ func Place(l *lang.Loop) *Layout {
 		// and visiting them for every new piece would make Place quadratic
 		// in a loop of many unconnected nodes.
 		placed[i], lay.Known[i] = true, true
-		queue = append(queue[:0], i)
-		reached = append(reached[:0], i)
+		queue = append(queue[:0], int32(i))
+		reached = append(reached[:0], int32(i))
 		walk(true)
 		slices.Sort(reached)
 		queue = append(queue[:0], reached...)
@@ -171,22 +173,23 @@ func Place(l *lang.Loop) *Layout {
 	for i := range lay.Piece {
 		lay.Piece[i] = -1
 	}
-	piece := 0
+	var piece int32
+	stack := queue[:0]
 	for i := range l.Nodes {
 		if lay.Piece[i] >= 0 {
 			continue
 		}
-		stack := []int{i}
+		stack = append(stack[:0], int32(i))
 		lay.Piece[i] = piece
 		for len(stack) > 0 {
-			u := stack[len(stack)-1]
+			u := int(stack[len(stack)-1])
 			stack = stack[:len(stack)-1]
-			for _, ci := range adj[u] {
+			for _, ci := range adj(u) {
 				c := l.Components[ci]
 				for _, v := range [2]int{c.From.Index, c.To.Index} {
 					if lay.Piece[v] < 0 {
 						lay.Piece[v] = piece
-						stack = append(stack, v)
+						stack = append(stack, int32(v))
 					}
 				}
 			}
