@@ -3,6 +3,7 @@ package lang_test
 import (
 	"bytes"
 	"fmt"
+	"runtime"
 	"strings"
 	"testing"
 
@@ -144,6 +145,28 @@ var hostileLines = []struct{ name, src string }{
 	{"nested", "param x = " + strings.Repeat("(", 1<<19) + "1" + strings.Repeat(")", 1<<19) + "\n"},
 	{"factors", "param x = 1 m" + strings.Repeat("*m", 1<<19) + "\n"},
 	{"blocks", strings.Repeat("a {\n", 1<<18)},
+}
+
+// TestHostileLinesMemory checks that parsing each hostile text allocates
+// no more than ten times its size: a line of a million bad tokens once
+// held a 64-byte token for each of them, 330 MB in all. Its time is
+// BenchmarkHostileLines'.
+func TestHostileLinesMemory(t *testing.T) {
+	for _, h := range hostileLines {
+		if h.name == "braces" || h.name == "blocks" {
+			continue
+		}
+		src := []byte(h.src)
+		var before, after runtime.MemStats
+		runtime.GC()
+		runtime.ReadMemStats(&before)
+		f := lang.Parse("hostile.loop", src)
+		runtime.ReadMemStats(&after)
+		runtime.KeepAlive(f)
+		if got := after.TotalAlloc - before.TotalAlloc; got > 10*uint64(len(src)) {
+			t.Errorf("%s: parsing %d bytes allocated %d", h.name, len(src), got)
+		}
+	}
 }
 
 // BenchmarkHostileLines parses each hostile text (see hostileLines).

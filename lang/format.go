@@ -55,7 +55,6 @@ func FormatSource(path string, src []byte) ([]byte, *File) {
 	// The tokens are written out and dropped: their text may share src's
 	// memory instead of a copy (the file returned holds src anyway).
 	sc := newScannerOf(src, unsafe.String(unsafe.SliceData(src), len(src)))
-	sc.nextLine()
 	fm := newFormatter(f.Mapper, len(src), &sc.comments)
 	fm.stream = true
 	p := &parser{f: f, sc: sc, toks: sc.toks, sink: fm}

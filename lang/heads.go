@@ -73,7 +73,6 @@ func parseHeads(path string, src []byte) *File {
 	f := &File{Path: path, Src: src, Mapper: NewMapper(src)}
 	sc := newScannerOf(src, unsafe.String(unsafe.SliceData(src), len(src)))
 	sc.allowsOnly = true
-	sc.nextLine()
 	p := &parser{f: f, sc: sc, toks: sc.toks, heads: &headNodes{}}
 	p.run()
 	f.Comments = sc.comments

@@ -113,6 +113,13 @@ type scanner struct {
 	// RULE"): a file read for its model alone (parseHeads) needs no others,
 	// and a file of commented lines would keep a Comment for each.
 	allowsOnly bool
+	// endsValue is whether the last token of the line that is not elided
+	// ends an operand (see prevEndsValue); kept here because the tokens
+	// themselves may already be dropped.
+	endsValue bool
+	// lookahead marks a copy of the scanner that reads ahead and keeps
+	// nothing: it records no comments.
+	lookahead bool
 }
 
 func (s *scanner) position(off int) lexer.Position {
@@ -120,28 +127,22 @@ func (s *scanner) position(off int) lexer.Position {
 }
 
 func (s *scanner) emit(tt lexer.TokenType, start int) {
-	s.toks = append(s.toks, lexer.Token{Type: tt, Value: s.str[start:s.pos], Pos: s.position(start)})
+	v := s.str[start:s.pos]
+	s.toks = append(s.toks, lexer.Token{Type: tt, Value: v, Pos: s.position(start)})
+	switch tt {
+	case TokSpace, TokComment:
+	case TokIdent, TokNumber, TokUnit, TokString:
+		s.endsValue = true
+	case TokPunct:
+		s.endsValue = v == ")"
+	default:
+		s.endsValue = false
+	}
 }
 
-// prevEndsValue reports whether the previous token ends an operand, which
-// decides whether a following '-' is binary.
-func (s *scanner) prevEndsValue() bool {
-	i := len(s.toks) - 1
-	for i >= 0 && (s.toks[i].Type == TokSpace || s.toks[i].Type == TokComment) {
-		i--
-	}
-	if i < 0 {
-		return false
-	}
-	t := s.toks[i]
-	switch t.Type {
-	case TokIdent, TokNumber, TokUnit, TokString:
-		return true
-	case TokPunct:
-		return t.Value == ")"
-	}
-	return false
-}
+// prevEndsValue reports whether the previous token of the line ends an
+// operand, which decides whether a following '-' is binary.
+func (s *scanner) prevEndsValue() bool { return s.endsValue }
 
 // nextLine appends the tokens of the next line to s.toks, up to and
 // including its newline, or the EOF token after the last line. It reports
@@ -150,8 +151,21 @@ func (s *scanner) nextLine() bool {
 	if s.done {
 		return false
 	}
+	for !s.step() {
+	}
+	return true
+}
+
+// step appends the next token to s.toks (a number or ')' with its unit,
+// two), or the EOF token after the last line; it reports whether that
+// ended the line. Once EOF was emitted, each step appends it again.
+func (s *scanner) step() bool {
 	src := s.src
-	for s.pos < len(src) {
+	if s.done {
+		s.toks = append(s.toks, lexer.EOFToken(s.position(s.pos)))
+		return true
+	}
+	if s.pos < len(src) {
 		c := src[s.pos]
 		start := s.pos
 		switch {
@@ -171,7 +185,7 @@ func (s *scanner) nextLine() bool {
 			for s.pos < len(src) && src[s.pos] != '\n' && src[s.pos] != '\r' {
 				s.pos++
 			}
-			if text := s.str[start:s.pos]; !s.allowsOnly || isAllowComment(text) {
+			if text := s.str[start:s.pos]; !s.lookahead && (!s.allowsOnly || isAllowComment(text)) {
 				s.comments = append(s.comments, Comment{Span: Span{start, s.pos}, Text: text})
 			}
 			s.emit(TokComment, start)
@@ -204,6 +218,7 @@ func (s *scanner) nextLine() bool {
 			s.pos++
 			s.emit(TokBad, start)
 		}
+		return false
 	}
 	s.toks = append(s.toks, lexer.EOFToken(s.position(s.pos)))
 	s.done = true

@@ -36,7 +36,6 @@ func parseMapped(path string, src []byte, m *Mapper, grammarOnly bool) (*File, *
 	// The tree's names and numbers share src's memory, which the file
 	// holds as its text anyway, instead of a copy of it.
 	sc := newScannerOf(src, unsafe.String(unsafe.SliceData(src), len(src)))
-	sc.nextLine()
 	p := &parser{f: f, sc: sc, toks: sc.toks, grammarOnly: grammarOnly}
 	p.run()
 	f.Comments = sc.comments
@@ -46,10 +45,14 @@ func parseMapped(path string, src []byte, m *Mapper, grammarOnly bool) (*File, *
 type parser struct {
 	f  *File
 	sc *scanner
-	// toks are the tokens of the current line, through its newline (or the
-	// EOF token); the scanner fills them a line at a time.
+	// toks are tokens of the current line, from the first one not yet
+	// consumed when they were last all consumed; the scanner adds them as
+	// they are looked at (see at), so a line of a million bad tokens is
+	// never held whole.
 	toks []lexer.Token
-	cur  int // raw index in toks of the next token, elided ones included
+	// ahead is the scratch buffer of tooDeep's look ahead.
+	ahead []lexer.Token
+	cur   int // raw index in toks of the next token, elided ones included
 	// lexBase is the raw index in toks where the lexer lexAt last made
 	// starts.
 	lexBase int
@@ -133,26 +136,46 @@ func tokSpan(t *lexer.Token) Span { return Span{t.Pos.Offset, t.Pos.Offset + len
 
 func isPunctTok(t *lexer.Token, v string) bool { return t.Type == TokPunct && t.Value == v }
 
-// refill moves on to the next line once the current one is consumed. A
-// token pointer taken before it is not used after it.
+// refill drops the tokens once all are consumed and scans the next one. A
+// token pointer or raw index taken before it is not used after it.
 func (p *parser) refill() {
 	if p.cur < len(p.toks) {
 		return
 	}
 	p.sc.toks = p.sc.toks[:0]
-	if !p.sc.nextLine() {
-		// The EOF token is never consumed, so this does not happen; stay
-		// at the end regardless.
-		p.sc.toks = append(p.sc.toks, lexer.EOFToken(p.sc.position(p.sc.pos)))
-	}
+	p.sc.step()
 	p.toks, p.cur = p.sc.toks, 0
 }
+
+// at returns the token at raw index j of toks, scanning on to it. Callers
+// look no further than the line's newline or the EOF token. A pointer
+// taken before stays readable (the tokens it may move are copied, never
+// changed).
+func (p *parser) at(j int) *lexer.Token {
+	for j >= len(p.toks) {
+		p.sc.step()
+		p.toks = p.sc.toks
+	}
+	return &p.toks[j]
+}
+
+// scanLine scans the rest of the current line: a sink is handed the
+// line's comments with its first statement.
+func (p *parser) scanLine() {
+	for j := max(len(p.toks)-1, 0); ; j++ {
+		if t := p.at(j); t.Type == TokNewline || t.Type == TokEOF {
+			return
+		}
+	}
+}
+
+func elided(t *lexer.Token) bool { return t.Type == TokSpace || t.Type == TokComment }
 
 // peek returns the next token that is not elided.
 func (p *parser) peek() *lexer.Token {
 	p.refill()
 	j := p.cur
-	for p.toks[j].Type == TokSpace || p.toks[j].Type == TokComment {
+	for elided(p.at(j)) {
 		j++
 	}
 	return &p.toks[j]
@@ -161,7 +184,7 @@ func (p *parser) peek() *lexer.Token {
 // next consumes the next token that is not elided; the end stays put.
 func (p *parser) next() *lexer.Token {
 	p.refill()
-	for p.toks[p.cur].Type == TokSpace || p.toks[p.cur].Type == TokComment {
+	for elided(p.at(p.cur)) {
 		p.cur++
 	}
 	t := &p.toks[p.cur]
@@ -182,8 +205,8 @@ func (p *parser) lexAt() *lexer.PeekingLexer { return p.lexUpTo(false) }
 // does not start with a name before it fails.
 func (p *parser) lexUpTo(first bool) *lexer.PeekingLexer {
 	end := p.cur
-	for p.toks[end].Type != TokNewline && p.toks[end].Type != TokEOF && !endsStmt(&p.toks[end]) {
-		if first && p.toks[end].Type != TokSpace && p.toks[end].Type != TokComment {
+	for t := p.at(end); t.Type != TokNewline && t.Type != TokEOF && !endsStmt(t); t = p.at(end) {
+		if first && !elided(t) {
 			break
 		}
 		end++
@@ -276,6 +299,7 @@ func (p *parser) close(sp Span) {
 	}
 	p.stack[n-1].Block.Close = sp.Start
 	if p.sink != nil && len(p.f.Errors) == 0 {
+		p.scanLine()
 		p.sink.close(sp.Start, n-1)
 	}
 	if p.heads != nil && p.heads.reread(p.f.Src, p.stack[n-1], p.open[n-1]) {
@@ -301,15 +325,15 @@ func (p *parser) closeAll(eof Span) {
 
 // statement parses one statement and what ends it.
 func (p *parser) statement() {
-	start := p.cur
 	first := *p.peek()
-	if deep := p.tooDeep(start); deep != nil {
-		p.errorf(tokSpan(deep), "expression nested too deeply: more than %d parentheses are open here", MaxNesting)
+	start := p.cur
+	if deep, ok := p.tooDeep(start); ok {
+		p.errorf(tokSpan(&deep), "expression nested too deeply: more than %d parentheses are open here", MaxNesting)
 		p.skipBad(first)
 		return
 	}
 	if !p.grammarOnly {
-		q := fastParser{toks: p.toks, i: start, nodes: &p.nodes}
+		q := fastParser{toks: p.toks, i: start, nodes: &p.nodes, p: p}
 		mark := p.nodes.mark()
 		if stmt, ok := q.stmt(); ok {
 			p.cur = q.i
@@ -327,6 +351,7 @@ func (p *parser) statement() {
 			p.terminator(stmt)
 			if p.sink != nil {
 				if len(p.f.Errors) == 0 {
+					p.scanLine()
 					p.sink.head(stmt, depth)
 				}
 				p.nodes.release(mark)
@@ -363,6 +388,7 @@ func (p *parser) statement() {
 		p.add(stmt)
 		p.terminator(stmt)
 		if p.sink != nil && len(p.f.Errors) == 0 {
+			p.scanLine()
 			p.sink.head(stmt, depth)
 		}
 		return
@@ -375,30 +401,48 @@ func (p *parser) statement() {
 }
 
 // tooDeep returns the parenthesis that opens one level too many in the
-// statement starting at raw token index i, or nil.
-func (p *parser) tooDeep(i int) *lexer.Token {
+// statement starting at raw token index i, if any. What of the statement
+// is not scanned yet is read by a copy of the scanner that keeps nothing,
+// so a statement of a million tokens is not held for it.
+func (p *parser) tooDeep(i int) (lexer.Token, bool) {
 	depth := 0
-	for ; i < len(p.toks); i++ {
-		t := &p.toks[i]
+	// deeper reports whether t ends the search, and whether it is the
+	// parenthesis too many.
+	deeper := func(t *lexer.Token) (stop, deep bool) {
 		if t.Type == TokNewline || t.Type == TokEOF {
-			return nil
+			return true, false
 		}
 		if t.Type != TokPunct {
-			continue
+			return false, false
 		}
 		switch t.Value {
 		case "(":
 			depth++
-			if depth > MaxNesting {
-				return t
-			}
+			return depth > MaxNesting, depth > MaxNesting
 		case ")":
 			depth--
 		case ";", "{", "}":
-			return nil
+			return true, false
+		}
+		return false, false
+	}
+	for ; i < len(p.toks); i++ {
+		if stop, deep := deeper(&p.toks[i]); stop {
+			return p.toks[i], deep
 		}
 	}
-	return nil
+	ahead := *p.sc
+	ahead.toks, ahead.lookahead = p.ahead[:0], true
+	defer func() { p.ahead = ahead.toks[:0] }()
+	for {
+		ahead.step()
+		for j := range ahead.toks {
+			if stop, deep := deeper(&ahead.toks[j]); stop {
+				return ahead.toks[j], deep
+			}
+		}
+		ahead.toks = ahead.toks[:0]
+	}
 }
 
 // skipBad keeps a statement that did not parse as a Bad one and skips to
@@ -469,10 +513,16 @@ func (p *parser) terminator(s *Stmt) {
 // error found by parsing one more part from t.
 func (p *parser) explainStop(t *lexer.Token) {
 	if t.Type == TokPunct && strings.Contains("+-*/^", t.Value) {
-		save := p.cur
-		p.next()
-		n := p.peek()
-		p.cur = save
+		// The token after t, looked at without consuming t.
+		j := p.cur
+		for elided(p.at(j)) {
+			j++
+		}
+		j++
+		for elided(p.at(j)) {
+			j++
+		}
+		n := p.at(j)
 		if n.EOF() || n.Type == TokNewline || isPunctTok(n, ";") || isPunctTok(n, "}") || isPunctTok(n, "{") {
 			p.errorf(tokSpan(t), "%q needs a value after it", t.Value)
 			return
@@ -592,6 +642,9 @@ type fastParser struct {
 	toks []lexer.Token
 	i    int // raw index of the next token, elided ones included
 	*nodes
+	// p, when set, scans on as the statement is read (see parser.at);
+	// without it toks hold the whole line.
+	p *parser
 }
 
 // nodes hands out tree nodes from chunks, so a large file costs a few
@@ -689,10 +742,19 @@ func (s *slab[T]) alloc() *T {
 	return &s.buf[len(s.buf)-1]
 }
 
+// tok returns the token at raw index j.
+func (q *fastParser) tok(j int) *lexer.Token {
+	if j >= len(q.toks) && q.p != nil {
+		q.p.at(j)
+		q.toks = q.p.toks
+	}
+	return &q.toks[j]
+}
+
 // peek returns the next token that is not elided.
 func (q *fastParser) peek() *lexer.Token {
 	j := q.i
-	for q.toks[j].Type == TokSpace || q.toks[j].Type == TokComment {
+	for elided(q.tok(j)) {
 		j++
 	}
 	return &q.toks[j]
@@ -700,7 +762,7 @@ func (q *fastParser) peek() *lexer.Token {
 
 // next consumes the next token that is not elided.
 func (q *fastParser) next() *lexer.Token {
-	for q.toks[q.i].Type == TokSpace || q.toks[q.i].Type == TokComment {
+	for elided(q.tok(q.i)) {
 		q.i++
 	}
 	t := &q.toks[q.i]
@@ -710,7 +772,7 @@ func (q *fastParser) next() *lexer.Token {
 
 // end is the position right after the last token consumed, which is what
 // participle stores in EndPos.
-func (q *fastParser) end() Pos { return at(q.toks[q.i].Pos) }
+func (q *fastParser) end() Pos { return at(q.tok(q.i).Pos) }
 
 func endsStatement(t *lexer.Token) bool {
 	if t.Type == TokEOF || t.Type == TokNewline {
