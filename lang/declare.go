@@ -72,7 +72,6 @@ func (r *resolver) declare() {
 				}
 				r.parts[name.Name] = p
 				r.m.Parts = append(r.m.Parts, p)
-				r.ref(RefPart, name.Name, nil, path, name.Span(), true)
 			case "loop":
 				r.declareLoop(path, st)
 			case "case":
@@ -139,7 +138,7 @@ func (r *resolver) duplicate(file string, name *Ident, what string, prev Decl) {
 }
 
 func (r *resolver) ref(kind RefKind, name string, loop *Loop, file string, span Span, decl bool) {
-	r.m.Refs = append(r.m.Refs, Ref{Kind: kind, Name: name, Loop: loop, file: r.path(file), start: int32(span.Start), end: int32(span.End), IsDecl: decl})
+	r.m.refs = append(r.m.refs, Ref{Kind: kind, Name: name, Loop: loop, file: r.path(file), start: int32(span.Start), end: int32(span.End), IsDecl: decl})
 }
 
 func (r *resolver) unknownWord(file string, st *Stmt, known []string, where string) {
@@ -179,7 +178,6 @@ func (r *resolver) declareParam(file string, st *Stmt) {
 	}
 	r.params[name.Name] = ps
 	r.m.Params = append(r.m.Params, p)
-	r.ref(RefParam, name.Name, nil, file, name.Span(), true)
 }
 
 func (r *resolver) declareLoop(file string, st *Stmt) {
@@ -260,7 +258,6 @@ func (r *resolver) declareLoop(file string, st *Stmt) {
 		nodes[nm.Name] = n
 		l.Nodes = append(l.Nodes, n)
 		nodeAt = append(nodeAt, nil)
-		r.ref(RefNode, nm.Name, l, file, nm.Span(), true)
 		rest := s.Args[1:]
 		if len(rest) > 0 {
 			if rest[0].Key != "at" || len(rest) != 2 || rest[1].Expr == nil {
@@ -346,7 +343,6 @@ func (r *resolver) declareComponent(file string, s *Stmt, l *Loop, k Kind, nodes
 			c.Unresolved = true
 			return nil, id.Span()
 		}
-		r.ref(RefNode, id.Name, l, file, id.Span(), false)
 		return n, id.Span()
 	}
 	rest := parts[1:]
@@ -375,6 +371,16 @@ func (r *resolver) declareComponent(file string, s *Stmt, l *Loop, k Kind, nodes
 		l.Unresolved = true
 	}
 	if prev, dup := r.comps[nm.Name]; dup {
+		// The model keeps no second component of the name, whose ends
+		// Refs would yield: they are recorded here.
+		for _, e := range []struct {
+			n          *Node
+			start, end int32
+		}{{c.From, c.fromStart, c.fromEnd}, {c.To, c.toStart, c.toEnd}} {
+			if e.n != nil {
+				r.ref(RefNode, e.n.Name, l, file, Span{int(e.start), int(e.end)}, false)
+			}
+		}
 		r.duplicate(file, nm, "component", prev.Decl)
 		l.Unresolved = true
 		return
@@ -382,7 +388,6 @@ func (r *resolver) declareComponent(file string, s *Stmt, l *Loop, k Kind, nodes
 	r.comps[nm.Name] = c
 	l.Components = append(l.Components, c)
 	r.compStmts[l] = append(r.compStmts[l], head)
-	r.ref(RefComponent, nm.Name, l, file, nm.Span(), true)
 }
 
 func (r *resolver) declareCase(file string, st *Stmt) {
@@ -406,7 +411,6 @@ func (r *resolver) declareCase(file string, st *Stmt) {
 	r.cases[name.Name] = c
 	r.m.Cases = append(r.m.Cases, c)
 	r.caseStmts[c] = st
-	r.ref(RefCase, name.Name, nil, file, name.Span(), true)
 }
 
 func (r *resolver) unknownName(file string, id *Ident, what string, cands []string, where string) {

@@ -1,6 +1,10 @@
 package lang
 
-import "circa/units"
+import (
+	"iter"
+
+	"circa/units"
+)
 
 // The typed model: what a set of .loop files says, in SI, with every value
 // remembering where it was written. The checker reads only this.
@@ -181,8 +185,9 @@ type Model struct {
 	Limits  Limits
 	Methods Methods
 	Allows  []*Allow
-	// Refs lists every place a name is used, for navigation and rename.
-	Refs []Ref
+	// refs lists the uses of names that the declarations do not imply,
+	// in the order read; Refs yields them with the others.
+	refs []Ref
 	// Diags holds the syntax, unit and name findings, in file order.
 	Diags []Diagnostic
 	// Overrides lists the parameters given a value for this resolution in
@@ -617,6 +622,66 @@ func (r Ref) Span() Span { return Span{int(r.start), int(r.end)} }
 
 // Loc returns where the reference was written.
 func (r Ref) Loc() Location { return Location{File: r.File(), Span: r.Span()} }
+
+// Refs yields every place a name is declared or used, for navigation and
+// rename. The declarations of parameters, parts, nodes, components and
+// cases and the nodes each component joins come from the model itself,
+// which holds them anyway: a large loop, four names a node and pipe, so
+// keeps no second copy of each. They come first, by kind in model order,
+// then the other uses in the order they were read (a name in a part used
+// by several components is read, and yielded, once for each).
+func (m *Model) Refs() iter.Seq[Ref] {
+	return func(yield func(Ref) bool) {
+		for _, p := range m.Params {
+			if !yield(p.Decl.ref(RefParam, nil)) {
+				return
+			}
+		}
+		for _, p := range m.Parts {
+			if !yield(p.Decl.ref(RefPart, nil)) {
+				return
+			}
+		}
+		for _, l := range m.Loops {
+			for _, n := range l.Nodes {
+				if !yield(n.Decl.ref(RefNode, l)) {
+					return
+				}
+			}
+			for _, c := range l.Components {
+				if c.From != nil && !yield(c.endRef(c.From, c.fromStart, c.fromEnd)) {
+					return
+				}
+				if c.To != nil && !yield(c.endRef(c.To, c.toStart, c.toEnd)) {
+					return
+				}
+				if !yield(c.Decl.ref(RefComponent, l)) {
+					return
+				}
+			}
+		}
+		for _, c := range m.Cases {
+			if !yield(c.Decl.ref(RefCase, nil)) {
+				return
+			}
+		}
+		for _, r := range m.refs {
+			if !yield(r) {
+				return
+			}
+		}
+	}
+}
+
+// ref is the reference of the declaration d.
+func (d *Decl) ref(kind RefKind, loop *Loop) Ref {
+	return Ref{Kind: kind, Name: d.Name, Loop: loop, file: d.file, start: d.nameStart, end: d.nameEnd, IsDecl: true}
+}
+
+// endRef is the use of the node n that c names as an end at start:end.
+func (c *Component) endRef(n *Node, start, end int32) Ref {
+	return Ref{Kind: RefNode, Name: n.Name, Loop: c.Loop, file: c.file, start: start, end: end}
+}
 
 // Component returns the named component in any loop, or nil.
 func (m *Model) Component(name string) *Component {

@@ -127,7 +127,7 @@ func (r *resolver) valueText(file string, v Value, unit string) string {
 // each once.
 func (m *Model) ParamsIn(loc Location) []string {
 	var ps []string
-	for _, ref := range m.Refs {
+	for ref := range m.Refs() {
 		if ref.Kind != RefParam || ref.IsDecl || ref.File() != loc.File || ref.Span().Start < loc.Span.Start || ref.Span().End > loc.Span.End {
 			continue
 		}
@@ -172,7 +172,7 @@ func (m *Model) ParamsReaching() map[string]bool {
 	uses := map[string][]string{}
 	reach := map[string]bool{}
 	var todo []string
-	for _, ref := range m.Refs {
+	for ref := range m.Refs() {
 		if ref.Kind != RefParam || ref.IsDecl {
 			continue
 		}

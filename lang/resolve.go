@@ -100,20 +100,16 @@ func resolveRoot(m *Model, root string, src []byte, fsys FS) *Model {
 // resolve declares, fills and evaluates what the files read say.
 func (r *resolver) resolve() {
 	m := r.m
-	// About one name is used or declared per statement: sizing the list
-	// once spares a large file the copies of a growing one. A statement
-	// that did not parse declares and uses nothing: a file of bad lines
-	// gets no room for them.
-	n, params := 0, 0
+	// The declarations are the model's own (Refs): only the uses the
+	// declarations do not imply are recorded, as they are found.
+	params := 0
 	for _, f := range m.Files {
-		n += countStmts(f.Stmts)
 		for _, s := range f.Stmts {
 			if !s.Bad && s.Keyword() == "param" {
 				params++
 			}
 		}
 	}
-	m.Refs = make([]Ref, 0, n+n/8+16)
 	if params > 0 {
 		r.params = make(map[string]*paramState, params)
 		m.Params = make([]*Param, 0, params)
@@ -134,20 +130,6 @@ func (r *resolver) resolve() {
 	r.fill()
 	r.allows()
 	m.Diags = dedupe(m.Diags)
-}
-
-// countStmts counts the statements that parsed, blocks included.
-func countStmts(ss []*Stmt) int {
-	n := 0
-	for _, s := range ss {
-		if !s.Bad {
-			n++
-		}
-		if s.Block != nil {
-			n += countStmts(s.Block.Stmts) + int(s.Block.n)
-		}
-	}
-	return n
 }
 
 // dedupe drops findings of the same rule at the same place: a part's bad

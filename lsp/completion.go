@@ -242,7 +242,7 @@ func endsInNumber(w string) bool {
 func names(m *lang.Model, kind lang.RefKind) []string {
 	seen := map[string]bool{}
 	var out []string
-	for _, r := range m.Refs {
+	for r := range m.Refs() {
 		if r.Kind == kind && r.IsDecl && !seen[r.Name] {
 			seen[r.Name] = true
 			out = append(out, r.Name)

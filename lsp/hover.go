@@ -50,7 +50,7 @@ func (sn *snapshot) cursorAt(u protocol.TextDocumentPositionParams) (*cursor, bo
 
 // refAt returns the name reference under the cursor.
 func (c *cursor) refAt() (lang.Ref, bool) {
-	for _, r := range c.m.Refs {
+	for r := range c.m.Refs() {
 		if r.File() == c.path && contains(r.Span(), c.off) {
 			return r, true
 		}

@@ -47,7 +47,7 @@ func (sn *snapshot) occurrences(sym lang.Ref) []lang.Ref {
 		if _, ok := m.Files[sym.File()]; !ok {
 			continue
 		}
-		for _, r := range m.Refs {
+		for r := range m.Refs() {
 			if !sameSymbol(r, sym) {
 				continue
 			}

@@ -78,7 +78,7 @@ func semanticTokensRequest(ctx context.Context, s *Server, sn *snapshot, params 
 func fileTokens(m *lang.Model, f *lang.File) []token {
 	var toks []token
 	names := map[lang.Span]token{}
-	for _, r := range m.Refs {
+	for r := range m.Refs() {
 		if r.File() != f.Path {
 			continue
 		}
