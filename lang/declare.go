@@ -26,6 +26,8 @@ func (r *resolver) declare() {
 	r.loopStmts = map[*Loop]*Stmt{}
 	r.compStmts = map[*Loop][]*Stmt{}
 	r.nodeAt = map[*Loop][]*Stmt{}
+	r.compHeads = map[*Loop][]compHead{}
+	r.nodeOffs = map[*Loop][]int32{}
 	r.caseStmts = map[*Case]*Stmt{}
 	for _, path := range r.m.Order {
 		f := r.m.Files[path]
@@ -221,15 +223,25 @@ func (r *resolver) declareLoop(file string, st *Stmt) {
 	if nComps > 0 {
 		l.Components = make([]*Component, 0, nComps)
 	}
-	nodeBuf := make([]Node, 0, nNodes)
-	r.compBuf = make([]Component, 0, nComps)
-	nodeAt := make([]*Stmt, 0, nNodes)
-	r.compStmts[l] = make([]*Stmt, 0, nComps)
+	// The nodes and components come from chunks, not from one array
+	// each: the heads of a file read for its model alone go as they are
+	// declared, and the chunks take their place instead of adding to
+	// them.
+	var nodeBuf slab[Node]
+	var nodeAt []*Stmt
+	var nodeOffs []int32
+	if r.heads {
+		nodeOffs = make([]int32, 0, nNodes)
+		r.compHeads[l] = make([]compHead, 0, nComps)
+	} else {
+		nodeAt = make([]*Stmt, 0, nNodes)
+		r.compStmts[l] = make([]*Stmt, 0, nComps)
+	}
 	// Nodes first, so components may name nodes declared after them. Each
 	// node's parts are read into the same temporary nodes.
 	nodeMark := r.mark()
 	defer r.release(nodeMark)
-	for _, s := range st.Block.Stmts {
+	for i, s := range st.Block.Stmts {
 		r.release(nodeMark)
 		if s.Bad {
 			// What the statement meant is unknown: it may be a node or a
@@ -241,6 +253,10 @@ func (r *resolver) declareLoop(file string, st *Stmt) {
 			continue
 		}
 		head := s
+		if r.heads {
+			// Read once: what filling needs is kept in nodeOffs.
+			st.Block.Stmts[i] = nil
+		}
 		s = r.full(file, s)
 		if len(s.Args) == 0 || nameOf(s.Args[0].Expr) == nil {
 			r.errorf("syntax", file, s.Span(), "%s needs a name: %s NAME [at (X, Y, Z) UNIT]", s.Keyword(), s.Keyword())
@@ -253,11 +269,15 @@ func (r *resolver) declareLoop(file string, st *Stmt) {
 			l.Unresolved = true
 			continue
 		}
-		nodeBuf = append(nodeBuf, Node{Decl: r.decl(file, s, nm), Loop: l, Junction: s.Keyword() == "junction", Index: len(l.Nodes)})
-		n := &nodeBuf[len(nodeBuf)-1]
+		n := nodeBuf.alloc()
+		*n = Node{Decl: r.decl(file, s, nm), Loop: l, Junction: s.Keyword() == "junction", Index: len(l.Nodes)}
 		nodes[nm.Name] = n
 		l.Nodes = append(l.Nodes, n)
-		nodeAt = append(nodeAt, nil)
+		if r.heads {
+			nodeOffs = append(nodeOffs, -1)
+		} else {
+			nodeAt = append(nodeAt, nil)
+		}
 		rest := s.Args[1:]
 		if len(rest) > 0 {
 			if rest[0].Key != "at" || len(rest) != 2 || rest[1].Expr == nil {
@@ -267,15 +287,23 @@ func (r *resolver) declareLoop(file string, st *Stmt) {
 			}
 			// Evaluated when filling, once every file's parameters are
 			// declared, from Args[2], which is rest[1].
-			nodeAt[n.Index] = head
+			if r.heads {
+				nodeOffs[n.Index] = int32(head.Pos.Offset)
+			} else {
+				nodeAt[n.Index] = head
+			}
 		}
 		if s.Block != nil {
 			r.errorf("syntax", file, Span{s.Block.Open, s.Block.Open + 1}, "a node takes no block")
 		}
 	}
-	r.nodeAt[l] = nodeAt
-	for _, s := range st.Block.Stmts {
-		if s.Bad {
+	if r.heads {
+		r.nodeOffs[l] = nodeOffs
+	} else {
+		r.nodeAt[l] = nodeAt
+	}
+	for i, s := range st.Block.Stmts {
+		if s == nil || s.Bad {
 			continue
 		}
 		kw := s.Keyword()
@@ -283,17 +311,20 @@ func (r *resolver) declareLoop(file string, st *Stmt) {
 		if !isComp {
 			continue
 		}
+		if r.heads {
+			// Read once: what filling needs is kept in compHeads.
+			st.Block.Stmts[i] = nil
+		}
 		r.declareComponent(file, s, l, k, nodes)
 	}
 	if r.heads {
-		// Filling reads the nodes and components through nodeAt and
-		// compStmts, one at a time, and lets each go once read; the
-		// loop's block keeps only the loop's own statements, so that it
-		// does not hold all the heads of a large loop to the end.
+		// Filling reads the nodes and components through nodeOffs and
+		// compHeads, one at a time; the loop's block keeps only the
+		// loop's own statements, so that it does not hold the heads of a
+		// large loop: each went as it was declared.
 		keep := st.Block.Stmts[:0]
 		for _, s := range st.Block.Stmts {
-			kw := s.Keyword()
-			if _, isComp := kindOf(kw); s.Bad || (kw != "node" && kw != "junction" && !isComp) {
+			if s != nil {
 				keep = append(keep, s)
 			}
 		}
@@ -318,13 +349,8 @@ func (r *resolver) declareComponent(file string, s *Stmt, l *Loop, k Kind, nodes
 		return
 	}
 	nm := nameOf(parts[0].Expr)
-	var c *Component
-	if len(r.compBuf) < cap(r.compBuf) {
-		r.compBuf = append(r.compBuf, Component{Decl: r.decl(file, s, nm), Kind: k, Loop: l, Index: len(l.Components)})
-		c = &r.compBuf[len(r.compBuf)-1]
-	} else {
-		c = &Component{Decl: r.decl(file, s, nm), Kind: k, Loop: l, Index: len(l.Components)}
-	}
+	c := r.compBuf.alloc()
+	*c = Component{Decl: r.decl(file, s, nm), Kind: k, Loop: l, Index: len(l.Components)}
 	c.kindFields()
 	node := func(p *Arg) (*Node, Span) {
 		id := nameOf(p.Expr)
@@ -387,7 +413,11 @@ func (r *resolver) declareComponent(file string, s *Stmt, l *Loop, k Kind, nodes
 	}
 	r.comps[nm.Name] = c
 	l.Components = append(l.Components, c)
-	r.compStmts[l] = append(r.compStmts[l], head)
+	if r.heads {
+		r.compHeads[l] = append(r.compHeads[l], headOf(head))
+	} else {
+		r.compStmts[l] = append(r.compStmts[l], head)
+	}
 }
 
 func (r *resolver) declareCase(file string, st *Stmt) {

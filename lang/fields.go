@@ -18,15 +18,21 @@ import (
 // fill evaluates every field now that all names are known.
 func (r *resolver) fill() {
 	for _, l := range r.m.Loops {
-		nodeAt := r.nodeAt[l]
+		nodeAt, nodeOffs := r.nodeAt[l], r.nodeOffs[l]
 		for _, n := range l.Nodes {
-			if st := nodeAt[n.Index]; st != nil {
+			if r.heads {
+				if off := nodeOffs[n.Index]; off >= 0 {
+					m := r.mark()
+					h := r.parser()
+					if s, ok := h.parseAt(r.m.Files[n.File()], int(off), &h.tmp); ok && len(s.Args) == 3 {
+						n.At = r.vector(n.File(), s.Args[2].Expr, needLength)
+					}
+					r.release(m)
+				}
+			} else if st := nodeAt[n.Index]; st != nil {
 				m := r.mark()
 				n.At = r.vector(n.File(), r.full(n.File(), st).Args[2].Expr, needLength)
 				r.release(m)
-				if r.heads {
-					nodeAt[n.Index] = nil // the head is read once (see declareLoop)
-				}
 			}
 			if n.At.Bad {
 				l.Unresolved = true
@@ -65,11 +71,13 @@ func (r *resolver) fill() {
 		}
 	}
 	for _, l := range r.m.Loops {
-		heads := r.compStmts[l]
+		stmts, heads := r.compStmts[l], r.compHeads[l]
 		for _, c := range l.Components {
-			r.componentFields(c, heads[c.Index])
 			if r.heads {
-				heads[c.Index] = nil // the head is read once (see declareLoop)
+				r.componentFields(c, heads[c.Index].stmt(&r.headStmt, &r.headBlock))
+				heads[c.Index] = compHead{} // read once (see declareLoop)
+			} else {
+				r.componentFields(c, stmts[c.Index])
 			}
 			if c.Unresolved || c.anyBad() {
 				c.Unresolved = true

@@ -11,8 +11,10 @@ import "unsafe"
 
 // headNodes keeps heads, a chunk at a time; those in a component's block
 // are each an allocation of their own, so that the ones a one-line block
-// drops (reread) are freed.
-type headNodes struct{ chunk slab[headStmt] }
+// drops (reread) are freed. The nodes of a loop have chunks of their own:
+// the resolver reads them first and lets them go (see declareLoop), and
+// their chunks go with them, not held by the components between them.
+type headNodes struct{ chunk, nodes slab[headStmt] }
 
 // headStmt is a head with its word.
 type headStmt struct {
@@ -27,6 +29,8 @@ func (h *headNodes) keep(s, in *Stmt) *Stmt {
 	if in != nil {
 		if _, comp := kindOf(in.Keyword()); comp {
 			k = new(headStmt)
+		} else if kw := s.Keyword(); in.Keyword() == "loop" && (kw == "node" || kw == "junction") {
+			k = h.nodes.alloc()
 		}
 	}
 	if k == nil {
@@ -237,6 +241,38 @@ func anyHead(ss []*Stmt) bool {
 		}
 	}
 	return false
+}
+
+// compHead is what filling needs of the head of a component's statement
+// (see declareLoop): where it starts and its block. A one-line block read
+// again from its line (Block.reread), the block of most components, is
+// kept as its braces and count; the head and its Block go.
+type compHead struct {
+	off         int32
+	open, close int32 // the braces of a one-line block read again
+	n           int32 // its statements (0 for any other block)
+	block       *Block
+}
+
+// headOf returns what filling needs of the component head s.
+func headOf(s *Stmt) compHead {
+	h := compHead{off: int32(s.Pos.Offset)}
+	if b := s.Block; b != nil && b.reread {
+		h.open, h.close, h.n = int32(b.Open), int32(b.Close), b.n
+	} else {
+		h.block = b
+	}
+	return h
+}
+
+// stmt returns the head h describes, in st and b, which it overwrites.
+func (h *compHead) stmt(st *Stmt, b *Block) *Stmt {
+	*st = Stmt{Pos: Pos{int(h.off)}, Block: h.block, head: true}
+	if h.n > 0 {
+		*b = Block{Open: int(h.open), Close: int(h.close), OneLine: true, reread: true, n: h.n}
+		st.Block = b
+	}
+	return st
 }
 
 // parser returns the resolver's head parser.

@@ -178,6 +178,15 @@ type resolver struct {
 	loopStmts map[*Loop]*Stmt
 	compStmts map[*Loop][]*Stmt // by component index
 	nodeAt    map[*Loop][]*Stmt // by node index: statements with coordinates, evaluated when filling
+	// compHeads and nodeOffs take the place of compStmts and nodeAt for
+	// a file read for its model alone (heads): what filling needs of
+	// each statement, which is parsed again from its offset (-1 for a
+	// node without coordinates).
+	compHeads map[*Loop][]compHead
+	nodeOffs  map[*Loop][]int32
+	// headStmt and headBlock hold the component head being filled.
+	headStmt  Stmt
+	headBlock Block
 	caseStmts map[*Case]*Stmt
 	limStmts  []fileStmt
 	methStmts []fileStmt
@@ -189,8 +198,8 @@ type resolver struct {
 	// state.
 	paramSlab slab[Param]
 	stateSlab slab[paramState]
-	// compBuf holds the components of the loop being declared.
-	compBuf []Component
+	// compBuf holds the components, a chunk at a time.
+	compBuf slab[Component]
 	// overrides replace parameters' values (With); overrideErr is the
 	// first that could not be applied.
 	overrides   map[string]*Overridden
