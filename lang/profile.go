@@ -371,7 +371,7 @@ func tableMessage(e *fluid.TableError) string {
 }
 
 // tableSpan locates field col (one-based; 0 for the whole line) of line
-// (one-based, lines ending as tableLineEnd ends them; 0 for the
+// (one-based, lines ending as fluid.LineEnd ends them; 0 for the
 // start of the file) in a table's text, without the blanks and quotes
 // around the field.
 func tableSpan(data []byte, line, col int) Span {
@@ -383,7 +383,7 @@ func tableSpan(data []byte, line, col int) Span {
 		return Span{start, start}
 	}
 	for l := 1; l < line; l++ {
-		_, next := tableLineEnd(data, start)
+		_, next := fluid.LineEnd(data, start)
 		if next < 0 {
 			return Span{len(data), len(data)}
 		}
@@ -402,7 +402,7 @@ func tableLines(data []byte) []int {
 	out := make([]int, 0, bytes.Count(data, []byte("\n"))+1)
 	for {
 		out = append(out, start)
-		_, next := tableLineEnd(data, start)
+		_, next := fluid.LineEnd(data, start)
 		if next < 0 {
 			return out
 		}
@@ -412,7 +412,7 @@ func tableLines(data []byte) []int {
 
 // fieldSpan is tableSpan on the line that starts at offset start.
 func fieldSpan(data []byte, start, col int) Span {
-	end, _ := tableLineEnd(data, start)
+	end, _ := fluid.LineEnd(data, start)
 	for f := 1; f < col; f++ {
 		k := bytes.IndexByte(data[start:end], ',')
 		if k < 0 {
@@ -483,7 +483,7 @@ func ReadProfileCSV(data []byte) (cols []string, rows []ProfileRow, err *fluid.T
 
 // MaxTableErrors is how many errors of one table are reported; a note
 // counts the rest.
-const MaxTableErrors = 20
+const MaxTableErrors = fluid.MaxTableErrors
 
 // readProfileCSV is ReadProfileCSV giving every bad cell of the rows, in
 // the order of the text, up to MaxTableErrors+1 (the extra one tells that
@@ -492,16 +492,10 @@ func readProfileCSV(data []byte) (cols []string, rows []ProfileRow, errs []*flui
 	data = bytes.TrimPrefix(data, []byte("\uFEFF"))
 	sc := bufio.NewScanner(bytes.NewReader(data))
 	sc.Buffer(make([]byte, 64*1024), 1<<20)
-	sc.Split(scanTableLines)
+	sc.Split(fluid.ScanLines)
 	var us []units.Unit
 	line := 0
-	bad := 0 // errors found, also those past the cap
-	add := func(e *fluid.TableError) {
-		bad++
-		if len(errs) <= MaxTableErrors {
-			errs = append(errs, e)
-		}
-	}
+	var found fluid.TableErrors
 	for sc.Scan() {
 		line++
 		text := strings.TrimSpace(sc.Text())
@@ -518,11 +512,11 @@ func readProfileCSV(data []byte) (cols []string, rows []ProfileRow, errs []*flui
 			continue
 		}
 		if len(fields) != len(cols) {
-			add(&fluid.TableError{Line: line, Msg: fmt.Sprintf("%d fields, but the header names %d columns", len(fields), len(cols))})
+			found.Add(&fluid.TableError{Line: line, Msg: fmt.Sprintf("%d fields, but the header names %d columns", len(fields), len(cols))})
 			continue
 		}
 		if len(rows) == MaxProfileRows {
-			add(&fluid.TableError{Line: line, Msg: fmt.Sprintf("a profile holds at most %d rows", MaxProfileRows)})
+			found.Add(&fluid.TableError{Line: line, Msg: fmt.Sprintf("a profile holds at most %d rows", MaxProfileRows)})
 			break
 		}
 		row := ProfileRow{Line: line}
@@ -530,7 +524,7 @@ func readProfileCSV(data []byte) (cols []string, rows []ProfileRow, errs []*flui
 		for j, f := range fields {
 			fail := func(format string, a ...any) {
 				ok = false
-				add(&fluid.TableError{Line: line, Column: j + 1, Name: cols[j], Msg: fmt.Sprintf(format, a...)})
+				found.Add(&fluid.TableError{Line: line, Column: j + 1, Name: cols[j], Msg: fmt.Sprintf(format, a...)})
 			}
 			v, perr := strconv.ParseFloat(f, 64)
 			if perr != nil || math.IsNaN(v) || math.IsInf(v, 0) {
@@ -553,14 +547,10 @@ func readProfileCSV(data []byte) (cols []string, rows []ProfileRow, errs []*flui
 		}
 	}
 	if serr := sc.Err(); serr != nil {
-		add(&fluid.TableError{Line: line + 1, Msg: "reading the table: " + serr.Error()})
+		found.Add(&fluid.TableError{Line: line + 1, Msg: "reading the table: " + serr.Error()})
 	}
-	if len(errs) > MaxTableErrors {
-		errs[MaxTableErrors] = &fluid.TableError{Line: errs[MaxTableErrors].Line, Column: errs[MaxTableErrors].Column,
-			Msg: fmt.Sprintf("%d more errors not shown", bad-MaxTableErrors)}
-	}
-	if len(errs) > 0 {
-		return nil, nil, errs
+	if found.Len() > 0 {
+		return nil, nil, found.List()
 	}
 	if cols == nil {
 		return nil, nil, []*fluid.TableError{{Msg: "no header: the first line names the columns, e.g. \"time (s), pitch (deg), accel_x (gn)\""}}
@@ -569,38 +559,6 @@ func readProfileCSV(data []byte) (cols []string, rows []ProfileRow, errs []*flui
 		return nil, nil, []*fluid.TableError{{Msg: "the table has no rows"}}
 	}
 	return cols, rows, nil
-}
-
-// tableLineEnd returns where the line starting at start ends (before its
-// line break) and where the next line starts. A line ends at "\n", "\r\n"
-// or a lone "\r", as editors and the Mapper end lines, so that a table's
-// line numbers are those the editor shows.
-func tableLineEnd(data []byte, start int) (end, next int) {
-	k := bytes.IndexAny(data[start:], "\r\n")
-	if k < 0 {
-		return len(data), -1
-	}
-	end = start + k
-	if data[end] == '\r' && end+1 < len(data) && data[end+1] == '\n' {
-		return end, end + 2
-	}
-	return end, end + 1
-}
-
-// scanTableLines is a bufio.SplitFunc splitting at the line ends that
-// tableLineEnd knows.
-func scanTableLines(data []byte, atEOF bool) (int, []byte, error) {
-	if atEOF && len(data) == 0 {
-		return 0, nil, nil
-	}
-	end, next := tableLineEnd(data, 0)
-	if next >= 0 && (next < len(data) || data[next-1] == '\n' || atEOF) {
-		return next, data[:end], nil
-	}
-	if atEOF {
-		return len(data), data, nil
-	}
-	return 0, nil, nil // a lone '\r' at the end of the buffer may be a "\r\n"
 }
 
 // profileHeader reads a profile table's column names and units.

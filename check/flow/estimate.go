@@ -419,8 +419,15 @@ func prepare(m *lang.Model, l *lang.Loop, mu MethodsUsed) *prepared {
 	}
 	if err != nil {
 		p.fl = nil
-		p.findings = append(p.findings, Finding{Rule: RuleFluidUnknown, Severity: "error", Loop: l.Name,
-			Message: fmt.Sprintf("no estimate for loop %s: %v", l.Name, err)})
+		// A table's errors are one finding each, as a profile table's are.
+		errs := []error{err}
+		if tes := (*fluid.TableErrors)(nil); errors.As(err, &tes) {
+			errs = tes.Unwrap()
+		}
+		for _, e := range errs {
+			p.findings = append(p.findings, Finding{Rule: RuleFluidUnknown, Severity: "error", Loop: l.Name,
+				Message: fmt.Sprintf("no estimate for loop %s: %v", l.Name, e)})
+		}
 	} else {
 		p.info = p.fl.Info()
 		if s := p.info.Safety; s != "" && s != "A1" {

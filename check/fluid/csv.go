@@ -122,9 +122,9 @@ func LoadCSV(path string) (Fluid, error) {
 	}
 	name := strings.TrimSuffix(filepath.Base(path), filepath.Ext(path))
 	fl, err := readCSV(bytes.NewReader(data), name, false)
-	var te *TableError
-	if errors.As(err, &te) {
-		te.File = path
+	var tes *TableErrors
+	if errors.As(err, &tes) {
+		tes.SetFile(path)
 	}
 	return fl, err
 }
@@ -175,7 +175,10 @@ func LoadCSV(path string) (Fluid, error) {
 //	# critical: 400 K, 3.5 MPa     critical temperature and pressure, optionally density
 //	# source: ...                  where the values come from
 //
-// Errors are *TableError, located by line and column.
+// Lines end at "\n", "\r\n" or a lone "\r". Errors are *TableErrors: every
+// bad cell of the data rows, located by line and column, up to
+// MaxTableErrors and a count of the rest; an error in the header stops the
+// reading.
 func FromCSV(r io.Reader, name string) (Fluid, error) {
 	return readCSV(r, name, true)
 }
@@ -187,6 +190,8 @@ func readCSV(r io.Reader, name string, nameFirst bool) (Fluid, error) {
 	metaName := ""
 	sc := bufio.NewScanner(r)
 	sc.Buffer(make([]byte, 64*1024), 1<<20)
+	sc.Split(ScanLines)
+	var errs TableErrors
 	line := 0
 	for sc.Scan() {
 		line++
@@ -200,25 +205,27 @@ func readCSV(r io.Reader, name string, nameFirst bool) (Fluid, error) {
 		if strings.HasPrefix(text, "#") {
 			n, err := p.meta(line, text[1:])
 			if err != nil {
-				return nil, err
+				errs.Add(err)
 			}
 			if n != "" {
 				metaName = n
 			}
 			continue
 		}
-		var err error
 		if p.cols == nil {
-			err = p.header(line, text)
-		} else {
-			err = p.row(line, text)
+			if err := p.header(line, text); err != nil {
+				errs.Add(err)
+				return nil, &errs
+			}
+			continue
 		}
-		if err != nil {
-			return nil, err
-		}
+		p.row(line, text, &errs)
 	}
 	if err := sc.Err(); err != nil {
-		return nil, &TableError{Line: line + 1, Msg: "reading the table: " + err.Error()}
+		errs.Add(&TableError{Line: line + 1, Msg: "reading the table: " + err.Error()})
+	}
+	if err := errs.err(); err != nil {
+		return nil, err
 	}
 	if metaName != "" && (!nameFirst || p.info.Name == "") {
 		p.info.Name = metaName
@@ -226,7 +233,12 @@ func readCSV(r io.Reader, name string, nameFirst bool) (Fluid, error) {
 	if p.info.Name == "" {
 		p.info.Name = "user fluid"
 	}
-	return p.finish()
+	fl, err := p.finish()
+	if err != nil {
+		errs.Add(err)
+		return nil, &errs
+	}
+	return fl, nil
 }
 
 type csvParser struct {
@@ -241,14 +253,14 @@ type csvParser struct {
 }
 
 // meta reads a comment line, returning the name it gives, if any.
-func (p *csvParser) meta(line int, text string) (string, error) {
+func (p *csvParser) meta(line int, text string) (string, *TableError) {
 	key, val, ok := strings.Cut(text, ":")
 	if !ok {
 		return "", nil
 	}
 	key = strings.ToLower(strings.TrimSpace(key))
 	val = strings.TrimSpace(val)
-	bad := func(format string, a ...any) error {
+	bad := func(format string, a ...any) *TableError {
 		return &TableError{Line: line, Msg: fmt.Sprintf("%s: ", key) + fmt.Sprintf(format, a...)}
 	}
 	switch key {
@@ -325,7 +337,7 @@ func splitFields(text string) []string {
 }
 
 // header reads the column names and units.
-func (p *csvParser) header(line int, text string) error {
+func (p *csvParser) header(line int, text string) *TableError {
 	fields := splitFields(text)
 	p.cols = make([]int, len(fields))
 	p.names = make([]string, len(fields))
@@ -394,53 +406,70 @@ func csvColumnList() string {
 	return strings.Join(names, ", ")
 }
 
-// row reads one data row.
-func (p *csvParser) row(line int, text string) error {
+// row reads one data row, adding an error for each bad cell; a row with
+// any is left out, so that the next is checked against the last good one.
+func (p *csvParser) row(line int, text string, errs *TableErrors) {
 	fields := splitFields(text)
 	if len(fields) != len(p.cols) {
-		return &TableError{Line: line, Msg: fmt.Sprintf("%d fields, but the header names %d columns", len(fields), len(p.cols))}
+		errs.Add(&TableError{Line: line, Msg: fmt.Sprintf("%d fields, but the header names %d columns", len(fields), len(p.cols))})
+		return
 	}
 	n := len(p.lines)
+	var vals [cCount]float64
+	ok := true
 	for j, f := range fields {
 		c := p.cols[j]
-		bad := func(format string, a ...any) error {
-			return &TableError{Line: line, Column: j + 1, Name: p.names[j], Msg: fmt.Sprintf(format, a...)}
+		bad := func(format string, a ...any) {
+			ok = false
+			errs.Add(&TableError{Line: line, Column: j + 1, Name: p.names[j], Msg: fmt.Sprintf(format, a...)})
 		}
 		v, err := strconv.ParseFloat(f, 64)
 		if err != nil || math.IsNaN(v) || math.IsInf(v, 0) {
-			return bad("not a number %q", f)
+			bad("not a number %q", f)
+			continue
 		}
 		si := p.unit[c].ToSI(v)
 		if math.IsNaN(si) || math.IsInf(si, 0) {
-			return bad("value %q out of range", f)
+			bad("value %q out of range", f)
+			continue
 		}
 		if c == cT && si <= 0 {
-			return bad("temperature %s is not above absolute zero", f)
+			bad("temperature %s is not above absolute zero", f)
+			continue
 		}
 		if !csvColumns[c].anySign && si <= 0 {
-			return bad("%s must be positive, got %s", csvColumns[c].name, f)
+			bad("%s must be positive, got %s", csvColumns[c].name, f)
+			continue
 		}
 		if n > 0 {
 			prev := p.data[c][n-1]
 			switch c {
 			case cT:
 				if si <= prev {
-					return bad("temperatures must increase down the table (previous row, line %d, has %g K, this one %g K)", p.lines[n-1], prev, si)
+					bad("temperatures must increase down the table (previous row, line %d, has %g K, this one %g K)", p.lines[n-1], prev, si)
+					continue
 				}
 			case cP:
 				if si <= prev {
-					return bad("pressure must increase with temperature (previous row, line %d, has %g Pa, this one %g Pa)", p.lines[n-1], prev, si)
+					bad("pressure must increase with temperature (previous row, line %d, has %g Pa, this one %g Pa)", p.lines[n-1], prev, si)
+					continue
 				}
 			}
 		}
-		p.data[c] = append(p.data[c], si)
+		vals[c] = si
+	}
+	if !ok {
+		return
+	}
+	for j := range fields {
+		c := p.cols[j]
+		p.data[c] = append(p.data[c], vals[c])
 	}
 	p.lines = append(p.lines, line)
-	return nil
 }
 
 // finish checks the whole table and fits its interpolants.
-func (p *csvParser) finish() (Fluid, error) {
+func (p *csvParser) finish() (Fluid, *TableError) {
 	if p.cols == nil {
 		return nil, &TableError{Msg: "no header row: the first line that is not a comment must name the columns"}
 	}

@@ -2,6 +2,7 @@ package fluid
 
 import (
 	"errors"
+	"fmt"
 	"math"
 	"os"
 	"strings"
@@ -208,3 +209,78 @@ func TestLoadCSVErrorNamesFile(t *testing.T) {
 }
 
 func writeFile(path, text string) error { return os.WriteFile(path, []byte(text), 0o644) }
+
+// A table reads the same with lines ended by "\r\n" or a lone "\r" (as
+// editors on other systems save them) as with "\n", and its errors count
+// lines as the editor does.
+func TestFromCSVLineEnds(t *testing.T) {
+	lf := "# name: ends\n" + csvRows(row1, row2, row3, row4)
+	want, err := FromCSV(strings.NewReader(lf), "")
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, end := range []string{"\r\n", "\r"} {
+		text := strings.ReplaceAll(lf, "\n", end)
+		got, err := FromCSV(strings.NewReader(text), "")
+		if err != nil {
+			t.Fatalf("%q line ends: %v", end, err)
+		}
+		if gi, wi := got.Info(), want.Info(); gi.Name != wi.Name || gi.Tmin != wi.Tmin || gi.Tmax != wi.Tmax {
+			t.Errorf("%q line ends: Info %+v, want %+v", end, got.Info(), want.Info())
+		}
+		a, _ := got.AtT(315)
+		b, _ := want.AtT(315)
+		if a != b {
+			t.Errorf("%q line ends: AtT(315) = %+v, want %+v", end, a, b)
+		}
+		bad := strings.ReplaceAll(csvRows(row1, row2, strings.Replace(row3, "989", "98x", 1), row4), "\n", end)
+		if _, err := FromCSV(strings.NewReader(bad), ""); err == nil || err.Error() != `line 4, column 3 (rho_l): not a number "98x"` {
+			t.Errorf("%q line ends: error %v, want it on line 4", end, err)
+		}
+	}
+}
+
+// Every bad cell of the rows is reported, in the order of the text, up to
+// MaxTableErrors and then a count of the rest; a bad row does not hide the
+// rows after it.
+func TestFromCSVEveryError(t *testing.T) {
+	text := csvRows(row1, strings.Replace(row2, "6.2", "six", 1), row3, strings.Replace(strings.Replace(row4, "985", "-985", 1), "66.8", "x", 1))
+	_, err := FromCSV(strings.NewReader(text), "bad")
+	var tes *TableErrors
+	if !errors.As(err, &tes) {
+		t.Fatalf("error %v, want *TableErrors", err)
+	}
+	want := []string{
+		`line 3, column 2 (p): not a number "six"`,
+		"line 5, column 3 (rho_l): rho_l must be positive, got -985",
+		`line 5, column 10 (sigma): not a number "x"`,
+	}
+	if got := err.Error(); got != strings.Join(want, "\n") {
+		t.Errorf("errors\n%s\nwant\n%s", got, strings.Join(want, "\n"))
+	}
+
+	rows := []string{row1}
+	for i := 0; i < 30; i++ {
+		rows = append(rows, fmt.Sprintf("%d, x, 993, 0.044, 2414, 4.18, 0.69, 10.2, 0.62, 70.0", 310+i))
+	}
+	_, err = FromCSV(strings.NewReader(csvRows(rows...)), "bad")
+	if !errors.As(err, &tes) || tes.Len() != 30 || len(tes.List()) != MaxTableErrors+1 {
+		t.Fatalf("30 bad cells: %v", err)
+	}
+	if last := tes.List()[MaxTableErrors]; last.Line != 23 || last.Msg != "10 more errors not shown" {
+		t.Errorf("last error %q on line %d, want the count of the other 10 on line 23", last.Msg, last.Line)
+	}
+}
+
+// A file's errors each name the file.
+func TestLoadCSVErrorsNameFile(t *testing.T) {
+	path := t.TempDir() + "/bad.csv"
+	if err := writeFile(path, csvRows(row1, strings.Replace(row2, "6.2", "y", 1), strings.Replace(row3, "10.5", "x", 1), row4)); err != nil {
+		t.Fatal(err)
+	}
+	_, err := LoadCSV(path)
+	lines := strings.Split(fmt.Sprint(err), "\n")
+	if len(lines) != 2 || !strings.HasPrefix(lines[0], path+": line 3, column 2 (p)") || !strings.HasPrefix(lines[1], path+": line 4, column 2 (p)") {
+		t.Errorf("errors %q, want two, each with the path and location", lines)
+	}
+}

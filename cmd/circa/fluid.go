@@ -57,7 +57,13 @@ func runFluid(args []string, _ io.Reader, stdout, stderr io.Writer) int {
 		return exitUsage
 	}
 	if err != nil {
-		fmt.Fprintln(stderr, "circa fluid:", err)
+		errs := []error{err}
+		if tes := (*fluid.TableErrors)(nil); errors.As(err, &tes) {
+			errs = tes.Unwrap()
+		}
+		for _, e := range errs {
+			fmt.Fprintln(stderr, "circa fluid:", e)
+		}
 		return exitUsage
 	}
 	var sat fluid.Sat

@@ -286,3 +286,47 @@ func sarifSchema(t *testing.T) *jsonschema.Schema {
 	}
 	return sch
 }
+
+// A fluid table saved with "\r\n" line ends reads as with "\n", and every
+// bad cell of it is reported with its line and column, by `circa fluid
+// --table` and by a loop file's `fluid table`.
+func TestFluidTableEveryError(t *testing.T) {
+	demo, err := os.ReadFile("../../testdata/fluids/demo-coolant.csv")
+	if err != nil {
+		t.Fatal(err)
+	}
+	dir := t.TempDir()
+	crlf := filepath.Join(dir, "crlf.csv")
+	if err := os.WriteFile(crlf, bytes.ReplaceAll(demo, []byte("\n"), []byte("\r\n")), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if code, out, errs := circa(t, "", "fluid", "--table", crlf, "--at", "20 degC"); code != exitOK || !strings.Contains(out, "demo coolant, saturated at 20 °C") {
+		t.Errorf("CRLF table: status %d\n%s%s", code, out, errs)
+	}
+	text := strings.Replace(string(demo), "998.161,", "998.1x,", 1) // line 11, column 3
+	text = strings.Replace(text, "0.79722,", "-0.79722,", 1)        // line 12, column 8
+	bad := filepath.Join(dir, "bad.csv")
+	if err := os.WriteFile(bad, []byte(strings.ReplaceAll(text, "\n", "\r")), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	want := []string{
+		bad + `: line 11, column 3 (rho_l): not a number "998.1x"`,
+		bad + ": line 12, column 8 (mu_l): mu_l must be positive, got -0.79722",
+	}
+	_, _, errs := circa(t, "", "fluid", "--table", bad, "--at", "20 degC")
+	for _, w := range want {
+		if !strings.Contains(errs, "circa fluid: "+w+"\n") {
+			t.Errorf("circa fluid: stderr lacks %q:\n%s", w, errs)
+		}
+	}
+	root := filepath.Join(dir, "root.loop")
+	if err := os.WriteFile(root, []byte(strings.Replace(good, "fluid water", "fluid table \"bad.csv\"", 1)), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	_, out, _ := circa(t, "", "check", root)
+	for _, w := range want {
+		if !strings.Contains(out, w) {
+			t.Errorf("circa check: output lacks %q:\n%s", w, out)
+		}
+	}
+}
