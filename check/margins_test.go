@@ -252,3 +252,26 @@ func TestEstimateTooLarge(t *testing.T) {
 		t.Errorf("%d too-large findings, want 1", found)
 	}
 }
+
+// A condenser margin checked against the top of the fluid's range, for
+// want of a saturation_max, says so and gives that top as the fluid list
+// does: water's 646 K is 372.85 °C, 1.096 K below the critical point
+// 647.096 K (IAPWS R7-97(2012) IF97; python3-iapws gives Tc = 647.096 K).
+// "allowed 373 °C" read as a design limit, and as the critical point.
+func TestCondenserMarginNamesFluidRange(t *testing.T) {
+	m := lang.Load("../testdata/examples/shelter-rectifier.loop", lang.OSFS{})
+	rep := RunReport(m, Options{NoTilt: true})
+	found := false
+	for _, mg := range rep.Margins {
+		if mg.Rule != "margin-condenser" {
+			continue
+		}
+		found = true
+		if !strings.Contains(mg.Message, "below 372.85 °C, the top of water's property range (1.10 K below its critical point, 373.95 °C): ") || strings.Contains(mg.Message, "allowed") {
+			t.Errorf("condenser margin %q", mg.Message)
+		}
+	}
+	if !found {
+		t.Fatal("no condenser margin in the summary")
+	}
+}

@@ -6,6 +6,7 @@ import (
 	"strconv"
 
 	"circa/check/flow"
+	"circa/check/fluid"
 	"circa/lang"
 )
 
@@ -63,8 +64,11 @@ func marginText(c *Context, m flow.Margin, cr *flow.CaseResult) string {
 		dp := l.DesignPressure
 		return fmt.Sprintf("saturation pressure %s, design pressure %s: %s", sigAs(m.Value, dp, "bar"), sigAs(m.Limit, dp, "bar"), pct(m.Value, m.Limit))
 	case flow.MarginCondenser:
+		if m.Unit == "K" && m.LimitField == flow.LimitFluidRange {
+			return fmt.Sprintf("saturation temperature %.2f °C, below %s: %s", m.Value-273.15, rangeTop(l.Fluid, m.Limit), over(m.Value-m.Limit, "K"))
+		}
 		if m.Unit == "K" {
-			return fmt.Sprintf("saturation temperature %s, allowed %s: %s", temp(m.Value, lim.SaturationMax), temp(m.Limit, lim.SaturationMax), over(m.Value-m.Limit, "K"))
+			return fmt.Sprintf("saturation temperature %s, saturation_max %s: %s", temp(m.Value, lim.SaturationMax), temp(m.Limit, lim.SaturationMax), over(m.Value-m.Limit, "K"))
 		}
 		return fmt.Sprintf("condenser capacity %.0f W for a load of %.0f W: %s", m.Value, m.Limit, pct(m.Limit, m.Value))
 	case flow.MarginCharge:
@@ -91,4 +95,15 @@ func marginText(c *Context, m flow.Margin, cr *flow.CaseResult) string {
 		return msg + fmt.Sprintf("%.1f° to spare", d)
 	}
 	return fmt.Sprintf("%s %s%s, limit %s", marginLabel(m.Margin, lim.HeadRatio.SI), num(m.Value), at, num(m.Limit))
+}
+
+// rangeTop names the top of a loop's fluid's range, tMax (K), as the limit
+// of its condenser margin when no lower saturation_max is set.
+func rangeTop(fs lang.FluidSpec, tMax float64) string {
+	if fs.Table == "" {
+		if fl, err := fluid.Lookup(fs.Name); err == nil {
+			return flow.RangeTopText(fl.Info())
+		}
+	}
+	return fmt.Sprintf("%.2f °C, the top of the fluid table's range", tMax-273.15)
 }

@@ -195,3 +195,40 @@ func margin(cr *CaseResult, name string) float64 {
 	}
 	return math.NaN()
 }
+
+// Without a lower saturation_max, a condenser balance is checked against
+// the top of the fluid's range, which the margin names as such: for water
+// 646 K, 372.85 °C, 1.096 K below the critical point 647.096 K (IAPWS
+// R7-97(2012) IF97 and python3-iapws give Tc = 647.096 K; 646 K lies in
+// IF97 region 3, above its 623.15 K boundary with regions 1 and 2).
+func TestCondenserLimitIsFluidRange(t *testing.T) {
+	water := strings.Replace(strings.ReplaceAll(ring, "HEAT", "300 W"), "fluid R134a", "fluid water", 1)
+	for _, c := range []struct {
+		limits    string
+		field     string
+		limitKelv float64
+	}{
+		{"", LimitFluidRange, 646},
+		{"limits { saturation_max 80 degC }\n", "saturation_max", 353.15},
+		{"limits { saturation_max 380 degC }\n", LimitFluidRange, 646}, // above the range: the range binds
+	} {
+		cr := only(t, estimate(t, load(t, c.limits+water), Options{NoTilt: true}))
+		var m *Margin
+		for i := range cr.Margins {
+			if cr.Margins[i].Margin == MarginCondenser {
+				m = &cr.Margins[i]
+			}
+		}
+		if m == nil {
+			t.Fatalf("%q: no condenser margin (%s)", c.limits, cr.Reason)
+		}
+		if m.LimitField != c.field || math.Abs(m.Limit-c.limitKelv) > 1e-9 {
+			t.Errorf("%q: limit %.4f K from %q, want %.4f K from %q", c.limits, m.Limit, m.LimitField, c.limitKelv, c.field)
+		}
+	}
+	fl, _ := fluid.Lookup("water")
+	want := "372.85 °C, the top of water's property range (1.10 K below its critical point, 373.95 °C)"
+	if got := RangeTopText(fl.Info()); got != want {
+		t.Errorf("RangeTopText(water) = %q, want %q", got, want)
+	}
+}

@@ -553,7 +553,7 @@ func (p *prepared) newState(pt point, cr *CaseResult) (*state, []Finding) {
 		T, ok = geometrySaturation(p.cond, p.fl, p.info, pt.c, conds, sinks, geom.BodyForceAt(pt.yaw, pt.pitch, pt.roll, pt.accel), qTot)
 		cr.SatSource = "condenser balance"
 		if !ok {
-			find(RuleCondenser, "error", conds[0].name, T, p.info.Tmax, "K", "the condensers cannot reject %.0f W in case %s below the top of the fluid's range (%.2f °C): no estimate", qTot, cname, p.info.Tmax-273.15)
+			find(RuleCondenser, "error", conds[0].name, T, p.info.Tmax, "K", "the condensers cannot reject %.0f W in case %s below %s: no estimate", qTot, cname, RangeTopText(p.info))
 			return nil, fs
 		}
 	case ua > 0 && missing == "":

@@ -7,6 +7,7 @@ import (
 	"strconv"
 
 	"circa/check/correlate"
+	"circa/check/fluid"
 	"circa/check/geom"
 	"circa/lang"
 )
@@ -397,6 +398,22 @@ func (p *prepared) pressureMargin(s *state, cr *CaseResult) {
 	cr.add(m)
 }
 
+// LimitFluidRange is the LimitField of a condenser margin whose limit is
+// the top of the fluid's range, for want of a lower saturation_max.
+const LimitFluidRange = "fluid_range"
+
+// RangeTopText names the top of a fluid's range as a limit, to the
+// hundredth of a kelvin its range is listed with, and how far it lies
+// below the critical point: "372.85 °C, the top of water's property range
+// (1.10 K below its critical point, 373.95 °C)".
+func RangeTopText(info fluid.Info) string {
+	s := fmt.Sprintf("%.2f °C, the top of %s's property range", info.Tmax-273.15, info.Name)
+	if info.Tc > info.Tmax && !math.IsInf(info.Tc, 0) {
+		s += fmt.Sprintf(" (%.2f K below its critical point, %.2f °C)", info.Tc-info.Tmax, info.Tc-273.15)
+	}
+	return s
+}
+
 // condenserMargin checks that the condensers reject the load within the
 // allowed saturation temperature. A condenser given by geometry counts with
 // its film conductance at the operating saturation temperature.
@@ -435,23 +452,27 @@ func (p *prepared) condenserMargin(s *state, cr *CaseResult) {
 		return
 	}
 	tSink := uaT / ua
-	tMax := p.info.Tmax
-	field := ""
-	if p.limits.SaturationMax.Set {
-		tMax = math.Min(tMax, p.limits.SaturationMax.SI)
-		field = "saturation_max"
+	// Without a lower saturation_max the limit is where the fluid's
+	// properties end, which is no design limit: the margin says so.
+	tMax, field := p.info.Tmax, LimitFluidRange
+	if sm := p.limits.SaturationMax; sm.Set && sm.SI < tMax {
+		tMax, field = sm.SI, "saturation_max"
 	}
 	if cr.SatSource == "condenser balance" {
 		use := math.MaxFloat64
 		if tMax > tSink {
 			use = (s.sat.T - tSink) / (tMax - tSink)
 		}
-		m := Margin{Margin: MarginCondenser, Value: s.sat.T, Limit: tMax, Unit: "K", Use: use, Status: status(use, 1)}
+		m := Margin{Margin: MarginCondenser, Value: s.sat.T, Limit: tMax, Unit: "K", Use: use, Status: status(use, 1), LimitField: field}
 		if use > 1 {
 			m.Status = "error"
-			cr.Findings = append(cr.Findings, p.finding(RuleCondenser, "error", cr.Case, "", s.sat.T, tMax, "K", field,
-				"the condensers (UA %.0f W/K) need a saturation temperature of %.1f °C to reject %.0f W in case %s, above the allowed %.1f °C",
-				ua, s.sat.T-273.15, cr.Heat, cr.Case, tMax-273.15))
+			limit, ff := fmt.Sprintf("the limits' saturation_max of %.1f °C", tMax-273.15), field
+			if field == LimitFluidRange {
+				limit, ff = RangeTopText(p.info), ""
+			}
+			cr.Findings = append(cr.Findings, p.finding(RuleCondenser, "error", cr.Case, "", s.sat.T, tMax, "K", ff,
+				"the condensers (UA %.0f W/K) need a saturation temperature of %.1f °C to reject %.0f W in case %s, above %s",
+				ua, s.sat.T-273.15, cr.Heat, cr.Case, limit))
 		}
 		cr.add(m)
 		return

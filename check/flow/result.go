@@ -262,6 +262,10 @@ type Margin struct {
 	Status    string  `json:"status"` // "ok", "warning", "error"
 	// Time is the instant of the case's profile the margin comes from, s.
 	Time *float64 `json:"time,omitempty"`
+	// LimitField says where a condenser margin's saturation limit comes
+	// from: "saturation_max" (the limits block) or LimitFluidRange (the
+	// top of the fluid's range, for want of a lower saturation_max).
+	LimitField string `json:"limit_field,omitempty"`
 }
 
 // ChargeRange is the range of fill charge, kg, that raises no charge

@@ -16,9 +16,12 @@ import (
 // release allows outside a small region around the critical point; the
 // thermal conductivity includes its critical enhancement λ₂ in the release's
 // industrial form (IF97 derivatives, the tabulated reference compressibility).
-// The range ends at waterTmax, 1.096 K below the critical point: closer to it
-// the saturated phases' properties change faster than a quick estimate can
-// use, and the omitted viscosity enhancement starts to matter.
+// The range ends at waterTmax, 646 K (372.85 °C), 1.096 K below the critical
+// point 647.096 K (373.946 °C) and inside IF97 region 3, which starts at
+// 623.15 K (350 °C): closer to the critical point the saturated phases'
+// properties change faster than a quick estimate can use, and the omitted
+// viscosity enhancement starts to matter. Without a lower saturation_max the
+// top of the range is also the condenser margin's limit.
 type water struct{}
 
 func init() { register(water{}) }

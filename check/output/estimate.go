@@ -174,6 +174,11 @@ func MarginValue(l *flow.LoopResult, c *flow.CaseResult, m flow.Margin) (value, 
 	if m.Unit == "Pa" {
 		return pressureAs(m.Value, l.DesignPressureUnit), pressureAs(m.Limit, l.DesignPressureUnit)
 	}
+	if m.LimitField == flow.LimitFluidRange {
+		// No design limit: where the fluid's properties end, to the
+		// hundredth the fluid list gives it.
+		return unitValue(m.Value, m.Unit), fixed(celsius(m.Limit), 2) + " °C (top of " + l.Fluid + "'s range)"
+	}
 	return unitValue(m.Value, m.Unit), unitValue(m.Limit, m.Unit)
 }
 

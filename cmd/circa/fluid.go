@@ -169,6 +169,8 @@ func printSat(w io.Writer, in fluid.Info, s fluid.Sat) {
 	tw.Flush()
 	fmt.Fprintf(w, "  critical point %s, %s; molar mass %s\n", celsiusText(in.Tc), units.Format(in.Pc, u("MPa")),
 		units.Format(in.MolarMass, u("g/mol")))
+	fmt.Fprintf(w, "  range %s to %s: the saturation temperatures the estimate takes; the top is the condensers' limit unless limits saturation_max is lower\n",
+		celsiusText(in.Tmin), celsiusText(in.Tmax))
 	if in.Safety != "" {
 		fmt.Fprintf(w, "  safety class %s\n", in.Safety)
 	}
