@@ -33,8 +33,11 @@ type Mapper struct {
 
 // NewMapper indexes the line starts of text.
 func NewMapper(text []byte) *Mapper {
-	lines := make([]int, 1, len(text)/30+1)
 	if bytes.IndexByte(text, '\r') < 0 {
+		// Counted first, so a text of short lines does not grow the
+		// index by copies (a megabyte of "a {" lines allocated 9 MB for
+		// an index of 2).
+		lines := make([]int, 1, bytes.Count(text, []byte{'\n'})+1)
 		for i := 0; ; {
 			j := bytes.IndexByte(text[i:], '\n')
 			if j < 0 {
@@ -45,6 +48,7 @@ func NewMapper(text []byte) *Mapper {
 		}
 		return &Mapper{text: text, lines: lines}
 	}
+	lines := make([]int, 1, len(text)/30+1)
 	for i, c := range text {
 		if c == '\n' || (c == '\r' && (i+1 == len(text) || text[i+1] != '\n')) {
 			lines = append(lines, i+1)
