@@ -12,7 +12,10 @@ import (
 
 // MaxNesting bounds how deeply parentheses may nest in one statement. The
 // grammar is parsed recursively; the bound keeps hostile text from using
-// unbounded stack, and no real expression comes near it.
+// unbounded stack, and no real expression comes near it. Blocks may nest
+// as deeply too: the statements of a block deeper than that are read for
+// their errors but not kept in the tree (its statement is kept, with no
+// statements in its block), and each brace open below costs 8 bytes.
 const MaxNesting = 100
 
 // Parse parses one .loop text. It never fails: syntax errors are collected
@@ -64,7 +67,13 @@ type parser struct {
 	// line of the last error, to keep one error per line
 	errLine int
 	// deepBlocks is set once nesting too deep has been reported
-	deepBlocks  bool
+	deepBlocks bool
+	// deep are the blocks open inside the block of edge, the statement
+	// that opened one block more than MaxNesting: they are not in the
+	// tree, and only what closing them and reporting them never closed
+	// needs is kept.
+	deep        deepStack
+	edge        *Stmt
 	nodes       nodes // the fast path's node chunks
 	grammarOnly bool  // parse every statement with the grammar
 	tooMany     bool  // MaxErrors reached: no more errors, no explanations
@@ -113,7 +122,7 @@ func (p *parser) errorf(span Span, format string, args ...any) {
 }
 
 func (p *parser) add(s *Stmt) {
-	if p.sink != nil {
+	if p.sink != nil || p.deep.n > 0 {
 		return
 	}
 	if n := len(p.stack); n > 0 {
@@ -263,9 +272,16 @@ func (p *parser) run() {
 // or three levels, and the canonical layout of deeper nesting grows with
 // the square of the depth.
 func (p *parser) push(s *Stmt) {
-	if len(p.stack) == MaxNesting && !p.deepBlocks {
-		p.deepBlocks = true
-		p.errorf(Span{s.Block.Open, s.Block.Open + 1}, "blocks nested too deeply: more than %d levels", MaxNesting)
+	if len(p.stack) == MaxNesting {
+		if !p.deepBlocks {
+			p.deepBlocks = true
+			p.errorf(Span{s.Block.Open, s.Block.Open + 1}, "blocks nested too deeply: more than %d levels", MaxNesting)
+		}
+		if p.deep.n == 0 {
+			p.edge = s
+		}
+		p.pushDeep(s.Block.Open, wordStart(s))
+		return
 	}
 	if p.sink != nil {
 		// The statement's nodes go back to the chunks once it is written;
@@ -289,8 +305,66 @@ func (p *parser) push(s *Stmt) {
 	}
 }
 
+// deepBlock is a block open deeper than MaxNesting: the offsets of its
+// '{' and of its statement's word (-1 for none).
+type deepBlock struct{ open, word int32 }
+
+// deepStack is a stack of deepBlocks in chunks, which are never copied as
+// it grows.
+type deepStack struct {
+	chunks [][]deepBlock
+	n      int
+}
+
+const deepChunk = 4096
+
+func (d *deepStack) push(b deepBlock) {
+	if d.n == len(d.chunks)*deepChunk {
+		d.chunks = append(d.chunks, make([]deepBlock, deepChunk))
+	}
+	d.chunks[d.n/deepChunk][d.n%deepChunk] = b
+	d.n++
+}
+
+func (d *deepStack) pop() deepBlock {
+	d.n--
+	return d.chunks[d.n/deepChunk][d.n%deepChunk]
+}
+
+// wordStart is the offset of the word of s, or -1.
+func wordStart(s *Stmt) int {
+	if s.Word == nil {
+		return -1
+	}
+	return s.Word.Pos.Offset
+}
+
+// pushDeep opens a block deeper than MaxNesting at the '{' at offset open,
+// of a statement whose word starts at offset word (-1 for none).
+func (p *parser) pushDeep(open, word int) {
+	p.deep.push(deepBlock{int32(open), int32(word)})
+}
+
+// wordAtOffset is the word that starts at offset off, as the scanner read it.
+func (p *parser) wordAtOffset(off int) string {
+	if off < 0 {
+		return ""
+	}
+	sc := scanner{src: p.sc.src, str: p.sc.str, pos: off, line: 1}
+	sc.scanIdent()
+	return sc.toks[0].Value
+}
+
 // close ends the innermost block at the '}' at span sp.
 func (p *parser) close(sp Span) {
+	if p.deep.n > 0 {
+		p.deep.pop()
+		if p.deep.n == 0 {
+			p.edge.Block.Close = sp.Start
+			p.edge = nil
+		}
+		return
+	}
 	n := len(p.stack)
 	if n == 0 {
 		p.stray = true
@@ -312,7 +386,15 @@ func (p *parser) close(sp Span) {
 }
 
 func (p *parser) closeAll(eof Span) {
-	for i := len(p.stack) - 1; i >= 0; i-- {
+	// Past the error limit nothing more is reported: a line of a million
+	// '{' leaves as many blocks open.
+	for p.deep.n > 0 && !p.tooMany {
+		b := p.deep.pop()
+		p.errLine = -1
+		p.errorf(Span{int(b.open), int(b.open) + 1}, "block of %q opened here is never closed: add '}'", p.wordAtOffset(int(b.word)))
+	}
+	p.deep, p.edge = deepStack{}, nil
+	for i := len(p.stack) - 1; i >= 0 && !p.tooMany; i-- {
 		s := p.stack[i]
 		p.errLine = -1
 		p.errorf(Span{s.Block.Open, s.Block.Open + 1}, "block of %q opened here is never closed: add '}'", s.Keyword())
@@ -337,6 +419,12 @@ func (p *parser) statement() {
 		mark := p.nodes.mark()
 		if stmt, ok := q.stmt(); ok {
 			p.cur = q.i
+			if p.deep.n > 0 {
+				// Deeper than the tree keeps: read only for what ends it.
+				p.terminator(stmt)
+				p.nodes.release(mark)
+				return
+			}
 			if p.heads != nil && p.sink == nil {
 				var in *Stmt
 				if len(p.stack) > 0 {
@@ -449,10 +537,6 @@ func (p *parser) tooDeep(i int) (lexer.Token, bool) {
 // the end of its line, opening a block if the line opens one so later
 // lines nest right.
 func (p *parser) skipBad(first lexer.Token) {
-	bad := &Stmt{Pos: at(first.Pos), Bad: true}
-	if first.Type == TokIdent {
-		bad.Word = &Ident{Pos: at(first.Pos), EndPos: Pos{Offset: first.Pos.Offset + len(first.Value)}, Name: first.Value}
-	}
 	end := first.Pos.Offset + len(first.Value)
 	for {
 		t := p.peek()
@@ -462,6 +546,15 @@ func (p *parser) skipBad(first lexer.Token) {
 		p.next()
 		end = t.Pos.Offset + len(t.Value)
 		if isPunctTok(t, "{") {
+			if p.deep.n > 0 {
+				word := -1
+				if first.Type == TokIdent {
+					word = first.Pos.Offset
+				}
+				p.pushDeep(t.Pos.Offset, word)
+				return
+			}
+			bad := badStmt(first)
 			bad.EndPos = Pos{Offset: t.Pos.Offset}
 			bad.Block = &Block{Open: t.Pos.Offset, Close: -1}
 			p.add(bad)
@@ -469,8 +562,21 @@ func (p *parser) skipBad(first lexer.Token) {
 			return
 		}
 	}
+	if p.deep.n > 0 {
+		return
+	}
+	bad := badStmt(first)
 	bad.EndPos = Pos{Offset: end}
 	p.add(bad)
+}
+
+// badStmt is the Bad statement that starts with token first.
+func badStmt(first lexer.Token) *Stmt {
+	bad := &Stmt{Pos: at(first.Pos), Bad: true}
+	if first.Type == TokIdent {
+		bad.Word = &Ident{Pos: at(first.Pos), EndPos: Pos{Offset: first.Pos.Offset + len(first.Value)}, Name: first.Value}
+	}
+	return bad
 }
 
 // terminator handles what follows a parsed statement: '{', '}', ';', a
@@ -482,6 +588,10 @@ func (p *parser) terminator(s *Stmt) {
 		return
 	case isPunctTok(t, "{"):
 		p.next()
+		if p.deep.n > 0 {
+			p.pushDeep(t.Pos.Offset, wordStart(s))
+			return
+		}
 		s.Block = &Block{Open: t.Pos.Offset, Close: -1}
 		nt := p.peek()
 		s.Block.OneLine = !(nt.Type == TokNewline || nt.EOF())
@@ -501,6 +611,10 @@ func (p *parser) terminator(s *Stmt) {
 		}
 		p.next()
 		if isPunctTok(t, "{") {
+			if p.deep.n > 0 {
+				p.pushDeep(t.Pos.Offset, wordStart(s))
+				return
+			}
 			s.Block = &Block{Open: t.Pos.Offset, Close: -1}
 			p.push(s)
 			return

@@ -165,6 +165,42 @@ func TestParseDeepBlocks(t *testing.T) {
 	if len(f.Errors) != 50 {
 		t.Errorf("%d errors, want 50", len(f.Errors))
 	}
+	// Deeper than the limit the tree keeps the statement that opened the
+	// block too many, with its braces and no statements, and reading goes
+	// on right after its '}'.
+	src = strings.Repeat("a {\n", MaxNesting+50) + "b\n" + strings.Repeat("}\n", MaxNesting+50) + "c { d }\n"
+	f = Parse("deep.loop", []byte(src))
+	checkErrs(t, f, []string{itoa(MaxNesting+1) + ":3 blocks nested too deeply"})
+	s := f.Stmts[:1]
+	for range MaxNesting {
+		if len(s) != 1 || s[0].Block == nil {
+			t.Fatal("a block of the limit's depth is not in the tree")
+		}
+		s = s[0].Block.Stmts
+	}
+	if len(s) != 1 || s[0].Keyword() != "a" || s[0].Block == nil || len(s[0].Block.Stmts) != 0 {
+		t.Fatalf("the block too deep is %+v", s)
+	}
+	if b := s[0].Block; src[b.Open] != '{' || b.Close != strings.Index(src, "}")+2*(MaxNesting+50-MaxNesting-1) {
+		t.Errorf("the block too deep spans %d to %d", b.Open, b.Close)
+	}
+	if len(f.Stmts) != 2 || f.Stmts[1].Keyword() != "c" || len(f.Stmts[1].Block.Stmts) != 1 {
+		t.Errorf("the statement after the deep blocks is not read: %d statements", len(f.Stmts))
+	}
+	// Those never closed below the limit are reported as those above it,
+	// innermost first, with their words.
+	src = strings.Repeat("a {\n", MaxNesting-3) + strings.Repeat("ab {\n", 5)
+	f = Parse("open.loop", []byte(src))
+	if len(f.Errors) != MaxErrors+1 {
+		t.Fatalf("%d errors, want %d (the limit and its note)", len(f.Errors), MaxErrors+1)
+	}
+	for i, want := range []string{`102:4 block of "ab"`, `101:4 block of "ab"`, `100:4 block of "ab"`, `99:4 block of "ab"`, `98:4 block of "ab"`, `97:3 block of "a"`} {
+		d := f.Errors[i+1]
+		p := f.Mapper.OffsetPosition(d.Loc.Span.Start, UTF8)
+		if got := itoa(p.Line+1) + ":" + itoa(p.Col+1) + " " + d.Message(); !strings.HasPrefix(got, want) {
+			t.Errorf("error %d: %q, want %q", i+1, got, want)
+		}
+	}
 }
 
 // longLine is a 600 kB statement with an error at its end.
@@ -279,14 +315,16 @@ func TestHostileLinesSameAsGrammar(t *testing.T) {
 		"{{{{", "{ {\n}}}", "a {{{ b = 1 }", "}}}}", "))))", "^^^^", "====", "1 1 1 1",
 		"\"\"\"\"", "x = 1; {; ( ; ) ; 2 m {", "  # c\n  ) 1 # d\n", "(((( 1", "a = 1 ) b",
 		"a\n{ } { } }\n(", "node n at 1 m { ^ } = 2", "\t=\t{\n=",
+		// Blocks deeper than the tree keeps.
+		strings.Repeat("{", MaxNesting+20) + strings.Repeat("}", 30) + "\na = 1 {",
+		strings.Repeat("a {\n", MaxNesting+5) + "b = ( 1\n}}}}}}}}\nc = 2 ^ x {\n",
 	} {
 		checkSameAsGrammar(t, Parse("h.loop", []byte(src)))
 	}
 }
 
 // TestLineOfBracesMegabyte parses a line of a million '{': one error for
-// the line, the blocks never closed reported up to the error limit, and
-// every brace kept as an open block. Its speed is BenchmarkHostileLines'.
+// the line and the blocks never closed reported up to the error limit. Its speed is BenchmarkHostileLines'.
 func TestLineOfBracesMegabyte(t *testing.T) {
 	const n = 1 << 20
 	f := Parse("braces.loop", []byte(strings.Repeat("{", n)+"\n"))
@@ -296,11 +334,13 @@ func TestLineOfBracesMegabyte(t *testing.T) {
 	if !strings.Contains(f.Errors[0].Message(), `"{"`) {
 		t.Errorf("first error %q does not name the brace", f.Errors[0].Message())
 	}
+	// The tree keeps the blocks down to the limit and the one that opens
+	// past it.
 	depth := 0
 	for s := f.Stmts; len(s) == 1 && s[0].Block != nil; s = s[0].Block.Stmts {
 		depth++
 	}
-	if depth != n {
-		t.Errorf("%d nested blocks, want %d", depth, n)
+	if depth != MaxNesting+1 {
+		t.Errorf("%d nested blocks, want %d", depth, MaxNesting+1)
 	}
 }

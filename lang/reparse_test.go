@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math/rand/v2"
 	"reflect"
+	"strings"
 	"testing"
 
 	"circa/lang/loopgen"
@@ -212,6 +213,12 @@ func TestReparseSpecialCases(t *testing.T) {
 		deep += "n {\n"
 	}
 	cases = append(cases, struct{ old, new string }{deep, deep + "x {\n"})
+	// Deeper than the tree keeps: edits inside, at and after the block too
+	// deep.
+	deeper := deep + "m {\n" + strings.Repeat("k {\n", 20) + "j\n" + strings.Repeat("}\n", MaxNesting+22) + "param q = 1 mm\n"
+	for _, edit := range [][2]string{{"j\n", "i\n"}, {"m {", "m2 {"}, {"param q = 1", "param q = 2"}, {"k {\nj", "k {\n}\nj"}} {
+		cases = append(cases, struct{ old, new string }{deeper, strings.Replace(deeper, edit[0], edit[1], 1)})
+	}
 	for _, c := range cases {
 		checkReparse(t, Parse("c.loop", []byte(c.old)), []byte(c.new))
 	}
