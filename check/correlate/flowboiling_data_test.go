@@ -156,6 +156,16 @@ var kattoOhnoLUT16MPa = []struct {
 // q”co4 and q”co5 would lie 24 % from it (mean −22 %), so the table
 // leans to the rules used here but does not decide between the two
 // readings of the selection rules.
+//
+// The same conversion at 100 kPa is not tested, for it does not agree:
+// over the table's entries there with L/D ≥ 5 (G 50–5000 kg/m²s, x
+// 0.05–0.3, 61 entries) the correlation is 1.8 times the table at the
+// median and up to 4.9 times at low flow in short tubes, 1.35 times at
+// the median over the 29 with L/D ≥ 50. The table is no firmer there: at
+// G ≈ 80 kg/m²s and x ≈ 0.74 it interpolates to about 420 kW/m² for an
+// 8 mm tube, where reference 1 above measured 196 kW/m² in a 4 mm one
+// (row 19), and the measured points, in longer tubes with subcooled
+// inlet, sit much closer to the correlation (TestCHFKattoOhnoMeasured).
 func TestCHFKattoOhnoLookupTable(t *testing.T) {
 	p := waterAt(t, 16e6)
 	const D = 0.008
