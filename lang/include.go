@@ -45,6 +45,13 @@ func (OSFS) ReadFile(path string) ([]byte, error) {
 // the checker swallow a disk image.
 const MaxFileSize = textfile.MaxSize
 
+// MaxIncludeDepth bounds how deeply includes nest: the root file includes
+// a file at depth 1, which includes one at depth 2, and so on. A chain of
+// files each including the next (written by a generator gone wrong, say)
+// is reported at the include that goes one level too deep instead of being
+// read to its end; real projects nest two or three levels.
+const MaxIncludeDepth = 32
+
 // read parses one file and, depth first, the files it includes.
 func (r *resolver) read(path string, src []byte, stack []string, from Location) {
 	if len(src) > MaxFileSize {
@@ -87,6 +94,10 @@ func (r *resolver) readParsed(f *File, stack []string) {
 		}
 		if _, done := r.m.Files[target]; done {
 			continue // diamond includes are read once
+		}
+		if len(stack) > MaxIncludeDepth {
+			r.errorf("include-unreadable", path, s.Span(), "cannot read included file %s: includes nest more than %d levels deep (%s → … → %s)", inc, MaxIncludeDepth, stack[0], path)
+			continue
 		}
 		data, err := r.fs.ReadFile(target)
 		if err != nil {
