@@ -192,11 +192,28 @@ func (pf *PreparedFriction) Gradient(x float64) float64 {
 		}
 		dp = SinglePhaseGradient(pf.sp, pf.G, pf.D, pf.rr, 1/(x/p.RhoV+(1-x)/p.RhoL), mu)
 	default:
-		a, b := pf.dpLo, pf.dpGo
-		lambda := a + 2*(b-a)*x
-		dp = lambda*math.Cbrt(1-x) + b*x*x*x
+		return MullerSteinhagenHeckGradient(pf.dpLo, pf.dpGo, x)
 	}
 	return finite(dp)
+}
+
+// MullerSteinhagenHeckGradient is Müller-Steinhagen & Heck's frictional
+// gradient at quality 0 < x < 1 from the liquid-only and vapour-only
+// gradients dpLo and dpGo, Pa/m: Λ(1−x)^(1/3) + dpGo·x³, Λ = dpLo +
+// 2(dpGo−dpLo)x. It is what a PreparedFriction of that method gives.
+func MullerSteinhagenHeckGradient(dpLo, dpGo, x float64) float64 {
+	lambda := dpLo + 2*(dpGo-dpLo)*x
+	return finite(lambda*math.Cbrt(1-x) + dpGo*x*x*x)
+}
+
+// SinglePhaseGradients are the liquid-only and vapour-only gradients, Pa/m,
+// that Müller-Steinhagen & Heck and Friedel were prepared with (0 for the
+// other methods and for no flow).
+func (pf *PreparedFriction) SinglePhaseGradients() (dpLo, dpGo float64) {
+	if pf.zero {
+		return 0, 0
+	}
+	return pf.dpLo, pf.dpGo
 }
 
 // friedel is φlo² (dp/dz)lo with

@@ -99,10 +99,32 @@ type PreparedVoid struct {
 // VoidFraction).
 func PrepareVoid(m VoidMethod, p Props, accel float64) PreparedVoid {
 	pv := PreparedVoid{m: m, p: p}
-	if !(p.RhoL > 0) || !(p.RhoV > 0) {
-		return pv
+	pv.bind(&pv.p, accel)
+	return pv
+}
+
+// VoidFractionAt is VoidFraction with the properties passed by reference,
+// for marches whose properties change from cell to cell: preparing the
+// method for each cell would copy them twice. The result is VoidFraction's.
+func VoidFractionAt(m VoidMethod, x, G float64, p *Props, accel, cosIncl float64) float64 {
+	if !(x > 0) {
+		return 0
 	}
-	switch m {
+	if x >= 1 {
+		return 1
+	}
+	pv := PreparedVoid{m: m}
+	pv.bind(p, accel)
+	return pv.at(p, x, G, cosIncl)
+}
+
+// bind sets the parts of pv that depend on the properties p and the
+// body-force magnitude accel.
+func (pv *PreparedVoid) bind(p *Props, accel float64) {
+	if !(p.RhoL > 0) || !(p.RhoV > 0) {
+		return
+	}
+	switch pv.m {
 	case Homogeneous, ChisholmSlip:
 	case Zivi:
 		pv.zivi = math.Cbrt(p.RhoV / p.RhoL)
@@ -111,19 +133,22 @@ func PrepareVoid(m VoidMethod, p Props, accel float64) PreparedVoid {
 			pv.drift = math.Sqrt(math.Sqrt(d) / p.RhoL)
 		}
 	}
-	return pv
 }
 
 // At is the void fraction at quality x, mass flux G and cosIncl, the
 // cosine of the angle between the tube axis and the body force.
 func (pv *PreparedVoid) At(x, G, cosIncl float64) float64 {
+	return pv.at(&pv.p, x, G, cosIncl)
+}
+
+// at is At with the properties pv was bound to at p.
+func (pv *PreparedVoid) at(p *Props, x, G, cosIncl float64) float64 {
 	if !(x > 0) {
 		return 0
 	}
 	if x >= 1 {
 		return 1
 	}
-	p := &pv.p
 	if !(p.RhoL > 0) || !(p.RhoV > 0) {
 		return 0
 	}

@@ -17,10 +17,10 @@ import (
 // most of an estimate's cost. So the saturated states are kept, per fluid
 // and for the whole process, on a grid uniform in ln p, each node computed
 // when a march first reaches it, and a cell takes its properties linearly
-// interpolated between the two nodes around its pressure; a tube marched
-// at one mass flux prepares its
-// friction once per node it crosses and interpolates the gradient between
-// them.
+// interpolated between the two nodes around its pressure. The friction
+// of the methods built on single-phase gradients is prepared at the nodes
+// for each bore and mass flux a case's marches reach, shared by every tube
+// of that bore (see singlePhaseLocal).
 //
 // Accuracy: linear interpolation over a step h in ln p (linear in p within
 // an interval, the same order) errs by about h²/8 times the property's
@@ -31,9 +31,10 @@ import (
 // fraction hangs on it), are interpolated by cubic Hermite polynomials with
 // the nodes' slopes along the saturation line: within a part in 10⁸ of the
 // latent heat. TestLocalGridProperties checks the
-// interpolated states against the table across the nodes, and
-// TestLocalFastMarch the estimates against the fine march that looks every
-// cell up exactly (flows within 1e-4 relative).
+// interpolated states against the table across the nodes,
+// TestLocalGridFriction the single-phase gradients, and TestLocalFastMarch
+// the estimates against the fine march that looks every cell up exactly
+// (flows within 1e-4 relative).
 
 // satGridStep is the grid's step in ln p.
 const satGridStep = 0.01
@@ -59,12 +60,33 @@ type satNodes struct {
 }
 
 // satGrid is a case's view of its fluid's nodes, with the interval of its
-// last look-up: nodes ka and ka+1 at pa and pb.
+// last look-up (nodes ka and ka+1 at pa and pb) and the friction prepared
+// at the nodes its marches reached.
 type satGrid struct {
 	shared *satNodes
 	ka     int
 	pa, pb float64
+	fric   *[nodeFrictionSlots]nodeFriction
 }
+
+// nodeFriction is the friction prepared at grid node k for a tube of bore
+// D and relative roughness rr at mass flux G under body force g, and for
+// the methods built on single-phase gradients the products of its
+// liquid-only and vapour-only gradients with the node's phase densities,
+// f·G²/(2D).
+type nodeFriction struct {
+	ok          bool
+	k           int
+	G, D, rr, g float64
+	pf          correlate.PreparedFriction
+	fLo, fGo    float64
+}
+
+// nodeFrictionSlots is the size of a case's node-friction table, indexed
+// by node modulo its size: the tubes of one bore in a loop at one flow
+// share the few nodes their pressures cross, and Brent's slope and
+// Newton's Jacobian march again at the same flows.
+const nodeFrictionSlots = 32
 
 var (
 	satNodesMu sync.Mutex
@@ -230,31 +252,38 @@ func (s *state) localXp(x float64, lp *localProps) float64 {
 	return (s.sat.HL + x*s.sat.Hlv - lp.hl) / lp.hlv
 }
 
-// tubeFriction holds the friction prepared for one tube at one mass flux
-// at the grid nodes the tube's cells reached last, for the methods that
-// prepare single-phase factors (the others prepare nothing, so they take
-// the interpolated properties).
-type tubeFriction struct {
-	n    int // entries filled
-	next int // the entry the next miss replaces
-	k    [4]int
-	pf   [4]correlate.PreparedFriction
+// frictionAt returns the friction prepared at node k for tube cp at mass
+// flux G, from the case's table when it holds it. The result is valid
+// until the next call for a node of the same slot (k and k+1 never share
+// one).
+func (s *state) frictionAt(cp *comp, G float64, k int) *nodeFriction {
+	g := s.grid
+	if g.fric == nil {
+		g.fric = new([nodeFrictionSlots]nodeFriction)
+	}
+	e := &g.fric[k&(nodeFrictionSlots-1)]
+	if e.ok && e.k == k && e.G == G && e.D == cp.D && e.rr == cp.rr && e.g == s.bmag {
+		return e
+	}
+	nd := s.node(k)
+	*e = nodeFriction{ok: true, k: k, G: G, D: cp.D, rr: cp.rr, g: s.bmag,
+		pf: s.fric.Prepare(G, cp.D, cp.rr, nd.pl, s.bmag)}
+	dpLo, dpGo := e.pf.SinglePhaseGradients()
+	e.fLo, e.fGo = dpLo*nd.pl.RhoL, dpGo*nd.pl.RhoV
+	return e
 }
 
-// at returns the friction prepared at node k.
-func (tf *tubeFriction) at(s *state, cp *comp, G float64, k int) *correlate.PreparedFriction {
-	for i := 0; i < tf.n; i++ {
-		if tf.k[i] == k {
-			return &tf.pf[i]
-		}
-	}
-	i := tf.next
-	tf.next = (i + 1) % len(tf.k)
-	if tf.n < len(tf.k) {
-		tf.n++
-	}
-	tf.k[i], tf.pf[i] = k, s.fric.Prepare(G, cp.D, cp.rr, s.node(k).pl, s.bmag)
-	return &tf.pf[i]
+// singlePhaseLocal is the liquid-only and vapour-only gradients for tube
+// cp at mass flux G at state lp. What varies fast with the pressure is the
+// phase densities (the vapour's nearly as p, so that its gradient, as
+// 1/p, would err by h²/4 ≈ 2.5e-5 interpolated linearly); the Darcy
+// factors vary only through the viscosities in the Reynolds numbers. So
+// each node keeps f·G²/(2D), interpolated as the viscosities are, and the
+// cell divides it by its own densities.
+func (s *state) singlePhaseLocal(cp *comp, G float64, lp *localProps) (dpLo, dpGo float64) {
+	a := s.frictionAt(cp, G, lp.k)
+	b := s.frictionAt(cp, G, lp.k+1)
+	return (a.fLo + lp.t*(b.fLo-a.fLo)) / lp.pl.RhoL, (a.fGo + lp.t*(b.fGo-a.fGo)) / lp.pl.RhoV
 }
 
 // preparesFactors reports whether the friction method computes Churchill
@@ -265,30 +294,37 @@ func (s *state) preparesFactors() bool {
 
 // gradientLocal is the two-phase (or vapour) friction gradient at local
 // quality xl and state lp in tube cp at mass flux G.
-func (s *state) gradientLocal(tf *tubeFriction, cp *comp, G, xl float64, lp *localProps) float64 {
+func (s *state) gradientLocal(cp *comp, G, xl float64, lp *localProps) float64 {
 	if lp.exact || !s.preparesFactors() {
 		pf := s.fric.Prepare(G, cp.D, cp.rr, lp.pl, s.bmag)
 		return pf.Gradient(xl)
 	}
-	ga := tf.at(s, cp, G, lp.k).Gradient(xl)
-	gb := tf.at(s, cp, G, lp.k+1).Gradient(xl)
+	if s.fric.Method == correlate.MullerSteinhagenHeck {
+		dpLo, dpGo := s.singlePhaseLocal(cp, G, lp)
+		if xl >= 1 {
+			return dpGo
+		}
+		return correlate.MullerSteinhagenHeckGradient(dpLo, dpGo, xl)
+	}
+	ga := s.frictionAt(cp, G, lp.k).pf.Gradient(xl)
+	gb := s.frictionAt(cp, G, lp.k+1).pf.Gradient(xl)
 	return ga + lp.t*(gb-ga)
 }
 
 // cellLocal evaluates one cell of reference enthalpy x at local state lp:
 // friction gradient, void, mixture and homogeneous densities and the local
 // quality. Liquid keeps the density and viscosity of its own temperature.
-func (s *state) cellLocal(tf *tubeFriction, cp *comp, G, x, cosInc float64, lp *localProps) (dpdz, alpha, rhoM, rhoH, xl float64) {
+func (s *state) cellLocal(cp *comp, G, x, cosInc float64, lp *localProps) (dpdz, alpha, rhoM, rhoH, xl float64) {
 	xl = s.localXp(x, lp)
 	switch {
 	case xl <= 0:
 		rho, mu := s.liquid(math.Min(x, 0))
 		return s.liquidGradient(G, cp.D, cp.rr, rho, mu), 0, rho, rho, xl
 	case xl >= 1:
-		return s.gradientLocal(tf, cp, G, 1, lp), 1, lp.pl.RhoV, lp.pl.RhoV, xl
+		return s.gradientLocal(cp, G, 1, lp), 1, lp.pl.RhoV, lp.pl.RhoV, xl
 	}
-	alpha = correlate.VoidFraction(s.void, xl, G, lp.pl, s.bmag, cosInc)
-	return s.gradientLocal(tf, cp, G, xl, lp), alpha, correlate.MixtureDensity(alpha, lp.pl), correlate.HomogeneousDensity(xl, lp.pl), xl
+	alpha = correlate.VoidFractionAt(s.void, xl, G, &lp.pl, s.bmag, cosInc)
+	return s.gradientLocal(cp, G, xl, lp), alpha, correlate.MixtureDensity(alpha, lp.pl), correlate.HomogeneousDensity(xl, lp.pl), xl
 }
 
 // momLocal is the momentum flux and homogeneous density at reference
@@ -299,7 +335,7 @@ func (s *state) momLocal(G, x, cosInc float64, lp *localProps) (mom, rhoH float6
 		rho, _ := s.liquid(math.Min(x, 0))
 		return G * G / rho, rho
 	}
-	alpha := correlate.VoidFraction(s.void, xl, G, lp.pl, s.bmag, cosInc)
+	alpha := correlate.VoidFractionAt(s.void, xl, G, &lp.pl, s.bmag, cosInc)
 	return correlate.AccelerationTerm(G, xl, alpha, lp.pl), correlate.HomogeneousDensity(xl, lp.pl)
 }
 
@@ -373,7 +409,6 @@ type localMarch struct {
 	bUnit      float64 // b·ŝ along the flow, m/s²
 	bd         float64 // b·(displacement along the flow), J/kg
 	rec        func(cellRec)
-	tf         tubeFriction
 	fric, grav float64
 	d          float64 // the last step's pressure loss, Pa
 	xlA        float64 // local quality at the current step's start
@@ -390,7 +425,7 @@ func (mc *localMarch) at(x, p float64) localEval {
 	s := mc.s
 	lp := s.propsAt(p)
 	var e localEval
-	e.dpdz, e.alpha, e.rhoM, e.rhoH, e.xl = s.cellLocal(&mc.tf, mc.cp, mc.G, x, mc.cosInc, &lp)
+	e.dpdz, e.alpha, e.rhoM, e.rhoH, e.xl = s.cellLocal(mc.cp, mc.G, x, mc.cosInc, &lp)
 	k := 1.0
 	if s.lossScale > 0 {
 		k = s.lossScale
@@ -413,6 +448,13 @@ func (mc *localMarch) adiabatic(x, p float64) float64 {
 	s := mc.s
 	L := mc.cp.L
 	k1 := mc.at(x, p)
+	if p <= s.pLo && k1.F >= 0 || p >= s.pHi && k1.F <= 0 {
+		// Beyond the fluid's range, where the march holds the state at the
+		// range's end, and moving away from it (a trial flow far above any
+		// balance): the state, and so F, is the same all along.
+		mc.take(k1, k1, k1, L)
+		return p - k1.F*L
+	}
 	rest := L
 	flashed := false
 	if k1.xl <= flashTol {
@@ -422,8 +464,9 @@ func (mc *localMarch) adiabatic(x, p float64) float64 {
 			mc.take(k1, k1, k1, L)
 			return pEnd
 		}
-		// Bisect for the pressure at which the liquid saturates.
-		lo, hi := pEnd, p
+		// Bisect for the pressure at which the liquid saturates (above the
+		// range's low end, below which the march holds the state there).
+		lo, hi := math.Max(pEnd, s.pLo), p
 		for i := 0; i < 60 && hi-lo > 1e-9*hi; i++ {
 			mid := (lo + hi) / 2
 			if s.localXAt(x, mid) > flashTol {
@@ -512,7 +555,7 @@ func (mc *localMarch) step(xa, xb, ds, p, g float64) {
 func (mc *localMarch) part(x, ds, p, cell float64) {
 	s := mc.s
 	lp := s.propsAt(p)
-	dpdz, alpha, rhoM, rhoH, xl := s.cellLocal(&mc.tf, mc.cp, mc.G, x, mc.cosInc, &lp)
+	dpdz, alpha, rhoM, rhoH, xl := s.cellLocal(mc.cp, mc.G, x, mc.cosInc, &lp)
 	grav := rhoM * mc.bUnit * ds
 	if mc.cp.L == 0 {
 		grav = rhoM * mc.bd
@@ -550,8 +593,7 @@ func (s *state) liquidTubeLocal(cp *comp, G, x, bd, pIn float64) (parts, bool) {
 	if s.lossScale > 0 && s.lossScale != 1 {
 		d = s.lossScale*q.fric - q.grav
 	}
-	lp := s.propsAt(math.Min(pIn, pIn-d))
-	if !(s.localXp(x, &lp) <= flashTol) {
+	if !(s.localXAt(x, math.Min(pIn, pIn-d)) <= flashTol) {
 		return parts{}, false
 	}
 	q.mIn = G * G / rho
