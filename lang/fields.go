@@ -291,6 +291,7 @@ func (r *resolver) componentFields(c *Component, st *Stmt) {
 				continue
 			}
 			r.ref(RefPart, id.Name, nil, c.File(), id.Span(), false)
+			c.ownFields()
 			c.Uses = append(c.Uses, p)
 			for _, ps := range p.Stmts {
 				if ps.Bad {

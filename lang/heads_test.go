@@ -20,7 +20,8 @@ func sameModel(t *testing.T, path string, src []byte) {
 	if !reflect.DeepEqual(got, want) {
 		t.Errorf("%s: LoadSourceModel differs from LoadSource and DropSyntax:\n%s", path, modelDiff(got, want))
 	}
-	if noEvaporator != (evaporatorFields{BoilRoughness: Value{SI: 1e-6}}) || noCondenser != (condenserFields{}) {
+	if noEvaporator != (evaporatorFields{BoilRoughness: Value{SI: 1e-6}}) || noCondenser != (condenserFields{}) || noExtra != (extraFields{Roughness: Value{SI: 1.5e-6}}) ||
+		noFields.extraFields != &noExtra || noFields.evaporatorFields != &noEvaporator || noFields.condenserFields != &noCondenser || noFields.Uses != nil {
 		t.Fatalf("%s: resolving wrote the fields that components of other kinds share", path)
 	}
 }

@@ -299,22 +299,23 @@ type Component struct {
 
 	Length Value
 	Bore   Value
-	// The fields most components leave unwritten (Rise, Run, FlowArea,
-	// HydDiameter, Roughness, Loss, Channels, Volume) are read as the
-	// component's own (c.Rise) too: a component that writes none of them
-	// shares one unset set, with the defaults, which nothing writes. A
-	// pipe of length and bore so keeps some 210 bytes less.
-	*extraFields
+	// The fields most components leave unwritten, those of evaporators
+	// and of condensers, and the parts used, are read as the component's
+	// own (c.Rise, c.Heat, c.Conductance, c.Uses) through one pointer:
+	// a component that writes none of them shares one set, with the
+	// defaults, which nothing writes. A pipe of length and bore so keeps
+	// 40 bytes less than with a pointer to each set and a list of its own.
+	*fields
+}
 
-	// The fields of evaporators and of condensers are read as the
-	// component's own (c.Heat, c.Conductance). Only an evaporator has
-	// room for the first and only a condenser for the second: every other
-	// component shares one set of each, unset (with the defaults), which
-	// nothing writes. A loop of many pipes so keeps some 380 bytes less
-	// per component.
+// fields are a component's fields beyond length and bore. Only an
+// evaporator has room for the fields of evaporators and only a condenser
+// for those of condensers; the extra fields are shared too until one is
+// written.
+type fields struct {
+	*extraFields
 	*evaporatorFields
 	*condenserFields
-
 	Uses []*Part
 }
 
@@ -368,16 +369,29 @@ type condenserFields struct {
 }
 
 // noEvaporator and noCondenser are the unset fields every component of
-// another kind shares. They are never written: the resolver sets only the
-// fields of the component's kind.
+// another kind shares, noExtra those of every component that writes none,
+// and noFields all of them, with no parts. They are never written: the
+// resolver sets only the fields of the component's kind, and gives a
+// component its own before it writes one.
 var (
 	noExtra      = extraFields{Roughness: Value{SI: 1.5e-6}}
 	noEvaporator = evaporatorFields{BoilRoughness: Value{SI: 1e-6}}
 	noCondenser  condenserFields
+	noFields     = fields{extraFields: &noExtra, evaporatorFields: &noEvaporator, condenserFields: &noCondenser}
 )
+
+// ownFields gives c its own fields before a part or an extra field is
+// written.
+func (c *Component) ownFields() {
+	if c.fields == &noFields {
+		f := noFields
+		c.fields = &f
+	}
+}
 
 // ownExtra gives c its own extra fields before one is written.
 func (c *Component) ownExtra() {
+	c.ownFields()
 	if c.extraFields == &noExtra {
 		e := noExtra
 		c.extraFields = &e
@@ -387,12 +401,12 @@ func (c *Component) ownExtra() {
 // kindFields gives c room for the fields of its kind and the others'
 // shared unset ones, with the defaults.
 func (c *Component) kindFields() {
-	c.extraFields, c.evaporatorFields, c.condenserFields = &noExtra, &noEvaporator, &noCondenser
+	c.fields = &noFields
 	switch c.Kind {
 	case Evaporator:
-		c.evaporatorFields = &evaporatorFields{BoilRoughness: Value{SI: 1e-6}}
+		c.fields = &fields{extraFields: &noExtra, evaporatorFields: &evaporatorFields{BoilRoughness: Value{SI: 1e-6}}, condenserFields: &noCondenser}
 	case Condenser:
-		c.condenserFields = &condenserFields{}
+		c.fields = &fields{extraFields: &noExtra, evaporatorFields: &noEvaporator, condenserFields: &condenserFields{}}
 	}
 }
 
