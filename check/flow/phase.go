@@ -1,6 +1,12 @@
 package flow
 
-import "circa/lang"
+import (
+	"fmt"
+	"math"
+	"strconv"
+
+	"circa/lang"
+)
 
 // Cautions about the saturated state itself, found before any flow is
 // solved: operation close to the critical point, and a liquid column tall
@@ -13,9 +19,9 @@ import "circa/lang"
 // below Tc).
 const NearCriticalTr = 0.95
 
-// GeyserSubcool is the subcooling at an evaporator inlet, from the liquid
-// column's hydrostatic pressure alone, above which the estimate warns of
-// geyser boiling (circa's choice, common practice).
+// GeyserSubcool is the rise of the saturation temperature at an evaporator
+// inlet by the static head of the liquid column at rest above which the
+// estimate warns of geyser boiling (circa's choice, common practice).
 const GeyserSubcool = 5.0 // K
 
 func (p *prepared) phaseCautions(s *state, cr *CaseResult) {
@@ -29,8 +35,14 @@ func (p *prepared) phaseCautions(s *state, cr *CaseResult) {
 
 // geyser reports evaporators whose inlet lies so far below the condensers'
 // outlets that the liquid column's weight raises the local saturation
-// temperature by more than GeyserSubcool: the liquid arrives subcooled by
-// that much, heats without boiling, then flashes in bursts.
+// temperature by more than GeyserSubcool. The criterion takes the column at
+// rest, its static head alone: geysering is a low-flow cycle whose liquid
+// waits, nearly still, between bursts, and the liquid heated to boiling at
+// the inlet is superheated by that shift against the saturation
+// temperature at the condenser's level, so it flashes as it rises. The
+// losses of the circulating estimate and the condenser's subcooling do not
+// enter it; geyserFlowing adds the inlet state at the estimated flow to the
+// message so that both are read side by side.
 func (p *prepared) geyser(s *state, cr *CaseResult) {
 	height, top, ok := p.columnTop(s)
 	if !ok {
@@ -51,9 +63,49 @@ func (p *prepared) geyser(s *state, cr *CaseResult) {
 			continue
 		}
 		if dT := in.T - s.sat.T; dT > GeyserSubcool {
+			d := kPaDecimals(pin)
 			cr.Findings = append(cr.Findings, p.finding(RuleGeyser, "warning", cr.Case, cp.name, dT, GeyserSubcool, "K", "",
-				"evaporator %s in case %s: the %.2f m liquid column above its inlet raises the pressure there from %.3g kPa to %.3g kPa, where %s saturates at %.1f °C, %.1f K above the loop's %.1f °C: the liquid arrives that much subcooled and is likely to boil in bursts (geysering)",
-				cp.name, cr.Case, col, s.sat.P/1e3, pin/1e3, p.info.Name, in.T-273.15, dT, s.sat.T-273.15))
+				"evaporator %s in case %s: at rest, the static head of the %.2f m liquid column above its inlet raises the pressure there from %.*f kPa at the condenser outlet to %.*f kPa, where %s saturates at %.2f °C, %.2f K above the loop's saturation temperature (the geysering criterion: the head alone, no flow losses or condenser subcooling): liquid heated to boiling there is that much superheated against the saturation at the condenser's level and is likely to boil in bursts (geysering)",
+				cp.name, cr.Case, col, d, s.sat.P/1e3, d, pin/1e3, p.info.Name, in.T-273.15, dT))
 		}
 	}
+}
+
+// geyserFlowing completes each geyser-risk finding of a circulating single
+// loop with its evaporator's inlet at the estimated flow, as the
+// local-saturation table (or the single state's note) gives it: lower in
+// pressure than at rest by the losses on the way, and subcooled by the
+// condenser's subcooling besides.
+func geyserFlowing(cr *CaseResult) {
+	// The table prints every pressure to the decimals of its largest.
+	top := 0.0
+	for _, cs := range cr.Components {
+		if cs.Local != nil {
+			top = math.Max(top, cs.Local.PressureIn)
+		}
+	}
+	for i := range cr.Findings {
+		f := &cr.Findings[i]
+		if f.Rule != RuleGeyser {
+			continue
+		}
+		for _, cs := range cr.Components {
+			if cs.Component != f.Component || cs.Local == nil {
+				continue
+			}
+			l := cs.Local
+			f.Message += fmt.Sprintf("; circulating at %.2f g/s, the losses on the way leave the inlet at %.*f kPa (saturation %.2f °C), where the liquid arrives %.2f K subcooled",
+				math.Abs(cs.MassFlow)*1e3, kPaDecimals(top), l.PressureIn/1e3, l.SatTempIn-273.15, l.SubcoolingIn)
+		}
+	}
+}
+
+// kPaDecimals is the number of decimals that gives a pressure four
+// significant figures in kPa, as the local-saturation table prints it.
+func kPaDecimals(pa float64) int {
+	v, err := strconv.ParseFloat(strconv.FormatFloat(math.Abs(pa/1e3), 'e', 3, 64), 64)
+	if err != nil || !(v > 0) || math.IsInf(v, 0) {
+		return 3
+	}
+	return max(0, 3-int(math.Floor(math.Log10(v))))
 }

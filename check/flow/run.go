@@ -72,6 +72,7 @@ func (p *prepared) run(pt point, tilt bool, start []float64) (CaseResult, []floa
 	}
 	s.evaluate(f, ev)
 	p.record(s, ev, f, &cr)
+	geyserFlowing(&cr)
 	if !p.net.ring {
 		// Circulation means a positive flow through every heated branch.
 		for _, c := range cr.Components {
