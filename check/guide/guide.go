@@ -705,7 +705,7 @@ func (gd *guider) stateNote(p *lang.Param, x float64, res *flow.Result, keep fun
 			if by[k] == nil {
 				order = append(order, k)
 			}
-			by[k] = append(by[k], fmt.Sprintf("%s (%.1f K)", caseLabel(res, l.Loop, c.Case), c.ColumnShift))
+			by[k] = append(by[k], fmt.Sprintf("%s (%.2f K)", caseLabel(res, l.Loop, c.Case), c.ColumnShift))
 		}
 	}
 	if len(order) == 0 {

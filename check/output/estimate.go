@@ -245,7 +245,7 @@ func caseText(w io.Writer, l *flow.LoopResult, c *flow.CaseResult, tilt *picture
 		fmt.Fprintf(w, ", saturation %s, %s (%s)", temperature(c.SatTemperature), pressureAs(c.SatPressure, l.DesignPressureUnit), c.SatSource)
 	}
 	if l.Methods.Saturation == "auto" && c.SatState != "" {
-		fmt.Fprintf(w, "; %s saturation state (liquid column %s K)", c.SatState, fixed(c.ColumnShift, 1))
+		fmt.Fprintf(w, "; %s saturation state (%s)", c.SatState, ColumnShiftText(c.ColumnShift))
 	}
 	fmt.Fprintln(w)
 	if len(c.Overrides) > 0 {
@@ -313,6 +313,33 @@ func reservoirText(kg float64) string {
 	return sigZeros(kg, 3)
 }
 
+// ColumnShiftText says what a case's column shift is, the number
+// saturation_state auto decides by: the static head of the liquid column
+// at rest, without the losses or the condenser's subcooling that the
+// evaporator inlet's subcooling at the estimated flow includes.
+func ColumnShiftText(k float64) string {
+	return fmt.Sprintf("liquid column at rest: saturation +%s K at the lowest evaporator inlet", fixed(k, 2))
+}
+
+// inletSubcoolingText explains an evaporator's inlet subcooling at the
+// estimated flow, which the single saturation state leaves out: the local
+// saturation temperature there (the loop's, raised by the liquid column's
+// head less the losses on the way) less the liquid's own temperature (the
+// loop's, less the condenser's subcooling). The parts are taken from the
+// printed figures, so they add up as printed.
+func inletSubcoolingText(c *flow.CaseResult, s *flow.ComponentState) string {
+	l := s.Local
+	r := func(v float64) float64 { return math.Round(v*100) / 100 }
+	sub, tin, tl := r(l.SubcoolingIn), r(celsius(l.SatTempIn)), r(celsius(c.SatTemperature))
+	t := fmt.Sprintf("at the estimated flow the liquid enters evaporator %s %s K below its local saturation temperature, %s °C at %s kPa, which the single saturation state ignores",
+		s.Component, fixed(sub, 2), fixed(tin, 2), sigZeros(l.PressureIn/1e3, 4))
+	if cond := r(sub - (tin - tl)); cond >= 0.05 {
+		return t + fmt.Sprintf(": the liquid column's head less the losses on the way puts it %s K above the loop's saturation temperature, and the liquid left the condenser %s K below that",
+			fixed(tin-tl, 2), fixed(cond, 2))
+	}
+	return t + ": the loop's saturation temperature raised by the liquid column's head less the losses on the way"
+}
+
 // localTable lists each component's local saturation: with saturation at
 // local pressure always, with the single state only where the two differ by
 // more than 1 K of evaporator-inlet subcooling.
@@ -321,8 +348,7 @@ func localTable(w io.Writer, l *flow.LoopResult, c *flow.CaseResult) {
 	if !local {
 		for _, s := range c.Components {
 			if s.Local != nil && s.Local.SubcoolingIn > 1 {
-				fmt.Fprintf(w, "  note: the liquid enters evaporator %s %.1f K below its local saturation temperature (%.1f °C at %s kPa), which the single saturation state ignores; methods { saturation_state local } follows it\n",
-					s.Component, s.Local.SubcoolingIn, s.Local.SatTempIn-273.15, sig(s.Local.PressureIn/1e3, 4))
+				fmt.Fprintf(w, "  note: %s; methods { saturation_state local } follows it\n", inletSubcoolingText(c, &s))
 			}
 		}
 		return
