@@ -19,6 +19,10 @@ type Envelope struct {
 	Stops *EnvelopePoint `json:"stops,omitempty"`
 	// Estimates counts the steady states solved by the search.
 	Estimates int `json:"estimates"`
+	// OtherState counts, under saturation_state auto, the combinations
+	// solved whose own liquid column would take the other saturation state
+	// than the case's; every combination is estimated in the case's state.
+	OtherState int `json:"other_state,omitempty"`
 }
 
 // EnvelopeAxis is one bounded axis, SI (rad, m/s²).
@@ -215,6 +219,11 @@ func (p *prepared) envelope(pt point, cr *CaseResult, start []float64) {
 	}
 	out.Stops = e.stops
 	out.Estimates = len(e.seen)
+	for _, r := range e.seen {
+		if p.otherState(r) {
+			out.OtherState++
+		}
+	}
 	cr.Envelope = out
 	if e.stops != nil {
 		s := e.stops
@@ -329,4 +338,11 @@ func (e *envelopeSearch) uniform(key string, u float64) bool {
 		}
 	}
 	return true
+}
+
+// otherState reports whether a sweep, profile or envelope point, estimated
+// in its case's saturation state under saturation_state auto, would take
+// the other state by its own liquid column.
+func (p *prepared) otherState(r *CaseResult) bool {
+	return p.methods.Saturation == "auto" && r.SatState != "" && r.AutoState() != r.SatState
 }

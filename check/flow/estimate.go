@@ -30,7 +30,8 @@ type Options struct {
 	// a search compares are then estimated in the states the design as
 	// written got (PinnedStates), and their margins do not jump where a
 	// variant's column crosses AutoLocalShift. Sweep, profile and envelope
-	// points, and cases not in the map, keep the column's choice.
+	// points take their case's state; cases not in the map keep the
+	// column's choice at their own attitude.
 	Pinned map[string]string
 	// Cells overrides the number of cells per heated component.
 	Cells int
@@ -613,8 +614,24 @@ func (p *prepared) newState(pt point, cr *CaseResult) (*state, []Finding) {
 		}
 	}
 	s.setBody(geom.BodyForceAt(pt.yaw, pt.pitch, pt.roll, pt.accel))
-	p.saturationState(s, cr, pt.derived())
+	p.saturationState(s, cr, p.caseShift(s, pt))
 	return s, fs
+}
+
+// caseShift is the column shift of pt's case at the case's own attitude and
+// acceleration, which decides saturation_state auto for every point of the
+// case: a sweep, profile or envelope point in another state would make its
+// curve jump where its own column crosses AutoLocalShift (a vacuum loop's
+// flow nearly triples from local to single there).
+func (p *prepared) caseShift(s *state, pt point) float64 {
+	if !pt.derived() || pt.c == nil {
+		return p.columnShift(s)
+	}
+	c := pt.c
+	own := *s
+	own.b = geom.BodyForceAt(c.Yaw.SI, c.Pitch.SI, c.Roll.SI, geom.Vec3{c.Accel.X, c.Accel.Y, c.Accel.Z})
+	own.bmag = own.b.Norm()
+	return p.columnShift(&own)
 }
 
 // setBody sets the body force and what depends on it. The products with

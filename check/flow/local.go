@@ -64,16 +64,19 @@ func (c *CaseResult) AutoState() string {
 
 // saturationState sets the case's saturation state (single or local) and
 // what local saturation needs: the fluid's pressure range, the saturation
-// grid, and for a network its junction pressures. derived marks a sweep,
-// profile or envelope point, which no pin applies to.
-func (p *prepared) saturationState(s *state, cr *CaseResult, derived bool) {
+// grid, and for a network its junction pressures. Under saturation_state
+// auto the state is decided by caseShift, the column shift of the case at
+// its own attitude (or its pin), so that every sweep, profile and envelope
+// point of a case shares the case's state; cr.ColumnShift is the point's
+// own.
+func (p *prepared) saturationState(s *state, cr *CaseResult, caseShift float64) {
 	cr.ColumnShift = p.columnShift(s)
 	switch p.methods.Saturation {
 	case "local":
 		s.local = true
 	case "auto":
-		s.local = cr.ColumnShift > AutoLocalShift
-		if st, ok := p.pinned[PinKey(p.l.Name, cr.Case)]; ok && !derived {
+		s.local = caseShift > AutoLocalShift
+		if st, ok := p.pinned[PinKey(p.l.Name, cr.Case)]; ok {
 			s.local = st == "local"
 		}
 	}

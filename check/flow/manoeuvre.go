@@ -20,6 +20,10 @@ type Profile struct {
 	Worst []Margin `json:"worst"`
 	// Fast lists the changes the quasi-static estimate cannot follow.
 	Fast []FastChange `json:"fast_changes,omitempty"`
+	// OtherState counts, under saturation_state auto, the instants whose
+	// own liquid column would take the other saturation state than the
+	// case's; every instant is estimated in the case's state.
+	OtherState int `json:"other_state,omitempty"`
 }
 
 // Instant is one row of a profile at its operating point.
@@ -36,8 +40,10 @@ type Instant struct {
 	// Transit is the fluid's time round the loop at this instant, s: the
 	// inventory over the loop flow (for a network, over the condensers'
 	// flow); 0 when the loop does not circulate.
-	Transit float64  `json:"transit_time"`
-	Margins []Margin `json:"margins,omitempty"`
+	Transit float64 `json:"transit_time"`
+	// ColumnShift is the instant's own column shift, K (CaseResult's).
+	ColumnShift float64  `json:"column_shift,omitempty"`
+	Margins     []Margin `json:"margins,omitempty"`
 }
 
 // FastChange is a stretch of a profile where, within one transit time of
@@ -119,7 +125,7 @@ func (p *prepared) profileResult(base *CaseResult, c *lang.Case, res []CaseResul
 	for i, row := range c.Profile.Rows {
 		r := &res[idx[i]]
 		in := Instant{Time: row.Time, Yaw: row.Yaw, Pitch: row.Pitch, Roll: row.Roll, Accel: row.Accel, BodyForce: r.BodyForce,
-			Circulates: r.Circulates, Reason: r.Reason, MassFlow: r.MassFlow}
+			Circulates: r.Circulates, Reason: r.Reason, MassFlow: r.MassFlow, ColumnShift: r.ColumnShift}
 		if r.Circulates {
 			in.Transit = r.Totals.Transit
 			if in.Transit == 0 && r.MassFlow > 0 {
@@ -137,6 +143,11 @@ func (p *prepared) profileResult(base *CaseResult, c *lang.Case, res []CaseResul
 		pr.Instants[i] = in
 	}
 	pr.Worst = worstInstants(pr.Instants)
+	for _, i := range idx {
+		if p.otherState(&res[i]) {
+			pr.OtherState++
+		}
+	}
 	p.instantFindings(base, c, res, idx)
 	pr.Fast = fastChanges(pr.Instants)
 	for _, fc := range pr.Fast {

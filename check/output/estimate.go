@@ -101,7 +101,7 @@ func loopText(w io.Writer, l *flow.LoopResult, env Envelopes) {
 		profileText(w, l, &l.Cases[i])
 		envelopeText(w, l, &l.Cases[i])
 		if j > i+1 {
-			sweepText(w, l, l.Cases[i].Case, l.Cases[i+1:j])
+			sweepText(w, l, &l.Cases[i], l.Cases[i+1:j])
 		}
 		i = j
 	}
@@ -558,8 +558,15 @@ func TiltSummary(t *flow.TiltLimits) string {
 
 // sweepText writes a case's sweep points as one table: the attitude and
 // acceleration, the flow and the margin closest to its limit.
-func sweepText(w io.Writer, l *flow.LoopResult, name string, pts []flow.CaseResult) {
-	fmt.Fprintf(w, "\nsweep of case %s: %d points (the loss reserve is not evaluated on sweep points)\n", name, len(pts))
+func sweepText(w io.Writer, l *flow.LoopResult, base *flow.CaseResult, pts []flow.CaseResult) {
+	name := base.Case
+	other := 0
+	for i := range pts {
+		if l.Methods.Saturation == "auto" && pts[i].SatState != "" && pts[i].AutoState() != pts[i].SatState {
+			other++
+		}
+	}
+	fmt.Fprintf(w, "\nsweep of case %s: %d points (the loss reserve is not evaluated on sweep points)%s\n", name, len(pts), CaseStateText(l, base, other))
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
 	fmt.Fprintln(tw, "  pitch\troll\tacceleration gn\tmass flow g/s\tlimiting margin\tcomponent\tvalue\tlimit\tuse\tstatus")
 	for i := range pts {

@@ -28,7 +28,7 @@ func profileText(w io.Writer, l *flow.LoopResult, c *flow.CaseResult) {
 	if stopped > 0 {
 		fmt.Fprintf(w, "; no circulation at %d of them", stopped)
 	}
-	fmt.Fprintln(w)
+	fmt.Fprintf(w, "%s\n", CaseStateText(l, c, pr.OtherState))
 	if len(pr.Worst) > 0 {
 		tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
 		fmt.Fprintln(tw, "  worst instant\tmargin\tcomponent\tvalue\tlimit\tuse\tstatus")
@@ -55,7 +55,7 @@ func envelopeText(w io.Writer, l *flow.LoopResult, c *flow.CaseResult) {
 			bounds = append(bounds, fmt.Sprintf("%s %s to %s gn", a.Name, sig(a.Lo/9.80665, 3), sig(a.Hi/9.80665, 3)))
 		}
 	}
-	fmt.Fprintf(w, "  envelope: %s; %d steady states searched\n", strings.Join(bounds, ", "), e.Estimates)
+	fmt.Fprintf(w, "  envelope: %s; %d steady states searched%s\n", strings.Join(bounds, ", "), e.Estimates, CaseStateText(l, c, e.OtherState))
 	if len(e.Worst) > 0 {
 		tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
 		fmt.Fprintln(tw, "  worst combination\tmargin\tcomponent\tvalue\tlimit\tuse\tstatus")
@@ -70,4 +70,20 @@ func envelopeText(w io.Writer, l *flow.LoopResult, c *flow.CaseResult) {
 		}
 		tw.Flush()
 	}
+}
+
+// CaseStateText says, under saturation_state auto, that a case's sweep,
+// profile or envelope points are estimated in the case's saturation state
+// though n of them would take the other by their own liquid column: their
+// curve does not jump where the column crosses the switch ("" when none
+// would).
+func CaseStateText(l *flow.LoopResult, c *flow.CaseResult, n int) string {
+	if l.Methods.Saturation != "auto" || n == 0 || c.SatState == "" {
+		return ""
+	}
+	other := "local"
+	if c.SatState == "local" {
+		other = "single"
+	}
+	return fmt.Sprintf("; all in the case's %s saturation state, though at %d of them the liquid column at rest alone, across %g K, would take the %s state", c.SatState, n, flow.AutoLocalShift, other)
 }
