@@ -153,7 +153,7 @@ func (p *prepared) margins(s *state, cr *CaseResult, f []float64) {
 			case x > xl:
 				m.Status = "warning"
 				cr.Findings = append(cr.Findings, p.finding(RuleExitQuality, "warning", cr.Case, cp.name, x, xl, "", "exit_quality",
-					"exit quality %.2f at evaporator %s in case %s exceeds the limit %.2f%s", x, cp.name, cr.Case, xl, p.starvedNote(cr, ci)))
+					"exit quality %.3g at evaporator %s in case %s exceeds the limit %.3g%s", x, cp.name, cr.Case, xl, p.starvedNote(cr, ci)))
 			default:
 				m.Status = "ok"
 			}
@@ -173,7 +173,7 @@ func (p *prepared) margins(s *state, cr *CaseResult, f []float64) {
 						sev = "error"
 					}
 					cr.Findings = append(cr.Findings, p.finding(RuleCHF, sev, cr.Case, cp.name, ratio, rl, "", "chf_ratio",
-						"critical heat flux ratio %.2f at evaporator %s in case %s is below the limit %.2f (wall flux %.3g W/cm², %s)",
+						"critical heat flux ratio %.3g at evaporator %s in case %s is below the limit %.3g (wall flux %.3g W/cm², %s)",
 						ratio, cp.name, cr.Case, rl, qw/1e4, form))
 				}
 				// Wall temperature, and the device's junction above it.
@@ -271,13 +271,13 @@ func (p *prepared) lossReserve(s *state, cr *CaseResult, f []float64) {
 		// Already above the limit as estimated: the exit-quality margin
 		// says so; this one reports only a design that loses the limit.
 		if x0 <= xl {
-			from := fmt.Sprintf("%.2f", x0)
+			from := fmt.Sprintf("%.3g", x0)
 			if x0 < 0 {
 				// A subcooled outlet (local saturation): "-0.00" would hide it.
 				from = fmt.Sprintf("a subcooled outlet (x = %.2g)", x0)
 			}
 			cr.Findings = append(cr.Findings, p.finding(RuleHead, "warning", cr.Case, where, xk, xl, "", "head_ratio",
-				"with friction and local losses %.2g times the estimate, the exit quality of evaporator %s rises from %s to %.2f, above the limit %.2f, in case %s", k, where, from, xk, xl, cr.Case))
+				"with friction and local losses %.2g times the estimate, the exit quality of evaporator %s rises from %s to %.3g, above the limit %.3g, in case %s", k, where, from, xk, xl, cr.Case))
 		}
 	}
 	if m.Use > 1e300 {
@@ -361,7 +361,7 @@ func (p *prepared) floodMargin(cr *CaseResult, cp *comp, f float64) {
 			sev = "error"
 		}
 		cr.Findings = append(cr.Findings, p.finding(RuleFlooding, sev, cr.Case, cp.name, f, fl, "", "flooding",
-			"flooding fraction %.2f in %s %s in case %s exceeds the limit %.2f (Wallis, vapour and liquid counter-current)",
+			"flooding fraction %.3g in %s %s in case %s exceeds the limit %.3g (Wallis, vapour and liquid counter-current)",
 			f, cp.kind, cp.name, cr.Case, fl))
 	}
 }
@@ -392,8 +392,8 @@ func (p *prepared) pressureMargin(s *state, cr *CaseResult) {
 	if use > 1 {
 		m.Status = "error"
 		cr.Findings = append(cr.Findings, p.finding(RulePressure, "error", cr.Case, "", s.sat.P, dp.SI, "Pa", "design_pressure",
-			"saturation pressure %.2f bar (absolute) in case %s exceeds the design pressure %.2f bar (absolute); pressure equipment must satisfy local pressure-equipment codes and be approved by licensed engineers",
-			s.sat.P/1e5, cr.Case, dp.SI/1e5))
+			"saturation pressure %s in case %s exceeds the design pressure %s; pressure equipment must satisfy local pressure-equipment codes and be approved by licensed engineers",
+			PressureText(s.sat.P, dp.Unit()), cr.Case, PressureText(dp.SI, dp.Unit())))
 	}
 	cr.add(m)
 }

@@ -143,13 +143,17 @@ func CaseOf(l *flow.LoopResult, m flow.Margin) *flow.CaseResult {
 // outside.
 func ChargeSummary(r *flow.ChargeRange) string {
 	kg := func(v float64) string { return sig(v, 3) + " kg" }
+	// The ends keep their trailing zeros, as the margin table's range of
+	// each case does (0.110–0.150 kg): 0.15 kg beside it read as another
+	// figure for the same end.
+	end := func(v float64) string { return sigZeros(v, 3) + " kg" }
 	by := func(c, p string) string {
 		if p != "" {
 			return c + " at " + p
 		}
 		return c
 	}
-	s := fmt.Sprintf("%s; the cases accept %s (set by %s) to %s (set by %s)", kg(r.Charge), kg(r.Low), by(r.LowCase, r.LowPoint), kg(r.High), by(r.HighCase, r.HighPoint))
+	s := fmt.Sprintf("%s; the cases accept %s (set by %s) to %s (set by %s)", kg(r.Charge), end(r.Low), by(r.LowCase, r.LowPoint), end(r.High), by(r.HighCase, r.HighPoint))
 	switch {
 	case r.Low > r.High:
 		s += fmt.Sprintf(": no charge suits every case (the ranges miss each other by %s)", kg(r.Low-r.High))

@@ -146,7 +146,10 @@ func paramText(w io.Writer, what string, p *guide.Param) {
 
 // RangeText says in words what a feasible range is and what ends it.
 func RangeText(r *guide.Range, unit string) string {
-	v := func(x float64) string { return ValueIn(x, unit) }
+	// Ends and the values searched keep their trailing zeros: a charge
+	// range's 0.150 kg, printed 0.15 kg, read as another figure than the
+	// margin table's 0.110–0.150 kg for the same end.
+	v := func(x float64) string { return valueZeros(x, unit) }
 	if r == nil {
 		return "range not searched"
 	}
@@ -215,6 +218,18 @@ func ValueIn(si float64, unit string) string {
 		return sig(si, 3)
 	}
 	return sig(u.FromSI(si), 3) + " " + unit
+}
+
+// valueZeros is ValueIn keeping trailing zeros (0.150 kg, 9.20 mm).
+func valueZeros(si float64, unit string) string {
+	if unit == "" {
+		return sigZeros(si, 3)
+	}
+	u, err := units.Parse(unit)
+	if err != nil {
+		return sigZeros(si, 3)
+	}
+	return sigZeros(u.FromSI(si), 3) + " " + unit
 }
 
 func signed(v float64) string {

@@ -19,13 +19,13 @@ func TestRangeText(t *testing.T) {
 		{&guide.Range{Feasible: true, Contains: true,
 			Low:  &guide.Bound{Value: 0.0092, Limit: eq, Reason: "exit quality at plate in case hot reaches its limit"},
 			High: &guide.Bound{Value: 0.021, Stop: guide.StopNoCirculation, Reason: "no circulation in case cold: ..."}},
-			[]string{"from 9.2 mm (below: exit quality at plate in case hot reaches its limit)", "to 21 mm (above: no circulation in case cold"}},
+			[]string{"from 9.20 mm (below: exit quality at plate in case hot reaches its limit)", "to 21.0 mm (above: no circulation in case cold"}},
 		{&guide.Range{Feasible: true, Contains: false, Use: 1.3, Limit: eq,
 			Low:  &guide.Bound{Value: 0.0001, Unbounded: true},
 			High: &guide.Bound{Value: 0.008, Limit: eq, Reason: "r"}},
-			[]string{"up to 8 mm (above: r)", "no limit down to 0.1 mm (the farthest searched)", "outside: exit quality at plate in case hot uses 1.3 of its limit"}},
+			[]string{"up to 8.00 mm (above: r)", "no limit down to 0.100 mm (the farthest searched)", "outside: exit quality at plate in case hot uses 1.3 of its limit"}},
 		{&guide.Range{Reason: "no value searched keeps every margin", Best: &guide.Nearest{Value: 0.012, Use: 1.1, Limit: eq}},
-			[]string{"no value searched keeps every margin; closest at 12 mm, where exit quality at plate in case hot uses 1.1 of its limit"}},
+			[]string{"no value searched keeps every margin; closest at 12.0 mm, where exit quality at plate in case hot uses 1.1 of its limit"}},
 	} {
 		got := RangeText(tc.r, "mm")
 		for _, w := range tc.want {
@@ -50,7 +50,7 @@ func TestGuidanceOutputs(t *testing.T) {
 		t.Fatal(err)
 	}
 	for _, w := range []string{"param label = 2 m: influences no estimate",
-		"the limiting margin, exit quality in case hot (use 1.2), moves with: riser_bore -0.05 per 10 %", "param riser_bore = 10 mm: keeps every margin from 9.2 mm", "exit quality in case hot -0.05"} {
+		"the limiting margin, exit quality in case hot (use 1.2), moves with: riser_bore -0.05 per 10 %", "param riser_bore = 10 mm: keeps every margin from 9.20 mm", "exit quality in case hot -0.05"} {
 		if !strings.Contains(b.String(), w) {
 			t.Errorf("text lacks %q:\n%s", w, b.String())
 		}

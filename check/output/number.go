@@ -5,7 +5,7 @@ import (
 	"strconv"
 	"strings"
 
-	"circa/units"
+	"circa/check/flow"
 )
 
 // fixed formats v with prec decimals; a value that rounds to zero prints
@@ -83,27 +83,7 @@ func angle(r float64) string {
 
 // pressureAs formats an absolute pressure in the unit the design pressure
 // was written in (gauge stays gauge), else in bar absolute.
-func pressureAs(pa float64, written string) string {
-	if written != "" {
-		if u, err := units.Parse(written); err == nil && u.Text != "" && u.Dim == units.MustParse("Pa").Dim {
-			s := fixed(u.FromSI(pa), 2) + " " + u.Text
-			if !u.Gauge {
-				s += absMark(u.Text)
-			}
-			return s
-		}
-	}
-	return fixed(pa/1e5, 2) + " bar abs"
-}
-
-// absMark labels an absolute pressure whose unit does not say so.
-func absMark(unit string) string {
-	switch unit {
-	case "bar(a)", "psia":
-		return ""
-	}
-	return " abs"
-}
+func pressureAs(pa float64, written string) string { return flow.PressureText(pa, written) }
 
 // roundToSum rounds each value to an integer so that the integers add up
 // to total (itself an integer near the values' sum): each value moves by
