@@ -169,7 +169,7 @@ func (r *resolver) declareParam(file string, st *Stmt) {
 	// Parameters and their evaluation states come from chunks of their
 	// own: a file of many parameters costs a few hundred allocations, not
 	// two per line, and the model does not keep the states alive.
-	p := r.paramSlab.alloc()
+	p := r.paramSlab.allocLarge()
 	*p = Param{Decl: r.decl(file, st, name), Expr: st.Args[2].Expr}
 	ps := r.stateSlab.alloc()
 	ps.p = p
@@ -269,7 +269,7 @@ func (r *resolver) declareLoop(file string, st *Stmt) {
 			l.Unresolved = true
 			continue
 		}
-		n := nodeBuf.alloc()
+		n := nodeBuf.allocLarge()
 		*n = Node{Decl: r.decl(file, s, nm), Loop: l, Junction: s.Keyword() == "junction", Index: len(l.Nodes)}
 		nodes[nm.Name] = n
 		l.Nodes = append(l.Nodes, n)
@@ -349,7 +349,7 @@ func (r *resolver) declareComponent(file string, s *Stmt, l *Loop, k Kind, nodes
 		return
 	}
 	nm := nameOf(parts[0].Expr)
-	c := r.compBuf.alloc()
+	c := r.compBuf.allocLarge()
 	*c = Component{Decl: r.decl(file, s, nm), Kind: k, Loop: l, Index: len(l.Components)}
 	c.kindFields()
 	node := func(p *Arg) (*Node, Span) {

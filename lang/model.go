@@ -14,27 +14,25 @@ import (
 // it but it could not be resolved (the error is reported where it was
 // written): Set is then false and nothing may be computed from it.
 //
-// Where the value was written is kept apart (File, Span and Unit are
-// methods): a component has some twenty-five values and a file gives a few,
-// so a value not written costs 24 bytes instead of 64.
+// Where the value was written is kept in the value itself (File, Span and
+// Unit are methods): the offsets of the expression and one pointer to the
+// file and the unit, which the values written in one file with one unit
+// share. A value is 32 bytes, written or not: a file writes hundreds of
+// thousands of values, and a place of their own would cost another 24
+// bytes and a pointer each.
 type Value struct {
-	SI  float64
-	Set bool
-	Bad bool
-	at  *site // nil for a value the file did not write
+	SI         float64
+	Set        bool
+	Bad        bool
+	start, end int32 // the expression as written
+	at         *site // nil for a value the file did not write
 }
 
-// site is where a value or a vector was written. It is 24 bytes: a file
-// writes hundreds of thousands of values, all of which name the same few
-// paths and units, and no file is longer than MaxFileSize.
+// site is the file a value or a vector was written in and the unit it was
+// written with. No file is longer than MaxFileSize, so int32 offsets do.
 type site struct {
-	file       *string
-	start, end int32   // the expression as written
-	unit       *string // the unit as written (nil for bare numbers)
-}
-
-func newSite(file *string, span Span, unit *string) site {
-	return site{file: file, start: int32(span.Start), end: int32(span.End), unit: unit}
+	file *string
+	unit *string // the unit as written (nil for bare numbers)
 }
 
 // unitText returns the unit as written ("" for bare numbers).
@@ -45,13 +43,11 @@ func (s *site) unitText() string {
 	return *s.unit
 }
 
-func (s *site) span() Span { return Span{int(s.start), int(s.end)} }
-
 // At returns v written at span of file with the unit text unit ("" for a
 // bare number).
 func (v Value) At(file string, span Span, unit string) Value {
-	st := newSite(&file, span, &unit)
-	v.at = &st
+	v.at = &site{file: &file, unit: &unit}
+	v.start, v.end = int32(span.Start), int32(span.End)
 	return v
 }
 
@@ -69,7 +65,7 @@ func (v Value) Span() Span {
 	if v.at == nil {
 		return Span{}
 	}
-	return v.at.span()
+	return Span{int(v.start), int(v.end)}
 }
 
 // Unit returns the unit as written ("" for bare numbers and defaults).
@@ -85,22 +81,23 @@ func (v Value) Loc() Location {
 	if v.at == nil {
 		return Location{}
 	}
-	return Location{File: *v.at.file, Span: v.at.span()}
+	return Location{File: *v.at.file, Span: v.Span()}
 }
 
 // Vec is a vector in SI units in the equipment frame (x forward, y left, z up).
 // Bad is as for Value, and so are File, Span and Unit.
 type Vec struct {
-	X, Y, Z float64
-	Set     bool
-	Bad     bool
-	at      *site
+	X, Y, Z    float64
+	Set        bool
+	Bad        bool
+	start, end int32
+	at         *site
 }
 
 // At returns v written at span of file with the unit text unit.
 func (v Vec) At(file string, span Span, unit string) Vec {
-	st := newSite(&file, span, &unit)
-	v.at = &st
+	v.at = &site{file: &file, unit: &unit}
+	v.start, v.end = int32(span.Start), int32(span.End)
 	return v
 }
 
@@ -117,7 +114,7 @@ func (v Vec) Span() Span {
 	if v.at == nil {
 		return Span{}
 	}
-	return v.at.span()
+	return Span{int(v.start), int(v.end)}
 }
 
 // Unit returns the unit written after the parenthesis ("" for none).
@@ -133,7 +130,7 @@ func (v Vec) Loc() Location {
 	if v.at == nil {
 		return Location{}
 	}
-	return Location{File: *v.at.file, Span: v.at.span()}
+	return Location{File: *v.at.file, Span: v.Span()}
 }
 
 // Decl is what every named declaration shares. A file declares about one

@@ -856,6 +856,23 @@ func (s *slab[T]) alloc() *T {
 	return &s.buf[len(s.buf)-1]
 }
 
+// allocLarge is alloc for the model's nodes, components and parameters,
+// from chunks that double from 16 to some 64 KiB, a whole number of pages:
+// 128 of one of them round up to a size class that leaves up to a tenth
+// unused, and a small file needs no large chunk.
+func (s *slab[T]) allocLarge() *T {
+	if len(s.buf) == cap(s.buf) {
+		var zero T
+		n := 16
+		if c := cap(s.buf); c > 0 {
+			n = min(2*c, max(128, (64<<10)/int(unsafe.Sizeof(zero))))
+		}
+		s.buf = make([]T, 0, n)
+	}
+	s.buf = s.buf[:len(s.buf)+1]
+	return &s.buf[len(s.buf)-1]
+}
+
 // tok returns the token at raw index j.
 func (q *fastParser) tok(j int) *lexer.Token {
 	if j >= len(q.toks) && q.p != nil {

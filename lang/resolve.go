@@ -204,9 +204,10 @@ type resolver struct {
 	// first that could not be applied.
 	overrides   map[string]*Overridden
 	overrideErr *OverrideError
-	// sites holds where the values were written, a chunk at a time;
-	// paths holds the one copy of each file's path they point to.
-	sites    slab[site]
+	// sites holds the one site of each file and unit the values were
+	// written with; paths holds the one copy of each file's path.
+	sites    map[site]*site
+	lastSite *site
 	paths    map[string]*string
 	lastPath *string
 	// units holds the one copy of each unit text the sites point to.
@@ -218,19 +219,38 @@ type resolver struct {
 	hp    *headParser
 }
 
-// atV returns v written at span of file, its site taken from the resolver's
-// chunks (a large file writes hundreds of thousands of values).
+// atV returns v written at span of file with the unit text unit, its
+// site the resolver's one of that file and unit.
 func (r *resolver) atV(v Value, file string, span Span, unit string) Value {
-	v.at = r.sites.alloc()
-	*v.at = newSite(r.path(file), span, r.unitOf(unit))
+	v.at = r.siteOf(file, unit)
+	v.start, v.end = int32(span.Start), int32(span.End)
 	return v
 }
 
 // atVec is atV for a vector.
 func (r *resolver) atVec(v Vec, file string, span Span, unit string) Vec {
-	v.at = r.sites.alloc()
-	*v.at = newSite(r.path(file), span, r.unitOf(unit))
+	v.at = r.siteOf(file, unit)
+	v.start, v.end = int32(span.Start), int32(span.End)
 	return v
+}
+
+// siteOf returns the resolver's one site of file and the unit text unit.
+func (r *resolver) siteOf(file, unit string) *site {
+	k := site{file: r.path(file), unit: r.unitOf(unit)}
+	if r.lastSite != nil && *r.lastSite == k {
+		return r.lastSite // most values follow one of the same file and unit
+	}
+	p, ok := r.sites[k]
+	if !ok {
+		if r.sites == nil {
+			r.sites = map[site]*site{}
+		}
+		p = new(site)
+		*p = k
+		r.sites[k] = p
+	}
+	r.lastSite = p
+	return p
 }
 
 // unitOf returns the resolver's one copy of the unit text u, nil for "".
