@@ -5,6 +5,7 @@ import (
 	"math"
 	"sort"
 	"strconv"
+	"strings"
 
 	"circa/check/correlate"
 	"circa/check/fluid"
@@ -974,12 +975,17 @@ func chargeRange(cases []CaseResult) *ChargeRange {
 // PointLabel describes a case's attitude and acceleration in degrees and
 // standard gravities, as a sweep point is named.
 func (c *CaseResult) PointLabel() string {
+	// Angles as the case headings, tilt lines and sweep tables write them
+	// (+2.3°, 0.0°), so a point reads the same in the worst-case table.
 	deg := func(r float64) string {
-		d := r * 180 / math.Pi
-		if math.Abs(d) < 0.05 {
-			return "0°"
+		s := strconv.FormatFloat(r*180/math.Pi, 'f', 1, 64)
+		switch {
+		case s == "-0.0" || s == "0.0":
+			return "0.0°"
+		case !strings.HasPrefix(s, "-"):
+			s = "+" + s
 		}
-		return strconv.FormatFloat(math.Round(d*10)/10, 'f', -1, 64) + "°"
+		return s + "°"
 	}
 	s := "pitch " + deg(c.Pitch) + ", roll " + deg(c.Roll)
 	if math.Abs(c.Yaw) >= 0.05*math.Pi/180 {

@@ -374,7 +374,7 @@ func TestChargeSummary(t *testing.T) {
 	}{
 		{flow.ChargeRange{Charge: 0.4, Low: 0.35, High: 0.45, LowCase: "cool", HighCase: "hot"}, "inside, 0.05 kg above the low end and 0.05 kg below the high end"},
 		{flow.ChargeRange{Charge: 0.3, Low: 0.35, High: 0.45, LowCase: "cool", HighCase: "hot"}, "outside, 0.05 kg short"},
-		{flow.ChargeRange{Charge: 0.5, Low: 0.35, High: 0.45, LowCase: "cool", HighCase: "hot", HighPoint: "pitch 10°, roll 0°"}, "outside, 0.05 kg over"},
+		{flow.ChargeRange{Charge: 0.5, Low: 0.35, High: 0.45, LowCase: "cool", HighCase: "hot", HighPoint: "pitch +10.0°, roll 0.0°"}, "outside, 0.05 kg over"},
 		{flow.ChargeRange{Charge: 0.4, Low: 0.45, High: 0.35, LowCase: "cool", HighCase: "hot"}, "no charge suits every case"},
 	} {
 		got := ChargeSummary(&c.r)
@@ -420,7 +420,7 @@ func TestSweepTable(t *testing.T) {
 	}
 	// The exit quality is worst at the steepest pitch tried (less head,
 	// less flow): the worst table names that point, not the base case.
-	if !regexp.MustCompile(`exit_quality\s+level_work at pitch 40°, roll 0°`).MatchString(out) {
+	if !regexp.MustCompile(`exit_quality\s+level_work at pitch \+40\.0°, roll 0\.0°`).MatchString(out) {
 		t.Errorf("worst exit quality not attributed to the sweep point:\n%s", out)
 	}
 }

@@ -73,3 +73,16 @@ func TestPressureFigures(t *testing.T) {
 		t.Errorf("charge summary %q: the high end drops its trailing zero", got)
 	}
 }
+
+// TestPointLabelAngles: a sweep or envelope point is named with its angles
+// written as the case headings and the sweep table write them (+2.3°,
+// 0.0°): the envelope's worst combination read "pitch 2.3°, roll 0°"
+// under an envelope line of "pitch -2.3° to +2.3°".
+func TestPointLabelAngles(t *testing.T) {
+	for _, c := range []struct{ pitch, roll float64 }{{0.04014, 0}, {-0.0593, 0.3491}, {1e-4, -1e-4}} {
+		got := (&flow.CaseResult{Pitch: c.pitch, Roll: c.roll}).PointLabel()
+		if want := "pitch " + angle(c.pitch) + ", roll " + angle(c.roll); got != want {
+			t.Errorf("PointLabel(%g, %g) = %q, the headings write %q", c.pitch, c.roll, got, want)
+		}
+	}
+}
