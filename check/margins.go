@@ -479,7 +479,10 @@ func saturationSource(m *lang.Model, l *lang.Loop, cs *lang.Case) (lang.Value, s
 // meantHint adds "probably meant" to a fluid-range finding when the value
 // that sets the saturation temperature is far outside any sensible range
 // and the same number in the other temperature scale is inside the fluid's
-// range (sink 35 K for 35 °C), with the fix.
+// range (sink 35 K for 35 °C), with the fix. A value in °C just past the
+// top of the range (water at 373 °C, between the range's end and the
+// critical point) is a loop run too hot, not a slip of scale: the hint
+// needs the written value more than a tenth above the top in kelvin.
 func meantHint(d *lang.Diagnostic, v lang.Value, what string, f flow.Finding) {
 	u, err := units.Parse(v.Unit())
 	if err != nil || u.Dim != units.Temperature {
@@ -500,6 +503,11 @@ func meantHint(d *lang.Diagnostic, v lang.Value, what string, f flow.Finding) {
 	// only hint when the other reading is plausible for a loop (−50 to
 	// 150 °C) and the written one is not.
 	if altSI < 223.15 || altSI > 423.15 {
+		return
+	}
+	// The other reading must be inside the fluid's range (f.Limit is its
+	// top), and a °C reading well past it.
+	if f.Limit > 0 && (altSI > f.Limit || (u.Affine && v.SI <= 1.1*f.Limit)) {
 		return
 	}
 	num := strconv.FormatFloat(n, 'g', -1, 64)
