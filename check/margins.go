@@ -145,7 +145,7 @@ func loopEstimate(c *Context) *flow.LoopResult {
 		if lr := c.Options.Estimate.LoopOf(c.Model, c.Loop); lr != nil {
 			return lr
 		}
-		lr := flow.EstimateLoop(c.Model, c.Loop, flow.Options{NoTilt: c.Options.NoTilt})
+		lr := flow.EstimateLoop(c.Model, c.Loop, flow.Options{NoTilt: c.Options.NoTilt, Layout: c.Layout})
 		return &lr
 	})
 	return v.(*flow.LoopResult)

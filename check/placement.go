@@ -55,9 +55,17 @@ func condenserDrainsUpward(c *Context) {
 }
 
 func reservoirOnVapourLine(c *Context) {
-	vap := c.Loop.VapourNodes()
+	// The vapour line is marked only for a loop with a reservoir: the
+	// marking's lists are a few words per node of a large loop.
+	var vap []bool
 	for _, comp := range c.Components() {
-		if comp.Kind != lang.Reservoir || comp.From == nil || comp.From.Index >= len(vap) || !vap[comp.From.Index] {
+		if comp.Kind != lang.Reservoir {
+			continue
+		}
+		if vap == nil {
+			vap = c.Loop.VapourNodes()
+		}
+		if comp.From == nil || comp.From.Index >= len(vap) || !vap[comp.From.Index] {
 			continue
 		}
 		d := c.Reportf(compLoc(comp), "reservoir %s hangs from node %s on the vapour line (between an evaporator outlet and a condenser inlet): it fills with vapour, holds no liquid, and is not counted as liquid in the charge check",

@@ -45,6 +45,11 @@ type Options struct {
 	// between the tilt search's steps); the result is then incomplete and
 	// is to be dropped.
 	Cancel <-chan struct{}
+	// Layout is the layout of the loop that EstimateLoop estimates
+	// (geom.Place of it) when the caller has made it already, nil to make
+	// it here: a large loop's layout is a few words per node and component.
+	// Estimate, which estimates every loop, ignores it.
+	Layout *geom.Layout
 }
 
 // Sweep is a grid of attitudes (radians) and accelerations (m/s², equipment
@@ -111,6 +116,7 @@ func Estimate(m *lang.Model, opts Options) (*Result, error) {
 	if m == nil {
 		return res, nil
 	}
+	opts.Layout = nil
 	res.Set = ParamsSet(m)
 	cases := m.Cases
 	if opts.Case != "" {
@@ -183,7 +189,7 @@ func casePoints(cases []*lang.Case, sw *Sweep) []point {
 }
 
 func estimateLoop(m *lang.Model, l *lang.Loop, methods MethodsUsed, points []point, opts Options) LoopResult {
-	p := prepare(m, l, methods)
+	p := prepareLaidOut(m, l, methods, opts.Layout)
 	p.cancel = opts.Cancel
 	p.pinned = opts.Pinned
 	lr := LoopResult{Loop: l.Name, Fluid: l.Fluid.Name, Methods: p.methods, Assumptions: assumptions(),
@@ -396,6 +402,11 @@ func assumptions() []string {
 
 // prepare resolves the fluid, methods and network of a loop.
 func prepare(m *lang.Model, l *lang.Loop, mu MethodsUsed) *prepared {
+	return prepareLaidOut(m, l, mu, nil)
+}
+
+// prepareLaidOut is prepare with the loop's layout, or nil to make it.
+func prepareLaidOut(m *lang.Model, l *lang.Loop, mu MethodsUsed, lay *geom.Layout) *prepared {
 	p := &prepared{l: l, methods: mu, limits: m.Limits}
 	p.void, _ = correlate.ParseVoidMethod(hyphen(mu.Void))
 	fm, _ := correlate.ParseFrictionMethod(hyphen(mu.Friction))
@@ -436,7 +447,10 @@ func prepare(m *lang.Model, l *lang.Loop, mu MethodsUsed) *prepared {
 				Message: fmt.Sprintf("%s is safety class %s: flammability and toxicity rules, charge limits and local codes apply", p.info.Name, s)})
 		}
 	}
-	p.lay = geom.Place(l)
+	p.lay = lay
+	if p.lay == nil {
+		p.lay = geom.Place(l)
+	}
 	net, fs := buildNetwork(l, p.lay)
 	for i := range fs {
 		fs[i].Loop = l.Name

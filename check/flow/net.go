@@ -74,11 +74,24 @@ func buildNetwork(l *lang.Loop, lay *geom.Layout) (*network, []Finding) {
 			Message: fmt.Sprintf(format, args...)})
 	}
 	n := &network{loop: l, byIndex: make([]int, len(l.Components))}
-	deg := make([]int, len(l.Nodes))
-	vap := l.VapourNodes()
+	deg := make([]int32, len(l.Nodes))
+	// The components are counted first: a large loop's list grown by
+	// appending was its size again in copies.
+	nflow := 0
+	for _, c := range l.Components {
+		if c.Kind != lang.Reservoir {
+			nflow++
+		}
+	}
+	n.comps = make([]comp, 0, nflow)
+	// The vapour line is marked only for a loop with a reservoir.
+	var vap []bool
 	for i, c := range l.Components {
 		n.byIndex[i] = -1
 		if c.Kind == lang.Reservoir {
+			if vap == nil {
+				vap = l.VapourNodes()
+			}
 			n.res = append(n.res, c)
 			n.resVap = append(n.resVap, c.From != nil && c.From.Index >= 0 && c.From.Index < len(vap) && vap[c.From.Index])
 			continue
@@ -143,23 +156,38 @@ func buildNetwork(l *lang.Loop, lay *geom.Layout) (*network, []Finding) {
 		}
 	}
 	// Junctions: nodes where three or more components meet.
-	jn := make([]int, len(l.Nodes))
+	jn := make([]int32, len(l.Nodes))
 	for i := range jn {
 		jn[i] = -1
 	}
 	for i, d := range deg {
 		if d >= 3 {
-			jn[i] = n.nj
+			jn[i] = int32(n.nj)
 			n.nj++
 		}
 	}
-	adj := make([][]int, len(l.Nodes)) // comps index by node
+	// The comps indices by node, every node's in one array from off[v] to
+	// off[v+1]: a list of its own per node was a slice header and an
+	// allocation per node of a large loop.
+	nn := len(l.Nodes)
+	off := make([]int32, nn+1)
+	for v, d := range deg {
+		off[v+1] = off[v] + d
+	}
+	all := make([]int32, off[nn])
+	next := off[:nn] // each list's next entry; then the start of the next list
 	for ci, cp := range n.comps {
-		adj[cp.c.From.Index] = append(adj[cp.c.From.Index], ci)
-		if cp.c.To.Index != cp.c.From.Index {
-			adj[cp.c.To.Index] = append(adj[cp.c.To.Index], ci)
+		u, v := cp.c.From.Index, cp.c.To.Index
+		all[next[u]] = int32(ci)
+		next[u]++
+		if v != u {
+			all[next[v]] = int32(ci)
+			next[v]++
 		}
 	}
+	copy(off[1:], off[:nn])
+	off[0] = 0
+	adj := func(v int) []int32 { return all[off[v]:off[v+1]] }
 	used := make([]bool, len(n.comps))
 	// walk follows a chain from node u through component ci until a junction
 	// (or back to stop).
@@ -179,9 +207,9 @@ func buildNetwork(l *lang.Loop, lay *geom.Layout) (*network, []Finding) {
 				return b
 			}
 			next := -1
-			for _, cj := range adj[u] {
+			for _, cj := range adj(u) {
 				if !used[cj] {
-					next = cj
+					next = int(cj)
 					break
 				}
 			}
@@ -202,14 +230,14 @@ func buildNetwork(l *lang.Loop, lay *geom.Layout) (*network, []Finding) {
 			}
 		}
 		first := -1
-		for _, ci := range adj[start] {
+		for _, ci := range adj(start) {
 			if n.comps[ci].c.From.Index == start {
-				first = ci
+				first = int(ci)
 				break
 			}
 		}
 		if first < 0 {
-			first = adj[start][0]
+			first = int(adj(start)[0])
 		}
 		b := walk(start, first, start)
 		b.from, b.to = 0, 0
@@ -227,17 +255,17 @@ func buildNetwork(l *lang.Loop, lay *geom.Layout) (*network, []Finding) {
 			if jn[u] < 0 {
 				continue
 			}
-			for _, ci := range adj[u] {
+			for _, ci := range adj(u) {
 				if used[ci] {
 					continue
 				}
-				b := walk(u, ci, -1)
-				b.from = jn[u]
+				b := walk(u, int(ci), -1)
+				b.from = int(jn[u])
 				if jn[b.to] < 0 {
 					return nil, []Finding{{Rule: RuleGeometry, Severity: "error",
 						Message: fmt.Sprintf("loop %s: the chain from junction %s ends at node %s, which is not a junction", l.Name, l.Nodes[u].Name, l.Nodes[b.to].Name)}}
 				}
-				b.to = jn[b.to]
+				b.to = int(jn[b.to])
 				n.branches = append(n.branches, b)
 			}
 		}
