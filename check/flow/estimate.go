@@ -50,6 +50,13 @@ type Options struct {
 	// it here: a large loop's layout is a few words per node and component.
 	// Estimate, which estimates every loop, ignores it.
 	Layout *geom.Layout
+	// SweepMargins keeps of each sweep point only what does not run over
+	// the components: its circulation, flows, totals, margins and tilt
+	// limits, not its component states and findings. For a caller that
+	// reads no more (the tilt envelope): a large loop's states and
+	// per-component findings, kept for every point of a sweep, were
+	// hundreds of bytes per component and point.
+	SweepMargins bool
 }
 
 // Sweep is a grid of attitudes (radians) and accelerations (m/s², equipment
@@ -95,6 +102,8 @@ type prepared struct {
 	pinned   map[string]string // Options.Pinned
 	findings []Finding
 	cancel   <-chan struct{}
+	// sweepMargins is Options.SweepMargins.
+	sweepMargins bool
 }
 
 // cancelled reports whether the caller has given up on the estimate.
@@ -192,6 +201,7 @@ func estimateLoop(m *lang.Model, l *lang.Loop, methods MethodsUsed, points []poi
 	p := prepareLaidOut(m, l, methods, opts.Layout)
 	p.cancel = opts.Cancel
 	p.pinned = opts.Pinned
+	p.sweepMargins = opts.SweepMargins
 	lr := LoopResult{Loop: l.Name, Fluid: l.Fluid.Name, Methods: p.methods, Assumptions: assumptions(),
 		Findings: p.findings}
 	if p.fl != nil {
@@ -245,6 +255,9 @@ func estimateLoop(m *lang.Model, l *lang.Loop, methods MethodsUsed, points []poi
 				pt.warm = w
 			}
 			lr.Cases[i], f = p.run(pt, !opts.NoTilt && !pt.derived(), start)
+			if p.sweepMargins && pt.grid {
+				lr.Cases[i].Components, lr.Cases[i].Findings = nil, nil
+			}
 			return f
 		})
 		lr.Cases = p.gatherProfiles(points, lr.Cases)

@@ -81,7 +81,7 @@ func TiltOf(m *lang.Model, l *lang.Loop, caseName string, step float64) (*Tilt, 
 	}
 	t := &Tilt{Loop: l.Name, Case: c.Name, Pitch: finite(c.Pitch.SI), Roll: finite(c.Roll.SI)}
 	sweep := func(sw *flow.Sweep) ([]TiltPoint, *flow.CaseResult, error) {
-		lr := flow.EstimateLoop(m, l, flow.Options{Case: c.Name, Sweep: sw})
+		lr := flow.EstimateLoop(m, l, flow.Options{Case: c.Name, Sweep: sw, SweepMargins: true})
 		if len(lr.Cases) != len(angles)+1 {
 			return nil, nil, fmt.Errorf("loop %s cannot be estimated: %s", l.Name, findingText(lr.Findings))
 		}
