@@ -9,6 +9,7 @@ import (
 	"strings"
 	"text/tabwriter"
 
+	"circa/check/flow"
 	"circa/check/vary"
 )
 
@@ -55,6 +56,10 @@ func VaryText(w io.Writer, r *vary.Result) error {
 			head = append(head, p.Param)
 		}
 		head = append(append(head, names...), "limiting")
+		switched := stateSwitches(r, loop)
+		if switched {
+			head = append(head, "saturation state")
+		}
 		fmt.Fprintln(tw, "  "+strings.Join(head, "\t"))
 		for _, pt := range r.Points {
 			row := append([]string(nil), pt.Written...)
@@ -71,11 +76,46 @@ func VaryText(w io.Writer, r *vary.Result) error {
 				row = append(row, cell)
 			}
 			row = append(row, Printable(limitingText(pt, l)))
+			if switched {
+				row = append(row, Printable(stateText(l)))
+			}
 			fmt.Fprintln(tw, "  "+strings.Join(row, "\t"))
 		}
 		tw.Flush()
+		if switched {
+			fmt.Fprintf(ew, "  the saturation state changes across the sweep: saturation_state auto takes local saturation where a case's liquid column raises the saturation at an evaporator inlet by more than %g K, and a margin may step between two points where it changes; methods { saturation_state single } or local fixes one\n", flow.AutoLocalShift)
+		}
 	}
 	return ew.err
+}
+
+// stateSwitches reports whether the cases of a loop take different
+// saturation states at different points of r.
+func stateSwitches(r *vary.Result, loop string) bool {
+	first, seen := "", false
+	for _, pt := range r.Points {
+		l := pointLoop(pt, loop)
+		if l == nil {
+			continue
+		}
+		k := strings.Join(l.Local, "\x00")
+		if seen && k != first {
+			return true
+		}
+		first, seen = k, true
+	}
+	return false
+}
+
+// stateText names the cases a point estimated at local saturation.
+func stateText(l *vary.Loop) string {
+	switch {
+	case l == nil:
+		return ""
+	case len(l.Local) == 0:
+		return "single"
+	}
+	return "local in " + strings.Join(l.Local, ", ")
 }
 
 func pointLoop(pt vary.Point, loop string) *vary.Loop {

@@ -62,6 +62,12 @@ type Loop struct {
 	NoCirculation []string `json:"no_circulation,omitempty"`
 	// Errors are the estimate's error findings at the point.
 	Errors []string `json:"errors,omitempty"`
+	// Local lists, under saturation_state auto, the cases estimated at
+	// local saturation at this point (their liquid column raises the
+	// saturation at an evaporator inlet by more than 5 K); the others took
+	// the single state. A margin may step between two points where the
+	// list changes.
+	Local []string `json:"local_cases,omitempty"`
 }
 
 // Options tune a sweep.
@@ -219,6 +225,9 @@ func loopPoint(lr flow.LoopResult) Loop {
 	for _, c := range lr.Cases {
 		if !c.Circulates {
 			l.NoCirculation = append(l.NoCirculation, c.Case)
+		}
+		if lr.Methods.Saturation == "auto" && !c.Grid && c.SatState == "local" {
+			l.Local = append(l.Local, c.Case)
 		}
 	}
 	for _, f := range lr.Findings {
