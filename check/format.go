@@ -105,9 +105,9 @@ func insertBeforeClose(m *lang.Model, d lang.Decl, indent, stmt string) (lang.Ed
 func sigAs(si float64, v lang.Value, unit string) string {
 	u, text, ok := unitAs(v, unit)
 	if !ok {
-		return fmt.Sprintf("%.3g", si)
+		return units.Sig(si, 3)
 	}
-	return strconv.FormatFloat(u.FromSI(si), 'g', 3, 64) + " " + text
+	return units.Sig(u.FromSI(si), 3) + " " + text
 }
 
 // unitAs is the unit a value was written in (as written), else unit.

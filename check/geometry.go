@@ -7,6 +7,7 @@ import (
 
 	"circa/check/geom"
 	"circa/lang"
+	"circa/units"
 )
 
 // Geometry rules: lengths, rises, coordinates and sizes.
@@ -169,8 +170,8 @@ func roughWall(c *Context) {
 			continue
 		}
 		if r := comp.Roughness.SI / d; r >= maxRelRoughness {
-			c.Reportf(valueLoc(comp.Roughness, compLoc(comp)), "roughness %s of %s %s is %.3g %% of its %s diameter (relative roughness %.3g; at most 0.05 expected)",
-				qAs(comp.Roughness.SI, comp.Roughness, "mm"), comp.Kind, comp.Name, 100*r, q(d, "mm"), r)
+			c.Reportf(valueLoc(comp.Roughness, compLoc(comp)), "roughness %s of %s %s is %s %% of its %s diameter (relative roughness %s; at most 0.05 expected)",
+				qAs(comp.Roughness.SI, comp.Roughness, "mm"), comp.Kind, comp.Name, units.Sig(100*r, 3), q(d, "mm"), units.Sig(r, 3))
 		}
 	}
 }

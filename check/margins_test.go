@@ -157,11 +157,12 @@ func TestMarginTexts(t *testing.T) {
 	for _, mg := range rep.Margins {
 		texts[mg.Rule] = mg.Message
 	}
-	// The example writes design_pressure 4 bar(g) and wall_limit 80 °C.
-	if s := texts["margin-design-pressure"]; !strings.Contains(s, "bar(g)") || !strings.Contains(s, "4 bar(g): ") || !strings.Contains(s, "% of the limit") {
+	// The example writes design_pressure 4 bar(g) and wall_limit 80 °C;
+	// they print to three figures, as the values beside them do.
+	if s := texts["margin-design-pressure"]; !strings.Contains(s, "bar(g)") || !strings.Contains(s, "4.00 bar(g): ") || !strings.Contains(s, "% of the limit") {
 		t.Errorf("design pressure margin %q", s)
 	}
-	if s := texts["margin-wall-temperature"]; !strings.Contains(s, "limit 80 °C") || !strings.Contains(s, "K to spare") {
+	if s := texts["margin-wall-temperature"]; !strings.Contains(s, "limit 80.0 °C") || !strings.Contains(s, "K to spare") {
 		t.Errorf("wall margin %q", s)
 	}
 	if s := texts["margin-chf"]; !strings.Contains(s, "times the minimum") {

@@ -1,9 +1,9 @@
 package check
 
 import (
+	"circa/units"
 	"fmt"
 	"math"
-	"strconv"
 
 	"circa/check/flow"
 	"circa/check/fluid"
@@ -20,7 +20,7 @@ func marginText(c *Context, m flow.Margin, cr *flow.CaseResult) string {
 	if m.Component != "" {
 		at = " at " + m.Component
 	}
-	num := func(v float64) string { return strconv.FormatFloat(v, 'g', 3, 64) }
+	num := func(v float64) string { return units.Sig(v, 3) }
 	pct := func(v, limit float64) string {
 		if !(limit > 0) || math.IsInf(v/limit, 0) {
 			return "far past the limit"

@@ -7,6 +7,7 @@ import (
 
 	"circa/check/flow"
 	"circa/lang"
+	"circa/units"
 )
 
 // componentHeadline is the answer a component's hover opens with: its
@@ -84,7 +85,10 @@ func marginValue(mg flow.Margin, v float64) string {
 	if mg.Margin == flow.MarginWall || mg.Margin == flow.MarginJunction {
 		return prettyFormat(v, uDegC)
 	}
-	num := strconv.FormatFloat(v, 'g', 3, 64)
+	num := units.Sig(v, 3)
+	if mg.Margin == flow.MarginCharge && v == mg.Value {
+		num = strconv.FormatFloat(v, 'g', 3, 64) // the fill charge, as the margin table gives it
+	}
 	if mg.Unit == "" {
 		return num
 	}

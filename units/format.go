@@ -372,3 +372,31 @@ func prettyWord(w string) string {
 	}
 	return w
 }
+
+// Sig renders v to n significant figures keeping their trailing zeros
+// (0.100, 3.20, 50.0), as a value beside others of n figures reads: a
+// dropped zero looks like a value known to fewer. Values from 1e-4 up are
+// plain decimals (a value of more than n integer digits keeps them all);
+// smaller ones take an exponent. Zero is "0.00" to three figures, never
+// "-0".
+func Sig(v float64, n int) string {
+	n = max(n, 1)
+	a := math.Abs(v)
+	switch {
+	case v == 0:
+		return strconv.FormatFloat(0, 'f', n-1, 64)
+	case math.IsNaN(v) || math.IsInf(v, 0):
+		return strconv.FormatFloat(v, 'g', n, 64)
+	case a < 1e-4:
+		return strconv.FormatFloat(v, 'e', n-1, 64)
+	}
+	// The decimals from the value rounded to n figures, so that 9.996 to
+	// three is 10.0, not 10.00.
+	r, _ := strconv.ParseFloat(strconv.FormatFloat(a, 'e', n-1, 64), 64)
+	d := max(n-1-int(math.Floor(math.Log10(r))), 0)
+	s := strconv.FormatFloat(v, 'f', d, 64)
+	if s[0] == '-' && strings.Trim(s, "-0.") == "" {
+		s = s[1:]
+	}
+	return s
+}

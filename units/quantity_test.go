@@ -177,3 +177,28 @@ func TestCommon(t *testing.T) {
 		t.Error("Common returns shared storage")
 	}
 }
+
+// Sig keeps the trailing zeros of n significant figures; values from
+// %.3g beside them (0.1 beside 0.172) read as known to fewer figures.
+func TestSig(t *testing.T) {
+	for _, c := range []struct {
+		v    float64
+		n    int
+		want string
+	}{
+		{0.1, 3, "0.100"}, {3.2, 3, "3.20"}, {50, 3, "50.0"}, {4.23, 3, "4.23"},
+		{9.996, 3, "10.0"}, {99.96, 3, "100"}, {1234.6, 3, "1235"}, {-0.0001, 3, "-0.000100"},
+		{-0.0004, 1, "-0.0004"}, {-0.00004, 2, "-4.0e-05"}, {-1e-9, 3, "-1.00e-09"}, {0, 3, "0.00"},
+		{-0.0001e-3, 2, "-1.0e-07"}, {-0.04, 1, "-0.04"}, {-0.004, 1, "-0.004"}, {0.3764, 3, "0.376"},
+	} {
+		if got := Sig(c.v, c.n); got != c.want {
+			t.Errorf("Sig(%g, %d) = %q, want %q", c.v, c.n, got, c.want)
+		}
+	}
+	if got := Sig(-0.0004, 0); got != "-0.0004" {
+		t.Errorf("Sig(-0.0004, 0) = %q", got)
+	}
+	if got := Sig(-1e-300*1e-300, 3); got != "0.00" {
+		t.Errorf("Sig(-0) = %q", got)
+	}
+}

@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"math"
 	"strings"
+
+	"circa/units"
 )
 
 // maxSplitListed is the most parallel branches whose flows starvedNote
@@ -75,12 +77,12 @@ func (p *prepared) starvedNote(cr *CaseResult, ci int) string {
 	case count > maxSplitListed:
 		// Every evaporator's finding listing every branch beside it would
 		// grow as the square of the branches.
-		note = fmt.Sprintf("; %d parallel branches split the flow, %.3g to %.3g g/s each; %s takes %.3g g/s (%.2g %%)",
-			count, lo*1e3, hi*1e3, name(of), flow(of)*1e3, 100*flow(of)/total)
+		note = fmt.Sprintf("; %d parallel branches split the flow, %s to %s g/s each; %s takes %s g/s (%.2g %%)",
+			count, units.Sig(lo*1e3, 3), units.Sig(hi*1e3, 3), name(of), units.Sig(flow(of)*1e3, 3), 100*flow(of)/total)
 	case count > 1:
 		for bi := range n.branches {
 			if beside(bi) {
-				split = append(split, fmt.Sprintf("%s %.3g g/s (%.0f %%)", name(bi), flow(bi)*1e3, 100*flow(bi)/total))
+				split = append(split, fmt.Sprintf("%s %s g/s (%.0f %%)", name(bi), units.Sig(flow(bi)*1e3, 3), 100*flow(bi)/total))
 			}
 		}
 		note = "; the parallel branches split the flow " + strings.Join(split, ", ")
@@ -96,8 +98,8 @@ func (p *prepared) starvedNote(cr *CaseResult, ci int) string {
 	}
 	if worst >= 0 && sum > 0 {
 		cp := n.comps[worst]
-		note += fmt.Sprintf("; the largest loss in its branch is %s %s, %.0f %% of the branch's friction and local losses (%.3g kPa; bore %.3g mm",
-			cp.kind, cp.name, 100*wl/sum, wl/1e3, cp.D*1e3)
+		note += fmt.Sprintf("; the largest loss in its branch is %s %s, %.0f %% of the branch's friction and local losses (%s kPa; bore %s mm",
+			cp.kind, cp.name, 100*wl/sum, units.Sig(wl/1e3, 3), units.Sig(cp.D*1e3, 3))
 		if cp.K > 0 {
 			note += fmt.Sprintf(", loss coefficient %.3g", cp.K)
 		}

@@ -11,6 +11,7 @@ import (
 	"circa/check/fluid"
 	"circa/check/geom"
 	"circa/lang"
+	"circa/units"
 )
 
 // Margin names.
@@ -543,8 +544,8 @@ func (p *prepared) chargeMargin(s *state, cr *CaseResult) {
 		m := Margin{Margin: MarginCharge, Value: ch.SI, Limit: full, Unit: "kg", Use: ch.SI / math.Max(full, 1e-300), Status: "error"}
 		cr.add(m)
 		cr.Findings = append(cr.Findings, p.finding(RuleCharge, "error", cr.Case, "", ch.SI, full, "kg", "",
-			"charge %.3g kg is more than the %.3g kg of liquid that fills the whole loop (%.3g L) at %.1f °C in case %s: there is no room for vapour",
-			ch.SI, full, vol*1e3, s.sat.T-273.15, cr.Case))
+			"charge %s kg is more than the %s kg of liquid that fills the whole loop (%s L) at %.1f °C in case %s: there is no room for vapour",
+			strconv.FormatFloat(ch.SI, 'g', 3, 64), units.Sig(full, 3), units.Sig(vol*1e3, 3), s.sat.T-273.15, cr.Case))
 		return
 	}
 	switch {
@@ -561,8 +562,8 @@ func (p *prepared) chargeMargin(s *state, cr *CaseResult) {
 		cr.add(m)
 		if m.Status != "ok" {
 			cr.Findings = append(cr.Findings, p.finding(RuleCharge, m.Status, cr.Case, "", ch.SI, least, "kg", "",
-				"charge %.3g kg is below the %.3g kg the flow path holds at the operating point in case %s: the liquid level falls through about %.0f %% of the liquid lines and the evaporators risk being starved",
-				ch.SI, least, cr.Case, math.Min(emptied, 9.99)*100))
+				"charge %s kg is below the %s kg the flow path holds at the operating point in case %s: the liquid level falls through about %.0f %% of the liquid lines and the evaporators risk being starved",
+				strconv.FormatFloat(ch.SI, 'g', 3, 64), units.Sig(least, 3), cr.Case, math.Min(emptied, 9.99)*100))
 		}
 	case ch.SI > most:
 		flooded := 1.0
@@ -577,8 +578,8 @@ func (p *prepared) chargeMargin(s *state, cr *CaseResult) {
 		cr.add(m)
 		if m.Status != "ok" {
 			cr.Findings = append(cr.Findings, p.finding(RuleCharge, m.Status, cr.Case, "", ch.SI, most, "kg", "",
-				"charge %.3g kg exceeds the %.3g kg the loop holds at the operating point in case %s: the excess liquid floods about %.0f %% of the condenser volume",
-				ch.SI, most, cr.Case, math.Min(flooded, 9.99)*100))
+				"charge %s kg exceeds the %s kg the loop holds at the operating point in case %s: the excess liquid floods about %.0f %% of the condenser volume",
+				strconv.FormatFloat(ch.SI, 'g', 3, 64), units.Sig(most, 3), cr.Case, math.Min(flooded, 9.99)*100))
 		}
 	default:
 		m := Margin{Margin: MarginCharge, Value: ch.SI, Limit: most, Unit: "kg", Status: "ok"}

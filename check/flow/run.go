@@ -6,6 +6,7 @@ import (
 	"strings"
 
 	"circa/lang"
+	"circa/units"
 )
 
 // run estimates one case; a network's Newton iteration starts from start
@@ -125,11 +126,11 @@ func (p *prepared) noFlowReason(s *state, ev *eval, heat, e0 float64) string {
 	// vanishing flow the quality is meaningless.
 	m1 := heat / s.p.Hlv
 	head, losses := s.ringParts(ev, m1)
-	at := fmt.Sprintf("at %.3g g/s, the flow the heat just evaporates (exit quality about 1)", m1*1e3)
+	at := fmt.Sprintf("at %s g/s, the flow the heat just evaporates (exit quality about 1)", units.Sig(m1*1e3, 3))
 	if head <= 0 {
-		return fmt.Sprintf("the gravity head is %.3g Pa %s, with the riser full of vapour: the condenser is not above the evaporator along the body force", head, at)
+		return fmt.Sprintf("the gravity head is %s Pa %s, with the riser full of vapour: the condenser is not above the evaporator along the body force", units.Sig(head, 3), at)
 	}
-	return fmt.Sprintf("the losses exceed the gravity head at every flow searched: %s the gravity head is %.3g Pa and the friction, local and acceleration losses %.3g Pa", at, head, losses)
+	return fmt.Sprintf("the losses exceed the gravity head at every flow searched: %s the gravity head is %s Pa and the friction, local and acceleration losses %s Pa", at, units.Sig(head, 3), units.Sig(losses, 3))
 }
 
 // ringParts returns a single loop's gravity head and its friction, local

@@ -6,6 +6,7 @@ import (
 
 	"circa/check/flow"
 	"circa/lang"
+	"circa/units"
 )
 
 // chargeGuide is the feasible range of a loop's fill charge. The charge
@@ -47,8 +48,8 @@ func chargeGuide(l *lang.Loop, lr *flow.LoopResult, res *flow.Result, keep func(
 	}
 	switch {
 	case cr.Low > cr.High:
-		r.Reason = fmt.Sprintf("no charge suits every case: case %s needs at least %.3g kg, case %s takes at most %.3g kg",
-			cr.LowCase, cr.Low, cr.HighCase, cr.High)
+		r.Reason = fmt.Sprintf("no charge suits every case: case %s needs at least %s kg, case %s takes at most %s kg",
+			cr.LowCase, units.Sig(cr.Low, 3), cr.HighCase, units.Sig(cr.High, 3))
 	case other.Stop != nil || other.Use > 1:
 		if r.Reason == "" {
 			r.Reason = fmt.Sprintf("no charge keeps every margin: %s uses %.3g of its limit whatever the charge",

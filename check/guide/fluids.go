@@ -10,6 +10,7 @@ import (
 	"circa/check/flow"
 	"circa/check/fluid"
 	"circa/lang"
+	"circa/units"
 )
 
 // Fluid is how one working fluid would fare in a loop, everything else as
@@ -145,8 +146,8 @@ func (gd *guider) tryFluid(li int, l *lang.Loop, sp lang.FluidSpec) Fluid {
 		f.Stop, f.Reason = s.Stop.Kind, s.Stop.Message
 	case f.Charge != nil && f.Charge.Low > f.Charge.High:
 		f.Stop = StopNoCharge
-		f.Reason = fmt.Sprintf("no charge suits every case: case %s needs at least %.3g kg, case %s takes at most %.3g kg",
-			f.Charge.LowCase, f.Charge.Low, f.Charge.HighCase, f.Charge.High)
+		f.Reason = fmt.Sprintf("no charge suits every case: case %s needs at least %s kg, case %s takes at most %s kg",
+			f.Charge.LowCase, units.Sig(f.Charge.Low, 3), f.Charge.HighCase, units.Sig(f.Charge.High, 3))
 	}
 	return f
 }

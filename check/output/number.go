@@ -6,6 +6,7 @@ import (
 	"strings"
 
 	"circa/check/flow"
+	"circa/units"
 )
 
 // fixed formats v with prec decimals; a value that rounds to zero prints
@@ -57,12 +58,7 @@ func sigDecimals(vs []float64, n int) int {
 
 // sigZeros is sig keeping trailing zeros: 3.10, not 3.1, beside a 4.23
 // that it is compared with.
-func sigZeros(v float64, n int) string {
-	if math.IsNaN(v) || math.IsInf(v, 0) {
-		return sig(v, n)
-	}
-	return fixed(v, sigDecimals([]float64{v}, n))
-}
+func sigZeros(v float64, n int) string { return units.Sig(v, n) }
 
 func celsius(k float64) float64 { return k - 273.15 }
 
