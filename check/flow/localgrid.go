@@ -66,6 +66,7 @@ type satGrid struct {
 	shared *satNodes
 	ka     int
 	pa, pb float64
+	a, b   *satNode // nodes ka and ka+1
 	fric   *[nodeFrictionSlots]nodeFriction
 }
 
@@ -179,6 +180,12 @@ func (s *state) interval(p float64) (a, b *satNode, k int, t float64) {
 	k = g.ka
 	switch {
 	case g.pb > g.pa && p >= g.pa && p < g.pb:
+		a, b = g.a, g.b
+		t = (p - a.p) / (b.p - a.p)
+		if !(t >= 0 && t <= 1) {
+			t = math.Min(math.Max(t, 0), 1)
+		}
+		return a, b, k, t
 	case g.pb > g.pa && p >= g.pb && p < g.pb*satGridRatio:
 		k++
 	case g.pb > g.pa && p < g.pa && p >= g.pa/satGridRatio:
@@ -187,7 +194,7 @@ func (s *state) interval(p float64) (a, b *satNode, k int, t float64) {
 		k = int(math.Floor(math.Log(p) / satGridStep))
 	}
 	a, b = s.node(k), s.node(k+1)
-	g.ka, g.pa, g.pb = k, a.p, b.p
+	g.ka, g.pa, g.pb, g.a, g.b = k, a.p, b.p, a, b
 	t = (p - a.p) / (b.p - a.p)
 	if !(t >= 0 && t <= 1) {
 		// Round-off at an interval's end.
@@ -199,18 +206,19 @@ func (s *state) interval(p float64) (a, b *satNode, k int, t float64) {
 // satGridRatio is the ratio of consecutive grid pressures, e^satGridStep.
 var satGridRatio = math.Exp(satGridStep)
 
-// propsAt is the saturated state of the local march at pressure p,
-// clamped to the fluid's range.
-func (s *state) propsAt(p float64) localProps {
+// propsAt sets lp to the saturated state of the local march at pressure
+// p, clamped to the fluid's range.
+func (s *state) propsAt(p float64, lp *localProps) {
 	if localExact || s.grid == nil {
 		sat, pl := s.satAt(p)
-		return localProps{hl: sat.HL, hlv: sat.Hlv, pl: pl, exact: true}
+		*lp = localProps{hl: sat.HL, hlv: sat.Hlv, pl: pl, exact: true}
+		return
 	}
 	a, b, k, t := s.interval(p)
-	lp := localProps{k: k, t: t}
+	lp.k, lp.t, lp.exact = k, t, false
 	lp.hl, lp.hlv = hermite(a, b, t)
 	pa, pb := &a.pl, &b.pl
-	lp.pl = *pa
+	lp.pl.MolarMass = pa.MolarMass
 	lp.pl.RhoL = pa.RhoL + t*(pb.RhoL-pa.RhoL)
 	lp.pl.RhoV = pa.RhoV + t*(pb.RhoV-pa.RhoV)
 	lp.pl.MuL = pa.MuL + t*(pb.MuL-pa.MuL)
@@ -220,14 +228,14 @@ func (s *state) propsAt(p float64) localProps {
 	lp.pl.CpL = pa.CpL + t*(pb.CpL-pa.CpL)
 	lp.pl.Hlv = lp.hlv
 	lp.pl.ReducedPressure = pa.ReducedPressure + t*(pb.ReducedPressure-pa.ReducedPressure)
-	return lp
 }
 
 // localXAt is the local quality of reference enthalpy x at pressure p, as
 // propsAt's state gives it (without the other properties).
 func (s *state) localXAt(x, p float64) float64 {
 	if localExact || s.grid == nil {
-		lp := s.propsAt(p)
+		var lp localProps
+		s.propsAt(p, &lp)
 		return s.localXp(x, &lp)
 	}
 	a, b, _, t := s.interval(p)
@@ -373,9 +381,10 @@ func (s *state) marchLocal(ci int, dir float64, m, xin float64, rec func(cellRec
 	if cp.L > 0 {
 		mc.bUnit = bd / cp.L
 	}
-	lp := s.propsAt(p)
+	var lp localProps
+	s.propsAt(p, &lp)
 	q.mIn, _ = s.momLocal(G, xin, cosInc, &lp)
-	mc.xlA = s.localXp(xin, &lp)
+	mc.anchor(xin, p, s.localXp(xin, &lp))
 	switch {
 	case cp.L == 0:
 		mc.step(xin, xin, 0, p, 0)
@@ -393,7 +402,7 @@ func (s *state) marchLocal(ci int, dir float64, m, xin float64, rec func(cellRec
 		}
 	}
 	q.fric, q.grav = mc.fric, mc.grav
-	lp = s.propsAt(p)
+	s.propsAt(p, &lp)
 	var rhoHOut float64
 	q.mOut, rhoHOut = s.momLocal(G, xout, cosInc, &lp)
 	q.acc = q.mOut - q.mIn
@@ -411,7 +420,18 @@ type localMarch struct {
 	rec        func(cellRec)
 	fric, grav float64
 	d          float64 // the last step's pressure loss, Pa
-	xlA        float64 // local quality at the current step's start
+	// xlA is the local quality at the current step's start, unless lazy:
+	// then it is that of reference enthalpy xP at pressure pP, not yet
+	// looked up (see step).
+	xlA    float64
+	lazy   bool
+	xP, pP float64
+	// The last local quality looked up (xl0, at pressure p0, where the
+	// latent heat is at least hlv0 and |dh_f/dp| + (|x|+1)·|dh_lv/dp| at
+	// most slope0, 0 for no bound), and the sums of the changes of
+	// reference enthalpy and pressure between the ends of the steps since.
+	xl0, p0, hlv0, slope0 float64
+	sumDx, sumDp          float64
 }
 
 // localEval is the state of one evaluation of an adiabatic tube: the
@@ -423,7 +443,8 @@ type localEval struct {
 // at evaluates the tube's state at reference enthalpy x and pressure p.
 func (mc *localMarch) at(x, p float64) localEval {
 	s := mc.s
-	lp := s.propsAt(p)
+	var lp localProps
+	s.propsAt(p, &lp)
 	var e localEval
 	e.dpdz, e.alpha, e.rhoM, e.rhoH, e.xl = s.cellLocal(mc.cp, mc.G, x, mc.cosInc, &lp)
 	k := 1.0
@@ -531,9 +552,34 @@ const (
 // local quality at the predicted end lies across 0 or 1 from its start, the
 // cell is split at the crossing (found linear in the cell) and each part
 // takes the state at its own midpoint.
+//
+// The local quality at the end of a step is looked up only where it may
+// have crossed 0 or 1. From the last one looked up it moves at most by the
+// change of reference enthalpy times h_lv,0/h_lv plus the change of
+// pressure times the slopes of h_f and h_lv over h_lv; while twice that
+// bound keeps it clear of 0 and 1 (and the pressure within 0.3 % of where
+// it was looked up, inside the slopes of the grid nodes around it), no
+// step can cross, and the step is taken whole, as it would be after the
+// look-up.
 func (mc *localMarch) step(xa, xb, ds, p, g float64) {
 	s := mc.s
-	xlB := s.localXAt(xb, p-g*ds)
+	pB := p - g*ds
+	if mc.slope0 > 0 {
+		dx := mc.sumDx + math.Abs(xb-mc.xP)
+		dp := mc.sumDp + math.Abs(pB-mc.pP)
+		b := 2*(dx*s.sat.Hlv+dp*mc.slope0)/mc.hlv0 + 1e-12
+		if lo, hi := mc.xl0-b, mc.xl0+b; dp < 3e-3*mc.p0 && (lo > 0 && hi < 1 || hi < 0 || lo > 1) {
+			mc.sumDx, mc.sumDp = dx, dp
+			mc.xP, mc.pP, mc.lazy = xb, pB, true
+			mc.d = 0
+			mc.part((xa+xb)/2, ds, p-g*ds/2, ds)
+			return
+		}
+	}
+	if mc.lazy {
+		mc.xlA = s.localXAt(mc.xP, mc.pP)
+	}
+	xlB := s.localXAt(xb, pB)
 	w := 1.0
 	for _, c := range [2]float64{0, 1} {
 		if (mc.xlA-c)*(xlB-c) < 0 {
@@ -547,14 +593,36 @@ func (mc *localMarch) step(xa, xb, ds, p, g float64) {
 	} else {
 		mc.part((xa+xb)/2, ds, p-g*ds/2, ds)
 	}
-	mc.xlA = xlB
+	mc.anchor(xb, pB, xlB)
+}
+
+// anchor records the local quality xl of reference enthalpy x just looked
+// up at pressure p (in the grid's last interval), from which step bounds
+// the next ones.
+func (mc *localMarch) anchor(x, p, xl float64) {
+	mc.xlA, mc.lazy, mc.xP, mc.pP = xl, false, x, p
+	mc.xl0, mc.p0, mc.sumDx, mc.sumDp, mc.slope0 = xl, p, 0, 0, 0
+	s := mc.s
+	if localExact || s.grid == nil || !(p > s.pLo && p < s.pHi) {
+		return
+	}
+	a, b := s.grid.a, s.grid.b
+	if a == nil || b == nil || !(p >= a.p && p <= b.p) {
+		return
+	}
+	hlv := math.Min(a.hlv, b.hlv)
+	slope := math.Max(math.Abs(a.dhl), math.Abs(b.dhl)) + (math.Abs(xl)+1)*math.Max(math.Abs(a.dhlv), math.Abs(b.dhlv))
+	if hlv > 0 && slope > 0 && finite(slope) {
+		mc.hlv0, mc.slope0 = hlv, slope
+	}
 }
 
 // part evaluates length ds of a cell of length cell at reference enthalpy
 // x and pressure p.
 func (mc *localMarch) part(x, ds, p, cell float64) {
 	s := mc.s
-	lp := s.propsAt(p)
+	var lp localProps
+	s.propsAt(p, &lp)
 	dpdz, alpha, rhoM, rhoH, xl := s.cellLocal(mc.cp, mc.G, x, mc.cosInc, &lp)
 	grav := rhoM * mc.bUnit * ds
 	if mc.cp.L == 0 {
