@@ -176,6 +176,39 @@ func (m *Mapper) OffsetPosition(off int, enc Encoding) Position {
 	return Position{line, col}
 }
 
+// OffsetPositionFrom is OffsetPosition(off, enc), given p, the position
+// of an offset from: when off is at or after from on the same line, it
+// counts only the characters between them, so converting the offsets of a
+// line's many tokens in order reads the line once instead of once per
+// token.
+func (m *Mapper) OffsetPositionFrom(from int, p Position, off int, enc Encoding) Position {
+	from, off = m.clampOffset(from), m.clampOffset(off)
+	if off < from || p.Line < 0 || p.Line >= len(m.lines) {
+		return m.OffsetPosition(off, enc)
+	}
+	start := m.lines[p.Line]
+	end := m.LineEnd(p.Line)
+	if from < start || from > end || off > end {
+		return m.OffsetPosition(off, enc)
+	}
+	from, off = m.charStart(from, start), m.charStart(off, start)
+	if enc == UTF8 {
+		return Position{p.Line, off - start}
+	}
+	col := p.Col
+	for q := from; q < off; {
+		if m.text[q] < utf8.RuneSelf {
+			col++
+			q++
+			continue
+		}
+		r, n := utf8.DecodeRune(m.text[q:off])
+		col += width(r, n, enc)
+		q += n
+	}
+	return Position{p.Line, col}
+}
+
 // PositionOffset converts a line and column in enc to a byte offset. Lines
 // and columns past the end are clamped to the end of the text or line; a
 // column inside a character (a UTF-8 sequence or a surrogate pair) maps to

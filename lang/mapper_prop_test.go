@@ -179,3 +179,27 @@ func TestMapperInvalidUTF8(t *testing.T) {
 		}
 	}
 }
+
+// TestOffsetPositionFrom checks the position counted on from an earlier
+// one against OffsetPosition, over random documents and bytes that are not
+// UTF-8, for every pair of offsets.
+func TestOffsetPositionFrom(t *testing.T) {
+	r := rand.New(rand.NewPCG(3, 4))
+	texts := []string{"\x80", "a\xff\n\xe4\xb8", "\xf0\x9f\x98", "\xe4\xb8\xad\x80z", "\xf0\xe2\x82\xac", "a\r\nb\rc"}
+	for range 200 {
+		texts = append(texts, randomDoc(r, 30))
+	}
+	for _, text := range texts {
+		m := NewMapper([]byte(text))
+		for _, enc := range encodings {
+			for from := 0; from <= len(text); from++ {
+				p := m.OffsetPosition(from, enc)
+				for off := 0; off <= len(text); off++ {
+					if got, want := m.OffsetPositionFrom(from, p, off, enc), m.OffsetPosition(off, enc); got != want {
+						t.Fatalf("%q %s: from %d (%v) to %d: %v, want %v", text, encName(enc), from, p, off, got, want)
+					}
+				}
+			}
+		}
+	}
+}

@@ -17,6 +17,7 @@ import (
 
 	"go.lsp.dev/protocol"
 
+	"circa/lang"
 	"circa/lang/loopgen"
 )
 
@@ -358,4 +359,22 @@ func BenchmarkDocumentSymbolsServer5MB(b *testing.B) {
 		}
 	}
 	b.ReportMetric(float64((cpuTime()-u0).Microseconds())/1000/float64(b.N), "cpu-ms/op")
+}
+
+// BenchmarkSemanticTokensLongLine classifies a line of half a million
+// names (1 MB): each token's column was counted from the line's start, a
+// time quadratic in the line's length that left the request unanswered.
+func BenchmarkSemanticTokensLongLine(b *testing.B) {
+	src := []byte("param x = " + strings.Repeat("a ", 1<<19) + "\n")
+	m := lang.LoadSource("long.loop", src, nil)
+	f := m.Files["long.loop"]
+	toks := fileTokens(m, f)
+	if len(toks) < 1<<19 {
+		b.Fatalf("%d tokens", len(toks))
+	}
+	b.SetBytes(int64(len(src)))
+	b.ReportAllocs()
+	for b.Loop() {
+		encodeTokens(f.Mapper, lang.UTF16, toks)
+	}
 }

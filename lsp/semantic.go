@@ -226,10 +226,19 @@ func operatorTokens(src []byte, e *lang.Expr) []token {
 func encodeTokens(m *lang.Mapper, enc lang.Encoding, toks []token) []uint32 {
 	data := make([]uint32, 0, 5*len(toks))
 	prevLine, prevCol := 0, 0
+	// The tokens are in order: each position is counted on from the last
+	// token's start, so a line of a million tokens is read once, not once
+	// for each.
+	at, atPos := 0, lang.Position{}
 	for _, t := range toks {
-		a, b := m.SpanRange(t.sp, enc)
+		a := m.OffsetPositionFrom(at, atPos, t.sp.Start, enc)
+		b := m.OffsetPositionFrom(t.sp.Start, a, t.sp.End, enc)
+		if b.Line < a.Line || (b.Line == a.Line && b.Col < a.Col) {
+			b = a
+		}
+		at, atPos = t.sp.Start, a
 		if b.Line > a.Line {
-			b = m.OffsetPosition(m.LineEnd(a.Line), enc)
+			b = m.OffsetPositionFrom(t.sp.Start, a, m.LineEnd(a.Line), enc)
 		}
 		length := b.Col - a.Col
 		if length <= 0 {
