@@ -322,13 +322,15 @@ func (r *resolver) declareLoop(file string, st *Stmt) {
 		// compHeads, one at a time; the loop's block keeps only the
 		// loop's own statements, so that it does not hold the heads of a
 		// large loop: each went as it was declared.
-		keep := st.Block.Stmts[:0]
+		// A list of their own: the block's list, a pointer a statement,
+		// would stay whole under the few kept.
+		var keep []*Stmt
 		for _, s := range st.Block.Stmts {
 			if s != nil {
 				keep = append(keep, s)
 			}
 		}
-		clear(st.Block.Stmts[len(keep):])
+		clear(st.Block.Stmts)
 		st.Block.Stmts = keep
 	}
 }
