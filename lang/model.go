@@ -15,24 +15,30 @@ import (
 // written): Set is then false and nothing may be computed from it.
 //
 // Where the value was written is kept in the value itself (File, Span and
-// Unit are methods): the offsets of the expression and one pointer to the
-// file and the unit, which the values written in one file with one unit
-// share. A value is 32 bytes, written or not: a file writes hundreds of
-// thousands of values, and a place of their own would cost another 24
-// bytes and a pointer each.
+// Unit are methods): the offset and length of the expression and one
+// pointer to the file and the unit, which the values written in one file
+// with one unit share. A value is 24 bytes, written or not: a file writes
+// hundreds of thousands of values, and a place of their own would cost
+// another 24 bytes and a pointer each.
 type Value struct {
-	SI         float64
-	Set        bool
-	Bad        bool
-	start, end int32 // the expression as written
-	at         *site // nil for a value the file did not write
+	SI    float64
+	Set   bool
+	Bad   bool
+	n     uint16 // the expression's length as written (longSpan: see site.end)
+	start int32  // where the expression starts
+	at    *site  // nil for a value the file did not write
 }
+
+// longSpan is the length of a value's expression that is at least that
+// long: its end is kept in a site of its own.
+const longSpan = 1<<16 - 1
 
 // site is the file a value or a vector was written in and the unit it was
 // written with. No file is longer than MaxFileSize, so int32 offsets do.
 type site struct {
 	file *string
 	unit *string // the unit as written (nil for bare numbers)
+	end  int32   // the end of an expression of longSpan bytes or more (else 0)
 }
 
 // unitText returns the unit as written ("" for bare numbers).
@@ -43,11 +49,30 @@ func (s *site) unitText() string {
 	return *s.unit
 }
 
+// spanAt returns the span of the expression at start of length n, as a
+// value keeps it with its site s.
+func spanAt(start int32, n uint16, s *site) Span {
+	if n == longSpan {
+		return Span{int(start), int(s.end)}
+	}
+	return Span{int(start), int(start) + int(n)}
+}
+
+// spanLen returns the length a value keeps of span and the end its site
+// keeps (0 for a span shorter than longSpan).
+func spanLen(span Span) (uint16, int32) {
+	if l := span.End - span.Start; l >= 0 && l < longSpan {
+		return uint16(l), 0
+	}
+	return longSpan, int32(span.End)
+}
+
 // At returns v written at span of file with the unit text unit ("" for a
 // bare number).
 func (v Value) At(file string, span Span, unit string) Value {
-	v.at = &site{file: &file, unit: &unit}
-	v.start, v.end = int32(span.Start), int32(span.End)
+	st := site{file: &file, unit: &unit}
+	v.n, st.end = spanLen(span)
+	v.start, v.at = int32(span.Start), &st
 	return v
 }
 
@@ -65,7 +90,7 @@ func (v Value) Span() Span {
 	if v.at == nil {
 		return Span{}
 	}
-	return Span{int(v.start), int(v.end)}
+	return spanAt(v.start, v.n, v.at)
 }
 
 // Unit returns the unit as written ("" for bare numbers and defaults).
@@ -87,17 +112,19 @@ func (v Value) Loc() Location {
 // Vec is a vector in SI units in the equipment frame (x forward, y left, z up).
 // Bad is as for Value, and so are File, Span and Unit.
 type Vec struct {
-	X, Y, Z    float64
-	Set        bool
-	Bad        bool
-	start, end int32
-	at         *site
+	X, Y, Z float64
+	Set     bool
+	Bad     bool
+	n       uint16
+	start   int32
+	at      *site
 }
 
 // At returns v written at span of file with the unit text unit.
 func (v Vec) At(file string, span Span, unit string) Vec {
-	v.at = &site{file: &file, unit: &unit}
-	v.start, v.end = int32(span.Start), int32(span.End)
+	st := site{file: &file, unit: &unit}
+	v.n, st.end = spanLen(span)
+	v.start, v.at = int32(span.Start), &st
 	return v
 }
 
@@ -114,7 +141,7 @@ func (v Vec) Span() Span {
 	if v.at == nil {
 		return Span{}
 	}
-	return Span{int(v.start), int(v.end)}
+	return spanAt(v.start, v.n, v.at)
 }
 
 // Unit returns the unit written after the parenthesis ("" for none).

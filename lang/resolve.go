@@ -222,21 +222,24 @@ type resolver struct {
 // atV returns v written at span of file with the unit text unit, its
 // site the resolver's one of that file and unit.
 func (r *resolver) atV(v Value, file string, span Span, unit string) Value {
-	v.at = r.siteOf(file, unit)
-	v.start, v.end = int32(span.Start), int32(span.End)
+	var end int32
+	v.n, end = spanLen(span)
+	v.start, v.at = int32(span.Start), r.siteOf(file, unit, end)
 	return v
 }
 
 // atVec is atV for a vector.
 func (r *resolver) atVec(v Vec, file string, span Span, unit string) Vec {
-	v.at = r.siteOf(file, unit)
-	v.start, v.end = int32(span.Start), int32(span.End)
+	var end int32
+	v.n, end = spanLen(span)
+	v.start, v.at = int32(span.Start), r.siteOf(file, unit, end)
 	return v
 }
 
-// siteOf returns the resolver's one site of file and the unit text unit.
-func (r *resolver) siteOf(file, unit string) *site {
-	k := site{file: r.path(file), unit: r.unitOf(unit)}
+// siteOf returns the resolver's one site of file, the unit text unit and
+// the end of a long expression (0 for another).
+func (r *resolver) siteOf(file, unit string, end int32) *site {
+	k := site{file: r.path(file), unit: r.unitOf(unit), end: end}
 	if r.lastSite != nil && *r.lastSite == k {
 		return r.lastSite // most values follow one of the same file and unit
 	}

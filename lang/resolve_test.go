@@ -212,3 +212,26 @@ func TestClosestSkipsFarLengths(t *testing.T) {
 		}
 	}
 }
+
+// A value whose expression is 64 KiB or longer keeps its whole span: the
+// span is the text of the expression, whichever way the file is loaded.
+func TestLongValueSpan(t *testing.T) {
+	expr := "1 mm" + strings.Repeat(" + 1 mm", 10000)
+	src := "param p = " + expr + "\nparam q = 2 mm\n"
+	start := len("param p = ")
+	for _, m := range []*Model{LoadSource("l.loop", []byte(src), nil), LoadSourceModel("l.loop", []byte(src), nil)} {
+		if len(m.Diags) != 0 {
+			t.Fatalf("diags %v", m.Diags)
+		}
+		p, q := m.Params[0].Value, m.Params[1].Value
+		if got, want := p.Span(), (Span{start, start + len(expr)}); got != want || p.File() != "l.loop" || !p.Set {
+			t.Errorf("long value at %v in %q (set %v), want %v in l.loop", got, p.File(), p.Set, want)
+		}
+		if got := src[q.Span().Start:q.Span().End]; got != "2 mm" || q.Unit() != "mm" {
+			t.Errorf("short value %q with unit %q, want \"2 mm\" with mm", got, q.Unit())
+		}
+	}
+	if v := (Value{}).At("f", Span{3, 3 + 70000}, "m"); v.Span() != (Span{3, 70003}) || v.File() != "f" || v.Unit() != "m" {
+		t.Errorf("At kept %v in %q with %q", v.Span(), v.File(), v.Unit())
+	}
+}
