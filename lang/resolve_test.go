@@ -6,6 +6,7 @@ import (
 	"io/fs"
 	"path/filepath"
 	"regexp"
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
@@ -233,5 +234,57 @@ func TestLongValueSpan(t *testing.T) {
 	}
 	if v := (Value{}).At("f", Span{3, 3 + 70000}, "m"); v.Span() != (Span{3, 70003}) || v.File() != "f" || v.Unit() != "m" {
 		t.Errorf("At kept %v in %q with %q", v.Span(), v.File(), v.Unit())
+	}
+}
+
+// Refs yields each declaration and use of a name once, with its kind, its
+// loop for nodes and components, and the span of the name as written;
+// a duplicate's ends are uses too, though the model keeps no duplicate.
+func TestRefs(t *testing.T) {
+	src := `param d = 8 mm
+part tube { bore d }
+loop l {
+  fluid water
+  node a at (0, 0, 0) mm
+  node b
+  pipe p from a to b { use tube; length 1 m }
+  pipe p from b to a { length 2 * d }
+  evaporator e from b to zz { heat 10 W }
+}
+case c nominal { heat e 5 W }
+`
+	want := []string{
+		"param d decl", "part tube decl",
+		"node a decl l", "node b decl l",
+		"node a use l", "node b use l", "component p decl l",
+		"node b use l", "component e decl l",
+		"case c decl",
+		"param d use",                  // in the part, read for the pipe that uses it
+		"node b use l", "node a use l", // the duplicate's ends
+		"fluid water use l",
+		"part tube use",
+		"component e use l",
+		// The duplicate's fields are not read: its "2 * d" uses nothing.
+	}
+	for _, load := range []func(string, []byte, FS) *Model{LoadSource, LoadSourceModel} {
+		m := load("r.loop", []byte(src), nil)
+		var got []string
+		for r := range m.Refs() {
+			if text := src[r.Span().Start:r.Span().End]; text != r.Name || r.File() != "r.loop" {
+				t.Errorf("ref %s at %v in %q reads %q", r.Name, r.Span(), r.File(), text)
+			}
+			kind := [...]string{"param", "node", "component", "case", "part", "fluid"}[r.Kind]
+			s := kind + " " + r.Name + map[bool]string{true: " decl", false: " use"}[r.IsDecl]
+			if r.Loop != nil {
+				s += " " + r.Loop.Name
+			}
+			got = append(got, s)
+		}
+		slices.Sort(got)
+		w := slices.Clone(want)
+		slices.Sort(w)
+		if !slices.Equal(got, w) {
+			t.Errorf("refs\n%s\nwant\n%s", strings.Join(got, "\n"), strings.Join(w, "\n"))
+		}
 	}
 }
