@@ -337,11 +337,25 @@ func fileDiags(snap *snapshot, full bool) map[string][]lang.Diagnostic {
 			}
 		}
 	}
-	for _, ds := range out {
+	for path, ds := range out {
 		sort.SliceStable(ds, func(i, j int) bool { return ds[i].Loc.Span.Start < ds[j].Loc.Span.Start })
+		if len(ds) > MaxPublished {
+			rest := ds[MaxPublished-1]
+			ds = append(ds[:MaxPublished-1], lang.Diagnostic{Severity: lang.Info,
+				Loc:    lang.Location{File: rest.Loc.File, Span: rest.Loc.Span},
+				Format: "%d more findings in this file from here on are not shown; `circa check` lists them all",
+				Args:   []any{len(ds) - (MaxPublished - 1)}})
+			out[path] = ds
+		}
 	}
 	return out
 }
+
+// MaxPublished bounds the findings published for one file: a file that
+// includes itself ten thousand times has as many findings, which an
+// editor would be sent again, some megabytes, after each edit. The last
+// one published says how many more there are.
+const MaxPublished = 1000
 
 // publish sends every file's findings whose content or version changed since
 // the last publication. Files no longer reported get an empty list.

@@ -3,10 +3,14 @@ package lsp
 import (
 	"encoding/json"
 	"fmt"
+	"os"
+	"path/filepath"
 	"strings"
 	"testing"
 	"time"
 	"unicode/utf16"
+
+	"circa/lang"
 )
 
 // hostileTexts are documents a careless or hostile user may open: lines of
@@ -138,4 +142,44 @@ func TestHostileDocuments(t *testing.T) {
 			}
 		})
 	}
+}
+
+// TestHostileIncludes opens the first file of a chain of 100 files, each
+// including the next, and a file that includes itself 10,000 times: the
+// include one level too deep is reported in its own file, and the
+// findings published for the self-including one are bounded, the last
+// saying how many more there are.
+func TestHostileIncludes(t *testing.T) {
+	dir := t.TempDir()
+	for i := range 100 {
+		if err := os.WriteFile(filepath.Join(dir, fmt.Sprintf("f%d.loop", i)), fmt.Appendf(nil, "include \"f%d.loop\"\n", i+1), 0o644); err != nil {
+			t.Fatal(err)
+		}
+	}
+	self := strings.Repeat("include \"self.loop\"\n", 10_000)
+	if err := os.WriteFile(filepath.Join(dir, "self.loop"), []byte(self), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	c := newTestClient(t, Options{Debounce: -1})
+	c.patience = 2 * time.Minute
+	c.initialize(nil)
+	root := "file://" + filepath.Join(dir, "f0.loop")
+	c.notify("textDocument/didOpen", map[string]any{"textDocument": map[string]any{"uri": root, "languageId": "loop", "version": 1, "text": "include \"f1.loop\"\n"}})
+	c.settle()
+	deep := "file://" + filepath.Join(dir, fmt.Sprintf("f%d.loop", lang.MaxIncludeDepth))
+	p, _ := c.published(deep)
+	if len(p.Diagnostics) != 1 || !strings.Contains(string(p.Diagnostics[0]), fmt.Sprintf("more than %d levels", lang.MaxIncludeDepth)) {
+		t.Errorf("%s: %s", deep, p.Diagnostics)
+	}
+	uri := "file://" + filepath.Join(dir, "self.loop")
+	c.notify("textDocument/didOpen", map[string]any{"textDocument": map[string]any{"uri": uri, "languageId": "loop", "version": 1, "text": self}})
+	c.settle()
+	p, _ = c.published(uri)
+	if len(p.Diagnostics) != MaxPublished {
+		t.Fatalf("%d findings published, want %d", len(p.Diagnostics), MaxPublished)
+	}
+	if last := string(p.Diagnostics[MaxPublished-1]); !strings.Contains(last, fmt.Sprintf("%d more findings", 10_000-MaxPublished+1)) {
+		t.Errorf("last finding published: %s", last)
+	}
+	c.mustCall("textDocument/documentSymbol", map[string]any{"textDocument": map[string]any{"uri": uri}})
 }
