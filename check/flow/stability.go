@@ -23,6 +23,15 @@ import (
 // branch is statically stable when S + R_ext > 0; for two parallel channels
 // A, B closed by the rest R of the loop, R_ext = S_B S_R/(S_B + S_R).
 //
+// That test takes the rest as a passive network and misses modes that move
+// flow among branches which are themselves unstable: two channels of slope
+// −150 closed by a return of +100 each see an external slope of −300 and
+// pass, while shifting flow from one channel to the other changes the loop
+// balance by S_A + S_B = −300 < 0. The network's operating point is
+// statically stable when the Jacobian of the cycle balances with respect to
+// the cycle flows, Cᵀ diag(S) C with C the branch–cycle incidence, is
+// positive definite; staticMode finds its least mode.
+//
 // Density-wave oscillations: the phase-change and subcooling numbers of
 // Ishii (1971, Ph.D. thesis, Georgia Institute of Technology; Saha, Ishii and
 // Zuber 1976, J. Heat Transfer 98:616), N_pch = Q/(ṁ h_fg)·Δρ/ρ_g and
@@ -46,6 +55,19 @@ type Stability struct {
 	// per unit heat differs by more than MaldistributionRatio, or one of
 	// which is statically unstable.
 	Maldistribution []string `json:"maldistribution,omitempty"`
+	// Mode is the least static mode of a network's cycle balances when it
+	// is unstable; ModeNote says why the modes were not checked.
+	Mode     *StaticMode `json:"unstable_mode,omitempty"`
+	ModeNote string      `json:"mode_note,omitempty"`
+}
+
+// StaticMode is a pattern of branch flow shifts around the network's cycles
+// along which the balance falls: Slope is Σ S_b δṁ_b² / Σ δṁ_b² over the
+// mode's branch shifts δṁ, Pa/(kg/s), negative when unstable.
+type StaticMode struct {
+	Slope float64  `json:"slope"`
+	Gain  []string `json:"gain"` // branches whose flow the mode raises, by their first component
+	Lose  []string `json:"lose"` // branches whose flow it lowers
 }
 
 // BranchStability is the static stability of one network branch.
@@ -199,7 +221,12 @@ func (p *prepared) branchStability(s *state, ev *eval, cr *CaseResult, st *Stabi
 		perHeat  []float64
 		unstable bool
 	}
+	mode, modeFlow, checked := staticMode(nb, n.cycles, slopes)
+	if !checked {
+		st.ModeNote = fmt.Sprintf("the network's static modes were not checked (%d independent cycles, more than %d); each branch was checked against the rest of the network", len(n.cycles), maxModeCycles)
+	}
 	groups := map[[2]int]*group{}
+	anyBranch := false
 	var keys [][2]int // in order of first appearance, for a stable output
 	for bi, b := range n.branches {
 		ext := -externalSlope(n.nj, from, to, slopes, bi, b.from, b.to)
@@ -227,7 +254,32 @@ func (p *prepared) branchStability(s *state, ev *eval, cr *CaseResult, st *Stabi
 			g.names = append(g.names, name)
 			g.first = append(g.first, bs.Components[0])
 			g.perHeat = append(g.perHeat, ev.mb[bi]/heat)
-			g.unstable = g.unstable || !bs.Stable
+			g.unstable = g.unstable || !bs.Stable || (mode != nil && modeFlow[bi] != 0)
+		}
+		anyBranch = anyBranch || !bs.Stable
+	}
+	if mode != nil {
+		for bi, b := range n.branches {
+			d := modeFlow[bi]
+			if ev.mb[bi] < 0 {
+				d = -d // a gain is more flow in the branch's own direction
+			}
+			if d > 0 {
+				mode.Gain = append(mode.Gain, n.comps[b.legs[0].ci].name)
+			} else if d < 0 {
+				mode.Lose = append(mode.Lose, n.comps[b.legs[0].ci].name)
+			}
+		}
+		st.Mode = mode
+		if !anyBranch {
+			// Each branch passes against the rest; the mode is what is unstable.
+			first := mode.Gain
+			if len(first) == 0 {
+				first = mode.Lose
+			}
+			cr.Findings = append(cr.Findings, p.finding(RuleUnstable, "warning", cr.Case, first[0], mode.Slope, 0, "Pa/(kg/s)", "",
+				"case %s is statically unstable (Ledinegg) in a mode that shifts flow from the branches at %s to those at %s: along it the loop balances change by %.4g Pa per kg/s, below zero, though each branch alone passes against the rest of the network",
+				cr.Case, strings.Join(mode.Lose, ", "), strings.Join(mode.Gain, ", "), mode.Slope))
 		}
 	}
 	for _, k := range keys {
@@ -257,6 +309,84 @@ func (p *prepared) branchStability(s *state, ev *eval, cr *CaseResult, st *Stabi
 				"%s in case %s (limit %.2f): the weaker channels run at higher quality and nearer dryout", msg, cr.Case, MaldistributionRatio))
 		}
 	}
+}
+
+// maxModeCycles is the most independent cycles whose static modes
+// staticMode checks by a dense eigen-decomposition; larger networks keep the
+// branch-by-branch test only.
+const maxModeCycles = 48
+
+// staticMode returns the least mode of the cycle balances' Jacobian
+// Cᵀ diag(S) C when it is not positive definite, with its branch flow
+// shifts (zero on the branches it barely moves), or nil when every mode
+// rises. The cycle basis is made orthonormal in branch flows first, so the
+// mode's slope Σ S δṁ² / Σ δṁ² does not depend on the spanning tree the
+// cycles came from; positive definiteness does not either (Sylvester's law
+// of inertia). checked is false for more than maxModeCycles cycles.
+func staticMode(nb int, cycles [][]term, slopes []float64) (mode *StaticMode, flow []float64, checked bool) {
+	nc := len(cycles)
+	if nc == 0 {
+		return nil, nil, true
+	}
+	if nc > maxModeCycles {
+		return nil, nil, false
+	}
+	C := mat.NewDense(nb, nc, nil)
+	for k, cyc := range cycles {
+		for _, t := range cyc {
+			C.Set(t.i, k, t.c)
+		}
+	}
+	var qr mat.QR
+	qr.Factorize(C)
+	var qf mat.Dense
+	qr.QTo(&qf)
+	Q := qf.Slice(0, nb, 0, nc)
+	SQ := mat.NewDense(nb, nc, nil)
+	scale := 0.0
+	for b := 0; b < nb; b++ {
+		scale = math.Max(scale, math.Abs(slopes[b]))
+		for k := 0; k < nc; k++ {
+			SQ.Set(b, k, slopes[b]*Q.At(b, k))
+		}
+	}
+	M := mat.NewSymDense(nc, nil)
+	for i := 0; i < nc; i++ {
+		for j := i; j < nc; j++ {
+			var v float64
+			for b := 0; b < nb; b++ {
+				v += Q.At(b, i) * SQ.At(b, j)
+			}
+			M.SetSym(i, j, v)
+		}
+	}
+	var es mat.EigenSym
+	if !es.Factorize(M, true) {
+		return nil, nil, true
+	}
+	vals := es.Values(nil)
+	if !(vals[0] < -1e-9*scale) {
+		return nil, nil, true
+	}
+	var vecs mat.Dense
+	es.VectorsTo(&vecs)
+	flow = make([]float64, nb)
+	big := 0.0
+	for b := 0; b < nb; b++ {
+		for k := 0; k < nc; k++ {
+			flow[b] += Q.At(b, k) * vecs.At(k, 0)
+		}
+		if math.Abs(flow[b]) > math.Abs(big)*(1+1e-9) {
+			big = flow[b] // the first of the largest shifts, taken as a gain
+		}
+	}
+	for b := range flow {
+		flow[b] /= big
+		if math.Abs(flow[b]) < 0.5 {
+			flow[b] = 0 // not among the mode's dominant branches
+		}
+	}
+	return &StaticMode{Slope: vals[0]}, flow, true
 }
 
 // channelStability evaluates Ishii's density-wave numbers for every heated

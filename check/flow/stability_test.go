@@ -91,3 +91,46 @@ func TestGeyseringIndicator(t *testing.T) {
 		}
 	}
 }
+
+// TestStaticModeParallelUnstable: two channels A and B, both from junction 0
+// to junction 1, closed by a return R from 1 to 0, with slopes S_A = S_B =
+// −150 and S_R = +100 Pa/(kg/s) (numbers chosen for the arithmetic). Seen
+// from A, B and R in series around it give an external slope of
+// −S_B S_R/(S_B + S_R) = −(−150·100)/(−50) = −300, and S_A = −150 > −300
+// passes; B likewise. But shifting δ from B to A (δṁ = (+1, −1, 0), R
+// unchanged) changes the balance of the cycle A − B by S_A + S_B = −300:
+// unstable. Over the cycle space {δṁ_R = δṁ_A + δṁ_B} the Rayleigh quotient
+// Σ S δṁ² / Σ δṁ² is (−150 − 150)/2 = −150 along that mode and
+// (−150 − 150 + 4·100)/6 = 16.67 along (1, 1, 2), the mode orthogonal to
+// it: one negative eigenvalue, −150.
+func TestStaticModeParallelUnstable(t *testing.T) {
+	bs := []branch{{from: 0, to: 1}, {from: 0, to: 1}, {from: 1, to: 0}}
+	from, to := []int{0, 0, 1}, []int{1, 1, 0}
+	slopes := []float64{-150, -150, 100}
+	for _, bi := range []int{0, 1} {
+		ext := -externalSlope(2, from, to, slopes, bi, from[bi], to[bi])
+		if math.Abs(ext+300) > 1e-9 || !(slopes[bi] > ext) {
+			t.Errorf("branch %d: external slope %g, want −300, passing the branch test", bi, ext)
+		}
+	}
+	cycles, _ := fundamentalCycles(2, bs)
+	mode, flow, checked := staticMode(3, cycles, slopes)
+	if !checked || mode == nil {
+		t.Fatalf("no unstable mode: %v %v", mode, checked)
+	}
+	if math.Abs(mode.Slope+150) > 1e-9 {
+		t.Errorf("mode slope %g Pa/(kg/s), hand-worked −150", mode.Slope)
+	}
+	if math.Abs(math.Abs(flow[0])-1) > 1e-9 || math.Abs(flow[0]+flow[1]) > 1e-9 || flow[2] != 0 {
+		t.Errorf("mode shifts %v, want ±(1, −1, 0)", flow)
+	}
+	// With channel slopes +150 every mode rises: no mode.
+	if m, _, _ := staticMode(3, cycles, []float64{150, 150, 100}); m != nil {
+		t.Errorf("rising channels flagged: %+v", m)
+	}
+	// A single cycle keeps the branch test: its one mode is Σ S.
+	one, _ := fundamentalCycles(2, bs[1:])
+	if m, _, _ := staticMode(2, one, []float64{-150, 100}); m == nil || math.Abs(m.Slope+25) > 1e-9 {
+		t.Errorf("single cycle of −150 and +100: %+v, want (−150 + 100)/2 = −25", m)
+	}
+}

@@ -626,6 +626,13 @@ func stabilityText(w io.Writer, c *flow.CaseResult) {
 		} else {
 			parts = append(parts, fmt.Sprintf("%d of %d branches statically unstable (Ledinegg)", bad, n))
 		}
+		if md := st.Mode; md != nil && bad == 0 {
+			parts[len(parts)-1] = fmt.Sprintf("each of %d branches stable against the rest, but the mode shifting flow from %s to %s statically unstable (Ledinegg, slope %s Pa/(kg/s))",
+				n, strings.Join(md.Lose, ", "), strings.Join(md.Gain, ", "), sigZeros(md.Slope, 3))
+		}
+		if st.ModeNote != "" {
+			parts = append(parts, st.ModeNote)
+		}
 	}
 	for _, ch := range st.Channels {
 		s := fmt.Sprintf("%s N_pch − N_sub %s against the density-wave boundary %s", ch.Component, sigZeros(ch.Npch-ch.Nsub, 3), sigZeros(ch.Boundary, 3))
