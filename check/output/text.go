@@ -86,7 +86,9 @@ func caret(b *strings.Builder, m *lang.Model, loc lang.Location, s, e Pos, paint
 	if mp == nil {
 		return
 	}
-	text := mp.LineText(s.Line - 1)
+	// The line is read in place: a copy of a line of a megabyte for each
+	// finding on it was most of what printing them allocated.
+	text := mp.Text()[mp.LineStart(s.Line-1):mp.LineEnd(s.Line-1)]
 	var line, pad strings.Builder
 	n := 0 // printed width of the span
 	last := s.Char
@@ -105,7 +107,7 @@ func caret(b *strings.Builder, m *lang.Model, loc lang.Location, s, e Pos, paint
 	char := 1 // 1-based character of text being printed
 	for i := 0; i < len(text); char++ {
 		if char < lo {
-			_, size := utf8.DecodeRuneInString(text[i:])
+			_, size := utf8.DecodeRune(text[i:])
 			i += size
 			continue
 		}
@@ -113,10 +115,10 @@ func caret(b *strings.Builder, m *lang.Model, loc lang.Location, s, e Pos, paint
 			line.WriteString("…")
 			break
 		}
-		r, size := utf8.DecodeRuneInString(text[i:])
+		r, size := utf8.DecodeRune(text[i:])
 		shown := escaped(r, size, text[i])
 		if shown == "" {
-			shown = text[i : i+size]
+			shown = string(text[i : i+size])
 		}
 		line.WriteString(shown)
 		width := utf8.RuneCountInString(shown)
