@@ -48,7 +48,7 @@ case overload { heat plate 3 kW }
 	if got := src[exit.Loc.Span.Start:exit.Loc.Span.End]; got != "plate" {
 		t.Errorf("finding at %q, want the component name", got)
 	}
-	if !strings.Contains(exit.Message(), "overload") || !strings.Contains(exit.Message(), "the limit 0.1 ") {
+	if !strings.Contains(exit.Message(), "overload") || !strings.Contains(exit.Message(), "the limit 0.100 ") {
 		t.Errorf("message %q lacks the case or the limit", exit.Message())
 	}
 	if len(exit.Related) != 2 {

@@ -155,7 +155,7 @@ func (p *prepared) margins(s *state, cr *CaseResult, f []float64) {
 			case x > xl:
 				m.Status = "warning"
 				cr.Findings = append(cr.Findings, p.finding(RuleExitQuality, "warning", cr.Case, cp.name, x, xl, "", "exit_quality",
-					"exit quality %.3g at evaporator %s in case %s exceeds the limit %.3g%s", x, cp.name, cr.Case, xl, p.starvedNote(cr, ci)))
+					"exit quality %s at evaporator %s in case %s exceeds the limit %s%s", units.Sig(x, 3), cp.name, cr.Case, units.Sig(xl, 3), p.starvedNote(cr, ci)))
 			default:
 				m.Status = "ok"
 			}
@@ -175,8 +175,8 @@ func (p *prepared) margins(s *state, cr *CaseResult, f []float64) {
 						sev = "error"
 					}
 					cr.Findings = append(cr.Findings, p.finding(RuleCHF, sev, cr.Case, cp.name, ratio, rl, "", "chf_ratio",
-						"critical heat flux ratio %.3g at evaporator %s in case %s is below the limit %.3g (wall flux %.3g W/cm², %s)",
-						ratio, cp.name, cr.Case, rl, qw/1e4, form))
+						"critical heat flux ratio %s at evaporator %s in case %s is below the limit %s (wall flux %.3g W/cm², %s)",
+						units.Sig(ratio, 3), cp.name, cr.Case, units.Sig(rl, 3), qw/1e4, form))
 				}
 				// Wall temperature, and the device's junction above it.
 				_, stack := cp.c.StackResistance()
@@ -273,13 +273,13 @@ func (p *prepared) lossReserve(s *state, cr *CaseResult, f []float64) {
 		// Already above the limit as estimated: the exit-quality margin
 		// says so; this one reports only a design that loses the limit.
 		if x0 <= xl {
-			from := fmt.Sprintf("%.3g", x0)
+			from := units.Sig(x0, 3)
 			if x0 < 0 {
 				// A subcooled outlet (local saturation): "-0.00" would hide it.
 				from = fmt.Sprintf("a subcooled outlet (x = %.2g)", x0)
 			}
 			cr.Findings = append(cr.Findings, p.finding(RuleHead, "warning", cr.Case, where, xk, xl, "", "head_ratio",
-				"with friction and local losses %.2g times the estimate, the exit quality of evaporator %s rises from %s to %.3g, above the limit %.3g, in case %s", k, where, from, xk, xl, cr.Case))
+				"with friction and local losses %.2g times the estimate, the exit quality of evaporator %s rises from %s to %s, above the limit %s, in case %s", k, where, from, units.Sig(xk, 3), units.Sig(xl, 3), cr.Case))
 		}
 	}
 	if m.Use > 1e300 {
@@ -363,8 +363,8 @@ func (p *prepared) floodMargin(cr *CaseResult, cp *comp, f float64) {
 			sev = "error"
 		}
 		cr.Findings = append(cr.Findings, p.finding(RuleFlooding, sev, cr.Case, cp.name, f, fl, "", "flooding",
-			"flooding fraction %.3g in %s %s in case %s exceeds the limit %.3g (Wallis, vapour and liquid counter-current)",
-			f, cp.kind, cp.name, cr.Case, fl))
+			"flooding fraction %s in %s %s in case %s exceeds the limit %s (Wallis, vapour and liquid counter-current)",
+			units.Sig(f, 3), cp.kind, cp.name, cr.Case, units.Sig(fl, 3)))
 	}
 }
 

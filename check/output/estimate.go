@@ -191,7 +191,7 @@ func unitValue(v float64, unit string) string {
 	case "K":
 		return temperature(v)
 	case "Pa":
-		return fixed(v/1e5, 2) + " bar abs"
+		return pressureAs(v, "")
 	case "rad":
 		return fixed(deg(v), 1) + "°"
 	case "W":
@@ -199,7 +199,9 @@ func unitValue(v float64, unit string) string {
 	case "kg":
 		return sig(v, 3) + " kg"
 	}
-	return sig(v, 3)
+	// Ratios and qualities keep their trailing zeros (0.500, 2.00), as the
+	// findings and the check's summary print them beside a 0.605.
+	return sigZeros(v, 3)
 }
 
 func caseHeader(c *flow.CaseResult) string {
