@@ -68,12 +68,13 @@ type parser struct {
 	errLine int
 	// deepBlocks is set once nesting too deep has been reported
 	deepBlocks bool
-	// deep are the blocks open inside the block of edge, the statement
+	// deep are the blocks open inside edge, the block of the statement
 	// that opened one block more than MaxNesting: they are not in the
 	// tree, and only what closing them and reporting them never closed
-	// needs is kept.
+	// needs is kept. The block, not its statement, whose nodes a sink
+	// hands out again once it is written.
 	deep        deepStack
-	edge        *Stmt
+	edge        *Block
 	nodes       nodes // the fast path's node chunks
 	grammarOnly bool  // parse every statement with the grammar
 	tooMany     bool  // MaxErrors reached: no more errors, no explanations
@@ -278,7 +279,7 @@ func (p *parser) push(s *Stmt) {
 			p.errorf(Span{s.Block.Open, s.Block.Open + 1}, "blocks nested too deeply: more than %d levels", MaxNesting)
 		}
 		if p.deep.n == 0 {
-			p.edge = s
+			p.edge = s.Block
 		}
 		p.pushDeep(s.Block.Open, wordStart(s))
 		return
@@ -360,7 +361,7 @@ func (p *parser) close(sp Span) {
 	if p.deep.n > 0 {
 		p.deep.pop()
 		if p.deep.n == 0 {
-			p.edge.Block.Close = sp.Start
+			p.edge.Close = sp.Start
 			p.edge = nil
 		}
 		return

@@ -187,6 +187,9 @@ func TestParseDeepBlocks(t *testing.T) {
 	if len(f.Stmts) != 2 || f.Stmts[1].Keyword() != "c" || len(f.Stmts[1].Block.Stmts) != 1 {
 		t.Errorf("the statement after the deep blocks is not read: %d statements", len(f.Stmts))
 	}
+	// Formatting from the text (circa fmt) reads them the same way.
+	_, ff := FormatSource("deep.loop", []byte(src))
+	checkErrs(t, ff, []string{itoa(MaxNesting+1) + ":3 blocks nested too deeply"})
 	// Those never closed below the limit are reported as those above it,
 	// innermost first, with their words.
 	src = strings.Repeat("a {\n", MaxNesting-3) + strings.Repeat("ab {\n", 5)
