@@ -217,7 +217,7 @@ func riseExceedsLength(c *Context) {
 		if !ok || comp.To == nil {
 			continue
 		}
-		dz := c.Layout.Disp[comp.Index][2]
+		dz := c.Layout.Disp(comp.Index)[2]
 		if comp.Rise.Set {
 			dz = comp.Rise.SI
 		} else if c.Layout.Source[comp.Index] == geom.FromRise {
@@ -246,7 +246,7 @@ func spanExceedsLength(c *Context) {
 		if !ok || comp.To == nil || src == geom.FromRise {
 			continue
 		}
-		disp := c.Layout.Disp[comp.Index]
+		disp := c.Layout.Disp(comp.Index)
 		if !comp.Rise.Set && math.Abs(disp[2]) > L+riseTol {
 			continue // reported as rise-exceeds-length
 		}
@@ -263,7 +263,7 @@ func riseMismatch(c *Context) {
 		if !comp.Rise.Set || comp.To == nil || src == geom.FromRise {
 			continue
 		}
-		dz := c.Layout.Disp[comp.Index][2]
+		dz := c.Layout.Disp(comp.Index)[2]
 		L, _ := lengthOf(comp)
 		if math.Abs(comp.Rise.SI-dz) <= agreeTol(L) {
 			continue
@@ -280,7 +280,7 @@ func runMismatch(c *Context) {
 		if !comp.Run.Set || comp.From == nil || comp.To == nil || c.Layout.Source[comp.Index] != geom.FromCoords {
 			continue
 		}
-		coords := c.Layout.Disp[comp.Index]
+		coords := c.Layout.Disp(comp.Index)
 		run := geom.Vec3{comp.Run.X, comp.Run.Y, comp.Run.Z}
 		L, _ := lengthOf(comp)
 		off := run.Sub(coords).Norm()
@@ -305,20 +305,20 @@ func riseMisclosure(c *Context) {
 	// Height of every node along the spanning forest, from the rises.
 	h := make([]float64, len(l.Nodes))
 	for _, v := range g.Order {
-		p, v := g.Parent[v], int(v)
+		p, v := int(g.Parent[v]), int(v)
 		if p < 0 {
 			continue
 		}
 		comp := l.Components[p]
 		if comp.To.Index == v {
-			h[v] = h[comp.From.Index] + lay.Disp[p][2]
+			h[v] = h[comp.From.Index] + lay.Disp(p)[2]
 		} else {
-			h[v] = h[comp.To.Index] - lay.Disp[p][2]
+			h[v] = h[comp.To.Index] - lay.Disp(p)[2]
 		}
 	}
 	for _, ch := range g.Chords {
 		comp := l.Components[ch]
-		mis := h[comp.From.Index] + lay.Disp[ch][2] - h[comp.To.Index]
+		mis := h[comp.From.Index] + lay.Disp(ch)[2] - h[comp.To.Index]
 		if math.Abs(mis) <= closureAbs {
 			continue
 		}
@@ -326,7 +326,7 @@ func riseMisclosure(c *Context) {
 		sum, abs := 0.0, 0.0
 		at := -1
 		for _, s := range cyc {
-			dz := float64(s.Sign) * lay.Disp[s.Comp][2]
+			dz := float64(s.Sign) * lay.Disp(s.Comp)[2]
 			sum += dz
 			abs += math.Abs(dz)
 			if lay.Source[s.Comp] != geom.FromCoords && (at < 0 || s.Comp < at) {
@@ -351,7 +351,7 @@ func riseMisclosure(c *Context) {
 			if sc.Rise.Set && sc.Rise.File() != "" {
 				loc = sc.Rise.Loc()
 			}
-			rel = append(rel, lang.Related{Loc: loc, Message: fmt.Sprintf("%s %s: %s %s (from %s)", sc.Kind, sc.Name, dir, qs(float64(s.Sign)*lay.Disp[s.Comp][2], "m"), where(sc, lay.Source[s.Comp]))})
+			rel = append(rel, lang.Related{Loc: loc, Message: fmt.Sprintf("%s %s: %s %s (from %s)", sc.Kind, sc.Name, dir, qs(float64(s.Sign)*lay.Disp(s.Comp)[2], "m"), where(sc, lay.Source[s.Comp]))})
 		}
 		loc := compLoc(first)
 		if first.Rise.Set && first.Rise.File() != "" {
@@ -387,7 +387,7 @@ func runMisclosure(c *Context) {
 				break
 			}
 			fromRun = fromRun || lay.Source[s.Comp] == geom.FromRun
-			d := lay.Disp[s.Comp].Scale(float64(s.Sign))
+			d := lay.Disp(s.Comp).Scale(float64(s.Sign))
 			d[2] = 0
 			sum = sum.Add(d)
 			abs += d.Norm()
@@ -405,7 +405,7 @@ func runMisclosure(c *Context) {
 			if lay.Source[s.Comp] == geom.FromRun && (at < 0 || s.Comp < at) {
 				at = s.Comp
 			}
-			d := lay.Disp[s.Comp].Scale(float64(s.Sign))
+			d := lay.Disp(s.Comp).Scale(float64(s.Sign))
 			dir := "horizontal run"
 			if s.Sign < 0 {
 				dir = "horizontal run, walked against the flow"

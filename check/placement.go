@@ -42,7 +42,7 @@ func condenserDrainsUpward(c *Context) {
 		if comp.Kind != lang.Condenser || comp.To == nil {
 			continue
 		}
-		rise := c.Layout.Disp[comp.Index].Dot(up)
+		rise := c.Layout.Disp(comp.Index).Dot(up)
 		L, _ := lengthOf(comp)
 		if rise <= math.Max(agreeAbs, agreeRel*L) {
 			continue

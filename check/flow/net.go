@@ -122,8 +122,8 @@ func buildNetwork(l *lang.Loop, lay *geom.Layout) (*network, []Finding) {
 		if D > 0 {
 			cp.rr = c.Roughness.SI / D
 		}
-		if lay != nil && i < len(lay.Disp) {
-			cp.disp = lay.Disp[i]
+		if lay != nil && i < len(lay.Source) {
+			cp.disp = lay.Disp(i)
 		} else {
 			cp.disp = geom.Vec3{0, 0, c.Rise.SI}
 		}

@@ -32,20 +32,26 @@ type Layout struct {
 	// Piece numbers the connected pieces of the loop, by Node.Index. Positions
 	// are comparable only within one piece, unless both nodes have coordinates.
 	Piece []int32
-	// Disp is the inlet→outlet displacement by Component.Index: from the end
-	// nodes' coordinates, else the run, else (0, 0, rise); reservoirs (0, 0, rise).
-	Disp []Vec3
-	// Source says which of those Disp came from.
+	// Source says, by Component.Index, where Disp comes from.
 	Source []Source
 	// Horizontal says whether Disp's horizontal part is known.
 	Horizontal []bool
+	loop       *lang.Loop
+}
+
+// Disp returns the inlet→outlet displacement of the component of index i:
+// from the end nodes' coordinates, else the run, else (0, 0, rise);
+// reservoirs (0, 0, rise). It is worked out from the component when asked:
+// a list of them was three words per component of a large loop, kept for
+// the whole check.
+func (lay *Layout) Disp(i int) Vec3 {
+	d, _ := displacement(lay.loop.Components[i])
+	return d
 }
 
 // Dir returns the unit direction along the flow of component i's straight
-// inlet→outlet chord (zero when the chord is zero). It is worked out from
-// Disp when asked: a list of them was three more words per component of a
-// large loop, kept for the whole check.
-func (lay *Layout) Dir(i int) Vec3 { return lay.Disp[i].Unit() }
+// inlet→outlet chord (zero when the chord is zero), worked out like Disp.
+func (lay *Layout) Dir(i int) Vec3 { return lay.Disp(i).Unit() }
 
 // Place lays out a loop. Nodes with coordinates keep them; the others are
 // reached by walking components (either way along them) from placed nodes,
@@ -60,7 +66,7 @@ func Place(l *lang.Loop) *Layout {
 	nn, nc := len(l.Nodes), len(l.Components)
 	lay := &Layout{
 		Pos: make([]Vec3, nn), Known: make([]bool, nn), ZOnly: make([]bool, nn), Piece: make([]int32, nn),
-		Disp: make([]Vec3, nc), Source: make([]Source, nc), Horizontal: make([]bool, nc),
+		Source: make([]Source, nc), Horizontal: make([]bool, nc), loop: l,
 	}
 	// The component indices touching each node, all lists in one array
 	// (counted first), node v's from off[v] to off[v+1]: a list of its own
@@ -83,8 +89,8 @@ func Place(l *lang.Loop) *Layout {
 	all := make([]int32, off[nn])
 	next := off[:nn] // each list's next entry; then the start of the next list
 	for i, c := range l.Components {
-		d, src := displacement(c)
-		lay.Disp[i], lay.Source[i] = d, src
+		_, src := displacement(c)
+		lay.Source[i] = src
 		lay.Horizontal[i] = src != FromRise
 		if !joins(c) {
 			continue
@@ -120,7 +126,8 @@ func Place(l *lang.Loop) *Layout {
 					continue
 				}
 				c := l.Components[ci]
-				v, d := c.To.Index, lay.Disp[ci]
+				d, _ := displacement(c)
+				v := c.To.Index
 				if v == u {
 					v, d = c.From.Index, d.Scale(-1)
 				}
@@ -255,11 +262,11 @@ func ThermalCentre(lay *Layout, l *lang.Loop, k lang.Kind, loads func(*lang.Comp
 	var sum, eq Vec3
 	var w, n float64
 	for _, c := range l.Components {
-		if c.Kind != k || c.From == nil || !validNode(l, c.From) || c.Index < 0 || c.Index >= len(lay.Disp) {
+		if c.Kind != k || c.From == nil || !validNode(l, c.From) || c.Index < 0 || c.Index >= len(lay.Source) {
 			continue
 		}
 		f0, f1 := HeatedSpan(c)
-		p := lay.Pos[c.From.Index].Add(lay.Disp[c.Index].Scale((f0 + f1) / 2))
+		p := lay.Pos[c.From.Index].Add(lay.Disp(c.Index).Scale((f0 + f1) / 2))
 		q := 1.0
 		if loads != nil {
 			q = math.Abs(finite(loads(c)))
