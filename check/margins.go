@@ -79,7 +79,7 @@ var marginRules = []marginRule{
 		"In a parallel network a weak branch can be driven backwards by the others; its evaporator then sees vapour from the wrong end.",
 		"evaporator low from split to merge { rise 0.1 m ... } beside a taller one", "Balance the branches (equal height and losses) or add restriction to the strong branch."},
 	{flow.RuleFluidRange, lang.Error, "the case's saturation temperature is outside the fluid's range or past its critical point",
-		"There is no two-phase state to estimate with above the critical temperature or outside the tabulated range. The finding stands at the value that sets the saturation temperature (the case's or loop's saturation, a condenser outlet, or the sink), with the fluid as related information; a sink written in the wrong scale (35 K for 35 °C) gets a probably-meant fix.",
+		"There is no two-phase state to estimate with above the critical temperature or outside the tabulated range. The finding stands at the value that sets the saturation temperature (the case's or loop's saturation, a condenser outlet, or the sink), with the fluid as related information; a sink written in the wrong scale (35 K for 35 °C) gets a probably-meant fix. Water's range ends at 646 K (372.85 °C), 1.1 K below its critical point of 647.096 K and inside IF97 region 3 (which starts at 623.15 K): nearer the critical point the saturated phases' properties change faster than a quick estimate can use.",
 		"saturation 200 °C", "Choose a fluid with a higher critical temperature or lower the saturation temperature."},
 	{flow.RuleNearCritical, lang.Warning, "the loop runs close to the fluid's critical point",
 		"Towards the critical temperature Tc the latent heat and the surface tension fall to zero (latent heat about as (1 − T/Tc)^0.38, Watson 1943, Ind. Eng. Chem. 35, 398; surface tension about as (1 − T/Tc)^(11/9), Guggenheim 1945, J. Chem. Phys. 13, 253; both from memory), and the liquid and vapour densities approach each other. The pool-boiling critical heat flux (Zuber) goes with latent heat, vapour density and surface tension, so the evaporator's capacity, the driving head and the estimate's correlations all degrade together. Reported from T/Tc = 0.95 (circa's choice, common practice), with the margin to Tc in kelvin.",
@@ -88,7 +88,7 @@ var marginRules = []marginRule{
 		"At a low saturation pressure (water below about 0.2 bar) the weight of the liquid column above the evaporator inlet adds a large share to the local pressure, so the liquid there must be heated well above the loop's saturation temperature before it boils. It then flashes in bursts that throw liquid up the riser and let it fall back: geyser boiling, with pressure and temperature swings (Casarosa, Latrofa and Shelginski 1983, Int. J. Heat Mass Transfer 26, 933; Aritomi et al. 1992, J. Nucl. Sci. Technol. 29, 631; both from memory). The rule takes the column at rest, from the highest condenser outlet to the evaporator inlet along the body force, and the local saturation temperature at p_sat + ρ_l·g·H, the static head alone: geysering is a low-flow cycle whose liquid waits nearly still between bursts, and liquid heated to boiling at the inlet is superheated by this shift against the saturation at the condenser's level, so it flashes as it rises. It warns when that is more than 5 K above the loop's saturation temperature (circa's choice, common practice). The warning also quotes the inlet at the estimated flow, as the local-saturation table gives it: a lower pressure by the losses on the way, and a subcooling that includes the condenser's; that state does not decide the warning. The same shift decides saturation_state auto (the default): such a case is estimated at local saturation, the pressure marched around the loop and each cell at its own saturated state, so the subcooled inlet, the late boiling and the flashing in the riser are in the estimate (its saturated states interpolated on a grid in ln p, about 1e-5 relative; its flows within 1e-4 of a march of exact look-ups); below 5 K the single state is kept, and the estimate notes each evaporator inlet it treats as saturated though it is more than 1 K subcooled. saturation_state single or local in the methods block fixes either.",
 		"fluid water; saturation 35 °C; condenser outlet 1.5 m above the evaporator inlet", "Shorten the liquid column (condenser closer above the evaporator), run at a higher saturation pressure, or choose a fluid with a higher vapour pressure at the operating temperature."},
 	{flow.RuleDensityWave, lang.Info, "an evaporator lies beyond the density-wave stability boundary",
-		"Density-wave oscillations travel with the void through a boiling channel when the phase change is large and the inlet restriction small. The indicator takes the phase-change and subcooling numbers of Ishii (1971; Saha, Ishii and Zuber 1976, J. Heat Transfer 98:616), N_pch = Q/(ṁ h_fg)·Δρ/ρ_g and N_sub = Δh_sub/h_fg·Δρ/ρ_g, against Ishii's simplified boundary N_pch − N_sub = 2 (K_i + f L/2D + K_e)/(1 + ½ (f L/2D + 2 K_e)) (quoted from memory), with the liquid-side and two-phase-side losses of the loop as the inlet and exit coefficients on the channel's liquid velocity head. The boundary was derived for heated channels under a fixed pressure difference, and most thermosiphons with a saturated inlet lie beyond it without oscillating, so it is an indicator in the estimate's stability output (circa estimate, text and JSON), never a finding; the estimate is steady and says nothing about the oscillation itself.",
+		"Density-wave oscillations travel with the void through a boiling channel when the phase change is large and the inlet restriction small. The indicator takes the phase-change and subcooling numbers of Ishii (1971; Saha, Ishii and Zuber 1976, J. Heat Transfer 98:616), N_pch = Q/(ṁ h_fg)·Δρ/ρ_g and N_sub = Δh_sub/h_fg·Δρ/ρ_g, against Ishii's simplified boundary N_pch − N_sub = 2 (K_i + f L/2D + K_e)/(1 + ½ (f L/2D + 2 K_e)) (quoted from memory), with the liquid-side and two-phase-side losses of the loop as the inlet and exit coefficients on the channel's liquid velocity head. The boundary was derived for heated channels under a fixed pressure difference, and most thermosiphons with a saturated inlet lie beyond it without oscillating, so it is an indicator in the estimate's stability output (circa estimate, text and JSON), never a finding, and there is nothing to silence; the estimate is steady and says nothing about the oscillation itself. Under a single saturation state N_sub takes the inlet subcooling of that model (the evaporator's inlet quality below zero), under local saturation the subcooling of the local march.",
 		"evaporator e from a to b { ... }  # saturated inlet, little inlet loss, x_out 0.3", "Add inlet restriction (an orifice at the evaporator inlet), reduce the riser's local losses, or test the design."},
 	{flow.RuleMaldistribution, lang.Warning, "parallel heated branches share the flow unevenly",
 		"Parallel evaporator branches between the same junctions should carry flow in proportion to their heat; where the flow per unit heat differs by more than a factor 2 (circa's choice, common practice), or a branch is statically unstable, the weaker channel runs at higher quality and nearer dryout.",
@@ -125,6 +125,10 @@ var marginRules = []marginRule{
 		"The estimate can only use the methods it knows.", "methods { void_fraction slip }", "Use one of the listed methods."},
 }
 
+// indicators are the estimate's outputs listed with the rules so that
+// "circa explain" can say what they mean, though they never make a finding.
+var indicators = map[string]bool{flow.RuleDensityWave: true}
+
 // Findings the structural rules already report (open ends, zero lengths,
 // no condenser) are not repeated from the estimate.
 var structural = map[string]bool{flow.RuleGeometry: true, flow.RuleNoCondenser: true}
@@ -132,9 +136,13 @@ var structural = map[string]bool{flow.RuleGeometry: true, flow.RuleNoCondenser: 
 func init() {
 	for _, r := range marginRules {
 		r := r
-		Register(&Rule{ID: r.id, Category: CategoryMargin, Severity: r.sev, Escalation: escalations[r.id], Scope: PerLoop,
+		rule := &Rule{ID: r.id, Category: CategoryMargin, Severity: r.sev, Escalation: escalations[r.id], Scope: PerLoop,
 			Summary: r.summary, Rationale: r.rationale, Example: r.example, Fix: r.fix,
-			Run: func(c *Context) { reportEstimate(c, r.id) }})
+			Run: func(c *Context) { reportEstimate(c, r.id) }}
+		if indicators[r.id] {
+			rule.Run = nil // nothing to report, nothing to silence
+		}
+		Register(rule)
 	}
 }
 

@@ -31,13 +31,13 @@ const maxTrapPaths = 4096
 func init() {
 	Register(&Rule{ID: "downcomer-high-point", Category: CategoryTraps, Severity: lang.Warning,
 		Summary:   "the liquid line climbs and falls again: a high point collects vapour",
-		Rationale: "Vapour bubbles or flash gas in the liquid return rise to a local high point and gather there; the pocket throttles or blocks the return of liquid to the evaporator.",
+		Rationale: "Vapour bubbles or flash gas in the liquid return rise to a local high point and gather there; the pocket throttles or blocks the return of liquid to the evaporator. Every path through the liquid line is followed across the junctions it passes, so a hump that climbs in one branch and falls in the next, past a split or a merge, is found too; each high point is reported once, on the component that climbs into it, with its largest climb and fall over the paths through it.",
 		Example:   "pipe down1 from coil_out to hump { rise 0.1 m ... }\npipe down2 from hump to base { rise -1.3 m ... }",
 		Fix:       "Run the liquid line downhill all the way, or vent the high point to the vapour side.",
 		Run:       func(c *Context) { traps(c, true) }})
 	Register(&Rule{ID: "riser-low-point", Category: CategoryTraps, Severity: lang.Warning,
 		Summary:   "the vapour line falls and climbs again: a low point collects liquid",
-		Rationale: "Liquid entrained or condensed in the riser drains to a local low point and gathers there; the liquid plug must be pushed up by the vapour, adding head and causing surging.",
+		Rationale: "Liquid entrained or condensed in the riser drains to a local low point and gathers there; the liquid plug must be pushed up by the vapour, adding head and causing surging. Every path through the vapour line is followed across the junctions it passes, so a dip that falls in one branch and climbs in the next, past a split or a merge, is found too.",
 		Example:   "pipe up1 from plate_out to dip { rise -0.1 m ... }\npipe up2 from dip to coil_in { rise 1.3 m ... }",
 		Fix:       "Run the vapour line uphill all the way from the evaporator to the condenser.",
 		Run:       func(c *Context) { traps(c, false) }})

@@ -127,6 +127,11 @@ func TestLocalSaturationVacuumLoop(t *testing.T) {
 	if sev := component(t, single, "evap"); math.Abs(sev.XIn) > 1e-9 || sev.Local == nil || !(sev.Local.SubcoolingIn > 15) {
 		t.Errorf("single state: x in %g, local %+v", sev.XIn, sev.Local)
 	}
+	// Its density-wave numbers are those of its own model: a saturated inlet
+	// has Δh_sub = 0, so N_sub = 0, not the 20 K the local table shows.
+	if st := single.Stability; st == nil || len(st.Channels) != 1 || st.Channels[0].Nsub != 0 {
+		t.Errorf("single state's density-wave numbers %+v, want N_sub 0 at a saturated inlet", st)
+	}
 	// Under local saturation the evaporator stays subcooled at 300 W and the
 	// mixture flashes in the riser as the pressure falls toward the
 	// condenser: no heat is added there, yet the quality rises through zero.

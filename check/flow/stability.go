@@ -447,7 +447,10 @@ func (p *prepared) channelStability(s *state, cr *CaseResult, st *Stability) {
 			fl := cs.DpFriction / (2 * vh) // f L/(2D)
 			ke += cs.DpLocal / vh
 			dhSub := math.Max(0, -cs.XIn) * s.p.Hlv
-			if cs.Local != nil {
+			if s.local && cs.Local != nil {
+				// Under local saturation the inlet's subcooling is the
+				// march's; a single state keeps its own inlet, and its
+				// local table only shows what it leaves out.
 				dhSub = cs.Local.SubcoolingIn * s.p.CpL
 			}
 			ch := ChannelStability{Component: cp.name,
