@@ -145,6 +145,7 @@ var hostileLines = []struct{ name, src string }{
 	{"nested", "param x = " + strings.Repeat("(", 1<<19) + "1" + strings.Repeat(")", 1<<19) + "\n"},
 	{"factors", "param x = 1 m" + strings.Repeat("*m", 1<<19) + "\n"},
 	{"blocks", strings.Repeat("a {\n", 1<<18)},
+	{"strays", "a" + strings.Repeat(" )", 1<<19) + "\n"},
 }
 
 // TestHostileLinesMemory checks that parsing each hostile text allocates

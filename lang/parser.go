@@ -416,7 +416,7 @@ func (p *parser) statement() {
 		return
 	}
 	if !p.grammarOnly {
-		q := fastParser{toks: p.toks, i: start, nodes: &p.nodes, p: p}
+		q := fastParser{toks: p.toks, i: start, nodes: &p.nodes, p: p, partial: true}
 		mark := p.nodes.mark()
 		if stmt, ok := q.stmt(); ok {
 			p.cur = q.i
@@ -426,7 +426,12 @@ func (p *parser) statement() {
 				p.nodes.release(mark)
 				return
 			}
-			if p.heads != nil && p.sink == nil {
+			if q.stopped && p.sink == nil {
+				// A statement cut short is kept whole, as the grammar's
+				// would be, in its own slice of parts.
+				stmt.Args = append([]*Arg(nil), stmt.Args...)
+			}
+			if p.heads != nil && p.sink == nil && !q.stopped {
 				var in *Stmt
 				if len(p.stack) > 0 {
 					in = p.stack[len(p.stack)-1]
@@ -643,6 +648,13 @@ func (p *parser) explainStop(t *lexer.Token) {
 			return
 		}
 	}
+	if !p.grammarOnly && !startsArg(t) {
+		// No part starts with t, so the grammar fails at t itself, the
+		// same answer as below without lexing the rest of the statement
+		// (a million tokens, on a line of them).
+		p.errorf(tokSpan(t), "%s", unexpected(t, "at the end of the statement"))
+		return
+	}
 	lex := p.lexAt()
 	cp := lex.MakeCheckpoint()
 	_, err := parseArg(lex)
@@ -760,6 +772,24 @@ type fastParser struct {
 	// p, when set, scans on as the statement is read (see parser.at);
 	// without it toks hold the whole line.
 	p *parser
+	// partial lets stmt end at a token that starts no part, as the
+	// grammar's statement does (its parts are a repetition that ends
+	// there); stopped then says it did. The parser explains that token.
+	partial, stopped bool
+}
+
+// startsArg reports whether t can start a part of a statement: a key or
+// the first token of an expression.
+func startsArg(t *lexer.Token) bool {
+	switch t.Type {
+	case TokNumber, TokIdent, TokString:
+		return true
+	}
+	switch t.Value {
+	case "from", "to", "at", "=", "-", "+", "(":
+		return true
+	}
+	return false
 }
 
 // nodes hands out tree nodes from chunks, so a large file costs a few
@@ -928,6 +958,10 @@ func (q *fastParser) stmt() (*Stmt, bool) {
 	for {
 		t := q.peek()
 		if endsStatement(t) {
+			break
+		}
+		if q.partial && !startsArg(t) {
+			q.stopped = true
 			break
 		}
 		a := q.args.alloc()

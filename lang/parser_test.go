@@ -318,11 +318,16 @@ func TestHostileLinesSameAsGrammar(t *testing.T) {
 		"{{{{", "{ {\n}}}", "a {{{ b = 1 }", "}}}}", "))))", "^^^^", "====", "1 1 1 1",
 		"\"\"\"\"", "x = 1; {; ( ; ) ; 2 m {", "  # c\n  ) 1 # d\n", "(((( 1", "a = 1 ) b",
 		"a\n{ } { } }\n(", "node n at 1 m { ^ } = 2", "\t=\t{\n=",
+		// Statements cut short by a token that starts no part.
+		"a ) ) )", "param a = 1 m + 1 m $ 2", "a b ) c {", "x = 1 , 2", "a * b", "q 1 m ^ 2 ) ;b", "n at (1, 2) ] {\n}",
+		"a \"x\" 1e3 } b", "a - ) ", "a ( ) )",
 		// Blocks deeper than the tree keeps.
 		strings.Repeat("{", MaxNesting+20) + strings.Repeat("}", 30) + "\na = 1 {",
 		strings.Repeat("a {\n", MaxNesting+5) + "b = ( 1\n}}}}}}}}\nc = 2 ^ x {\n",
 	} {
 		checkSameAsGrammar(t, Parse("h.loop", []byte(src)))
+		// And the model read for its heads alone is the full one's.
+		sameModel(t, "h.loop", []byte(src))
 	}
 }
 
