@@ -310,7 +310,7 @@ func (s *state) localState(ci int, dir, p float64, cs *ComponentState) float64 {
 		if ls.XIn < 0 {
 			ls.SubcoolingIn = -ls.XIn * satI.Hlv / satI.CpL
 		}
-		ls.BoilingOnset = s.boilingOnset(ci, dir, xin, xout, p, pOut)
+		ls.BoilingOnset = s.boilingOnset(ci, dir, cs.MassFlow, xin, xout, p)
 	}
 	if s.local {
 		cs.XIn, cs.XOut = ls.XIn, ls.XOut
@@ -321,30 +321,53 @@ func (s *state) localState(ci int, dir, p float64, cs *ComponentState) float64 {
 }
 
 // boilingOnset finds where the local quality of an evaporator crosses zero,
-// m from its inlet, with the pressure taken linear between its inlet and
-// outlet values; nil when it does not cross inside.
-func (s *state) boilingOnset(ci int, dir, xin, xout, pIn, pOut float64) *float64 {
+// m from its inlet, at flow m; nil when it does not cross inside. Up to
+// the onset the tube holds liquid, so the pressure is marched from the inlet
+// pressure pIn with the liquid's own gradient, its weight along the body
+// force and its single-phase friction at the cell's density and viscosity:
+// the pressure taken linear to the component's outlet falls too slowly
+// there, since the lighter two-phase part above weighs less.
+func (s *state) boilingOnset(ci int, dir, m, xin, xout, pIn float64) *float64 {
 	cp := &s.net.comps[ci]
-	xl := func(f float64) float64 {
-		sat, _ := s.satAt(pIn + (pOut-pIn)*f)
-		const n = 1 << 20
-		return s.localX(s.faceX(cp, dir, xin, xout, int(f*n+0.5), n), sat)
-	}
-	if !(xl(0) < 0 && xl(1) > 0) {
+	if !(cp.L > 0) {
 		return nil
 	}
-	lo, hi := 0.0, 1.0
-	for i := 0; i < 50; i++ {
-		mid := (lo + hi) / 2
-		if xl(mid) < 0 {
-			lo = mid
-		} else {
-			hi = mid
-		}
+	const n = onsetCells
+	G := math.Abs(m) / cp.A
+	gain := s.bDisp[ci] * dir / cp.L // hydrostatic pressure gain per unit length along the flow
+	scale := 1.0
+	if s.lossScale > 0 {
+		scale = s.lossScale
 	}
-	z := (lo + hi) / 2 * cp.L
-	return &z
+	ds := cp.L / n
+	p := pIn
+	x := s.faceX(cp, dir, xin, xout, 0, n)
+	sat, _ := s.satAt(p)
+	prev := s.localX(x, sat)
+	if !(prev < 0) {
+		return nil
+	}
+	for k := 1; k <= n; k++ {
+		// The cell's gradient at its inlet face's liquid state.
+		rho, mu := s.liquid(x)
+		p -= (scale*s.liquidGradient(G, cp.D, cp.rr, rho, mu) - rho*gain) * ds
+		x = s.faceX(cp, dir, xin, xout, k, n)
+		sat, _ = s.satAt(p)
+		xl := s.localX(x, sat)
+		if xl >= 0 {
+			z := (float64(k-1) + prev/(prev-xl)) * ds
+			return &z
+		}
+		prev = xl
+	}
+	return nil
 }
+
+// onsetCells is the number of cells boilingOnset marches an evaporator
+// in: the liquid's gradient changes with its temperature by about 1 % over
+// a 20 K rise, so the march is a first-order sum that halving its cells
+// moves by well under a millimetre.
+const onsetCells = 512
 
 // localOutlet sets the outlet void fraction and phase velocities of a
 // component at its local outlet state.
