@@ -25,17 +25,50 @@ func Position(m *lang.Model, file string, off int) (Pos, bool) {
 
 func mapperPos(mp *lang.Mapper, off int) Pos {
 	b := mp.OffsetPosition(off, lang.UTF8)
-	u := mp.OffsetPosition(off, lang.UTF16)
 	start := mp.LineStart(b.Line)
-	chars := utf8.RuneCount(mp.Text()[start : start+b.Col])
-	return Pos{Line: b.Line + 1, Byte: b.Col + 1, Char: chars + 1, UTF16: u.Col + 1}
+	return Pos{Line: b.Line + 1, Byte: 1, Char: 1, UTF16: 1}.on(mp.Text()[start : start+b.Col])
+}
+
+// on is p moved on over text, which starts at p and holds no line end:
+// the characters and UTF-16 units are counted in one pass.
+func (p Pos) on(text []byte) Pos {
+	p.Byte += len(text)
+	for i := 0; i < len(text); {
+		if text[i] < utf8.RuneSelf {
+			p.Char++
+			p.UTF16++
+			i++
+			continue
+		}
+		r, n := utf8.DecodeRune(text[i:])
+		p.Char++
+		p.UTF16++
+		if r >= 0x10000 {
+			p.UTF16++ // a surrogate pair
+		}
+		i += n
+	}
+	return p
 }
 
 // Span returns a location's start and end; a reversed span ends where it
-// starts. ok is false when the file is not known.
+// starts. ok is false when the file is not known. An end on the start's
+// line is counted on from the start, so a finding far into a long line
+// reads the line once.
 func Span(m *lang.Model, loc lang.Location) (start, end Pos, ok bool) {
 	s, ok := Position(m, loc.File, loc.Span.Start)
-	e, _ := Position(m, loc.File, loc.Span.End)
+	var e Pos
+	if mp := m.Mapper(loc.File); mp != nil && loc.Span.End >= loc.Span.Start {
+		b := mp.OffsetPosition(loc.Span.End, lang.UTF8)
+		ls := mp.LineStart(b.Line)
+		if from := ls + s.Byte - 1; b.Line+1 == s.Line && ls+b.Col >= from {
+			e = s.on(mp.Text()[from : ls+b.Col])
+		} else {
+			e = mapperPos(mp, loc.Span.End)
+		}
+	} else {
+		e, _ = Position(m, loc.File, loc.Span.End)
+	}
 	if e.Line < s.Line || (e.Line == s.Line && e.Byte < s.Byte) {
 		e = s
 	}

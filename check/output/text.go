@@ -107,7 +107,10 @@ func caret(b *strings.Builder, m *lang.Model, loc lang.Location, s, e Pos, paint
 	char := 1 // 1-based character of text being printed
 	for i := 0; i < len(text); char++ {
 		if char < lo {
-			_, size := utf8.DecodeRune(text[i:])
+			size := 1
+			if text[i] >= utf8.RuneSelf {
+				_, size = utf8.DecodeRune(text[i:])
+			}
 			i += size
 			continue
 		}
