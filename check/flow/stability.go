@@ -258,30 +258,7 @@ func (p *prepared) branchStability(s *state, ev *eval, cr *CaseResult, st *Stabi
 		}
 		anyBranch = anyBranch || !bs.Stable
 	}
-	if mode != nil {
-		for bi, b := range n.branches {
-			d := modeFlow[bi]
-			if ev.mb[bi] < 0 {
-				d = -d // a gain is more flow in the branch's own direction
-			}
-			if d > 0 {
-				mode.Gain = append(mode.Gain, n.comps[b.legs[0].ci].name)
-			} else if d < 0 {
-				mode.Lose = append(mode.Lose, n.comps[b.legs[0].ci].name)
-			}
-		}
-		st.Mode = mode
-		if !anyBranch {
-			// Each branch passes against the rest; the mode is what is unstable.
-			first := mode.Gain
-			if len(first) == 0 {
-				first = mode.Lose
-			}
-			cr.Findings = append(cr.Findings, p.finding(RuleUnstable, "warning", cr.Case, first[0], mode.Slope, 0, "Pa/(kg/s)", "",
-				"case %s is statically unstable (Ledinegg) in a mode that shifts flow from the branches at %s to those at %s: along it the loop balances change by %.4g Pa per kg/s, below zero, though each branch alone passes against the rest of the network",
-				cr.Case, strings.Join(mode.Lose, ", "), strings.Join(mode.Gain, ", "), mode.Slope))
-		}
-	}
+	p.reportMode(n, ev.mb, mode, modeFlow, anyBranch, cr, st)
 	for _, k := range keys {
 		g := groups[k]
 		if len(g.names) < 2 {
@@ -308,6 +285,37 @@ func (p *prepared) branchStability(s *state, ev *eval, cr *CaseResult, st *Stabi
 			cr.Findings = append(cr.Findings, p.finding(RuleMaldistribution, "warning", cr.Case, weak, ratio, MaldistributionRatio, "", "",
 				"%s in case %s (limit %.2f): the weaker channels run at higher quality and nearer dryout", msg, cr.Case, MaldistributionRatio))
 		}
+	}
+}
+
+// reportMode names the branches an unstable static mode moves flow in
+// (modeFlow by branch, in each branch's reference direction; mb the branch
+// flows) and, when no branch failed its own test, reports the mode.
+func (p *prepared) reportMode(n *network, mb []float64, mode *StaticMode, modeFlow []float64, anyBranch bool, cr *CaseResult, st *Stability) {
+	if mode == nil {
+		return
+	}
+	for bi, b := range n.branches {
+		d := modeFlow[bi]
+		if mb[bi] < 0 {
+			d = -d // a gain is more flow in the branch's own direction
+		}
+		if d > 0 {
+			mode.Gain = append(mode.Gain, n.comps[b.legs[0].ci].name)
+		} else if d < 0 {
+			mode.Lose = append(mode.Lose, n.comps[b.legs[0].ci].name)
+		}
+	}
+	st.Mode = mode
+	if !anyBranch {
+		// Each branch passes against the rest; the mode is what is unstable.
+		first := mode.Gain
+		if len(first) == 0 {
+			first = mode.Lose
+		}
+		cr.Findings = append(cr.Findings, p.finding(RuleUnstable, "warning", cr.Case, first[0], mode.Slope, 0, "Pa/(kg/s)", "",
+			"case %s is statically unstable (Ledinegg) in a mode that shifts flow from the branches at %s to those at %s: along it the loop balances change by %.4g Pa per kg/s, below zero, though each branch alone passes against the rest of the network",
+			cr.Case, strings.Join(mode.Lose, ", "), strings.Join(mode.Gain, ", "), mode.Slope))
 	}
 }
 

@@ -2,6 +2,7 @@ package flow
 
 import (
 	"math"
+	"strings"
 	"testing"
 
 	"circa/check/fluid"
@@ -123,6 +124,30 @@ func TestStaticModeParallelUnstable(t *testing.T) {
 	}
 	if math.Abs(math.Abs(flow[0])-1) > 1e-9 || math.Abs(flow[0]+flow[1]) > 1e-9 || flow[2] != 0 {
 		t.Errorf("mode shifts %v, want ±(1, −1, 0)", flow)
+	}
+	// The finding names the mode: the branch test passed both channels,
+	// so the mode is reported, from the channel it starves to the one it
+	// feeds, with its slope.
+	n := &network{comps: []comp{{name: "chan_a"}, {name: "chan_b"}, {name: "ret"}}, branches: bs, cycles: cycles}
+	for i := range n.branches {
+		n.branches[i].legs = []leg{{ci: i, sign: 1}}
+	}
+	p := &prepared{l: &lang.Loop{}}
+	cr := &CaseResult{Case: "nominal"}
+	st := &Stability{}
+	p.reportMode(n, []float64{0.01, 0.01, 0.02}, mode, flow, false, cr, st)
+	if len(cr.Findings) != 1 || cr.Findings[0].Rule != RuleUnstable || cr.Findings[0].Value != mode.Slope || st.Mode != mode ||
+		len(mode.Gain) != 1 || len(mode.Lose) != 1 || mode.Gain[0] == mode.Lose[0] || mode.Gain[0] == "ret" || mode.Lose[0] == "ret" {
+		t.Fatalf("findings %+v, mode %+v", cr.Findings, st.Mode)
+	}
+	if msg := cr.Findings[0].Message; !strings.Contains(msg, "from the branches at "+mode.Lose[0]+" to those at "+mode.Gain[0]) || !strings.Contains(msg, "-150 Pa per kg/s") {
+		t.Errorf("finding %q", msg)
+	}
+	// Where a branch already failed its own test, its finding stands alone.
+	cr = &CaseResult{Case: "nominal"}
+	p.reportMode(n, []float64{0.01, 0.01, 0.02}, &StaticMode{Slope: mode.Slope}, flow, true, cr, &Stability{})
+	if len(cr.Findings) != 0 {
+		t.Errorf("a second finding beside the branch's: %+v", cr.Findings)
 	}
 	// With channel slopes +150 every mode rises: no mode.
 	if m, _, _ := staticMode(3, cycles, []float64{150, 150, 100}); m != nil {
