@@ -401,9 +401,15 @@ func (s *state) localOutlet(ci int, cs *ComponentState, xout, pOut float64) {
 // the case's saturation pressure; every other junction follows from it
 // through the branches' pressure changes along a spanning tree. Since each
 // branch's change depends (weakly) on the pressure it starts from, the
-// pressures are iterated to a fixed point from those of the previous
-// evaluation; ev.dp holds the last changes marched. Without a condenser in
-// the network every junction stays at the saturation pressure.
+// pressures are iterated to a fixed point, every time from those of the
+// single state's changes at ev's flows, so that they (and the balances
+// marched from them) are a function of ev's flows alone, whatever was
+// evaluated before; ev.dp holds the last changes marched and ev.pj the
+// pressures. Where the iteration swings, the root junction's pressure is
+// found by bracketing and the others iterated again; without a fixed point
+// the iterate that moved least is kept.
+// Without a condenser in the network every junction stays at the
+// saturation pressure.
 func (s *state) junctionPressures(ev *eval) {
 	n := s.net
 	rb := -1
@@ -429,31 +435,13 @@ func (s *state) junctionPressures(ev *eval) {
 	next := make([]float64, n.nj)
 	seen := make([]bool, n.nj)
 	queue := make([]int, 0, n.nj)
-	tol := 1e-7 + 1e-12*s.sat.P
-	// Damped fixed-point iteration: a step that changes the pressures more
-	// than the one before halves the damping (a riser on the edge of
-	// flashing answers a small pressure change with a large one in weight).
-	omega, prev := 1.0, math.Inf(1)
-	if len(s.pjGood) != len(s.pj) {
-		s.pjGood = make([]float64, len(s.pj))
-	}
-	copy(s.pjGood, s.pj)
-	for it := 0; it < 100; it++ {
-		for bi, b := range n.branches {
-			up := b.from
-			if ev.mb[bi] < 0 {
-				up = b.to
-			}
-			ev.dp[bi] = s.branchDP(bi, ev.mb[bi], ev.xj[up], nil)
-		}
-		root := n.branches[rb].from
-		if ev.mb[rb] < 0 {
-			root = n.branches[rb].to
-		}
+	// sweep sets next along a spanning tree from the root junction's
+	// pressure and the branches' changes ev.dp.
+	sweep := func(root int, p float64) {
 		for j := range seen {
 			seen[j] = false
 		}
-		next[root] = s.pj[root] + s.sat.P - s.pRef
+		next[root] = p
 		seen[root] = true
 		queue = append(queue[:0], root)
 		for len(queue) > 0 {
@@ -473,34 +461,148 @@ func (s *state) junctionPressures(ev *eval) {
 				}
 			}
 		}
-		change := 0.0
-		for j := range next {
-			if seen[j] && finite(next[j]) {
-				change = math.Max(change, math.Abs(next[j]-s.pj[j]))
+	}
+	root := n.branches[rb].from
+	if ev.mb[rb] < 0 {
+		root = n.branches[rb].to
+	}
+	// The start: the junction pressures of the single state's pressure
+	// changes, with refCond's outlet at the saturation pressure. It depends
+	// on ev's flows and qualities alone.
+	s.local = false
+	for bi, b := range n.branches {
+		up := b.from
+		if ev.mb[bi] < 0 {
+			up = b.to
+		}
+		ev.dp[bi] = s.branchDP(bi, ev.mb[bi], ev.xj[up], nil)
+	}
+	toRef, reached := 0.0, false
+	s.branchDP(rb, ev.mb[rb], ev.xj[root], func(ci int, _, _, _, _ float64, q parts) {
+		if !reached {
+			toRef += q.loss()
+			reached = ci == s.refCond
+		}
+	})
+	s.local = true
+	sweep(root, s.sat.P+toRef)
+	for j := range s.pj {
+		v := s.sat.P
+		if seen[j] && finite(next[j]) {
+			v = next[j]
+		}
+		s.pj[j] = math.Min(math.Max(v, s.pLo), s.pHi)
+	}
+	tol := 1e-7 + 1e-12*s.sat.P
+	if len(s.pjBest) != len(s.pj) {
+		s.pjBest = make([]float64, len(s.pj))
+	}
+	best := math.Inf(1)
+	// iterate is a damped fixed-point iteration from s.pj: a step that
+	// changes the pressures more than the one before halves the damping (a
+	// riser on the edge of flashing answers a small pressure change with a
+	// large one in weight). It reports whether it reached a fixed point.
+	iterate := func() bool {
+		omega, prev := 1.0, math.Inf(1)
+		for it := 0; it < 100; it++ {
+			for bi, b := range n.branches {
+				up := b.from
+				if ev.mb[bi] < 0 {
+					up = b.to
+				}
+				ev.dp[bi] = s.branchDP(bi, ev.mb[bi], ev.xj[up], nil)
+			}
+			sweep(root, s.pj[root]+s.sat.P-s.pRef)
+			change := 0.0
+			for j := range next {
+				if seen[j] && finite(next[j]) {
+					change = math.Max(change, math.Abs(next[j]-s.pj[j]))
+				}
+			}
+			if change <= tol {
+				return true
+			}
+			if change < best {
+				best = change
+				copy(s.pjBest, s.pj)
+			}
+			if change > prev {
+				omega = math.Max(omega/2, 1.0/64)
+			}
+			prev = change
+			clamped := false
+			for j := range next {
+				if seen[j] && finite(next[j]) {
+					v := s.pj[j] + omega*(next[j]-s.pj[j])
+					s.pj[j] = math.Min(math.Max(v, s.pLo), s.pHi)
+					clamped = clamped || s.pj[j] != v
+				}
+			}
+			if clamped {
+				// Pressures beyond the fluid's range (a trial flow far
+				// from any balance): no fixed point to find.
+				return false
 			}
 		}
-		if change <= tol {
+		return false
+	}
+	p0 := s.pj[root]
+	if iterate() {
+		return
+	}
+	// The root junction's pressure alone sets refCond's outlet pressure,
+	// and where the branch from it flashes that answers a change of the
+	// root's pressure with a larger one the other way, so the iteration
+	// swings. Then the root's pressure is bracketed outward from the start
+	// and found by Brent's method, and the other junctions iterated to it.
+	g := func(p float64) float64 {
+		s.pj[root] = p
+		s.branchDP(rb, ev.mb[rb], ev.xj[root], nil)
+		return s.pRef - s.sat.P
+	}
+	g0 := g(p0)
+	up, gup, dn, gdn := p0, g0, p0, g0
+	var lo, hi, glo, ghi float64
+	found := false
+	for k := 0; k < 40 && !found && finite(g0) && g0 != 0; k++ {
+		if up < s.pHi {
+			b := math.Min(up*1.25, s.pHi)
+			gb := g(b)
+			if !finite(gb) {
+				break
+			}
+			if found = (gb > 0) != (gup > 0); found {
+				lo, hi, glo, ghi = up, b, gup, gb
+				break
+			}
+			up, gup = b, gb
+		}
+		if dn > s.pLo {
+			b := math.Max(dn/1.25, s.pLo)
+			gb := g(b)
+			if !finite(gb) {
+				break
+			}
+			if found = (gb > 0) != (gdn > 0); found {
+				lo, hi, glo, ghi = b, dn, gb, gdn
+				break
+			}
+			dn, gdn = b, gb
+		}
+	}
+	if found {
+		pr := brent(g, lo, hi, glo, ghi, tol)
+		for j := range s.pj {
+			s.pj[j] = s.pjBest[j]
+		}
+		s.pj[root] = pr
+		if iterate() {
 			return
-		}
-		if change > prev {
-			omega = math.Max(omega/2, 1.0/64)
-		}
-		prev = change
-		clamped := false
-		for j := range next {
-			if seen[j] && finite(next[j]) {
-				v := s.pj[j] + omega*(next[j]-s.pj[j])
-				s.pj[j] = math.Min(math.Max(v, s.pLo), s.pHi)
-				clamped = clamped || s.pj[j] != v
-			}
-		}
-		if clamped {
-			// Pressures beyond the fluid's range (a trial flow far from
-			// any balance): no fixed point to find.
-			break
 		}
 	}
 
-	// No fixed point: the next evaluation starts from the last one found.
-	copy(s.pj, s.pjGood)
+	// No fixed point: the iterate that moved least.
+	if best < math.Inf(1) {
+		copy(s.pj, s.pjBest)
+	}
 }

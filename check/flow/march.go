@@ -75,14 +75,14 @@ type state struct {
 	local bool
 	fl    fluid.Fluid
 	pIn   []float64 // by comps index: inlet pressure, Pa (local mode: set before each march)
-	// Networks in local mode: junction pressures (kept from the last
-	// evaluation as the next one's start), the condenser whose outlet is at
-	// the saturation pressure and its outlet pressure as last marched.
+	// Networks in local mode: junction pressures of the last evaluation
+	// (see junctionPressures), the condenser whose outlet is at the
+	// saturation pressure and its outlet pressure as last marched.
 	pj      []float64
 	refCond int
 	pRef    float64
 	jAdj    [][]int   // by junction: the branches that meet there
-	pjGood  []float64 // pj as the last converged evaluation left them
+	pjBest  []float64 // scratch: the junction iterate closest to a fixed point
 	pLo     float64   // the fluid's saturation pressure range, Pa
 	pHi     float64
 	// grid caches the saturated states of the local march (one case's;

@@ -27,12 +27,14 @@ type eval struct {
 	xj []float64 // junction qualities
 	dp []float64 // p_from − p_to per branch
 	e  []float64 // excess head per cycle
+	pj []float64 // junction pressures under local saturation (see junctionPressures)
 }
 
 func (s *state) newEval() *eval {
 	n := s.net
 	return &eval{mb: make([]float64, len(n.branches)), xj: make([]float64, n.nj),
-		dp: make([]float64, len(n.branches)), e: make([]float64, len(n.cycles))}
+		dp: make([]float64, len(n.branches)), e: make([]float64, len(n.cycles)),
+		pj: make([]float64, len(s.pj))}
 }
 
 // copyFrom makes ev a copy of o (of the same network).
@@ -41,6 +43,7 @@ func (ev *eval) copyFrom(o *eval) {
 	copy(ev.xj, o.xj)
 	copy(ev.dp, o.dp)
 	copy(ev.e, o.e)
+	copy(ev.pj, o.pj)
 }
 
 // branchFlows sets the branch flows from the cycle flows.
@@ -275,6 +278,7 @@ func (s *state) evaluate(f []float64, ev *eval) {
 	s.mix(ev)
 	if s.local && !s.net.ring {
 		s.junctionPressures(ev)
+		copy(ev.pj, s.pj)
 	}
 	for bi, b := range s.net.branches {
 		up := b.from
@@ -684,6 +688,7 @@ func jacobianSteps(m, x float64) (h, hx float64) {
 // which is linearised and solved for dx/df.
 func (s *state) jacobian(ev *eval, J *mat.Dense, w *sensitivity) {
 	n := s.net
+	copy(s.pj, ev.pj) // the branches march from ev's junction pressures
 	nc := len(n.cycles)
 	for bi, b := range n.branches {
 		m := ev.mb[bi]

@@ -77,6 +77,7 @@ func flood(adj [][]int, r int, seen []bool) {
 // the dense Jacobian.
 func (s *state) branchJacobian(ev *eval) *sparse.Matrix {
 	n := s.net
+	copy(s.pj, ev.pj) // the branches march from ev's junction pressures
 	nb, nj := len(n.branches), n.nj
 	ground := n.ground
 	pi := func(j int) int { return nb + j }
