@@ -1,9 +1,11 @@
 package lang
 
 import (
+	"fmt"
 	"os"
 	"path/filepath"
 	"reflect"
+	"runtime"
 	"strings"
 	"testing"
 
@@ -135,4 +137,27 @@ func FuzzLoadSourceModel(f *testing.F) {
 	f.Fuzz(func(t *testing.T, src []byte) {
 		sameModel(t, "fuzz.loop", src)
 	})
+}
+
+// TestLoadSourceModelBadLinesMemory reads a file whose every line is a
+// statement cut short by a token that starts no part. Read for its model,
+// such a statement is marked Bad and nothing reads its parts, so it keeps
+// its head alone and the nodes of its parts are reused for the next line:
+// kept whole, the parts of every line were held until the file was read,
+// about 35 bytes for each byte of the file.
+func TestLoadSourceModelBadLinesMemory(t *testing.T) {
+	var b strings.Builder
+	for i := 0; i < 20000; i++ {
+		fmt.Fprintf(&b, "param x%d = 3 $ (\n", i)
+	}
+	src := []byte(b.String())
+	var before, after runtime.MemStats
+	runtime.GC()
+	runtime.ReadMemStats(&before)
+	m := LoadSourceModel("bad.loop", src, nil)
+	runtime.ReadMemStats(&after)
+	runtime.KeepAlive(m)
+	if got := after.TotalAlloc - before.TotalAlloc; got > 10*uint64(len(src)) {
+		t.Errorf("reading the model of %d bytes of bad lines allocated %d bytes", len(src), got)
+	}
 }

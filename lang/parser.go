@@ -426,12 +426,15 @@ func (p *parser) statement() {
 				p.nodes.release(mark)
 				return
 			}
-			if q.stopped && p.sink == nil {
+			if q.stopped && p.sink == nil && p.heads == nil {
 				// A statement cut short is kept whole, as the grammar's
 				// would be, in its own slice of parts.
 				stmt.Args = append([]*Arg(nil), stmt.Args...)
 			}
-			if p.heads != nil && p.sink == nil && !q.stopped {
+			if p.heads != nil && p.sink == nil {
+				// Read for its model, a statement keeps its head alone;
+				// one cut short is marked Bad by its terminator and
+				// nothing reads its parts.
 				var in *Stmt
 				if len(p.stack) > 0 {
 					in = p.stack[len(p.stack)-1]
