@@ -146,6 +146,10 @@ var hostileLines = []struct{ name, src string }{
 	{"factors", "param x = 1 m" + strings.Repeat("*m", 1<<19) + "\n"},
 	{"blocks", strings.Repeat("a {\n", 1<<18)},
 	{"strays", "a" + strings.Repeat(" )", 1<<19) + "\n"},
+	// Statements of a million parts, cut at lang.MaxStmtTokens.
+	{"words", strings.Repeat("a ", 1<<19) + "\n"},
+	{"keys", "param x = 1" + strings.Repeat(" =", 1<<19) + "\n"},
+	{"sum", "param a = 1 m" + strings.Repeat(" + 1 m", 1<<17) + " $\n"},
 }
 
 // TestHostileLinesMemory checks that parsing each hostile text allocates

@@ -410,8 +410,12 @@ func (p *parser) closeAll(eof Span) {
 func (p *parser) statement() {
 	first := *p.peek()
 	start := p.cur
-	if deep, ok := p.tooDeep(start); ok {
-		p.errorf(tokSpan(&deep), "expression nested too deeply: more than %d parentheses are open here", MaxNesting)
+	if deep, why := p.tooDeep(start, first.Type == TokIdent); why != 0 {
+		if why == tooLong {
+			p.errorf(tokSpan(&deep), "statement has more than %d tokens: the rest of the line is skipped", MaxStmtTokens)
+		} else {
+			p.errorf(tokSpan(&deep), "expression nested too deeply: more than %d parentheses are open here", MaxNesting)
+		}
 		p.skipBad(first)
 		return
 	}
@@ -497,35 +501,62 @@ func (p *parser) statement() {
 	p.skipBad(first)
 }
 
+// MaxStmtTokens bounds the tokens of one statement that starts with a
+// name, which bounds its parts and the terms of each of its expressions.
+// The tree of a statement costs some hundred bytes a part, and the grammar
+// keeps all of a statement's tokens: a line of a million parts took 376 MB.
+// The longest statement of the shipped examples has a few dozen tokens.
+// A statement longer than that is one error, at its first token beyond
+// the bound, and is skipped to the end of its line like any bad statement.
+const MaxStmtTokens = 4096
+
+// What tooDeep found.
+const (
+	tooDeepParen = 1 // a parenthesis opens more than MaxNesting levels
+	tooLong      = 2 // the statement has more than MaxStmtTokens tokens
+)
+
 // tooDeep returns the parenthesis that opens one level too many in the
-// statement starting at raw token index i, if any. What of the statement
+// statement starting at raw token index i, or, with count, the first of
+// its tokens beyond MaxStmtTokens, and which of the two it is (0 for
+// neither). Tokens are counted up to the first that neither starts a part
+// nor continues an expression outside parentheses: the statement is cut
+// short there anyway, and its error is that token's. What of the statement
 // is not scanned yet is read by a copy of the scanner that keeps nothing,
 // so a statement of a million tokens is not held for it.
-func (p *parser) tooDeep(i int) (lexer.Token, bool) {
-	depth := 0
-	// deeper reports whether t ends the search, and whether it is the
-	// parenthesis too many.
-	deeper := func(t *lexer.Token) (stop, deep bool) {
+func (p *parser) tooDeep(i int, count bool) (lexer.Token, int) {
+	depth, n := 0, 0
+	// deeper reports whether t ends the search, and what it found.
+	deeper := func(t *lexer.Token) (stop bool, why int) {
 		if t.Type == TokNewline || t.Type == TokEOF {
-			return true, false
+			return true, 0
+		}
+		if count && !elided(t) {
+			if depth <= 0 && !startsArg(t) && t.Type != TokUnit && !(t.Type == TokPunct && strings.Contains("+-*/^", t.Value)) {
+				count = false
+			} else if n++; n > MaxStmtTokens {
+				return true, tooLong
+			}
 		}
 		if t.Type != TokPunct {
-			return false, false
+			return false, 0
 		}
 		switch t.Value {
 		case "(":
 			depth++
-			return depth > MaxNesting, depth > MaxNesting
+			if depth > MaxNesting {
+				return true, tooDeepParen
+			}
 		case ")":
 			depth--
 		case ";", "{", "}":
-			return true, false
+			return true, 0
 		}
-		return false, false
+		return false, 0
 	}
 	for ; i < len(p.toks); i++ {
-		if stop, deep := deeper(&p.toks[i]); stop {
-			return p.toks[i], deep
+		if stop, why := deeper(&p.toks[i]); stop {
+			return p.toks[i], why
 		}
 	}
 	ahead := *p.sc
@@ -534,8 +565,8 @@ func (p *parser) tooDeep(i int) (lexer.Token, bool) {
 	for {
 		ahead.step()
 		for j := range ahead.toks {
-			if stop, deep := deeper(&ahead.toks[j]); stop {
-				return ahead.toks[j], deep
+			if stop, why := deeper(&ahead.toks[j]); stop {
+				return ahead.toks[j], why
 			}
 		}
 		ahead.toks = ahead.toks[:0]

@@ -236,9 +236,15 @@ func TestParseLongLine(t *testing.T) {
 	}
 	b.WriteString(" $\n")
 	// Its time is measured by BenchmarkParseLongLine, not here: a timed
-	// test fails on a busy machine.
+	// test fails on a busy machine. Its statement is cut at its first
+	// token beyond MaxStmtTokens: the statement starts with five tokens
+	// and each term adds three, so token 4097 is the unit of the 1364th
+	// term, at column 13 + 6·1364.
 	f := Parse("long.loop", longLine())
-	checkErrs(t, f, []string{"1:" + itoa(b.Len()-1) + " unexpected character"})
+	checkErrs(t, f, []string{"1:8197 statement has more than 4096 tokens"})
+	// Cut short before the bound, it is explained where it stops.
+	f = Parse("short.loop", []byte("param a = 1 m"+strings.Repeat(" + 1 m", 1000)+" $\n"))
+	checkErrs(t, f, []string{"1:" + itoa(len("param a = 1 m")+1000*len(" + 1 m")+2) + " unexpected character"})
 	// Many statements on one line.
 	long := strings.Repeat("a;", 200_000) + "("
 	f = Parse("semi.loop", []byte(long))
@@ -324,6 +330,14 @@ func TestHostileLinesSameAsGrammar(t *testing.T) {
 		// Blocks deeper than the tree keeps.
 		strings.Repeat("{", MaxNesting+20) + strings.Repeat("}", 30) + "\na = 1 {",
 		strings.Repeat("a {\n", MaxNesting+5) + "b = ( 1\n}}}}}}}}\nc = 2 ^ x {\n",
+		// Statements longer than MaxStmtTokens, and one just as long.
+		strings.Repeat("a ", MaxStmtTokens) + "\nb 1",
+		strings.Repeat("a ", MaxStmtTokens+1) + "\nb 1",
+		"param x = 1" + strings.Repeat(" =", MaxStmtTokens) + "; c 2\nb 1",
+		"param a = 1 m" + strings.Repeat(" + 1 m", MaxStmtTokens/3) + " $\nb 1",
+		"a" + strings.Repeat(" b", MaxStmtTokens+5) + " {\n  c 1\n}\nd 2",
+		"q (" + strings.Repeat("1, ", MaxStmtTokens) + "2)\nb 1",
+		"a" + strings.Repeat(" )", MaxStmtTokens+5) + "\nb 1",
 	} {
 		checkSameAsGrammar(t, Parse("h.loop", []byte(src)))
 		// And the model read for its heads alone is the full one's.
@@ -350,5 +364,29 @@ func TestLineOfBracesMegabyte(t *testing.T) {
 	}
 	if depth != MaxNesting+1 {
 		t.Errorf("%d nested blocks, want %d", depth, MaxNesting+1)
+	}
+}
+
+// TestStatementTokenCap checks that a statement longer than MaxStmtTokens
+// is one error at its first token beyond the bound, that the lines after
+// it are read, and that a block it opens still nests what follows.
+func TestStatementTokenCap(t *testing.T) {
+	if f := Parse("c.loop", []byte(strings.Repeat("a ", MaxStmtTokens))); len(f.Errors) > 0 {
+		t.Fatalf("a statement of %d tokens: %s", MaxStmtTokens, f.Errors[0].Message())
+	}
+	src := "a" + strings.Repeat(" b", MaxStmtTokens) + " {\n  c 1\n}\nd 2\n"
+	f := Parse("c.loop", []byte(src))
+	if len(f.Errors) != 1 {
+		t.Fatalf("%d errors, want 1: %v", len(f.Errors), f.Errors)
+	}
+	want := 1 + 2*MaxStmtTokens - 1 // the last "b"
+	if sp := f.Errors[0].Loc.Span; sp.Start != want || sp.End != want+1 {
+		t.Errorf("error at %v, want [%d,%d)", sp, want, want+1)
+	}
+	if msg := f.Errors[0].Message(); !strings.Contains(msg, "more than 4096 tokens") {
+		t.Errorf("message %q", msg)
+	}
+	if len(f.Stmts) != 2 || !f.Stmts[0].Bad || f.Stmts[0].Block == nil || len(f.Stmts[0].Block.Stmts) != 1 || f.Stmts[1].Keyword() != "d" {
+		t.Errorf("tree:\n%s", dumpTree(f))
 	}
 }

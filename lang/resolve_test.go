@@ -216,8 +216,12 @@ func TestClosestSkipsFarLengths(t *testing.T) {
 
 // A value whose expression is 64 KiB or longer keeps its whole span: the
 // span is the text of the expression, whichever way the file is loaded.
+// Its terms are spaced out to stay within MaxStmtTokens.
 func TestLongValueSpan(t *testing.T) {
-	expr := "1 mm" + strings.Repeat(" + 1 mm", 10000)
+	expr := "1 mm" + strings.Repeat(" +"+strings.Repeat(" ", 50)+"1 mm", 1300)
+	if len(expr) < 1<<16 {
+		t.Fatalf("expression of %d bytes", len(expr))
+	}
 	src := "param p = " + expr + "\nparam q = 2 mm\n"
 	start := len("param p = ")
 	for _, m := range []*Model{LoadSource("l.loop", []byte(src), nil), LoadSourceModel("l.loop", []byte(src), nil)} {
