@@ -22,8 +22,11 @@ import (
 var memSize = flag.Int("memsize", 4<<20, "total size in bytes of the inputs of BenchmarkMemory; past the read cap the input is split into included files")
 
 // memPart writes about n bytes of one kind of text to path: "params", a
-// valid file of parameters with comments; "loop", one loop of many pipes;
-// "errors", a syntax error on every line; "binary", random bytes. Names
+// valid file of parameters with comments; "loop", one loop of many pipes
+// whose last pipe names an undeclared node, so only the rules that run on
+// a loop that does not load see it; "ring", one valid closed loop of many
+// pipes that checks and estimates (see memRing); "errors", a syntax error
+// on every line; "binary", random bytes. Names
 // carry the part's number, so the parts of one input do not clash.
 func memPart(b *testing.B, path, kind string, part, n int) {
 	var sb strings.Builder
@@ -39,6 +42,8 @@ func memPart(b *testing.B, path, kind string, part, n int) {
 			fmt.Fprintf(&sb, "  node n%d at (0, 0, %d) mm\n  pipe q%d_%d from n%d to n%d { length 1 m; bore 8 mm }\n", i, i%50, part, i, i, i+1)
 		}
 		sb.WriteString("}\n")
+	case "ring":
+		memRing(&sb, part, n)
 	case "errors":
 		for i := 0; sb.Len() < n; i++ {
 			fmt.Fprintf(&sb, "param x%d_%d = 3 $ (\n", part, i)
@@ -52,6 +57,34 @@ func memPart(b *testing.B, path, kind string, part, n int) {
 	if err := os.WriteFile(path, []byte(sb.String()), 0o644); err != nil {
 		b.Fatal(err)
 	}
+}
+
+// memRing writes about n bytes of one closed loop with a case: an
+// evaporator at the bottom, a riser, a run of short level pipes at the top,
+// a condenser, a downcomer and a run of short level pipes back to the
+// evaporator's inlet. Every node's height agrees with the rises, and the
+// level runs are short and wide enough that the evaporator does not dry
+// out at 16 MB, so the loop checks without errors and its estimate runs.
+func memRing(sb *strings.Builder, part, n int) {
+	fmt.Fprintf(sb, "loop r%d {\n  fluid R1233zd(E)\n  design_pressure 4 bar(g)\n", part)
+	fmt.Fprintf(sb, "  node b%d_0 at (0, 0, 0) mm\n  node e%d at (0, 0, 300) mm\n  node t%d_0 at (0, 0, 1500) mm\n", part, part, part)
+	fmt.Fprintf(sb, "  evaporator ev%d from b%d_0 to e%d { length 300 mm; rise 300 mm; bore 14 mm; heated_length 300 mm; wetted_area 0.018 m²; heat 1.2 kW }\n", part, part, part)
+	fmt.Fprintf(sb, "  pipe up%d from e%d to t%d_0 { length 1200 mm; rise 1200 mm; bore 14 mm }\n", part, part, part)
+	k := 0
+	for sb.Len() < n/2 {
+		k++
+		fmt.Fprintf(sb, "  node t%d_%d at (%d, 0, 1500) mm\n  pipe a%d_%d from t%d_%d to t%d_%d { length 2 mm; bore 40 mm }\n", part, k, k*2, part, k, part, k-1, part, k)
+	}
+	fmt.Fprintf(sb, "  node c%d at (%d, 0, 1200) mm\n  node b%d_%d at (%d, 0, 0) mm\n", part, k*2, part, k, k*2)
+	fmt.Fprintf(sb, "  condenser co%d from t%d_%d to c%d { length 300 mm; rise -300 mm; bore 14 mm; conductance 95 W/K }\n", part, part, k, part)
+	fmt.Fprintf(sb, "  pipe down%d from c%d to b%d_%d { length 1200 mm; rise -1200 mm; bore 14 mm }\n", part, part, part, k)
+	for i := k - 1; i >= 0; i-- {
+		if i > 0 {
+			fmt.Fprintf(sb, "  node b%d_%d at (%d, 0, 0) mm\n", part, i, i*2)
+		}
+		fmt.Fprintf(sb, "  pipe z%d_%d from b%d_%d to b%d_%d { length 2 mm; bore 40 mm }\n", part, i, part, i+1, part, i)
+	}
+	fmt.Fprintf(sb, "}\n\ncase hot%d {\n  heat ev%d 1.2 kW\n  sink 32 °C\n}\n", part, part)
 }
 
 // memInput writes an input of about n bytes of one kind and returns the
@@ -161,7 +194,7 @@ func peakRSS(b *testing.B, args []string) uint64 {
 // multiples of the input's size (target: at most 10). Run with
 // -benchtime 1x; -memsize sets the input size.
 func BenchmarkMemory(b *testing.B) {
-	for _, kind := range []string{"params", "loop", "errors", "binary"} {
+	for _, kind := range []string{"params", "loop", "ring", "errors", "binary"} {
 		root, parts, size := memInput(b, kind, *memSize)
 		// estimate runs without the design guidance, whose search over each
 		// parameter is another matter than the memory of reading the file.
@@ -189,5 +222,30 @@ func BenchmarkMemory(b *testing.B) {
 				b.ReportMetric(float64(rss)/float64(size), "rss/input")
 			})
 		}
+	}
+}
+
+// TestMemRingChecks keeps the "ring" input of BenchmarkMemory a loop that
+// checks without errors and whose estimate runs, so its figures stay those
+// of a whole check.
+func TestMemRingChecks(t *testing.T) {
+	var sb strings.Builder
+	memRing(&sb, 0, 20_000)
+	if n := strings.Count(sb.String(), "\n  pipe "); n < 200 {
+		t.Fatalf("ring has %d pipes, want at least 200", n)
+	}
+	path := filepath.Join(t.TempDir(), "ring.loop")
+	if err := os.WriteFile(path, []byte(sb.String()), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	var out, errb strings.Builder
+	rc := run([]string{"check", path}, strings.NewReader(""), &out, &errb)
+	all := out.String() + errb.String()
+	if rc != 0 || !strings.Contains(all, " 0 errors") {
+		t.Fatalf("check exited %d, want 0 with no errors:\n%s", rc, all)
+	}
+	// The summary names the worst margin only once the estimate has run.
+	if !strings.Contains(all, "worst margin") {
+		t.Errorf("check reported no margin, so the estimate did not run:\n%s", all)
 	}
 }
