@@ -412,7 +412,7 @@ func (p *parser) statement() {
 	start := p.cur
 	if deep, why := p.tooDeep(start, first.Type == TokIdent); why != 0 {
 		if why == tooLong {
-			p.errorf(tokSpan(&deep), "statement has more than %d tokens: the rest of the line is skipped", MaxStmtTokens)
+			p.reportCapped(first, deep)
 		} else {
 			p.errorf(tokSpan(&deep), "expression nested too deeply: more than %d parentheses are open here", MaxNesting)
 		}
@@ -571,6 +571,139 @@ func (p *parser) tooDeep(i int, count bool) (lexer.Token, int) {
 		}
 		ahead.toks = ahead.toks[:0]
 	}
+}
+
+// reportCapped reports the error of the statement that starts with first
+// and has more than MaxStmtTokens tokens, cap the first beyond the bound:
+// the first error of the statement cut short at cap, which is where the
+// statement read whole would report it (one error is reported per line,
+// and the bound's would hide it), or else that the statement is too long.
+// An error found only by reading on past cap (an operator before cap with
+// its value beyond, a part that runs past cap) is the bound's. The grammar
+// reads the statement up to cap alone: at most MaxStmtTokens tokens and
+// the blanks between them.
+func (p *parser) reportCapped(first, cap lexer.Token) {
+	if p.tooMany || len(p.f.Errors) > 0 && p.errLine == p.f.Mapper.OffsetLine(first.Pos.Offset) {
+		// The line's error is reported already.
+		return
+	}
+	end := p.cur
+	for p.at(end).Pos.Offset < cap.Pos.Offset {
+		end++
+	}
+	cut := p.cur
+	if !p.grammarOnly {
+		// The fast path reads most such statements whole up to cap, and
+		// then the grammar, which allocates some kilobytes a token, need
+		// not read them. Off with grammarOnly, so the fuzzers compare
+		// this with the grammar's own answer.
+		// It reads the tokens in place, cap made the end for the while.
+		capTok := p.toks[end]
+		p.toks[end] = lexer.EOFToken(lexer.Position{Offset: capTok.Pos.Offset, Line: capTok.Pos.Line, Column: capTok.Pos.Column})
+		window := p.toks[p.cur : end+1]
+		q := fastParser{toks: window, nodes: &p.nodes, partial: true}
+		mark := p.nodes.mark()
+		_, ok := q.stmt()
+		p.nodes.release(mark)
+		p.toks[end] = capTok
+		if ok {
+			stop := q.i
+			for elided(&window[stop]) {
+				stop++
+			}
+			if stop+p.cur == end || !p.explainCapped(stop+p.cur, end) {
+				p.errorf(tokSpan(&cap), "statement has more than %d tokens: the rest of the line is skipped", MaxStmtTokens)
+			}
+			return
+		}
+	}
+	// The grammar's error for a statement cut inside a parenthesis or
+	// after an operator may lie before the cut (for "(1 +" it is "+",
+	// where ")" was expected): it reads the statement up to its last
+	// token at depth 0 that is not an operator, where a statement may
+	// end, and an error beyond that is the bound's.
+	depth := 0
+	for j := p.cur; j < end; j++ {
+		t := &p.toks[j]
+		if elided(t) {
+			continue
+		}
+		switch {
+		case isPunctTok(t, "("):
+			depth++
+		case isPunctTok(t, ")"):
+			depth--
+		}
+		if depth == 0 && !(t.Type == TokPunct && strings.Contains("+-*/^(", t.Value)) {
+			cut = j + 1
+		}
+	}
+	for cut < end && elided(&p.toks[cut]) {
+		cut++
+	}
+	lex := p.lexBefore(p.cur, cut)
+	_, err := parseStmt(lex)
+	var perr participle.Error
+	switch {
+	case err != nil && (!errors.As(err, &perr) || perr.Position().Offset < p.toks[cut].Pos.Offset):
+		p.reportParseError(err, first)
+		return
+	case err == nil:
+		stop := p.lexBase + int(lex.MakeCheckpoint().RawCursor())
+		for stop < cut && elided(&p.toks[stop]) {
+			stop++
+		}
+		if stop < cut && p.explainCapped(stop, cut) {
+			return
+		}
+	}
+	p.errorf(tokSpan(&cap), "statement has more than %d tokens: the rest of the line is skipped", MaxStmtTokens)
+}
+
+// explainCapped is explainStop for a statement stopped at raw index stop
+// before the bound at raw index end: it reports the error found in the
+// tokens before end, and whether there is one.
+func (p *parser) explainCapped(stop, end int) bool {
+	t := p.toks[stop]
+	if t.Type == TokPunct && strings.Contains("+-*/^", t.Value) {
+		j := stop + 1
+		for j < end && elided(&p.toks[j]) {
+			j++
+		}
+		if j == end {
+			// Its value may be past the bound.
+			return false
+		}
+	}
+	if !startsArg(&t) {
+		p.errorf(tokSpan(&t), "%s", unexpected(&t, "at the end of the statement"))
+		return true
+	}
+	_, err := parseArg(p.lexBefore(stop, end))
+	var perr participle.Error
+	if err != nil && errors.As(err, &perr) && perr.Position().Offset > t.Pos.Offset {
+		if perr.Position().Offset >= p.toks[end].Pos.Offset {
+			return false
+		}
+		p.reportParseError(err, t)
+		return true
+	}
+	p.errorf(tokSpan(&t), "%s", unexpected(&t, "at the end of the statement"))
+	return true
+}
+
+// lexBefore returns participle's lexer over the raw tokens from index
+// from up to index end, which it ends at the start of toks[end].
+func (p *parser) lexBefore(from, end int) *lexer.PeekingLexer {
+	pos := p.toks[end].Pos
+	window := append(p.toks[from:end:end], lexer.EOFToken(lexer.Position{Offset: pos.Offset, Line: pos.Line, Column: pos.Column}))
+	p.lexBase = from
+	lex, err := lexer.Upgrade(&sliceLexer{toks: window}, TokSpace, TokComment)
+	if err != nil {
+		// sliceLexer never fails; keep a usable lexer regardless.
+		lex, _ = lexer.Upgrade(&sliceLexer{toks: window[len(window)-1:]})
+	}
+	return lex
 }
 
 // skipBad keeps a statement that did not parse as a Bad one and skips to

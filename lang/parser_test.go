@@ -338,6 +338,13 @@ func TestHostileLinesSameAsGrammar(t *testing.T) {
 		"a" + strings.Repeat(" b", MaxStmtTokens+5) + " {\n  c 1\n}\nd 2",
 		"q (" + strings.Repeat("1, ", MaxStmtTokens) + "2)\nb 1",
 		"a" + strings.Repeat(" )", MaxStmtTokens+5) + "\nb 1",
+		// Longer still, with an error before the bound.
+		"a 1 ^ ^" + strings.Repeat(" b", 5000) + "\nb 1",
+		"a (1 + )" + strings.Repeat(" b", 5000) + " {\n}\nb 1",
+		"a b = ^" + strings.Repeat(" 1", 5000) + "\nb 1",
+		"a" + strings.Repeat(" b", MaxStmtTokens-3) + " 1 ^ ^ 2 2 2",
+		"a" + strings.Repeat(" b", MaxStmtTokens-4) + " (" + strings.Repeat(" 1 +", 10) + " 1)\nb 1",
+		"a" + strings.Repeat(" b", MaxStmtTokens-2) + " -" + strings.Repeat(" 1", 10),
 	} {
 		checkSameAsGrammar(t, Parse("h.loop", []byte(src)))
 		// And the model read for its heads alone is the full one's.
@@ -388,5 +395,35 @@ func TestStatementTokenCap(t *testing.T) {
 	}
 	if len(f.Stmts) != 2 || !f.Stmts[0].Bad || f.Stmts[0].Block == nil || len(f.Stmts[0].Block.Stmts) != 1 || f.Stmts[1].Keyword() != "d" {
 		t.Errorf("tree:\n%s", dumpTree(f))
+	}
+	// An error before the bound is the line's error, the one the
+	// statement reports when it is short, and the bound's is not.
+	for _, c := range []struct{ head, tail string }{
+		{"a 1 ^ ^", " b"},
+		{"a (1 + )", " b"},
+		{"a b = ^", " 1"},
+		{"q 1 m ^ 2 )", " 1"},
+		{"a" + strings.Repeat(" b", MaxStmtTokens-3) + " 1 ^ ^", " 2"},
+	} {
+		short := Parse("c.loop", []byte(c.head+strings.Repeat(c.tail, 3)+"\nd 2\n"))
+		long := Parse("c.loop", []byte(c.head+strings.Repeat(c.tail, 5000)+"\nd 2\n"))
+		if len(short.Errors) != 1 || len(long.Errors) != 1 {
+			t.Errorf("%.20q: %d and %d errors, want 1: %v %v", c.head, len(short.Errors), len(long.Errors), short.Errors, long.Errors)
+			continue
+		}
+		if s, l := short.Errors[0], long.Errors[0]; s.Loc != l.Loc || s.Message() != l.Message() {
+			t.Errorf("%.20q: long %v %q, short %v %q", c.head, l.Loc.Span, l.Message(), s.Loc.Span, s.Message())
+		}
+	}
+	// An operator just before the bound may have its value past it, and a
+	// part that runs past the bound may end well: the bound is reported.
+	for _, src := range []string{
+		"a" + strings.Repeat(" b", MaxStmtTokens-2) + " +" + strings.Repeat(" 1", 10),
+		"a" + strings.Repeat(" b", MaxStmtTokens-4) + " (" + strings.Repeat(" 1 +", 10) + " 1)",
+	} {
+		f := Parse("c.loop", []byte(src))
+		if len(f.Errors) != 1 || !strings.Contains(f.Errors[0].Message(), "more than 4096 tokens") {
+			t.Errorf("%d errors, want the bound's: %v", len(f.Errors), f.Errors)
+		}
 	}
 }
