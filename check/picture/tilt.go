@@ -80,8 +80,12 @@ func TiltOf(m *lang.Model, l *lang.Loop, caseName string, step float64) (*Tilt, 
 		angles = append(angles, -math.Pi/2+float64(i)*math.Pi/float64(n))
 	}
 	t := &Tilt{Loop: l.Name, Case: c.Name, Pitch: finite(c.Pitch.SI), Roll: finite(c.Roll.SI)}
-	sweep := func(sw *flow.Sweep) ([]TiltPoint, *flow.CaseResult, error) {
-		lr := flow.EstimateLoop(m, l, flow.Options{Case: c.Name, Sweep: sw, SweepMargins: true})
+	// The case's own point leads each sweep; only the pitch sweep's is
+	// read (its margins and tilt limits), so the roll sweep skips its tilt
+	// search, and of the one read only what is read is kept, not every
+	// component's state.
+	sweep := func(sw *flow.Sweep, noTilt bool) ([]TiltPoint, *flow.CaseResult, error) {
+		lr := flow.EstimateLoop(m, l, flow.Options{Case: c.Name, Sweep: sw, SweepMargins: true, NoTilt: noTilt})
 		if len(lr.Cases) != len(angles)+1 {
 			return nil, nil, fmt.Errorf("loop %s cannot be estimated: %s", l.Name, findingText(lr.Findings))
 		}
@@ -102,13 +106,14 @@ func TiltOf(m *lang.Model, l *lang.Loop, caseName string, step float64) (*Tilt, 
 			}
 			pts = append(pts, tp)
 		}
-		return pts, &lr.Cases[0], nil
+		base := flow.CaseResult{Circulates: lr.Cases[0].Circulates, Margins: lr.Cases[0].Margins, Tilt: lr.Cases[0].Tilt}
+		return pts, &base, nil
 	}
 	var base *flow.CaseResult
-	if t.PitchSweep, base, err = sweep(&flow.Sweep{Pitch: angles}); err != nil {
+	if t.PitchSweep, base, err = sweep(&flow.Sweep{Pitch: angles}, false); err != nil {
 		return nil, err
 	}
-	if t.RollSweep, _, err = sweep(&flow.Sweep{Roll: angles}); err != nil {
+	if t.RollSweep, _, err = sweep(&flow.Sweep{Roll: angles}, true); err != nil {
 		return nil, err
 	}
 	circ := func(p TiltPoint) bool { return p.Circulates }
