@@ -52,7 +52,8 @@ type Options struct {
 	Layout *geom.Layout
 	// SweepMargins keeps of each sweep point only what does not run over
 	// the components: its circulation, flows, totals, margins and tilt
-	// limits, not its component states and findings. For a caller that
+	// limits, not its component states and findings; of the case's own
+	// point (unless the case has a profile), not its states. For a caller that
 	// reads no more (the tilt envelope): a large loop's states and
 	// per-component findings, kept for every point of a sweep, were
 	// hundreds of bytes per component and point.
@@ -257,6 +258,11 @@ func estimateLoop(m *lang.Model, l *lang.Loop, methods MethodsUsed, points []poi
 			lr.Cases[i], f = p.run(pt, !opts.NoTilt && !pt.derived(), start)
 			if p.sweepMargins && pt.grid {
 				lr.Cases[i].Components, lr.Cases[i].Findings = nil, nil
+			} else if p.sweepMargins && !pt.profile && (pt.c == nil || pt.c.Profile == nil) {
+				// The case's own point leads the sweep: its states
+				// would be kept through every point after it. A profile
+				// case's instants are gathered onto them, so those stay.
+				lr.Cases[i].Components = nil
 			}
 			return f
 		})
