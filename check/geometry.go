@@ -366,7 +366,7 @@ func riseMisclosure(c *Context) {
 // horizontalKnown reports whether a component's horizontal displacement is
 // known: from a run or coordinates, or a bend or fitting of no length.
 func horizontalKnown(comp *lang.Component, lay *geom.Layout) bool {
-	if lay.Horizontal[comp.Index] {
+	if lay.Horizontal(comp.Index) {
 		return true
 	}
 	L, ok := lengthOf(comp)

@@ -34,10 +34,12 @@ type Layout struct {
 	Piece []int32
 	// Source says, by Component.Index, where Disp comes from.
 	Source []Source
-	// Horizontal says whether Disp's horizontal part is known.
-	Horizontal []bool
-	loop       *lang.Loop
+	loop   *lang.Loop
 }
+
+// Horizontal says whether the horizontal part of component i's Disp is
+// known: it is unless Disp came from the rise alone.
+func (lay *Layout) Horizontal(i int) bool { return lay.Source[i] != FromRise }
 
 // Disp returns the inlet→outlet displacement of the component of index i:
 // from the end nodes' coordinates, else the run, else (0, 0, rise);
@@ -66,7 +68,7 @@ func Place(l *lang.Loop) *Layout {
 	nn, nc := len(l.Nodes), len(l.Components)
 	lay := &Layout{
 		Pos: make([]Vec3, nn), Known: make([]bool, nn), ZOnly: make([]bool, nn), Piece: make([]int32, nn),
-		Source: make([]Source, nc), Horizontal: make([]bool, nc), loop: l,
+		Source: make([]Source, nc), loop: l,
 	}
 	// The component indices touching each node, all lists in one array
 	// (counted first), node v's from off[v] to off[v+1]: a list of its own
@@ -89,9 +91,7 @@ func Place(l *lang.Loop) *Layout {
 	all := make([]int32, off[nn])
 	next := off[:nn] // each list's next entry; then the start of the next list
 	for i, c := range l.Components {
-		_, src := displacement(c)
-		lay.Source[i] = src
-		lay.Horizontal[i] = src != FromRise
+		_, lay.Source[i] = displacement(c)
 		if !joins(c) {
 			continue
 		}
@@ -122,7 +122,7 @@ func Place(l *lang.Loop) *Layout {
 		for h := 0; h < len(queue); h++ {
 			u := int(queue[h])
 			for _, ci := range adj(u) {
-				if full && !lay.Horizontal[ci] {
+				if full && !lay.Horizontal(int(ci)) {
 					continue
 				}
 				c := l.Components[ci]
@@ -141,7 +141,7 @@ func Place(l *lang.Loop) *Layout {
 					lay.Known[v] = true
 				} else {
 					lay.ZOnly[v] = true
-					if !lay.Horizontal[ci] {
+					if !lay.Horizontal(int(ci)) {
 						p[0], p[1] = lay.Pos[u][0], lay.Pos[u][1]
 					}
 				}
