@@ -180,8 +180,8 @@ loop l {
 	if !lay.Horizontal(p2.Index) || lay.Source[p2.Index] != FromRun || !near(lay.Disp(p2.Index).Norm(), 1.04403, 1e-5) {
 		t.Errorf("p2: %v %v %v", lay.Horizontal(p2.Index), lay.Source[p2.Index], lay.Disp(p2.Index))
 	}
-	if !nearVec(lay.Dir(p2.Index), Vec3{0, 0.3, 1}.Scale(1/math.Sqrt(1.09)), 1e-12) {
-		t.Errorf("p2 dir %v", lay.Dir(p2.Index))
+	if !nearVec(lay.Disp(p2.Index).Unit(), Vec3{0, 0.3, 1}.Scale(1/math.Sqrt(1.09)), 1e-12) {
+		t.Errorf("p2 dir %v", lay.Disp(p2.Index).Unit())
 	}
 	if lay.Horizontal(1) || lay.Source[1] != FromRise {
 		t.Errorf("evaporator displacement should be rise only")

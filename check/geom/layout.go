@@ -23,8 +23,8 @@ const (
 // Only the chord matters for gravity: for a uniform body force b the
 // hydrostatic integral ∫ b·ŝ ds along any path equals b·Disp. So the
 // elevation change along a component is taken from Disp (Δz = Disp[2] when
-// level, b·Disp in general) and the length is used for friction only; Dir is
-// the chord's direction, not the local tube direction.
+// level, b·Disp in general) and the length is used for friction only; Disp's
+// direction is the chord's, not the local tube direction.
 type Layout struct {
 	Pos   []Vec3 // by Node.Index
 	Known []bool // position known in 3-D (coordinates, or reached through runs/coordinates from such a node)
@@ -50,10 +50,6 @@ func (lay *Layout) Disp(i int) Vec3 {
 	d, _ := displacement(lay.loop.Components[i])
 	return d
 }
-
-// Dir returns the unit direction along the flow of component i's straight
-// inlet→outlet chord (zero when the chord is zero), worked out like Disp.
-func (lay *Layout) Dir(i int) Vec3 { return lay.Disp(i).Unit() }
 
 // Place lays out a loop. Nodes with coordinates keep them; the others are
 // reached by walking components (either way along them) from placed nodes,
