@@ -52,7 +52,14 @@ func (g *Graph) Reservoirs(v int) []int32 { return g.list(3*v + 2) }
 
 // Ends counts the component ends at node v (a component from v to v
 // counts twice).
-func (g *Graph) Ends(v int) int { return int(g.off[3*v+2] - g.off[3*v]) }
+func (g *Graph) Ends(v int) int { return len(g.joined(v)) }
+
+// joined lists the components leaving node v, then those entering it: the
+// two lists lie one after the other.
+func (g *Graph) joined(v int) []int32 {
+	a, b := g.off[3*v], g.off[3*v+2]
+	return g.lists[a:b:b]
+}
 
 func (g *Graph) list(k int) []int32 {
 	a, b := g.off[k], g.off[k+1]
@@ -151,8 +158,7 @@ func (g *Graph) forest() {
 		for head < len(g.Order) {
 			u := int(g.Order[head])
 			head++
-			// The out and in lists of u lie one after the other.
-			for _, ci := range g.lists[g.off[3*u]:g.off[3*u+2]] {
+			for _, ci := range g.joined(u) {
 				v := g.Other(int(ci), u)
 				if g.Piece[v] >= 0 {
 					continue
@@ -302,7 +308,7 @@ func (g *Graph) prune() {
 		if deg[v] != 1 {
 			continue
 		}
-		for _, ci := range g.lists[g.off[3*v]:g.off[3*v+2]] {
+		for _, ci := range g.joined(v) {
 			if gone[ci] {
 				continue
 			}
