@@ -146,6 +146,11 @@ func tokSpan(t *lexer.Token) Span { return Span{t.Pos.Offset, t.Pos.Offset + len
 
 func isPunctTok(t *lexer.Token, v string) bool { return t.Type == TokPunct && t.Value == v }
 
+// isOperator reports whether t is one of the binary operators + - * / ^.
+func isOperator(t *lexer.Token) bool {
+	return t.Type == TokPunct && len(t.Value) == 1 && strings.Contains("+-*/^", t.Value)
+}
+
 // refill drops the tokens once all are consumed and scans the next one. A
 // token pointer or raw index taken before it is not used after it.
 func (p *parser) refill() {
@@ -532,7 +537,7 @@ func (p *parser) tooDeep(i int, count bool) (lexer.Token, int) {
 			return true, 0
 		}
 		if count && !elided(t) {
-			if depth <= 0 && !startsArg(t) && t.Type != TokUnit && !(t.Type == TokPunct && strings.Contains("+-*/^", t.Value)) {
+			if depth <= 0 && !startsArg(t) && t.Type != TokUnit && !isOperator(t) {
 				count = false
 			} else if n++; n > MaxStmtTokens {
 				return true, tooLong
@@ -634,7 +639,7 @@ func (p *parser) reportCapped(first, cap lexer.Token) {
 		case isPunctTok(t, ")"):
 			depth--
 		}
-		if depth == 0 && !(t.Type == TokPunct && strings.Contains("+-*/^(", t.Value)) {
+		if depth == 0 && !isOperator(t) && !isPunctTok(t, "(") {
 			cut = j + 1
 		}
 	}
@@ -665,7 +670,7 @@ func (p *parser) reportCapped(first, cap lexer.Token) {
 // tokens before end, and whether there is one.
 func (p *parser) explainCapped(stop, end int) bool {
 	t := p.toks[stop]
-	if t.Type == TokPunct && strings.Contains("+-*/^", t.Value) {
+	if isOperator(&t) {
 		j := stop + 1
 		for j < end && elided(&p.toks[j]) {
 			j++
@@ -799,7 +804,7 @@ func (p *parser) terminator(s *Stmt) {
 // the end of the statement: an operator with nothing after it, or the
 // error found by parsing one more part from t.
 func (p *parser) explainStop(t *lexer.Token) {
-	if t.Type == TokPunct && strings.Contains("+-*/^", t.Value) {
+	if isOperator(t) {
 		// The token after t, looked at without consuming t.
 		j := p.cur
 		for elided(p.at(j)) {
