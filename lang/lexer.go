@@ -114,8 +114,8 @@ type scanner struct {
 	// and a file of commented lines would keep a Comment for each.
 	allowsOnly bool
 	// endsValue is whether the last token of the line that is not elided
-	// ends an operand (see prevEndsValue); kept here because the tokens
-	// themselves may already be dropped.
+	// ends an operand, which decides whether a following '-' is binary;
+	// kept here because the tokens themselves may already be dropped.
 	endsValue bool
 	// lookahead marks a copy of the scanner that reads ahead and keeps
 	// nothing: it records no comments.
@@ -139,10 +139,6 @@ func (s *scanner) emit(tt lexer.TokenType, start int) {
 		s.endsValue = false
 	}
 }
-
-// prevEndsValue reports whether the previous token of the line ends an
-// operand, which decides whether a following '-' is binary.
-func (s *scanner) prevEndsValue() bool { return s.endsValue }
 
 // nextLine appends the tokens of the next line to s.toks, up to and
 // including its newline, or the EOF token after the last line. It reports
@@ -236,7 +232,7 @@ func (s *scanner) signStartsNumber() bool {
 	if !isDigit(s.src[p]) && !(s.src[p] == '.' && p+1 < len(s.src) && isDigit(s.src[p+1])) {
 		return false
 	}
-	if !s.prevEndsValue() {
+	if !s.endsValue {
 		return true
 	}
 	if s.pos > 0 && isBlank(s.src[s.pos-1]) {
