@@ -265,6 +265,16 @@ func (s *state) localX(x float64, sat fluid.Sat) float64 {
 	return (h - sat.HL) / sat.Hlv
 }
 
+// localXh is localX at satAt(p)'s state, from its enthalpies alone.
+func (s *state) localXh(x, p float64) float64 {
+	hl, hlv, err := fluid.EnthalpiesAtP(s.fl, p)
+	if err != nil {
+		sat, _ := s.satAt(p)
+		hl, hlv = sat.HL, sat.Hlv
+	}
+	return (s.sat.HL + x*s.sat.Hlv - hl) / hlv
+}
+
 // localStates fills each component's local-saturation state from the
 // marched pressures. In local mode the pressures are those the march used
 // and the reported qualities become the local ones; in single mode the
@@ -342,8 +352,7 @@ func (s *state) boilingOnset(ci int, dir, m, xin, xout, pIn float64) *float64 {
 	ds := cp.L / n
 	p := pIn
 	x := s.faceX(cp, dir, xin, xout, 0, n)
-	sat, _ := s.satAt(p)
-	prev := s.localX(x, sat)
+	prev := s.localXh(x, p)
 	if !(prev < 0) {
 		return nil
 	}
@@ -352,8 +361,7 @@ func (s *state) boilingOnset(ci int, dir, m, xin, xout, pIn float64) *float64 {
 		rho, mu := s.liquid(x)
 		p -= (scale*s.liquidGradient(G, cp.D, cp.rr, rho, mu) - rho*gain) * ds
 		x = s.faceX(cp, dir, xin, xout, k, n)
-		sat, _ = s.satAt(p)
-		xl := s.localX(x, sat)
+		xl := s.localXh(x, p)
 		if xl >= 0 {
 			z := (float64(k-1) + prev/(prev-xl)) * ds
 			return &z

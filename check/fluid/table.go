@@ -284,12 +284,50 @@ func (tb *tabulated) AtT(T float64) (Sat, error) {
 // AtP finds the saturated state at p (Pa) by solving the interpolated ln p(T)
 // for T, so that AtT(AtP(p).T) reproduces p.
 func (tb *tabulated) AtP(p float64) (Sat, error) {
+	i, t, err := tb.locateP(p)
+	if err != nil {
+		return Sat{}, err
+	}
+	T := tb.gridT(tb.x0 + (float64(i)+t)*tb.dx)
+	T = min(max(T, tb.info.Tmin), tb.info.Tmax)
+	s := tb.eval(i, t, T)
+	s.P = p
+	return s, nil
+}
+
+// enthalpiesAtP is AtP's liquid enthalpy and latent heat alone, the same
+// bits without the other fields' interpolation.
+func (tb *tabulated) enthalpiesAtP(p float64) (hl, hlv float64, err error) {
+	i, t, err := tb.locateP(p)
+	if err != nil {
+		return 0, 0, err
+	}
+	c := tb.coef[i*tableNumFields*4 : (i+1)*tableNumFields*4]
+	k := fHL * 4
+	hl = c[k] + t*(c[k+1]+t*(c[k+2]+t*c[k+3]))
+	k = fHlv * 4
+	hlv = c[k] + t*(c[k+1]+t*(c[k+2]+t*c[k+3]))
+	return hl, hlv, nil
+}
+
+// EnthalpiesAtP returns the saturated liquid enthalpy and latent heat at
+// p (Pa), as AtP gives them; from a table it skips the other properties.
+func EnthalpiesAtP(f Fluid, p float64) (hl, hlv float64, err error) {
+	if tb, ok := f.(*tabulated); ok {
+		return tb.enthalpiesAtP(p)
+	}
+	s, err := f.AtP(p)
+	return s.HL, s.Hlv, err
+}
+
+// locateP finds the interval i and local coordinate t of pressure p.
+func (tb *tabulated) locateP(p float64) (i int, t float64, err error) {
 	if !(p >= tb.pmin && p <= tb.pmax) {
-		return Sat{}, &RangeError{Fluid: tb.info.Name, Quantity: "pressure", Value: p,
+		return 0, 0, &RangeError{Fluid: tb.info.Name, Quantity: "pressure", Value: p,
 			Min: tb.pmin, Max: tb.pmax, Unit: "Pa"}
 	}
 	lp := math.Log(p)
-	i := sort.SearchFloat64s(tb.lnp, lp) - 1 // lnp[i] < lp <= lnp[i+1]
+	i = sort.SearchFloat64s(tb.lnp, lp) - 1 // lnp[i] < lp <= lnp[i+1]
 	if i < 0 {
 		i = 0
 	} else if i >= tb.n {
@@ -297,12 +335,7 @@ func (tb *tabulated) AtP(p float64) (Sat, error) {
 	}
 	k := i * tableNumFields * 4 // fP is field 0
 	c := tb.coef[k : k+4]
-	t := solveCubicUnit(c, lp)
-	T := tb.gridT(tb.x0 + (float64(i)+t)*tb.dx)
-	T = min(max(T, tb.info.Tmin), tb.info.Tmax)
-	s := tb.eval(i, t, T)
-	s.P = p
-	return s, nil
+	return i, solveCubicUnit(c, lp), nil
 }
 
 // solveCubicUnit solves c0 + t(c1 + t(c2 + t c3)) = y for t in [0, 1], the
