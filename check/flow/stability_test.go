@@ -153,7 +153,9 @@ func TestStaticModeParallelUnstable(t *testing.T) {
 	if m, _, _ := staticMode(3, cycles, []float64{150, 150, 100}); m != nil {
 		t.Errorf("rising channels flagged: %+v", m)
 	}
-	// A single cycle keeps the branch test: its one mode is Σ S.
+	// A single cycle keeps the branch test: its one mode δṁ = (1, 1) has
+	// the quotient Σ S/2 = (−150 + 100)/2 = −25 (worked by hand), negative
+	// exactly where Σ S is.
 	one, _ := fundamentalCycles(2, bs[1:])
 	if m, _, _ := staticMode(2, one, []float64{-150, 100}); m == nil || math.Abs(m.Slope+25) > 1e-9 {
 		t.Errorf("single cycle of −150 and +100: %+v, want (−150 + 100)/2 = −25", m)
