@@ -21,7 +21,8 @@ import (
 // of a large file's check or estimate (at most about 5.5 bytes per byte)
 // for the garbage of one cycle. The process's resident size runs a little
 // over the limit (the program itself, stacks, pages not yet returned), so
-// the limit stays well under the bound of 10 on that size; 8 rather than 9
+// the limit stays well under the target of at most 10 bytes per byte read
+// that BenchmarkMemory reports as rss/input; 8 rather than 9
 // cost a large check about 4 % more time in collection.
 const heapPerInputByte = 8
 
