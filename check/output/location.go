@@ -34,15 +34,13 @@ func mapperPos(mp *lang.Mapper, off int) Pos {
 func (p Pos) on(text []byte) Pos {
 	p.Byte += len(text)
 	for i := 0; i < len(text); {
+		p.Char++
+		p.UTF16++
 		if text[i] < utf8.RuneSelf {
-			p.Char++
-			p.UTF16++
 			i++
 			continue
 		}
 		r, n := utf8.DecodeRune(text[i:])
-		p.Char++
-		p.UTF16++
 		if r >= 0x10000 {
 			p.UTF16++ // a surrogate pair
 		}
