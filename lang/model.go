@@ -70,10 +70,17 @@ func spanLen(span Span) (uint16, int32) {
 // At returns v written at span of file with the unit text unit ("" for a
 // bare number).
 func (v Value) At(file string, span Span, unit string) Value {
-	st := site{file: &file, unit: &unit}
-	v.n, st.end = spanLen(span)
-	v.start, v.at = int32(span.Start), &st
+	v.start, v.n, v.at = placeAt(file, span, unit)
 	return v
+}
+
+// placeAt returns what a value or vector written at span of file with the
+// unit text unit keeps of where it was written.
+func placeAt(file string, span Span, unit string) (int32, uint16, *site) {
+	st := site{file: &file, unit: &unit}
+	n, end := spanLen(span)
+	st.end = end
+	return int32(span.Start), n, &st
 }
 
 // File returns the path of the file the value was written in ("" for a
@@ -122,9 +129,7 @@ type Vec struct {
 
 // At returns v written at span of file with the unit text unit.
 func (v Vec) At(file string, span Span, unit string) Vec {
-	st := site{file: &file, unit: &unit}
-	v.n, st.end = spanLen(span)
-	v.start, v.at = int32(span.Start), &st
+	v.start, v.n, v.at = placeAt(file, span, unit)
 	return v
 }
 
