@@ -261,8 +261,13 @@ func (s *state) satAt(p float64) (fluid.Sat, correlate.Props) {
 // localX is the local quality of reference enthalpy x at the saturated
 // state sat.
 func (s *state) localX(x float64, sat fluid.Sat) float64 {
-	h := s.sat.HL + x*s.sat.Hlv
-	return (h - sat.HL) / sat.Hlv
+	return s.qualityAt(x, sat.HL, sat.Hlv)
+}
+
+// qualityAt is the local quality of reference enthalpy x where the liquid
+// saturates at enthalpy hl with latent heat hlv.
+func (s *state) qualityAt(x, hl, hlv float64) float64 {
+	return (s.sat.HL + x*s.sat.Hlv - hl) / hlv
 }
 
 // localXh is localX at satAt(p)'s state, from its enthalpies alone.
@@ -272,7 +277,7 @@ func (s *state) localXh(x, p float64) float64 {
 		sat, _ := s.satAt(p)
 		hl, hlv = sat.HL, sat.Hlv
 	}
-	return (s.sat.HL + x*s.sat.Hlv - hl) / hlv
+	return s.qualityAt(x, hl, hlv)
 }
 
 // localStates fills each component's local-saturation state from the

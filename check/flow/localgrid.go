@@ -240,7 +240,7 @@ func (s *state) localXAt(x, p float64) float64 {
 	}
 	a, b, _, t := s.interval(p)
 	hl, hlv := hermite(a, b, t)
-	return (s.sat.HL + x*s.sat.Hlv - hl) / hlv
+	return s.qualityAt(x, hl, hlv)
 }
 
 // hermite interpolates the liquid enthalpy and latent heat between nodes a
@@ -257,7 +257,7 @@ func hermite(a, b *satNode, t float64) (hl, hlv float64) {
 
 // localXp is the local quality of reference enthalpy x at state lp.
 func (s *state) localXp(x float64, lp *localProps) float64 {
-	return (s.sat.HL + x*s.sat.Hlv - lp.hl) / lp.hlv
+	return s.qualityAt(x, lp.hl, lp.hlv)
 }
 
 // frictionAt returns the friction prepared at node k for tube cp at mass
