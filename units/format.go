@@ -373,6 +373,14 @@ func prettyWord(w string) string {
 	return w
 }
 
+// SigDecimals is the number of decimals that writes a, a positive finite
+// magnitude, to n significant figures, counted from a rounded to n figures
+// so that 9.996 to three is 10.0, not 10.00.
+func SigDecimals(a float64, n int) int {
+	r, _ := strconv.ParseFloat(strconv.FormatFloat(a, 'e', n-1, 64), 64)
+	return max(n-1-int(math.Floor(math.Log10(r))), 0)
+}
+
 // Sig renders v to n significant figures keeping their trailing zeros
 // (0.100, 3.20, 50.0), as a value beside others of n figures reads: a
 // dropped zero looks like a value known to fewer. Values from 1e-4 up are
@@ -390,11 +398,7 @@ func Sig(v float64, n int) string {
 	case a < 1e-4:
 		return strconv.FormatFloat(v, 'e', n-1, 64)
 	}
-	// The decimals from the value rounded to n figures, so that 9.996 to
-	// three is 10.0, not 10.00.
-	r, _ := strconv.ParseFloat(strconv.FormatFloat(a, 'e', n-1, 64), 64)
-	d := max(n-1-int(math.Floor(math.Log10(r))), 0)
-	s := strconv.FormatFloat(v, 'f', d, 64)
+	s := strconv.FormatFloat(v, 'f', SigDecimals(a, n), 64)
 	if s[0] == '-' && strings.Trim(s, "-0.") == "" {
 		s = s[1:]
 	}

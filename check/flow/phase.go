@@ -3,9 +3,9 @@ package flow
 import (
 	"fmt"
 	"math"
-	"strconv"
 
 	"circa/lang"
+	"circa/units"
 )
 
 // Cautions about the saturated state itself, found before any flow is
@@ -103,9 +103,9 @@ func geyserFlowing(cr *CaseResult) {
 // kPaDecimals is the number of decimals that gives a pressure four
 // significant figures in kPa, as the local-saturation table prints it.
 func kPaDecimals(pa float64) int {
-	v, err := strconv.ParseFloat(strconv.FormatFloat(math.Abs(pa/1e3), 'e', 3, 64), 64)
-	if err != nil || !(v > 0) || math.IsInf(v, 0) {
+	a := math.Abs(pa / 1e3)
+	if !(a > 0) || math.IsInf(a, 0) {
 		return 3
 	}
-	return max(0, 3-int(math.Floor(math.Log10(v))))
+	return units.SigDecimals(a, 4)
 }

@@ -32,8 +32,7 @@ func PressureText(pa float64, written string) string {
 func pressureFigures(v float64) string {
 	d := 2
 	if a := math.Abs(v); a > 0 && a < 1 && !math.IsNaN(a) {
-		r, _ := strconv.ParseFloat(strconv.FormatFloat(a, 'e', 2, 64), 64)
-		d = max(d, 2-int(math.Floor(math.Log10(r))))
+		d = max(d, units.SigDecimals(a, 3))
 	}
 	s := strconv.FormatFloat(v, 'f', d, 64)
 	if strings.HasPrefix(s, "-") && strings.Trim(s, "-0.") == "" {

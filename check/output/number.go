@@ -52,8 +52,7 @@ func sigDecimals(vs []float64, n int) int {
 	if m == 0 || math.IsNaN(m) {
 		return n - 1
 	}
-	r, _ := strconv.ParseFloat(strconv.FormatFloat(m, 'e', n-1, 64), 64)
-	return max(n-1-int(math.Floor(math.Log10(r))), 0)
+	return units.SigDecimals(m, n)
 }
 
 // sigZeros is sig keeping trailing zeros: 3.10, not 3.1, beside a 4.23
